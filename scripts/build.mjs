@@ -1,0 +1,15 @@
+// Compiles the TypeScript sources into dist/ (and the WebAssembly kernels, when present).
+import { spawnSync } from 'node:child_process';
+import { existsSync, rmSync } from 'node:fs';
+import { fileURLToPath } from 'node:url';
+import path from 'node:path';
+
+const root = path.resolve(path.dirname(fileURLToPath(import.meta.url)), '..');
+const run = (cmd, args) => {
+  const r = spawnSync(cmd, args, { cwd: root, stdio: 'inherit' });
+  if (r.status !== 0) process.exit(r.status ?? 1);
+};
+rmSync(path.join(root, 'dist'), { recursive: true, force: true });
+run(process.execPath, [path.join(root, 'node_modules/typescript/bin/tsc'), '-p', 'tsconfig.build.json']);
+const wasmBuild = path.join(root, 'scripts/build-wasm.mjs');
+if (existsSync(wasmBuild)) run(process.execPath, [wasmBuild]);

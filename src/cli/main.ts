@@ -1,0 +1,67 @@
+#!/usr/bin/env node
+/**
+ * The quadatlas command line. Each command lives in its own file and is
+ * imported only when it runs, so `quadatlas --help` stays fast.
+ * Errors the user caused print one line and exit 2; anything else is a bug
+ * and prints its stack and exits 1.
+ */
+import { Command, CommanderError } from 'commander';
+import { UserError } from './user-error.js';
+import { toolVersion } from './version.js';
+
+/** A command module registers itself on the program. */
+export interface CommandModule {
+  register(program: Command): void;
+}
+
+/** name, one-line summary, loader: the summary is shown in --help without loading the module. */
+const COMMANDS: ReadonlyArray<readonly [string, string, () => Promise<CommandModule>]> = [
+  ['plate', 'render one image of a view of the c-plane', () => import('./plate.js')],
+  ['presets', 'list, show, check and render the sheets in presets/', () => import('./presets.js')],
+];
+
+export async function main(argv: readonly string[]): Promise<number> {
+  const program = new Command('quadatlas')
+    .description('Plates, components, the real slice and deep-zoom pyramids for z -> z^2 + c.')
+    .version(toolVersion(), '-V, --version')
+    .exitOverride()
+    .configureOutput({ writeErr: (s) => process.stderr.write(s) });
+  const wanted = argv[0];
+  for (const [name, summary, load] of COMMANDS) {
+    if (name === wanted) (await load()).register(program);
+    else program.command(name).description(summary).allowUnknownOption().helpOption(false);
+  }
+  try {
+    await program.parseAsync([...argv], { from: 'user' });
+    return typeof process.exitCode === 'number' ? process.exitCode : 0;
+  } catch (err) {
+    return reportError(err);
+  }
+}
+
+/** Prints a user error as one line and returns its exit code; rethrows bugs. */
+export function reportError(err: unknown): number {
+  if (err instanceof UserError) {
+    process.stderr.write(`quadatlas: ${err.message}\n`);
+    return 2;
+  }
+  if (err instanceof CommanderError) {
+    if (err.exitCode === 0) return 0;
+    // commander has already printed its one-line message.
+    return 2;
+  }
+  throw err;
+}
+
+const isMain = process.argv[1] !== undefined && import.meta.url.endsWith(process.argv[1].replace(/\\/g, '/').split('/').slice(-3).join('/'));
+if (isMain) {
+  main(process.argv.slice(2)).then(
+    (code) => {
+      process.exitCode = code;
+    },
+    (err: unknown) => {
+      process.stderr.write(`quadatlas: internal error: ${err instanceof Error ? (err.stack ?? err.message) : String(err)}\n`);
+      process.exitCode = 1;
+    },
+  );
+}

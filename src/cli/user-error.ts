@@ -1,0 +1,41 @@
+/**
+ * An error the user caused (bad flag, bad sheet, unwritable path, too large a
+ * plate). The command line prints its message as one line and exits with 2.
+ * Every such error is worded alike, after sharp's argument errors:
+ * "Expected <expected> for <field> but received <received>".
+ */
+export class UserError extends Error {
+  readonly field: string;
+  readonly expected: string;
+  readonly received: string;
+
+  constructor(field: string, expected: string, received: unknown) {
+    const shown = showValue(received);
+    super(`Expected ${expected} for ${field} but received ${shown}`);
+    this.name = 'UserError';
+    this.field = field;
+    this.expected = expected;
+    this.received = shown;
+  }
+}
+
+/** A short, one-line rendering of a received value for an error message. */
+export function showValue(value: unknown): string {
+  let s: string;
+  if (typeof value === 'string') s = JSON.stringify(value);
+  else if (value === undefined) s = 'nothing';
+  else {
+    try {
+      s = JSON.stringify(value) ?? String(value);
+    } catch {
+      s = String(value);
+    }
+  }
+  s = s.replace(/\s+/g, ' ');
+  return s.length > 80 ? `${s.slice(0, 77)}...` : s;
+}
+
+/** Throws a UserError naming the field unless the test holds. */
+export function expect(ok: boolean, field: string, expected: string, received: unknown): asserts ok {
+  if (!ok) throw new UserError(field, expected, received);
+}
