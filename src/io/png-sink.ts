@@ -1,0 +1,201 @@
+import { once } from 'node:events';
+import type { FileHandle } from 'node:fs/promises';
+import { open, rename, rm } from 'node:fs/promises';
+import { createDeflate } from 'node:zlib';
+import type { Deflate } from 'node:zlib';
+import {
+  ihdrChunk,
+  iccpChunk,
+  itxtChunk,
+  METADATA_KEYWORD,
+  physChunk,
+  PNG_SIGNATURE,
+  pngChunk,
+  srgbChunks,
+  textChunk,
+} from './png-chunk.js';
+import { filterScanline } from './png-filter.js';
+import type { RasterSink, RasterSpec } from './raster-sink.js';
+import { assertBand, assertRasterSpec } from './raster-sink.js';
+import { tempPathFor } from './temp-path.js';
+
+/** Largest IDAT chunk we write (bytes of data); PNG allows up to 2^31 - 1. */
+const IDAT_BYTES = 256 * 1024;
+/** Filtered bytes handed to deflate per write, so a tall band never becomes one huge buffer. */
+const FEED_BYTES = 1024 * 1024;
+
+/** Knobs for temporary PNGs (the TIFF sink's bands); plates use the defaults. */
+export interface PngSinkOptions {
+  /** zlib level, default 6. */
+  compressionLevel?: number;
+  /** A fixed filter type for every row instead of the per-row heuristic. */
+  filter?: 0 | 1 | 2 | 3 | 4;
+  /** Embed this ICC profile (iCCP, named "sRGB") instead of the sRGB/gAMA/cHRM chunks. */
+  iccProfile?: Uint8Array;
+}
+
+/**
+ * Opens a streaming PNG encoder (PNG spec, W3C 2nd ed. / ISO 15948) writing
+ * `spec` to `path`; see RasterSink for the band protocol.
+ *
+ * Layout: signature, IHDR, then before any IDAT: sRGB + gAMA + cHRM (or iCCP),
+ * pHYs when `spec.dpi` is set, iTXt "quadatlas-sheet" holding `spec.metadata`
+ * (compressed UTF-8), tEXt "Software"; then IDAT chunks of at most 256 KiB cut
+ * from one zlib stream (level 6) of the filtered scanlines, each row filtered
+ * by the minimum-sum-of-absolute-differences heuristic; IEND. 16-bit samples
+ * are written big-endian. Memory stays bounded by one band plus scratch rows,
+ * whatever the height; the deflate stream's backpressure is respected.
+ */
+export async function openPngSink(path: string, spec: RasterSpec, options: PngSinkOptions = {}): Promise<RasterSink> {
+  assertRasterSpec(spec);
+  const { width, height, depth, channels } = spec;
+  const bpp = (channels * depth) / 8;
+  const stride = width * bpp;
+  const tmp = tempPathFor(path);
+  const fh = await open(tmp, 'wx');
+
+  let state: 'open' | 'done' | 'failed' = 'open';
+  let rowsWritten = 0;
+  let fileChain: Promise<void> = Promise.resolve();
+  let fileError: unknown;
+  let pending: Buffer[] = [];
+  let pendingBytes = 0;
+  let deflate: Deflate | undefined;
+  let prev = new Uint8Array(stride);
+  let cur = new Uint8Array(stride);
+  const rowsPerFeed = Math.max(1, Math.floor(FEED_BYTES / (stride + 1)));
+
+  const queueWrite = (buf: Uint8Array): void => {
+    fileChain = fileChain.then(async () => {
+      if (fileError !== undefined) return;
+      try {
+        await writeAll(fh, buf);
+      } catch (err) {
+        fileError = err;
+      }
+    });
+  };
+  const cutIdat = (all: boolean): void => {
+    if (pendingBytes === 0 || (!all && pendingBytes < IDAT_BYTES)) return;
+    const joined = Buffer.concat(pending, pendingBytes);
+    let at = 0;
+    while (joined.length - at >= IDAT_BYTES || (all && at < joined.length)) {
+      const end = Math.min(joined.length, at + IDAT_BYTES);
+      queueWrite(pngChunk('IDAT', joined.subarray(at, end)));
+      at = end;
+    }
+    pending = at < joined.length ? [joined.subarray(at)] : [];
+    pendingBytes = joined.length - at;
+  };
+  const settle = async (): Promise<void> => {
+    await fileChain;
+    if (fileError !== undefined) throw fileError;
+  };
+  const fail = async (err: unknown): Promise<never> => {
+    if (state !== 'failed') {
+      state = 'failed';
+      deflate?.destroy();
+      await fileChain;
+      await fh.close().catch(() => undefined);
+      await rm(tmp, { force: true });
+    }
+    throw err;
+  };
+
+  try {
+    const head: Buffer[] = [PNG_SIGNATURE, ihdrChunk(width, height, depth, channels)];
+    if (options.iccProfile !== undefined) head.push(iccpChunk('sRGB', options.iccProfile));
+    else head.push(...srgbChunks());
+    if (spec.dpi !== undefined) head.push(physChunk(spec.dpi));
+    head.push(itxtChunk(METADATA_KEYWORD, spec.metadata), textChunk('Software', spec.software));
+    queueWrite(Buffer.concat(head));
+    await settle();
+  } catch (err) {
+    return fail(err);
+  }
+  deflate = createDeflate({ level: options.compressionLevel ?? 6 });
+  deflate.on('data', (chunk: Buffer) => {
+    pending.push(chunk);
+    pendingBytes += chunk.length;
+    cutIdat(false);
+  });
+  let deflateError: unknown;
+  deflate.on('error', (err) => {
+    deflateError = err;
+  });
+  const d = deflate;
+
+  const feed = async (buf: Uint8Array): Promise<void> => {
+    if (!d.write(buf)) await Promise.race([once(d, 'drain'), once(d, 'error')]);
+    if (deflateError !== undefined) throw deflateError;
+  };
+
+  return {
+    async writeRows(pixels, rowCount) {
+      if (state !== 'open') throw new Error(`PNG sink for ${path} is ${state === 'done' ? 'finished' : 'closed'}`);
+      try {
+        assertBand(spec, rowsWritten, pixels, rowCount);
+        const samplesPerRow = width * channels;
+        for (let r0 = 0; r0 < rowCount; r0 += rowsPerFeed) {
+          const rows = Math.min(rowsPerFeed, rowCount - r0);
+          const out = new Uint8Array(rows * (stride + 1));
+          for (let r = 0; r < rows; r++) {
+            const s = (r0 + r) * samplesPerRow;
+            if (depth === 8) cur.set(pixels.subarray(s, s + samplesPerRow));
+            else bigEndian16(cur, pixels as Uint16Array, s, samplesPerRow);
+            filterScanline(out, r * (stride + 1), cur, prev, bpp, options.filter);
+            const t = prev;
+            prev = cur;
+            cur = t;
+          }
+          await feed(out);
+          if (fileError !== undefined) throw fileError;
+        }
+        rowsWritten += rowCount;
+        await settle();
+      } catch (err) {
+        return fail(err);
+      }
+    },
+    async finish() {
+      if (state !== 'open') throw new Error(`PNG sink for ${path} is ${state === 'done' ? 'finished' : 'closed'}`);
+      try {
+        if (rowsWritten !== height) throw new Error(`PNG sink for ${path} got ${rowsWritten} of ${height} rows`);
+        const ended = once(d, 'end');
+        d.end();
+        await ended;
+        if (deflateError !== undefined) throw deflateError;
+        cutIdat(true);
+        queueWrite(pngChunk('IEND', new Uint8Array(0)));
+        await settle();
+        await fh.sync();
+        await fh.close();
+        await rename(tmp, path);
+        state = 'done';
+      } catch (err) {
+        return fail(err);
+      }
+    },
+    async abort() {
+      if (state !== 'open') return;
+      await fail(undefined).catch(() => undefined);
+    },
+  };
+}
+
+/** Writes `count` native 16-bit samples from `src` at `start` into `dst` as big-endian bytes (PNG spec 7.1). */
+function bigEndian16(dst: Uint8Array, src: Uint16Array, start: number, count: number): void {
+  for (let i = 0, j = 0; i < count; i++, j += 2) {
+    const v = src[start + i]!;
+    dst[j] = v >>> 8;
+    dst[j + 1] = v & 0xff;
+  }
+}
+
+async function writeAll(fh: FileHandle, buf: Uint8Array): Promise<void> {
+  let at = 0;
+  while (at < buf.length) {
+    const { bytesWritten } = await fh.write(buf, at, buf.length - at);
+    at += bytesWritten;
+  }
+}
