@@ -1,0 +1,107 @@
+import { oklabToLinear, oklchToOklab, type Vec3 } from './oklab.js';
+
+/**
+ * Exterior gradients: cyclic colour ramps for escaped samples, indexed by the
+ * smooth escape count mu (methods.md A1) through a periodic transform.
+ *
+ * Each gradient is a handful of OKLCh stops spaced evenly around one cycle;
+ * between stops the colour is interpolated linearly in OKLab (Ottosson 2020),
+ * where equal steps look roughly equally large, so bands stay even
+ * (methods.md F3). The last stop blends back into the first, so a cycle has no
+ * seam. Interpolating in OKLCh was dropped: its hue path swings through
+ * unrelated hues between distant stops. Stops were chosen by hand for this
+ * project; the coloured ones keep lightness mostly below 0.6 so the light
+ * period palette (period-palette.ts) stands out inside.
+ *
+ * Names (ours):
+ * - `tidepool`: deep navy, slate teal, sea-glass, dusk blue.
+ * - `heather`: peat brown, heather purple, bracken gold, moss.
+ * - `brass`: ink, verdigris, brass, bronze.
+ * - `vellum`: plain monochrome for print: paper white with a faint grey
+ *   ripple, no chroma.
+ */
+export const EXTERIOR_GRADIENTS = {
+  tidepool: [
+    [0.22, 0.05, 258],
+    [0.4, 0.065, 215],
+    [0.6, 0.08, 178],
+    [0.34, 0.07, 268],
+  ],
+  heather: [
+    [0.24, 0.035, 55],
+    [0.44, 0.11, 330],
+    [0.66, 0.11, 82],
+    [0.38, 0.06, 132],
+  ],
+  brass: [
+    [0.19, 0.02, 262],
+    [0.46, 0.07, 186],
+    [0.7, 0.1, 92],
+    [0.36, 0.065, 58],
+  ],
+  vellum: [
+    [0.97, 0, 0],
+    [0.88, 0, 0],
+  ],
+} as const satisfies Record<string, ReadonlyArray<readonly [number, number, number]>>;
+
+export type ExteriorGradientName = keyof typeof EXTERIOR_GRADIENTS;
+export const EXTERIOR_GRADIENT_NAMES = Object.keys(EXTERIOR_GRADIENTS) as ExteriorGradientName[];
+
+/** Stops converted once to OKLab, flat [L, a, b, L, a, b, ...] per gradient (never mutated). */
+const STOPS_OKLAB: Readonly<Record<ExteriorGradientName, Float64Array>> = (() => {
+  const table = {} as Record<ExteriorGradientName, Float64Array>;
+  for (const name of EXTERIOR_GRADIENT_NAMES) {
+    const stops = EXTERIOR_GRADIENTS[name];
+    const lab = new Float64Array(3 * stops.length);
+    const t = [0, 0, 0];
+    stops.forEach(([L, C, h], i) => {
+      oklchToOklab(L, C, h, t);
+      lab.set(t, 3 * i);
+    });
+    table[name] = lab;
+  }
+  return table;
+})();
+
+/**
+ * The position in [0, 1) along a gradient for smooth count mu:
+ * t = frac(u / cycle + offset), where u = ln(1 + mu) for `log` scale (bands
+ * widen gently as mu grows, so deep zooms with mu in the thousands still show
+ * several cycles) or u = mu for `linear` scale. cycle > 0 is in units of u.
+ */
+export function gradientPosition(mu: number, scale: 'log' | 'linear', cycle: number, offset: number): number {
+  const m = mu > 0 ? mu : 0;
+  const u = scale === 'log' ? Math.log1p(m) : m;
+  const x = u / cycle + offset;
+  const t = x - Math.floor(x);
+  return t < 1 ? t : 0;
+}
+
+/** The OKLab colour at position t in [0, 1) of a gradient, written into out. */
+export function gradientOklab(name: ExteriorGradientName, t: number, out: Vec3): Vec3 {
+  const lab = STOPS_OKLAB[name];
+  const n = lab.length / 3;
+  const x = t * n;
+  let i = Math.floor(x);
+  if (i >= n) i = n - 1;
+  if (i < 0) i = 0;
+  const f = x - i;
+  const j = i + 1 === n ? 0 : i + 1;
+  for (let c = 0; c < 3; c++) {
+    const a = lab[3 * i + c]!;
+    out[c] = a + (lab[3 * j + c]! - a) * f;
+  }
+  return out;
+}
+
+/** The linear-light sRGB colour at position t of a gradient (clipped to [0, 1]). */
+export function gradientLinear(name: ExteriorGradientName, t: number, out: Vec3): Vec3 {
+  gradientOklab(name, t, out);
+  oklabToLinear(out[0]!, out[1]!, out[2]!, out);
+  for (let c = 0; c < 3; c++) {
+    const v = out[c]!;
+    out[c] = v < 0 ? 0 : v > 1 ? 1 : v;
+  }
+  return out;
+}

@@ -1,0 +1,127 @@
+import { linearToHex, maxChromaInGamut, oklabDistance, oklabToLinear, oklchToOklab } from './oklab.js';
+
+/**
+ * The period palette: categorical colours for the periods of attracting cycles
+ * inside the set (period 1 = main cardioid, 2 = the disk left of it, ...).
+ *
+ * How it is built (once, at import, deterministically; never mutated):
+ * 1. Candidates: OKLCh colours on a grid of lightness levels inside the band
+ *    [PERIOD_LIGHTNESS_MIN, PERIOD_LIGHTNESS_MAX] and hues every 7.5 degrees,
+ *    each at two chroma levels (55% and 90% of the largest chroma inside the
+ *    sRGB gamut at that L and h, capped at 0.19), so every colour is in gamut
+ *    by construction.
+ * 2. Period 1 takes a fixed seed (a clear sea-green); then each period p in
+ *    turn takes the candidate that maximises its weighted minimum OKLab
+ *    distance to the colours already chosen. Periods that meet in the plane
+ *    (q = p - 1, p - 2, and q a divisor of p: a period-q component carries
+ *    period-kq bulbs on its boundary) count at full distance; other pairs at
+ *    NEIGHBOUR_RELIEF times their distance, so they matter less but still
+ *    repel. Ties break toward the lower candidate index, so the table is the
+ *    same everywhere. This is farthest-point sampling (Gonzalez 1985,
+ *    "Clustering to minimize the maximum intercluster distance") with
+ *    weights; a golden-angle hue walk was tried and dropped because p and 2p
+ *    landed close in hue for several p.
+ * 3. Periods above PERIOD_PALETTE_SIZE reuse the table cyclically:
+ *    colour(p) = colour(((p - 1) mod N) + 1).
+ *
+ * The lightness band is light (0.60..0.88) so interior islands read against
+ * the exterior gradients, which keep most of their length darker than 0.6,
+ * and against the dark edge ink at the boundary.
+ */
+export const PERIOD_PALETTE_SIZE = 64;
+export const PERIOD_LIGHTNESS_MIN = 0.6;
+export const PERIOD_LIGHTNESS_MAX = 0.88;
+
+const LIGHTNESS_LEVELS = [0.6, 0.67, 0.74, 0.81, 0.88];
+const HUE_STEP = 7.5;
+const CHROMA_FRACTIONS = [0.55, 0.9];
+const CHROMA_CAP = 0.19;
+const NEIGHBOUR_RELIEF = 1.6;
+/** Period 1's seed colour in OKLCh. */
+const SEED = [0.74, 0.12, 170] as const;
+
+/** True when periods p and q (q < p) are likely to touch in the plane. */
+export function periodsAdjacent(p: number, q: number): boolean {
+  return p - q <= 2 || p % q === 0;
+}
+
+function buildTable(): { lab: Float64Array; linear: Float64Array } {
+  const cands: number[] = [];
+  for (const L of LIGHTNESS_LEVELS) {
+    for (let h = 0; h < 360; h += HUE_STEP) {
+      const cmax = Math.min(CHROMA_CAP, maxChromaInGamut(L, h));
+      for (const f of CHROMA_FRACTIONS) {
+        const lab = oklchToOklab(L, f * cmax, h, [0, 0, 0]);
+        cands.push(lab[0]!, lab[1]!, lab[2]!);
+      }
+    }
+  }
+  const n = cands.length / 3;
+  const lab = new Float64Array(3 * PERIOD_PALETTE_SIZE);
+  oklchToOklab(SEED[0], SEED[1], SEED[2], lab);
+  const c = [0, 0, 0];
+  const q = [0, 0, 0];
+  for (let p = 2; p <= PERIOD_PALETTE_SIZE; p++) {
+    let best = -1;
+    let bestScore = -Infinity;
+    for (let k = 0; k < n; k++) {
+      c[0] = cands[3 * k]!;
+      c[1] = cands[3 * k + 1]!;
+      c[2] = cands[3 * k + 2]!;
+      let score = Infinity;
+      for (let r = 1; r < p; r++) {
+        q[0] = lab[3 * (r - 1)]!;
+        q[1] = lab[3 * (r - 1) + 1]!;
+        q[2] = lab[3 * (r - 1) + 2]!;
+        const d = oklabDistance(c, q) * (periodsAdjacent(p, r) ? 1 : NEIGHBOUR_RELIEF);
+        if (d < score) score = d;
+      }
+      if (score > bestScore) {
+        bestScore = score;
+        best = k;
+      }
+    }
+    lab[3 * (p - 1)] = cands[3 * best]!;
+    lab[3 * (p - 1) + 1] = cands[3 * best + 1]!;
+    lab[3 * (p - 1) + 2] = cands[3 * best + 2]!;
+  }
+  const linear = new Float64Array(3 * PERIOD_PALETTE_SIZE);
+  const t = [0, 0, 0];
+  for (let i = 0; i < PERIOD_PALETTE_SIZE; i++) {
+    oklabToLinear(lab[3 * i]!, lab[3 * i + 1]!, lab[3 * i + 2]!, t);
+    // Clip the last ulps: candidates were chosen inside the gamut by bisection.
+    for (let ch = 0; ch < 3; ch++) linear[3 * i + ch] = Math.min(1, Math.max(0, t[ch]!));
+  }
+  return { lab, linear };
+}
+
+const TABLE = buildTable();
+
+/** Index into the table for period p >= 1 (cycling beyond the table). */
+function slot(p: number): number {
+  return (p - 1) % PERIOD_PALETTE_SIZE;
+}
+
+/** The OKLab colour of period p (p >= 1), written into out. */
+export function periodOklab(p: number, out: { [i: number]: number }): { [i: number]: number } {
+  const s = 3 * slot(p);
+  out[0] = TABLE.lab[s]!;
+  out[1] = TABLE.lab[s + 1]!;
+  out[2] = TABLE.lab[s + 2]!;
+  return out;
+}
+
+/** The linear-light sRGB colour of period p (p >= 1), written into out. */
+export function periodLinear(p: number, out: { [i: number]: number }): { [i: number]: number } {
+  const s = 3 * slot(p);
+  out[0] = TABLE.linear[s]!;
+  out[1] = TABLE.linear[s + 1]!;
+  out[2] = TABLE.linear[s + 2]!;
+  return out;
+}
+
+/** The colour of period p as '#rrggbb' (sRGB, 8 bits), for legends and metadata. */
+export function periodHex(p: number): string {
+  const s = 3 * slot(p);
+  return linearToHex(TABLE.linear[s]!, TABLE.linear[s + 1]!, TABLE.linear[s + 2]!);
+}
