@@ -19,10 +19,16 @@ export class UserError extends Error {
   }
 }
 
+/** A description of what was received, shown as written (not quoted as a value). */
+export class Received {
+  constructor(readonly text: string) {}
+}
+
 /** A short, one-line rendering of a received value for an error message. */
 export function showValue(value: unknown): string {
   let s: string;
-  if (typeof value === 'string') s = JSON.stringify(value);
+  if (value instanceof Received) s = value.text;
+  else if (typeof value === 'string') s = JSON.stringify(value);
   else if (value === undefined) s = 'nothing';
   else {
     try {

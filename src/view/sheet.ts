@@ -1,0 +1,196 @@
+/**
+ * A sheet: one JSON file holding a view, its colouring and its output. Flags
+ * on the command line override fields of the sheet. `parseSheet` checks a
+ * plain JSON value against the schema below and returns a complete sheet with
+ * every default filled in; each error names the field, what was expected and
+ * what was received.
+ *
+ * ```json
+ * {
+ *   "title": "The whole set",                 // optional, free text
+ *   "note": "...",                            // optional, free text
+ *   "view": { "re": "-0.75", "im": "0", "span": "3.2", "rotation": 0 },
+ *   "pixels": { "width": 1600, "height": 1200 },   // or "print": { "width_mm": 420, "height_mm": 297 }
+ *   "dpi": 300,
+ *   "iterations": 4000,
+ *   "samples": 16,                            // samples per pixel where refinement is needed (1 or a square)
+ *   "depth": 8,                               // 8 or 16 bits per channel
+ *   "colour": { ... },                        // see src/colour/colour-settings.ts
+ *   "output": { "file": "out/name.png", "data": "out/name-data", "sidecar": true },
+ *   "startup": true                           // rendered by `npm start`
+ * }
+ * ```
+ * Decimal fields (view.re, view.im, view.span) must be JSON strings, so no
+ * digit is lost to a double before the precision of the view is known.
+ */
+import { Decimal } from 'decimal.js';
+import { Received, UserError } from '../cli/user-error.js';
+import { parseColourSettings, type ColourSettings } from '../colour/colour-settings.js';
+
+export interface Sheet {
+  readonly title: string;
+  readonly note: string;
+  readonly view: { readonly re: string; readonly im: string; readonly span: string; readonly rotation: number };
+  readonly width: number;
+  readonly height: number;
+  readonly dpi: number;
+  readonly iterations: number;
+  readonly samples: number;
+  readonly depth: 8 | 16;
+  readonly colour: ColourSettings;
+  readonly output: { readonly file: string; readonly data: string | null; readonly sidecar: boolean };
+  readonly startup: boolean;
+}
+
+/** Largest side in pixels: beyond it a plate is refused before any work. */
+export const MAX_SIDE = 1_000_000;
+/** Iteration counts are stored as int32 by the kernels. */
+export const MAX_ITERATIONS = 2 ** 31 - 2;
+export const MAX_SAMPLES = 256;
+export const DEFAULT_DPI = 300;
+
+const DECIMAL = /^[+-]?(\d+\.?\d*|\.\d+)([eE][+-]?\d+)?$/;
+const TOP_KEYS = ['title', 'note', 'view', 'pixels', 'print', 'dpi', 'iterations', 'samples', 'depth', 'colour', 'output', 'startup'];
+
+type Json = Record<string, unknown>;
+
+function isObject(v: unknown): v is Json {
+  return typeof v === 'object' && v !== null && !Array.isArray(v);
+}
+
+function noUnknownKeys(obj: Json, allowed: readonly string[], field: string): void {
+  for (const key of Object.keys(obj)) {
+    if (!allowed.includes(key)) {
+      const where = field === '' ? key : `${field}.${key}`;
+      throw new UserError(where, `one of the fields ${allowed.join(', ')}${field === '' ? '' : ` in ${field}`}`, new Received(`an unknown field "${key}"`));
+    }
+  }
+}
+
+/** A decimal string, validated; kept as written (trailing zeros and all). */
+export function parseDecimalString(value: unknown, field: string): string {
+  if (typeof value !== 'string' || !DECIMAL.test(value.trim())) {
+    throw new UserError(field, 'a decimal number written as a string (e.g. "-0.75")', value);
+  }
+  return value.trim();
+}
+
+export function parseInteger(value: unknown, field: string, min: number, max: number): number {
+  if (typeof value !== 'number' || !Number.isInteger(value) || value < min || value > max) {
+    throw new UserError(field, `an integer between ${min} and ${max}`, value);
+  }
+  return value;
+}
+
+export function parseNumber(value: unknown, field: string, min: number, max: number): number {
+  if (typeof value !== 'number' || !Number.isFinite(value) || value < min || value > max) {
+    throw new UserError(field, `a number between ${min} and ${max}`, value);
+  }
+  return value;
+}
+
+function parseSpan(value: unknown, field: string): string {
+  const text = parseDecimalString(value, field);
+  if (!new Decimal(text).isPositive() || new Decimal(text).isZero()) {
+    throw new UserError(field, 'a positive decimal span (width of the view in c units)', value);
+  }
+  if (new Decimal(text).greaterThan(64)) throw new UserError(field, 'a span of at most 64 (the set lies within |c| <= 2)', value);
+  return text;
+}
+
+function parseSamples(value: unknown, field: string): number {
+  const k = parseInteger(value, field, 1, MAX_SAMPLES);
+  const root = Math.round(Math.sqrt(k));
+  if (root * root !== k) throw new UserError(field, 'a square number of samples per pixel (1, 4, 9, 16, ... 256)', value);
+  return k;
+}
+
+/** Pixels from a print size in millimetres at a given dpi. */
+export function printPixels(mm: number, dpi: number): number {
+  return Math.max(1, Math.round((mm / 25.4) * dpi));
+}
+
+/** Checks a parsed JSON sheet and fills in defaults. `name` becomes the default output file name. */
+export function parseSheet(value: unknown, name = 'plate'): Sheet {
+  if (!isObject(value)) throw new UserError('sheet', 'a JSON object', value);
+  noUnknownKeys(value, TOP_KEYS, '');
+  const text = (v: unknown, field: string): string => {
+    if (v === undefined) return '';
+    if (typeof v !== 'string') throw new UserError(field, 'a string', v);
+    return v;
+  };
+  const viewIn = value['view'] ?? {};
+  if (!isObject(viewIn)) throw new UserError('view', 'an object with re, im, span (and rotation)', viewIn);
+  noUnknownKeys(viewIn, ['re', 'im', 'span', 'rotation'], 'view');
+  const view = {
+    re: parseDecimalString(viewIn['re'] ?? '-0.75', 'view.re'),
+    im: parseDecimalString(viewIn['im'] ?? '0', 'view.im'),
+    span: parseSpan(viewIn['span'] ?? '3.2', 'view.span'),
+    rotation: parseNumber(viewIn['rotation'] ?? 0, 'view.rotation', -360, 360),
+  };
+  const dpi = parseNumber(value['dpi'] ?? DEFAULT_DPI, 'dpi', 1, 10_000);
+  let width = 1200;
+  let height = 900;
+  if (value['pixels'] !== undefined && value['print'] !== undefined) {
+    throw new UserError('print', 'either pixels or print, not both', new Received('both'));
+  }
+  if (value['pixels'] !== undefined) {
+    const px = value['pixels'];
+    if (!isObject(px)) throw new UserError('pixels', 'an object { "width": W, "height": H }', px);
+    noUnknownKeys(px, ['width', 'height'], 'pixels');
+    width = parseInteger(px['width'], 'pixels.width', 1, MAX_SIDE);
+    height = parseInteger(px['height'], 'pixels.height', 1, MAX_SIDE);
+  } else if (value['print'] !== undefined) {
+    const pr = value['print'];
+    if (!isObject(pr)) throw new UserError('print', 'an object { "width_mm": W, "height_mm": H }', pr);
+    noUnknownKeys(pr, ['width_mm', 'height_mm'], 'print');
+    width = printPixels(parseNumber(pr['width_mm'], 'print.width_mm', 1, 100_000), dpi);
+    height = printPixels(parseNumber(pr['height_mm'], 'print.height_mm', 1, 100_000), dpi);
+    if (width > MAX_SIDE || height > MAX_SIDE) throw new UserError('print', `a print size of at most ${MAX_SIDE} pixels a side at ${dpi} dpi`, new Received(`${width}x${height} pixels`));
+  }
+  const outIn = value['output'] ?? {};
+  if (!isObject(outIn)) throw new UserError('output', 'an object { "file": ..., "data": ..., "sidecar": ... }', outIn);
+  noUnknownKeys(outIn, ['file', 'data', 'sidecar'], 'output');
+  const file = outIn['file'] === undefined ? `out/${name}.png` : text(outIn['file'], 'output.file');
+  if (!/\.(png|tif|tiff)$/i.test(file)) throw new UserError('output.file', 'a file name ending in .png, .tif or .tiff', file);
+  const data = outIn['data'] === undefined || outIn['data'] === null ? null : text(outIn['data'], 'output.data');
+  const sidecar = outIn['sidecar'] ?? true;
+  if (typeof sidecar !== 'boolean') throw new UserError('output.sidecar', 'true or false', sidecar);
+  const depth = value['depth'] ?? 8;
+  if (depth !== 8 && depth !== 16) throw new UserError('depth', '8 or 16', depth);
+  const startup = value['startup'] ?? false;
+  if (typeof startup !== 'boolean') throw new UserError('startup', 'true or false', startup);
+  return {
+    title: text(value['title'], 'title'),
+    note: text(value['note'], 'note'),
+    view,
+    width,
+    height,
+    dpi,
+    iterations: parseInteger(value['iterations'] ?? 2000, 'iterations', 1, MAX_ITERATIONS),
+    samples: parseSamples(value['samples'] ?? 9, 'samples'),
+    depth,
+    colour: parseColourSettings(value['colour'] ?? {}, 'colour'),
+    output: { file, data, sidecar },
+    startup,
+  };
+}
+
+/**
+ * The part of a sheet that determines the pixels, as recorded in a plate's
+ * metadata: everything but where the files go. Re-rendering from it gives the
+ * same bytes.
+ */
+export function renderRecord(sheet: Sheet): Json {
+  return {
+    title: sheet.title,
+    note: sheet.note,
+    view: { ...sheet.view },
+    pixels: { width: sheet.width, height: sheet.height },
+    dpi: sheet.dpi,
+    iterations: sheet.iterations,
+    samples: sheet.samples,
+    depth: sheet.depth,
+    colour: sheet.colour as unknown as Json,
+  };
+}
