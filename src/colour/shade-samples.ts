@@ -1,0 +1,98 @@
+import type { SampleSet } from '../plane/sample-set.js';
+import type { ColourSettings } from './colour-settings.js';
+import { gradientLinear, gradientPosition } from './exterior-gradients.js';
+import { hexToLinear } from './oklab.js';
+import { periodLinear } from './period-palette.js';
+
+/**
+ * The fraction of a sample's own colour kept at distance `delta` pixels from
+ * the boundary, for edge width k pixels: tanh(delta / k) (methods.md F2, after
+ * Chéritat, "Techniques for computer generated pictures in complex dynamics",
+ * and Quilez, "distance rendering for fractals"). 0 on the boundary, rising
+ * monotonically to 1; k = 0 turns shading off. A clamp(delta / k, 0, 1) ramp
+ * was tried and dropped: its kink at delta = k shows as a faint contour line
+ * parallel to every filament. A non-finite distance (NaN, where the estimate
+ * could not be computed) leaves the colour alone.
+ */
+export function edgeKeep(distance: number, pixelSpacing: number, k: number): number {
+  if (k <= 0 || !(distance >= 0) || distance === Infinity) return 1;
+  return Math.tanh(distance / pixelSpacing / k);
+}
+
+/**
+ * Colours samples offset .. offset + count - 1 of a SampleSet into linear-light
+ * sRGB, three values per sample at out[3 i .. 3 i + 2] for i in 0..count-1.
+ *
+ * - Escaped (period 0): the exterior gradient at gradientPosition(mu), then
+ *   blended toward `edgeColour` near the boundary by edgeKeep(exterior
+ *   distance) with width `edge`. Direction: with the default black ink, a
+ *   smaller distance gives a darker sample.
+ * - Interior (period p > 0): the period colour (or `interiorColour` for
+ *   `solid`), scaled by the multiplier factors of the interior style, then
+ *   blended toward `edgeColour` by edgeKeep(interior distance) with width
+ *   `interiorEdge`.
+ * - Undecided (period -1): `undecidedColour`.
+ *
+ * All blending is in linear light (methods.md F3), so averaging sub-samples
+ * afterwards is physically meaningful. Pure and deterministic: the same inputs
+ * give the same doubles (see oklab.ts on the transcendental functions); each
+ * sample is coloured exactly once, in the worker, through this one path.
+ */
+export function shadeSamples(
+  samples: SampleSet,
+  offset: number,
+  count: number,
+  pixelSpacing: number,
+  settings: ColourSettings,
+  out: Float64Array,
+): void {
+  const ink = hexToLinear(settings.edgeColour, new Float64Array(3));
+  const solid = hexToLinear(settings.interiorColour, new Float64Array(3));
+  const undecided = hexToLinear(settings.undecidedColour, new Float64Array(3));
+  const c = new Float64Array(3);
+  const { exterior, countScale, cycle, edge, interiorEdge } = settings;
+  const gradientOffset = settings.offset;
+  const style = settings.interior;
+  const useDepth = style === 'period-depth' || style === 'period-depth-angle';
+  const useAngle = style === 'period-angle' || style === 'period-depth-angle';
+  const { period, smooth, distance, mulRe, mulIm } = samples;
+
+  for (let i = 0; i < count; i++) {
+    const k = offset + i;
+    const p = period[k]!;
+    let keep = 1;
+    if (p === 0) {
+      gradientLinear(exterior, gradientPosition(smooth[k]!, countScale, cycle, gradientOffset), c);
+      keep = edgeKeep(distance[k]!, pixelSpacing, edge);
+    } else if (p > 0) {
+      if (style === 'solid') c.set(solid);
+      else periodLinear(p, c);
+      let factor = 1;
+      if (useDepth) {
+        const m = Math.hypot(mulRe[k]!, mulIm[k]!);
+        factor *= 0.4 + 0.6 * (m < 1 ? m : 1);
+      }
+      if (useAngle) {
+        let a = Math.atan2(mulIm[k]!, mulRe[k]!) / (2 * Math.PI);
+        if (a < 0) a += 1;
+        factor *= 0.7 + 0.3 * a;
+      }
+      c[0] = c[0]! * factor;
+      c[1] = c[1]! * factor;
+      c[2] = c[2]! * factor;
+      keep = edgeKeep(distance[k]!, pixelSpacing, interiorEdge);
+    } else {
+      c.set(undecided);
+    }
+    const o = 3 * i;
+    if (keep === 1) {
+      out[o] = c[0]!;
+      out[o + 1] = c[1]!;
+      out[o + 2] = c[2]!;
+    } else {
+      out[o] = ink[0]! + (c[0]! - ink[0]!) * keep;
+      out[o + 1] = ink[1]! + (c[1]! - ink[1]!) * keep;
+      out[o + 2] = ink[2]! + (c[2]! - ink[2]!) * keep;
+    }
+  }
+}
