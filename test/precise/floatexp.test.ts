@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import Decimal from 'decimal.js';
+import { Decimal } from 'decimal.js';
 import {
   add, compare, div, exponentOf, floatExp, fromDecimalString, ldexp, mul, set, sqrt, sub, toNumber,
 } from '../../src/precise/floatexp.js';
