@@ -1,0 +1,50 @@
+import type { ColourSettings } from '../colour/colour-settings.js';
+import type { DoubleGrid } from '../view/view.js';
+
+/**
+ * Everything a worker needs to render any tile of a plate: plain data only
+ * (it crosses the worker boundary by structured clone once, at start-up).
+ */
+export interface PlateJob {
+  readonly grid: DoubleGrid;
+  readonly iterations: number;
+  readonly escapeRadius: number;
+  /** Periodicity tolerance in z units (methods.md A4), tied to the pixel spacing. */
+  readonly periodTolerance: number;
+  /** Samples per refined pixel (a square number; 1 turns refinement off). */
+  readonly samples: number;
+  readonly depth: 8 | 16;
+  readonly colour: ColourSettings;
+  readonly dpi: number;
+  /** Whether to return the per-pixel data arrays (for --data). */
+  readonly withData: boolean;
+}
+
+/** Per-tile counts, summed over tiles by the main thread (order-independent). */
+export interface TileStats {
+  escaped: number;
+  interior: number;
+  undecided: number;
+  /** Pixels that received extra samples. */
+  refined: number;
+  /** Kernel samples taken (centre samples, apron included, plus refinement samples). */
+  samples: number;
+  /** periods[p] = number of interior pixels of period p. */
+  periods: Record<number, number>;
+}
+
+export function emptyStats(): TileStats {
+  return { escaped: 0, interior: 0, undecided: 0, refined: 0, samples: 0, periods: {} };
+}
+
+export function addStats(into: TileStats, from: TileStats): void {
+  into.escaped += from.escaped;
+  into.interior += from.interior;
+  into.undecided += from.undecided;
+  into.refined += from.refined;
+  into.samples += from.samples;
+  for (const [p, n] of Object.entries(from.periods)) {
+    const k = Number(p);
+    into.periods[k] = (into.periods[k] ?? 0) + n;
+  }
+}

@@ -1,0 +1,122 @@
+/**
+ * Renders a plate strip by strip over a worker pool and hands finished rows
+ * to the sinks, top to bottom. Memory is bounded by two strips (the one being
+ * written and the one being computed), never the whole image.
+ */
+import type { RasterSink } from '../io/raster-sink.js';
+import { planStrips, type Strip } from '../view/tile-plan.js';
+import type { TileDoneMessage } from '../workers/messages.js';
+import { addStats, emptyStats, type PlateJob, type TileStats } from './plate-job.js';
+import { WorkerPool } from './worker-pool.js';
+
+/** A sink for one per-pixel data array, written as rows (an NPY file). */
+export interface DataSink {
+  writeRows(values: ArrayBufferView, rowCount: number): Promise<void>;
+  finish(): Promise<void>;
+  abort(): Promise<void>;
+}
+
+export interface PlateSinks {
+  readonly image: RasterSink;
+  readonly period?: DataSink;
+  readonly smooth?: DataSink;
+  readonly distance?: DataSink;
+  readonly interior?: DataSink;
+}
+
+export interface RenderOptions {
+  readonly workers: number;
+  readonly tileSize: number;
+  /** Bytes one strip may hold (pixels plus data); sets the strip height. */
+  readonly stripBudget: number;
+  readonly onProgress?: (tilesDone: number, tilesTotal: number) => void;
+}
+
+export const DEFAULT_TILE_SIZE = 64;
+export const DEFAULT_STRIP_BUDGET = 96 * 1024 * 1024;
+
+/** Bytes a strip holds per pixel: encoded RGB plus, with data, int32 + 2 x float64 + uint8. */
+export function bytesPerPixel(job: PlateJob): number {
+  return 3 * (job.depth / 8) + (job.withData ? 21 : 0);
+}
+
+/** Strip height in rows for a width and budget (a whole number of tiles, at least one). */
+export function stripRows(width: number, job: PlateJob, tileSize: number, budget: number): number {
+  const rows = Math.floor(budget / (width * bytesPerPixel(job)));
+  return Math.max(tileSize, Math.floor(rows / tileSize) * tileSize);
+}
+
+interface StripBuffers {
+  pixels: Uint8Array | Uint16Array;
+  period?: Int32Array;
+  smooth?: Float64Array;
+  distance?: Float64Array;
+  interior?: Uint8Array;
+}
+
+function allocate(job: PlateJob, width: number, rows: number): StripBuffers {
+  const n = width * rows;
+  const b: StripBuffers = { pixels: job.depth === 16 ? new Uint16Array(n * 3) : new Uint8Array(n * 3) };
+  if (job.withData) {
+    b.period = new Int32Array(n);
+    b.smooth = new Float64Array(n);
+    b.distance = new Float64Array(n);
+    b.interior = new Uint8Array(n);
+  }
+  return b;
+}
+
+function place(b: StripBuffers, strip: Strip, width: number, t: TileDoneMessage): void {
+  const { x0, y0, w, h } = t.tile;
+  for (let j = 0; j < h; j++) {
+    const row = (y0 - strip.y0 + j) * width + x0;
+    b.pixels.set(t.pixels.subarray(j * w * 3, (j + 1) * w * 3), row * 3);
+    if (b.period && t.period) b.period.set(t.period.subarray(j * w, (j + 1) * w), row);
+    if (b.smooth && t.smooth) b.smooth.set(t.smooth.subarray(j * w, (j + 1) * w), row);
+    if (b.distance && t.distance) b.distance.set(t.distance.subarray(j * w, (j + 1) * w), row);
+    if (b.interior && t.interior) b.interior.set(t.interior.subarray(j * w, (j + 1) * w), row);
+  }
+}
+
+async function writeStrip(sinks: PlateSinks, b: StripBuffers, rows: number): Promise<void> {
+  await sinks.image.writeRows(b.pixels, rows);
+  if (sinks.period && b.period) await sinks.period.writeRows(b.period, rows);
+  if (sinks.smooth && b.smooth) await sinks.smooth.writeRows(b.smooth, rows);
+  if (sinks.distance && b.distance) await sinks.distance.writeRows(b.distance, rows);
+  if (sinks.interior && b.interior) await sinks.interior.writeRows(b.interior, rows);
+}
+
+/** Renders the whole plate into the sinks (which the caller finishes or aborts). */
+export async function renderPlate(job: PlateJob, sinks: PlateSinks, options: RenderOptions): Promise<TileStats> {
+  const { width, height } = job.grid;
+  const rows = stripRows(width, job, options.tileSize, options.stripBudget);
+  const strips = planStrips(width, height, options.tileSize, rows);
+  const total = strips.reduce((s, st) => s + st.tiles.length, 0);
+  const pool = new WorkerPool(Math.max(1, options.workers), job);
+  const stats = emptyStats();
+  let done = 0;
+  options.onProgress?.(0, total);
+  try {
+    let writing: Promise<void> = Promise.resolve();
+    for (const strip of strips) {
+      const buffers = allocate(job, width, strip.h);
+      const results = strip.tiles.map((tile) =>
+        pool.render(tile).then((t) => {
+          place(buffers, strip, width, t);
+          addStats(stats, t.stats);
+          done++;
+          options.onProgress?.(done, total);
+        }),
+      );
+      // Compute this strip while the previous one is written.
+      const settled = await Promise.allSettled([writing, ...results]);
+      const bad = settled.find((s): s is PromiseRejectedResult => s.status === 'rejected');
+      if (bad) throw bad.reason;
+      writing = writeStrip(sinks, buffers, strip.h);
+    }
+    await writing;
+  } finally {
+    await pool.close();
+  }
+  return stats;
+}
