@@ -1,0 +1,36 @@
+/**
+ * The quartic family x -> r - x^4: a maximum of order 4 at x = 0, so it sits
+ * in a different universality class and its delta differs from the logistic
+ * one (about 7.28; methods.md E8).
+ * Superstable fixed point r = 0; full chaos r = 2^(1/3), where the critical
+ * value r lands on the fixed point r - r^4 = -r.
+ */
+import type { UnimodalFamily } from '../unimodal-family.js';
+
+export const quartic: UnimodalFamily = {
+  name: 'quartic',
+  formula: 'x -> r - x^4',
+  parameter: 'r',
+  maximumOrder: 4,
+  critical: '0',
+  range: ['0', '1.2599210498948731647672106072782283505702514647015'],
+  stateRange: [-1.26, 1.26],
+  cascadeSeed: ['0', '1'],
+  deltaGuess: '7.28', // methods.md E8, from memory
+  f: (x, r) => r - x * x * x * x,
+  dfdx: (x) => -4 * x * x * x,
+  jet(x, r, D) {
+    const x2 = x.times(x);
+    return {
+      f: r.minus(x2.times(x2)),
+      fx: x2.times(x).times(-4),
+      fr: new D(1),
+      fxx: x2.times(-12),
+      fxr: new D(0),
+    };
+  },
+  value: (x, r) => {
+    const x2 = x.times(x);
+    return r.minus(x2.times(x2));
+  },
+};
