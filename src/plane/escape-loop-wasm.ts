@@ -1,0 +1,85 @@
+import type { EscapeLoop } from './escape-loop.js';
+import { WASM_BASE64 } from './wasm/escape-loop-simd-bytes.js';
+
+/**
+ * The part of the WebAssembly JS API used here, declared locally because the
+ * project's lib (ES2022, no DOM) carries no WebAssembly types.
+ */
+interface WasmApi {
+  validate(bytes: Uint8Array<ArrayBuffer>): boolean;
+  Module: new (bytes: Uint8Array<ArrayBuffer>) => object;
+  Instance: new (module: object, imports: object) => { readonly exports: object };
+}
+
+/** What the compiled module (wasm/escape-loop-simd.as) exports. */
+interface SimdExports {
+  readonly memory: { readonly buffer: ArrayBuffer };
+  capacity(): number;
+  crPointer(): number;
+  ciPointer(): number;
+  iterationsPointer(): number;
+  zRePointer(): number;
+  zImPointer(): number;
+  cyclePointer(): number;
+  statusPointer(): number;
+  run(count: number, maxIterations: number, escapeRadius2: number, tolerance2: number): void;
+}
+
+/** The largest iteration limit the module's 32-bit counter holds. */
+const MAX_LIMIT = 0x7fffffff;
+
+function decodeBase64(text: string): Uint8Array<ArrayBuffer> {
+  const binary = atob(text);
+  const bytes = new Uint8Array(binary.length);
+  for (let i = 0; i < binary.length; i++) bytes[i] = binary.charCodeAt(i);
+  return bytes;
+}
+
+/**
+ * The WebAssembly SIMD twin of `escapeLoop` (escape-loop.ts): the same loop,
+ * with the same operation order and results bit for bit, run on 8 samples
+ * at a time as 4 vectors of f64x2 in lock-step (wasm/escape-loop-simd.as).
+ * Brent's periodicity check (BIT 20 (1980) 176-184; methods.md A4) keeps one
+ * save schedule per group of 8, which is every lane's own schedule because
+ * the lanes' counters advance together.
+ *
+ * Compiles and instantiates synchronously; returns undefined when this
+ * runtime has no WebAssembly or no SIMD. Each call makes a fresh instance
+ * with its own scratch memory (fixed: inputs are copied in and results out
+ * in chunks of the module's capacity, so a call allocates nothing), to be
+ * used by one thread. `maxIterations` is clamped to [0, 2^31 - 1].
+ */
+export function loadWasmEscapeLoop(): EscapeLoop | undefined {
+  const wasm = (globalThis as { WebAssembly?: WasmApi }).WebAssembly;
+  if (wasm === undefined) return undefined;
+  const bytes = decodeBase64(WASM_BASE64);
+  if (!wasm.validate(bytes)) return undefined;
+  const instance = new wasm.Instance(new wasm.Module(bytes), {});
+  const simd = instance.exports as unknown as SimdExports;
+  const capacity = simd.capacity();
+  const buffer = simd.memory.buffer;
+  const inRe = new Float64Array(buffer, simd.crPointer(), capacity);
+  const inIm = new Float64Array(buffer, simd.ciPointer(), capacity);
+  const iterations = new Int32Array(buffer, simd.iterationsPointer(), capacity);
+  const zRe = new Float64Array(buffer, simd.zRePointer(), capacity);
+  const zIm = new Float64Array(buffer, simd.zImPointer(), capacity);
+  const cycle = new Int32Array(buffer, simd.cyclePointer(), capacity);
+  const status = new Uint8Array(buffer, simd.statusPointer(), capacity);
+
+  return (cr, ci, count, maxIterations, escapeRadius2, tolerance2, out) => {
+    // n < limit for integer n is n < ceil(limit); NaN gives 0, as in the JS loop.
+    const limit = Math.min(MAX_LIMIT, Math.max(0, Math.ceil(maxIterations))) | 0;
+    for (let start = 0; start < count; start += capacity) {
+      const m = Math.min(capacity, count - start);
+      // Inputs are copied in before results are written, so `out` may alias cr or ci.
+      inRe.set(cr.subarray(start, start + m));
+      inIm.set(ci.subarray(start, start + m));
+      simd.run(m, limit, escapeRadius2, tolerance2);
+      out.iterations.set(iterations.subarray(0, m), start);
+      out.zRe.set(zRe.subarray(0, m), start);
+      out.zIm.set(zIm.subarray(0, m), start);
+      out.cycle.set(cycle.subarray(0, m), start);
+      out.status.set(status.subarray(0, m), start);
+    }
+  };
+}

@@ -1,0 +1,197 @@
+// AssemblyScript source of the WebAssembly SIMD escape loop (compiled by
+// scripts/build-wasm.mjs; the extension is .as so that tsc leaves it alone).
+//
+// The loop is the one of src/plane/escape-loop.ts, run on 8 samples at a time
+// as 4 vectors of f64x2 kept in flight together, so that the 12-cycle chain
+// mul -> sub -> add of one vector overlaps with the other three.
+// The lanes of a group advance in lock-step: the iteration counter n, and
+// with it Brent's save schedule (saved, next), is shared by all 8 lanes.
+// A lane that stops is marked in its vector's `done` mask and settled
+// (its results written) at once; it keeps computing, but nothing reads it.
+// Lane arithmetic is the scalar loop's, operation for operation (no fused
+// multiply-add exists in WebAssembly SIMD), so results are bit-identical.
+//
+// Brent, "An improved Monte Carlo factorization algorithm", BIT 20 (1980)
+// 176-184: cycle detection by comparing with a point saved at powers of two.
+
+const CAPACITY: i32 = 4096;
+
+const CR: usize = memory.data(CAPACITY * 8, 16);
+const CI: usize = memory.data(CAPACITY * 8, 16);
+const ITERATIONS: usize = memory.data(CAPACITY * 4, 16);
+const ZRE: usize = memory.data(CAPACITY * 8, 16);
+const ZIM: usize = memory.data(CAPACITY * 8, 16);
+const CYCLE: usize = memory.data(CAPACITY * 4, 16);
+const STATUS: usize = memory.data(CAPACITY, 16);
+
+const MAXED: u8 = 0;
+const ESCAPED: u8 = 1;
+const CYCLED: u8 = 2;
+
+export function capacity(): i32 { return CAPACITY; }
+export function crPointer(): usize { return CR; }
+export function ciPointer(): usize { return CI; }
+export function iterationsPointer(): usize { return ITERATIONS; }
+export function zRePointer(): usize { return ZRE; }
+export function zImPointer(): usize { return ZIM; }
+export function cyclePointer(): usize { return CYCLE; }
+export function statusPointer(): usize { return STATUS; }
+
+/** Writes the results of one sample; the status rule is the scalar loop's. */
+function settle(slot: i32, n: i32, x: f64, y: f64, x2: f64, y2: f64, r2: f64, tripped: bool, cycle: i32): void {
+  const s = <usize>slot;
+  store<i32>(ITERATIONS + (s << 2), n);
+  store<f64>(ZRE + (s << 3), x);
+  store<f64>(ZIM + (s << 3), y);
+  store<i32>(CYCLE + (s << 2), cycle);
+  store<u8>(STATUS + s, x2 + y2 > r2 ? ESCAPED : tripped ? CYCLED : MAXED);
+}
+
+/** Settles the lanes of one vector that are set in `stop`. */
+function settleVector(slot: i32, stop: v128, n: i32, x: v128, y: v128, x2: v128, y2: v128, r2: f64, tripped: bool, cycle: i32): void {
+  if (i64x2.extract_lane(stop, 0) != 0) {
+    settle(slot, n, f64x2.extract_lane(x, 0), f64x2.extract_lane(y, 0), f64x2.extract_lane(x2, 0), f64x2.extract_lane(y2, 0), r2, tripped, cycle);
+  }
+  if (i64x2.extract_lane(stop, 1) != 0) {
+    settle(slot + 1, n, f64x2.extract_lane(x, 1), f64x2.extract_lane(y, 1), f64x2.extract_lane(x2, 1), f64x2.extract_lane(y2, 1), r2, tripped, cycle);
+  }
+}
+
+/** The mask of lanes beyond `count` (they start, and stay, done). */
+@inline
+function padding(slot: i32, count: i32): v128 {
+  return i64x2(slot >= count ? -1 : 0, slot + 1 >= count ? -1 : 0);
+}
+
+/**
+ * Runs the escape loop on slots [0, count) of the input buffers, writing the
+ * output buffers. tolerance2 > 0 turns on the cycle test.
+ */
+export function run(count: i32, maxIterations: i32, escapeRadius2: f64, tolerance2: f64): void {
+  for (let base = 0; base < count; base += 8) {
+    if (tolerance2 > 0) group8Cycle(base, count, maxIterations, escapeRadius2, tolerance2);
+    else group8(base, count, maxIterations, escapeRadius2);
+  }
+}
+
+function group8(base: i32, count: i32, maxIterations: i32, r2: f64): void {
+  const p = CR + (<usize>base << 3), q = CI + (<usize>base << 3);
+  const cr0 = v128.load(p), cr1 = v128.load(p, 16), cr2 = v128.load(p, 32), cr3 = v128.load(p, 48);
+  const ci0 = v128.load(q), ci1 = v128.load(q, 16), ci2 = v128.load(q, 32), ci3 = v128.load(q, 48);
+  const r = f64x2.splat(r2);
+  let done0 = padding(base, count), done1 = padding(base + 2, count);
+  let done2 = padding(base + 4, count), done3 = padding(base + 6, count);
+  let x0 = f64x2.splat(0), y0 = x0, xx0 = x0, yy0 = x0;
+  let x1 = x0, y1 = x0, xx1 = x0, yy1 = x0;
+  let x2 = x0, y2 = x0, xx2 = x0, yy2 = x0;
+  let x3 = x0, y3 = x0, xx3 = x0, yy3 = x0;
+  let n = 0;
+  while (n < maxIterations) {
+    const go0 = v128.or(f64x2.le(f64x2.add(xx0, yy0), r), done0);
+    const go1 = v128.or(f64x2.le(f64x2.add(xx1, yy1), r), done1);
+    const go2 = v128.or(f64x2.le(f64x2.add(xx2, yy2), r), done2);
+    const go3 = v128.or(f64x2.le(f64x2.add(xx3, yy3), r), done3);
+    if (!i64x2.all_true(v128.and(v128.and(go0, go1), v128.and(go2, go3)))) {
+      settleVector(base, v128.not(go0), n, x0, y0, xx0, yy0, r2, false, 0);
+      settleVector(base + 2, v128.not(go1), n, x1, y1, xx1, yy1, r2, false, 0);
+      settleVector(base + 4, v128.not(go2), n, x2, y2, xx2, yy2, r2, false, 0);
+      settleVector(base + 6, v128.not(go3), n, x3, y3, xx3, yy3, r2, false, 0);
+      done0 = v128.or(done0, v128.not(go0));
+      done1 = v128.or(done1, v128.not(go1));
+      done2 = v128.or(done2, v128.not(go2));
+      done3 = v128.or(done3, v128.not(go3));
+      if (i64x2.all_true(v128.and(v128.and(done0, done1), v128.and(done2, done3)))) return;
+    }
+    y0 = f64x2.add(f64x2.mul(f64x2.add(x0, x0), y0), ci0);
+    y1 = f64x2.add(f64x2.mul(f64x2.add(x1, x1), y1), ci1);
+    y2 = f64x2.add(f64x2.mul(f64x2.add(x2, x2), y2), ci2);
+    y3 = f64x2.add(f64x2.mul(f64x2.add(x3, x3), y3), ci3);
+    x0 = f64x2.add(f64x2.sub(xx0, yy0), cr0);
+    x1 = f64x2.add(f64x2.sub(xx1, yy1), cr1);
+    x2 = f64x2.add(f64x2.sub(xx2, yy2), cr2);
+    x3 = f64x2.add(f64x2.sub(xx3, yy3), cr3);
+    xx0 = f64x2.mul(x0, x0); yy0 = f64x2.mul(y0, y0);
+    xx1 = f64x2.mul(x1, x1); yy1 = f64x2.mul(y1, y1);
+    xx2 = f64x2.mul(x2, x2); yy2 = f64x2.mul(y2, y2);
+    xx3 = f64x2.mul(x3, x3); yy3 = f64x2.mul(y3, y3);
+    n++;
+  }
+  settleVector(base, v128.not(done0), n, x0, y0, xx0, yy0, r2, false, 0);
+  settleVector(base + 2, v128.not(done1), n, x1, y1, xx1, yy1, r2, false, 0);
+  settleVector(base + 4, v128.not(done2), n, x2, y2, xx2, yy2, r2, false, 0);
+  settleVector(base + 6, v128.not(done3), n, x3, y3, xx3, yy3, r2, false, 0);
+}
+
+function group8Cycle(base: i32, count: i32, maxIterations: i32, r2: f64, tolerance2: f64): void {
+  const p = CR + (<usize>base << 3), q = CI + (<usize>base << 3);
+  const cr0 = v128.load(p), cr1 = v128.load(p, 16), cr2 = v128.load(p, 32), cr3 = v128.load(p, 48);
+  const ci0 = v128.load(q), ci1 = v128.load(q, 16), ci2 = v128.load(q, 32), ci3 = v128.load(q, 48);
+  const r = f64x2.splat(r2), t = f64x2.splat(tolerance2);
+  let done0 = padding(base, count), done1 = padding(base + 2, count);
+  let done2 = padding(base + 4, count), done3 = padding(base + 6, count);
+  let x0 = f64x2.splat(0), y0 = x0, xx0 = x0, yy0 = x0, sx0 = x0, sy0 = x0;
+  let x1 = x0, y1 = x0, xx1 = x0, yy1 = x0, sx1 = x0, sy1 = x0;
+  let x2 = x0, y2 = x0, xx2 = x0, yy2 = x0, sx2 = x0, sy2 = x0;
+  let x3 = x0, y3 = x0, xx3 = x0, yy3 = x0, sx3 = x0, sy3 = x0;
+  let n = 0, saved = 0, next = 1;
+  while (n < maxIterations) {
+    const go0 = v128.or(f64x2.le(f64x2.add(xx0, yy0), r), done0);
+    const go1 = v128.or(f64x2.le(f64x2.add(xx1, yy1), r), done1);
+    const go2 = v128.or(f64x2.le(f64x2.add(xx2, yy2), r), done2);
+    const go3 = v128.or(f64x2.le(f64x2.add(xx3, yy3), r), done3);
+    if (!i64x2.all_true(v128.and(v128.and(go0, go1), v128.and(go2, go3)))) {
+      settleVector(base, v128.not(go0), n, x0, y0, xx0, yy0, r2, false, 0);
+      settleVector(base + 2, v128.not(go1), n, x1, y1, xx1, yy1, r2, false, 0);
+      settleVector(base + 4, v128.not(go2), n, x2, y2, xx2, yy2, r2, false, 0);
+      settleVector(base + 6, v128.not(go3), n, x3, y3, xx3, yy3, r2, false, 0);
+      done0 = v128.or(done0, v128.not(go0));
+      done1 = v128.or(done1, v128.not(go1));
+      done2 = v128.or(done2, v128.not(go2));
+      done3 = v128.or(done3, v128.not(go3));
+      if (i64x2.all_true(v128.and(v128.and(done0, done1), v128.and(done2, done3)))) return;
+    }
+    y0 = f64x2.add(f64x2.mul(f64x2.add(x0, x0), y0), ci0);
+    y1 = f64x2.add(f64x2.mul(f64x2.add(x1, x1), y1), ci1);
+    y2 = f64x2.add(f64x2.mul(f64x2.add(x2, x2), y2), ci2);
+    y3 = f64x2.add(f64x2.mul(f64x2.add(x3, x3), y3), ci3);
+    x0 = f64x2.add(f64x2.sub(xx0, yy0), cr0);
+    x1 = f64x2.add(f64x2.sub(xx1, yy1), cr1);
+    x2 = f64x2.add(f64x2.sub(xx2, yy2), cr2);
+    x3 = f64x2.add(f64x2.sub(xx3, yy3), cr3);
+    xx0 = f64x2.mul(x0, x0); yy0 = f64x2.mul(y0, y0);
+    xx1 = f64x2.mul(x1, x1); yy1 = f64x2.mul(y1, y1);
+    xx2 = f64x2.mul(x2, x2); yy2 = f64x2.mul(y2, y2);
+    xx3 = f64x2.mul(x3, x3); yy3 = f64x2.mul(y3, y3);
+    n++;
+    const ex0 = f64x2.sub(x0, sx0), ey0 = f64x2.sub(y0, sy0);
+    const ex1 = f64x2.sub(x1, sx1), ey1 = f64x2.sub(y1, sy1);
+    const ex2 = f64x2.sub(x2, sx2), ey2 = f64x2.sub(y2, sy2);
+    const ex3 = f64x2.sub(x3, sx3), ey3 = f64x2.sub(y3, sy3);
+    const hit0 = v128.andnot(f64x2.lt(f64x2.add(f64x2.mul(ex0, ex0), f64x2.mul(ey0, ey0)), t), done0);
+    const hit1 = v128.andnot(f64x2.lt(f64x2.add(f64x2.mul(ex1, ex1), f64x2.mul(ey1, ey1)), t), done1);
+    const hit2 = v128.andnot(f64x2.lt(f64x2.add(f64x2.mul(ex2, ex2), f64x2.mul(ey2, ey2)), t), done2);
+    const hit3 = v128.andnot(f64x2.lt(f64x2.add(f64x2.mul(ex3, ex3), f64x2.mul(ey3, ey3)), t), done3);
+    if (v128.any_true(v128.or(v128.or(hit0, hit1), v128.or(hit2, hit3)))) {
+      const cycle = n - saved;
+      settleVector(base, hit0, n, x0, y0, xx0, yy0, r2, true, cycle);
+      settleVector(base + 2, hit1, n, x1, y1, xx1, yy1, r2, true, cycle);
+      settleVector(base + 4, hit2, n, x2, y2, xx2, yy2, r2, true, cycle);
+      settleVector(base + 6, hit3, n, x3, y3, xx3, yy3, r2, true, cycle);
+      done0 = v128.or(done0, hit0);
+      done1 = v128.or(done1, hit1);
+      done2 = v128.or(done2, hit2);
+      done3 = v128.or(done3, hit3);
+      if (i64x2.all_true(v128.and(v128.and(done0, done1), v128.and(done2, done3)))) return;
+    }
+    if (n == next) {
+      sx0 = x0; sy0 = y0; sx1 = x1; sy1 = y1;
+      sx2 = x2; sy2 = y2; sx3 = x3; sy3 = y3;
+      saved = n;
+      next <<= 1;
+    }
+  }
+  settleVector(base, v128.not(done0), n, x0, y0, xx0, yy0, r2, false, 0);
+  settleVector(base + 2, v128.not(done1), n, x1, y1, xx1, yy1, r2, false, 0);
+  settleVector(base + 4, v128.not(done2), n, x2, y2, xx2, yy2, r2, false, 0);
+  settleVector(base + 6, v128.not(done3), n, x3, y3, xx3, yy3, r2, false, 0);
+}
