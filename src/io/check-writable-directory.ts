@@ -1,22 +1,29 @@
-import { constants } from 'node:fs';
-import { access, stat } from 'node:fs/promises';
+import { stat, open, rm } from 'node:fs/promises';
+import path from 'node:path';
 import { UserError } from '../cli/user-error.js';
+import { tempPathFor } from './temp-path.js';
 
 /**
  * Throws UserError(field, 'a writable directory', path) unless `path` names an
- * existing directory this process may create files in.
+ * existing directory in which this process can create a file. It creates and
+ * removes a hidden probe file rather than asking access(2): access answers
+ * yes for root on read-only trees such as /proc and for mounts that refuse
+ * writes for other reasons.
  */
-export async function checkWritableDirectory(path: string, field: string): Promise<void> {
+export async function checkWritableDirectory(dir: string, field: string): Promise<void> {
   let isDir = false;
   try {
-    isDir = (await stat(path)).isDirectory();
+    isDir = (await stat(dir)).isDirectory();
   } catch {
     isDir = false;
   }
-  if (!isDir) throw new UserError(field, 'a writable directory', path);
+  if (!isDir) throw new UserError(field, 'a writable directory', dir);
+  const probe = tempPathFor(path.join(dir, 'probe'));
   try {
-    await access(path, constants.W_OK | constants.X_OK);
+    const fh = await open(probe, 'wx');
+    await fh.close();
   } catch {
-    throw new UserError(field, 'a writable directory', path);
+    throw new UserError(field, 'a writable directory', dir);
   }
+  await rm(probe, { force: true });
 }
