@@ -79,7 +79,7 @@ export function gradientPosition(mu: number, scale: 'log' | 'linear', cycle: num
 }
 
 /** The OKLab colour at position t in [0, 1) of a gradient, written into out. */
-export function gradientOklab(name: ExteriorGradientName, t: number, out: Vec3): Vec3 {
+export function gradientOklab<T extends Vec3>(name: ExteriorGradientName, t: number, out: T): T {
   const lab = STOPS_OKLAB[name];
   const n = lab.length / 3;
   const x = t * n;
@@ -96,7 +96,7 @@ export function gradientOklab(name: ExteriorGradientName, t: number, out: Vec3):
 }
 
 /** The linear-light sRGB colour at position t of a gradient (clipped to [0, 1]). */
-export function gradientLinear(name: ExteriorGradientName, t: number, out: Vec3): Vec3 {
+export function gradientLinear<T extends Vec3>(name: ExteriorGradientName, t: number, out: T): T {
   gradientOklab(name, t, out);
   oklabToLinear(out[0]!, out[1]!, out[2]!, out);
   for (let c = 0; c < 3; c++) {

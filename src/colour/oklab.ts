@@ -35,7 +35,7 @@ export function linearToSrgb(v: number): number {
 }
 
 /** Linear sRGB -> OKLab (Ottosson 2020). Writes [L, a, b] into out and returns it. */
-export function linearToOklab(r: number, g: number, b: number, out: Vec3): Vec3 {
+export function linearToOklab<T extends Vec3>(r: number, g: number, b: number, out: T): T {
   const l = Math.cbrt(0.4122214708 * r + 0.5363325363 * g + 0.0514459929 * b);
   const m = Math.cbrt(0.2119034982 * r + 0.6806995451 * g + 0.1073969566 * b);
   const s = Math.cbrt(0.0883024619 * r + 0.2817188376 * g + 0.6299787005 * b);
@@ -50,7 +50,7 @@ export function linearToOklab(r: number, g: number, b: number, out: Vec3): Vec3 
  * it. The result is not clipped: colours outside the sRGB gamut give channels
  * below 0 or above 1 (see `inSrgbGamut`).
  */
-export function oklabToLinear(L: number, a: number, b: number, out: Vec3): Vec3 {
+export function oklabToLinear<T extends Vec3>(L: number, a: number, b: number, out: T): T {
   const l1 = L + 0.3963377774 * a + 0.2158037573 * b;
   const m1 = L - 0.1055613458 * a - 0.0638541728 * b;
   const s1 = L - 0.0894841775 * a - 1.291485548 * b;
@@ -64,7 +64,7 @@ export function oklabToLinear(L: number, a: number, b: number, out: Vec3): Vec3 
 }
 
 /** OKLab -> OKLCh: [L, C, h] with h in degrees, [0, 360). Aliasing-safe. */
-export function oklabToOklch(L: number, a: number, b: number, out: Vec3): Vec3 {
+export function oklabToOklch<T extends Vec3>(L: number, a: number, b: number, out: T): T {
   const C = Math.hypot(a, b);
   let h = (Math.atan2(b, a) * 180) / Math.PI;
   if (h < 0) h += 360;
@@ -75,7 +75,7 @@ export function oklabToOklch(L: number, a: number, b: number, out: Vec3): Vec3 {
 }
 
 /** OKLCh -> OKLab; h in degrees. Aliasing-safe. */
-export function oklchToOklab(L: number, C: number, h: number, out: Vec3): Vec3 {
+export function oklchToOklab<T extends Vec3>(L: number, C: number, h: number, out: T): T {
   const rad = (h * Math.PI) / 180;
   out[0] = L;
   out[1] = C * Math.cos(rad);
@@ -84,12 +84,12 @@ export function oklchToOklab(L: number, C: number, h: number, out: Vec3): Vec3 {
 }
 
 /** sRGB-encoded (0..1 per channel) -> OKLab. */
-export function srgbToOklab(r: number, g: number, b: number, out: Vec3): Vec3 {
+export function srgbToOklab<T extends Vec3>(r: number, g: number, b: number, out: T): T {
   return linearToOklab(srgbToLinear(r), srgbToLinear(g), srgbToLinear(b), out);
 }
 
 /** OKLCh -> linear sRGB (unclipped). */
-export function oklchToLinear(L: number, C: number, h: number, out: Vec3): Vec3 {
+export function oklchToLinear<T extends Vec3>(L: number, C: number, h: number, out: T): T {
   oklchToOklab(L, C, h, out);
   return oklabToLinear(out[0]!, out[1]!, out[2]!, out);
 }
@@ -128,7 +128,7 @@ export function maxChromaInGamut(L: number, h: number, cap = 0.4): number {
  * The caller validates the string (colour-settings.ts); here a malformed
  * string is a programming error.
  */
-export function hexToLinear(hex: string, out: Vec3): Vec3 {
+export function hexToLinear<T extends Vec3>(hex: string, out: T): T {
   if (!/^#[0-9a-fA-F]{6}$/.test(hex)) throw new Error(`not a #rrggbb colour: ${hex}`);
   for (let c = 0; c < 3; c++) out[c] = srgbToLinear(parseInt(hex.slice(1 + 2 * c, 3 + 2 * c), 16) / 255);
   return out;

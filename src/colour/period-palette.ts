@@ -1,4 +1,4 @@
-import { linearToHex, maxChromaInGamut, oklabDistance, oklabToLinear, oklchToOklab } from './oklab.js';
+import { linearToHex, maxChromaInGamut, oklabDistance, oklabToLinear, oklchToOklab, type Vec3 } from './oklab.js';
 
 /**
  * The period palette: categorical colours for the periods of attracting cycles
@@ -103,7 +103,7 @@ function slot(p: number): number {
 }
 
 /** The OKLab colour of period p (p >= 1), written into out. */
-export function periodOklab(p: number, out: { [i: number]: number }): { [i: number]: number } {
+export function periodOklab<T extends Vec3>(p: number, out: T): T {
   const s = 3 * slot(p);
   out[0] = TABLE.lab[s]!;
   out[1] = TABLE.lab[s + 1]!;
@@ -112,7 +112,7 @@ export function periodOklab(p: number, out: { [i: number]: number }): { [i: numb
 }
 
 /** The linear-light sRGB colour of period p (p >= 1), written into out. */
-export function periodLinear(p: number, out: { [i: number]: number }): { [i: number]: number } {
+export function periodLinear<T extends Vec3>(p: number, out: T): T {
   const s = 3 * slot(p);
   out[0] = TABLE.linear[s]!;
   out[1] = TABLE.linear[s + 1]!;

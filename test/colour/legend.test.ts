@@ -1,0 +1,127 @@
+import { describe, expect, it } from 'vitest';
+import { parseColourSettings } from '../../src/colour/colour-settings.js';
+import { LEGEND_FONT_CHARACTERS, LEGEND_TITLE, layoutLegend, legendScale, legendSvg, paintLegendRows } from '../../src/colour/legend.js';
+import { periodHex, periodLinear } from '../../src/colour/period-palette.js';
+
+const inset = (extra: Record<string, unknown> = {}) => parseColourSettings({ legend: 'inset', ...extra });
+
+describe('legendScale', () => {
+  it('gives a cap height near 2.5 mm: 4 px per cell at 300 dpi, 1 at 72 dpi', () => {
+    // 2.5 mm at 300 dpi = 29.5 px; 7 cells -> 4.2 -> 4 (cap 28 px = 2.37 mm). At 72 dpi: 7.1 px -> 1.
+    expect(legendScale(300)).toBe(4);
+    expect(legendScale(72)).toBe(1);
+    expect(legendScale(600)).toBe(8);
+    for (const dpi of [150, 300, 600, 1200]) {
+      const capMm = ((7 * legendScale(dpi)) / dpi) * 25.4;
+      expect(Math.abs(capMm - 2.5)).toBeLessThan(0.3);
+    }
+  });
+});
+
+describe('layoutLegend', () => {
+  it('returns null unless the legend is inset', () => {
+    expect(layoutLegend(parseColourSettings({ legend: 'none' }), 1000, 800, 300)).toBeNull();
+    expect(layoutLegend(parseColourSettings({ legend: 'beside' }), 1000, 800, 300)).toBeNull();
+  });
+
+  it('places the legend inside the plate in the chosen corner', () => {
+    for (const corner of ['top-left', 'top-right', 'bottom-left', 'bottom-right']) {
+      const L = layoutLegend(inset({ legendCorner: corner }), 3000, 2000, 300)!;
+      expect(L.scale).toBe(4);
+      expect(L.x).toBeGreaterThanOrEqual(0);
+      expect(L.y).toBeGreaterThanOrEqual(0);
+      expect(L.x + L.width).toBeLessThanOrEqual(3000);
+      expect(L.y + L.height).toBeLessThanOrEqual(2000);
+      expect(L.x + L.width / 2 < 1500).toBe(corner.endsWith('left'));
+      expect(L.y + L.height / 2 < 1000).toBe(corner.startsWith('top'));
+    }
+  });
+
+  it('steps the scale down to fit a small plate', () => {
+    const L = layoutLegend(inset({ legendPeriods: 64 }), 400, 300, 600)!;
+    expect(L.scale).toBeLessThan(legendScale(600));
+    expect(L.x + L.width).toBeLessThanOrEqual(400);
+    expect(L.y + L.height).toBeLessThanOrEqual(300);
+  });
+
+  it('draws each period swatch in its palette colour (some opaque pixel equals periodLinear(p))', () => {
+    const L = layoutLegend(inset({ legendPeriods: 16 }), 3000, 2000, 300)!;
+    for (let p = 1; p <= 16; p++) {
+      const c = periodLinear(p, [0, 0, 0]);
+      let found = false;
+      for (let k = 0; k < L.width * L.height && !found; k++)
+        found = L.rgba[4 * k + 3] === 1 && L.rgba[4 * k] === c[0] && L.rgba[4 * k + 1] === c[1] && L.rgba[4 * k + 2] === c[2];
+      expect(found, `period ${p}`).toBe(true);
+    }
+  });
+
+  it('can draw its title and every digit with its own font', () => {
+    for (const ch of LEGEND_TITLE + '0123456789') expect(LEGEND_FONT_CHARACTERS).toContain(ch);
+  });
+});
+
+describe('paintLegendRows', () => {
+  const W = 400;
+  const H = 300;
+  const plate = (): Float64Array => {
+    const a = new Float64Array(W * H * 3);
+    for (let k = 0; k < a.length; k++) a[k] = ((k * 37) % 101) / 100;
+    return a;
+  };
+
+  it('paints only inside its rectangle, and changes it', () => {
+    const L = layoutLegend(inset({ legendCorner: 'bottom-left' }), W, H, 150)!;
+    const before = plate();
+    const after = plate();
+    paintLegendRows(L, 0, H, W, after);
+    let changedInside = 0;
+    for (let y = 0; y < H; y++)
+      for (let x = 0; x < W; x++) {
+        const inside = x >= L.x && x < L.x + L.width && y >= L.y && y < L.y + L.height;
+        for (let c = 0; c < 3; c++) {
+          const k = 3 * (y * W + x) + c;
+          if (!inside) expect(after[k]).toBe(before[k]);
+          else if (after[k] !== before[k]) changedInside++;
+        }
+      }
+    expect(changedInside).toBeGreaterThan(0.9 * L.width * L.height * 3);
+  });
+
+  it('painting band by band (bands of 7 rows) equals painting at once', () => {
+    const L = layoutLegend(inset({ legendCorner: 'top-right', legendPeriods: 24 }), W, H, 150)!;
+    const once = plate();
+    paintLegendRows(L, 0, H, W, once);
+    const banded = plate();
+    for (let y0 = 0; y0 < H; y0 += 7) {
+      const rows = Math.min(7, H - y0);
+      const band = banded.slice(3 * y0 * W, 3 * (y0 + rows) * W);
+      paintLegendRows(L, y0, rows, W, band);
+      banded.set(band, 3 * y0 * W);
+    }
+    expect(banded).toEqual(once);
+  });
+
+  it('over a white plate, an opaque swatch pixel shows the swatch and the panel blends 90/10 (Porter-Duff over)', () => {
+    const L = layoutLegend(inset({ legendCorner: 'top-left' }), W, H, 150)!;
+    const white = new Float64Array(W * H * 3).fill(1);
+    paintLegendRows(L, 0, H, W, white);
+    // The panel's top-left pixel: 0.9 * panel + 0.1 * 1.
+    const k = 3 * (L.y * W + L.x);
+    expect(white[k]).toBeCloseTo(L.rgba[0]! + 0.1, 14);
+  });
+});
+
+describe('legendSvg', () => {
+  it('lists every period with its swatch colour and number, deterministically', () => {
+    const s = inset({ legendPeriods: 20 });
+    const svg = legendSvg(s);
+    expect(svg.startsWith('<?xml')).toBe(true);
+    expect(svg).toContain('xmlns="http://www.w3.org/2000/svg"');
+    for (let p = 1; p <= 20; p++) {
+      expect(svg).toContain(`id="period-${p}"`);
+      expect(svg).toContain(`fill="${periodHex(p)}"`);
+    }
+    expect(svg).not.toContain('id="period-21"');
+    expect(legendSvg(s)).toBe(svg);
+  });
+});
