@@ -119,3 +119,59 @@ export function iterateFamily(family: UnimodalFamily, x: Decimal, r: Decimal, n:
   for (let k = 0; k < n; k++) y = family.value(y, r, D);
   return y;
 }
+
+/**
+ * The local quadratic renormalisation at a superstable parameter r_s of
+ * period p: with u = x - x_c and e = r - r_s, f^p(x_c + u) ~ x_c + K u^2 + L e,
+ * and v = K u turns it into v -> v^2 + C with C = K L e (methods.md C4, the
+ * same renormalisation as the Hunt-Ott size estimate, read in the family's
+ * own coordinates). Returns K = (f^p)''(x_c)/2 and L = d f^p(x_c)/dr.
+ */
+export function localRenormalisation(family: UnimodalFamily, period: number, r: Decimal, D: DecimalCtor): { k: Decimal; l: Decimal } {
+  let x = new D(family.critical);
+  let a = new D(1);
+  let b = new D(0);
+  let aa = new D(0);
+  for (let i = 0; i < period; i++) {
+    const j = family.jet(x, r, D);
+    aa = j.fxx.times(a).times(a).plus(j.fx.times(aa));
+    b = j.fx.times(b).plus(j.fr);
+    a = j.fx.times(a);
+    x = j.f;
+  }
+  return { k: aa.div(2), l: b };
+}
+
+/**
+ * Newton on h(r) = f_r^m(x_c) - f_r^n(x_c) (m > n) from `guess`, with
+ * h' from the B recurrence. Used for the end of a window, where the
+ * critical orbit lands on the repelling cycle (methods.md E4).
+ */
+export function orbitCoincidence(family: UnimodalFamily, m: number, n: number, guess: string, digits: number): RealNewtonResult {
+  const D = workingDecimal(digits);
+  const tol = new D(10).pow(-(digits + 4));
+  const xc = new D(family.critical);
+  let r = new D(guess);
+  for (let step = 1; step <= MAX_STEPS; step++) {
+    let x = xc;
+    let b = new D(0);
+    let xn = xc;
+    let bn = b;
+    for (let k = 0; k < m; k++) {
+      const j = family.jet(x, r, D);
+      b = j.fx.times(b).plus(j.fr);
+      x = j.f;
+      if (k + 1 === n) {
+        xn = x;
+        bn = b;
+      }
+    }
+    const h = x.minus(xn);
+    const dh = b.minus(bn);
+    if (dh.isZero()) break;
+    const dr = h.div(dh);
+    r = r.minus(dr);
+    if (dr.abs().lte(tol)) return { r, x: xc, steps: step, converged: true };
+  }
+  return { r, x: xc, steps: MAX_STEPS, converged: false };
+}

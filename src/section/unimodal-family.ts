@@ -43,6 +43,8 @@ export interface UnimodalFamily {
   readonly stateRange: readonly [number, number];
   /** Superstable parameters of periods 1 and 2, the seed of the cascade (decimal strings, approximate). */
   readonly cascadeSeed: readonly [string, string];
+  /** Where the fixed point is born or becomes attracting (multiplier +1): the onset of the period-1 window. */
+  readonly fixedPointOnset: string;
   /** A first guess of delta for the seed of the cascade (4.669 for a quadratic maximum). */
   readonly deltaGuess: string;
   /** f in double precision. */

@@ -16,6 +16,7 @@ export const logistic: UnimodalFamily = {
   stateRange: [0, 1],
   // r = 2 (period 1) and r = 1 + sqrt 5 (period 2), exact.
   cascadeSeed: ['2', '3.2360679774997896964091736687312762354406'],
+  fixedPointOnset: '1', // exact: f'(0) = r = 1, transcritical at x = 0
   deltaGuess: '4.669', // Feigenbaum 1978
   f: (x, r) => r * x * (1 - x),
   dfdx: (x, r) => r * (1 - 2 * x),

@@ -16,6 +16,7 @@ export const quartic: UnimodalFamily = {
   range: ['0', '1.2599210498948731647672106072782283505702514647015'],
   stateRange: [-1.26, 1.26],
   cascadeSeed: ['0', '1'],
+  fixedPointOnset: '-0.47247039371057743678770397772933563146384429926307', // -(3/4) 4^(-1/3): saddle-node where -4x^3 = 1
   deltaGuess: '7.28', // methods.md E8, from memory
   f: (x, r) => r - x * x * x * x,
   dfdx: (x) => -4 * x * x * x,

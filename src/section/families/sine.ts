@@ -15,6 +15,7 @@ export const sine: UnimodalFamily = {
   range: ['0.5', '1'],
   stateRange: [0, 1],
   cascadeSeed: ['0.5', '0.7777'],
+  fixedPointOnset: '0.31830988618379067153776752674502872406891929148091', // 1/pi: f'(0) = r pi = 1, transcritical at x = 0
   deltaGuess: '4.669', // universality, Feigenbaum 1978
   f: (x, r) => r * Math.sin(Math.PI * x),
   dfdx: (x, r) => r * Math.PI * Math.cos(Math.PI * x),
