@@ -183,21 +183,7 @@ export function layoutLegend(settings: ColourSettings, plateWidth: number, plate
  * (clipped to the plate), so painting band by band equals painting at once.
  */
 export function paintLegendRows(legend: Legend, y0: number, rowCount: number, width: number, linearRows: Float64Array): void {
-  const ya = Math.max(y0, legend.y);
-  const yb = Math.min(y0 + rowCount, legend.y + legend.height);
-  const xa = Math.max(0, legend.x);
-  const xb = Math.min(width, legend.x + legend.width);
-  const src = legend.rgba;
-  for (let y = ya; y < yb; y++) {
-    for (let x = xa; x < xb; x++) {
-      const s = 4 * ((y - legend.y) * legend.width + (x - legend.x));
-      const d = 3 * ((y - y0) * width + x);
-      const keep = 1 - src[s + 3]!;
-      linearRows[d] = src[s]! + keep * linearRows[d]!;
-      linearRows[d + 1] = src[s + 1]! + keep * linearRows[d + 1]!;
-      linearRows[d + 2] = src[s + 2]! + keep * linearRows[d + 2]!;
-    }
-  }
+  paintLegendRect(legend, 0, y0, width, rowCount, linearRows);
 }
 
 function escapeXml(s: string): string {
@@ -239,8 +225,9 @@ export function legendSvg(settings: ColourSettings): string {
 /**
  * Composites the legend onto a rectangle of the plate: pixels x0 .. x0 + w - 1
  * of rows y0 .. y0 + h - 1, held in `linear` as h * w * 3 values (a tile).
- * The same arithmetic as paintLegendRows, so a tile painted here equals the
- * same pixels painted band by band.
+ * paintLegendRows is this with x0 = 0 and w = plate width, so a tile painted
+ * here equals the same pixels painted band by band. Touches only pixels inside
+ * the legend's rectangle.
  */
 export function paintLegendRect(legend: Legend, x0: number, y0: number, w: number, h: number, linear: Float64Array): void {
   const ya = Math.max(y0, legend.y);

@@ -1,6 +1,14 @@
 import { describe, expect, it } from 'vitest';
 import { parseColourSettings } from '../../src/colour/colour-settings.js';
-import { LEGEND_FONT_CHARACTERS, LEGEND_TITLE, layoutLegend, legendScale, legendSvg, paintLegendRows } from '../../src/colour/legend.js';
+import {
+  LEGEND_FONT_CHARACTERS,
+  LEGEND_TITLE,
+  layoutLegend,
+  legendScale,
+  legendSvg,
+  paintLegendRect,
+  paintLegendRows,
+} from '../../src/colour/legend.js';
 import { periodHex, periodLinear } from '../../src/colour/period-palette.js';
 
 const inset = (extra: Record<string, unknown> = {}) => parseColourSettings({ legend: 'inset', ...extra });
@@ -99,6 +107,23 @@ describe('paintLegendRows', () => {
       banded.set(band, 3 * y0 * W);
     }
     expect(banded).toEqual(once);
+  });
+
+  it('paintLegendRect over 64 x 48 tiles equals paintLegendRows over the whole plate', () => {
+    const L = layoutLegend(inset({ legendCorner: 'bottom-right', legendPeriods: 30 }), W, H, 150)!;
+    const once = plate();
+    paintLegendRows(L, 0, H, W, once);
+    const tiled = plate();
+    for (let ty = 0; ty < H; ty += 48)
+      for (let tx = 0; tx < W; tx += 64) {
+        const w = Math.min(64, W - tx);
+        const h = Math.min(48, H - ty);
+        const tile = new Float64Array(3 * w * h);
+        for (let j = 0; j < h; j++) tile.set(tiled.subarray(3 * ((ty + j) * W + tx), 3 * ((ty + j) * W + tx + w)), 3 * j * w);
+        paintLegendRect(L, tx, ty, w, h, tile);
+        for (let j = 0; j < h; j++) tiled.set(tile.subarray(3 * j * w, 3 * (j + 1) * w), 3 * ((ty + j) * W + tx));
+      }
+    expect(tiled).toEqual(once);
   });
 
   it('over a white plate, an opaque swatch pixel shows the swatch and the panel blends 90/10 (Porter-Duff over)', () => {
