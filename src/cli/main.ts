@@ -5,6 +5,8 @@
  * Errors the user caused print one line and exit 2; anything else is a bug
  * and prints its stack and exits 1.
  */
+import { realpathSync } from 'node:fs';
+import { fileURLToPath } from 'node:url';
 import { Command, CommanderError } from 'commander';
 import { UserError } from './user-error.js';
 import { toolVersion } from './version.js';
@@ -18,6 +20,7 @@ export interface CommandModule {
 const COMMANDS: ReadonlyArray<readonly [string, string, () => Promise<CommandModule>]> = [
   ['plate', 'render one image of a view of the c-plane', () => import('./plate.js')],
   ['presets', 'list, show, check and render the sheets in presets/', () => import('./presets.js')],
+  ['section', 'the real slice: convert, cascade, windows, lyapunov, diagram, compare', () => import('./section.js')],
 ];
 
 export async function main(argv: readonly string[]): Promise<number> {
@@ -53,7 +56,17 @@ export function reportError(err: unknown): number {
   throw err;
 }
 
-const isMain = process.argv[1] !== undefined && import.meta.url.endsWith(process.argv[1].replace(/\\/g, '/').split('/').slice(-3).join('/'));
+function invokedDirectly(): boolean {
+  const script = process.argv[1];
+  if (script === undefined) return false;
+  try {
+    return realpathSync(script) === fileURLToPath(import.meta.url);
+  } catch {
+    return false;
+  }
+}
+
+const isMain = invokedDirectly();
 if (isMain) {
   main(process.argv.slice(2)).then(
     (code) => {

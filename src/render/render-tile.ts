@@ -21,6 +21,7 @@
  *    16 bits with coordinate-seeded dither.
  */
 import { encodePixels } from '../colour/encode-pixels.js';
+import { paintLegendRect, type Legend } from '../colour/legend.js';
 import { shadeSamples } from '../colour/shade-samples.js';
 import { createSampleSet, PERIOD_UNDECIDED, type SampleSet } from '../plane/sample-set.js';
 import { sampleParameters } from '../plane/sample-parameters.js';
@@ -91,7 +92,11 @@ function kindOf(period: number): number {
   return period === 0 ? 0 : period === PERIOD_UNDECIDED ? 2 : 1;
 }
 
-export function renderTile(job: PlateJob, tile: Tile, scratch: TileScratch, loop?: EscapeLoop): TileResult {
+/**
+ * Renders one tile. `legend` is the inset legend laid out for the whole plate
+ * (layoutLegend of the job's colour settings), or null.
+ */
+export function renderTile(job: PlateJob, tile: Tile, scratch: TileScratch, loop?: EscapeLoop, legend: Legend | null = null): TileResult {
   const { grid } = job;
   const { x0, y0, w, h } = tile;
   if (w > scratch.maxTile || h > scratch.maxTile) throw new RangeError(`tile ${w}x${h} exceeds scratch ${scratch.maxTile}`);
@@ -217,7 +222,8 @@ export function renderTile(job: PlateJob, tile: Tile, scratch: TileScratch, loop
     flush();
   }
 
-  // 4. Encode.
+  // 4. The inset legend, composited in linear light, then encode.
+  if (legend !== null) paintLegendRect(legend, x0, y0, w, h, linear);
   const pixels = job.depth === 16 ? new Uint16Array(pixelCount * 3) : new Uint8Array(pixelCount * 3);
   encodePixels(linear, w, h, x0, y0, job.depth, pixels);
 

@@ -3,6 +3,7 @@
  * a time and sends each back with its arrays in the transfer list.
  */
 import { parentPort } from 'node:worker_threads';
+import { layoutLegend, type Legend } from '../colour/legend.js';
 import { createTileScratch, renderTile, type TileScratch } from '../render/render-tile.js';
 import type { PlateJob } from '../render/plate-job.js';
 import { pickEscapeLoop } from '../render/pick-escape-loop.js';
@@ -13,6 +14,7 @@ if (port === null) throw new Error('tile-worker must run in a worker thread');
 
 let job: PlateJob | undefined;
 let scratch: TileScratch | undefined;
+let legend: Legend | null = null;
 const loop = pickEscapeLoop();
 
 port.on('message', (message: ToWorker) => {
@@ -20,13 +22,14 @@ port.on('message', (message: ToWorker) => {
     if (message.type === 'init') {
       job = message.job;
       scratch = undefined;
+      legend = layoutLegend(job.colour, job.grid.width, job.grid.height, job.dpi);
       return;
     }
     if (job === undefined) throw new Error('tile before init');
     const { tile } = message;
     const side = Math.max(tile.w, tile.h);
     if (scratch === undefined || scratch.maxTile < side) scratch = createTileScratch(side);
-    const r = renderTile(job, tile, scratch, loop);
+    const r = renderTile(job, tile, scratch, loop, legend);
     const reply: FromWorker = { type: 'tile-done', tile, ...r };
     const transfer: ArrayBuffer[] = [r.pixels.buffer as ArrayBuffer];
     for (const a of [r.period, r.smooth, r.distance, r.interior]) if (a !== undefined) transfer.push(a.buffer as ArrayBuffer);

@@ -1,0 +1,70 @@
+/**
+ * `quadatlas plate [SHEET.json] [flags]`: render one image of a view of the
+ * c-plane. Flags override the sheet; `--again FILE` takes the sheet from the
+ * metadata stored in an earlier plate.
+ */
+import type { Command } from 'commander';
+import { readPlateMetadata } from '../io/plate-metadata.js';
+import { parseSheet, type Sheet } from '../view/sheet.js';
+import { applyPlateOptions, PLATE_OPTIONS } from './plate-options.js';
+import { renderSheet } from './render-sheet.js';
+import { readSheetFile, sheetName } from './sheet-file.js';
+import { Received, UserError } from './user-error.js';
+import { toolVersion } from './version.js';
+
+/** The sheet recorded in a plate's metadata, as raw JSON. */
+export async function sheetFromPlate(file: string): Promise<Record<string, unknown>> {
+  let text: string | undefined;
+  try {
+    text = await readPlateMetadata(file);
+  } catch (err) {
+    throw new UserError('--again', 'a PNG or TIFF plate written by quadatlas', new Received(`${file} (${(err as Error).message.split('\n')[0]})`));
+  }
+  if (text === undefined) throw new UserError('--again', 'a plate carrying quadatlas metadata', new Received(`${file} (none found)`));
+  const meta = JSON.parse(text) as { version?: string; sheet?: Record<string, unknown> };
+  if (meta.sheet === undefined) throw new UserError('--again', 'metadata holding a sheet', file);
+  if (meta.version !== toolVersion()) {
+    process.stderr.write(`quadatlas: note: ${file} was rendered by quadatlas ${meta.version ?? '?'}; this is ${toolVersion()}, so bytes may differ\n`);
+  }
+  return meta.sheet;
+}
+
+export function parseCount(value: unknown, field: string, min: number, max: number): number | undefined {
+  if (value === undefined) return undefined;
+  const n = typeof value === 'string' && /^\d+$/.test(value.trim()) ? Number(value) : NaN;
+  if (!Number.isInteger(n) || n < min || n > max) throw new UserError(field, `an integer between ${min} and ${max}`, value);
+  return n;
+}
+
+export function register(program: Command): void {
+  const cmd = program
+    .command('plate')
+    .description('render one image of a view of the c-plane (flags override the sheet)')
+    .argument('[sheet]', 'a sheet (JSON) holding the view, colouring and output');
+  for (const o of PLATE_OPTIONS) cmd.option(o.flags, o.description);
+  cmd.action(async (sheetFile: string | undefined, values: Record<string, unknown>) => {
+    let raw: Record<string, unknown>;
+    let name = 'plate';
+    if (typeof values['again'] === 'string') {
+      if (sheetFile !== undefined) throw new UserError('--again', 'either a sheet or --again, not both', sheetFile);
+      raw = await sheetFromPlate(values['again']);
+      name = `${sheetName(values['again']).replace(/\.(png|tiff?)$/i, '')}-again`;
+      if (typeof values['out'] !== 'string') {
+        const ext = /\.tiff?$/i.test(values['again']) ? 'tif' : 'png';
+        raw['output'] = { file: values['again'].replace(/\.(png|tiff?)$/i, `-again.${ext}`) };
+      }
+    } else if (sheetFile !== undefined) {
+      raw = await readSheetFile(sheetFile);
+      name = sheetName(sheetFile);
+    } else {
+      raw = {};
+    }
+    delete raw['startup'];
+    const sheet: Sheet = parseSheet(applyPlateOptions(raw, values), name);
+    const workers = parseCount(values['workers'], '--workers', 1, 256);
+    const tileSize = parseCount(values['tile'], '--tile', 8, 1024);
+    const summary = await renderSheet(sheet, { ...(workers === undefined ? {} : { workers }), ...(tileSize === undefined ? {} : { tileSize }) });
+    if (values['json'] === true) process.stdout.write(`${JSON.stringify(summary, null, 2)}\n`);
+    else process.stderr.write(`wrote ${summary.files.join(', ')} (${summary.seconds} s)\n`);
+  });
+}

@@ -1,0 +1,169 @@
+/**
+ * Renders a checked sheet to its files: the image (PNG or TIFF), optional NPY
+ * data arrays, the JSON sidecar, the legend file. This is the edge where the
+ * renderer meets the file system: it checks the output paths, the memory and
+ * the disk before any work, writes every file under a temporary name and
+ * renames only when all is done.
+ */
+import { mkdir } from 'node:fs/promises';
+import os from 'node:os';
+import path from 'node:path';
+import { checkFreeSpace } from '../io/check-free-space.js';
+import { checkWritableDirectory } from '../io/check-writable-directory.js';
+import { openNpySink } from '../io/npy-sink.js';
+import { openPngSink } from '../io/png-sink.js';
+import type { RasterSink, RasterSpec } from '../io/raster-sink.js';
+import { openTiffSink } from '../io/tiff-sink.js';
+import { writeFileAtomic } from '../io/write-file-atomic.js';
+import { legendSvg } from '../colour/legend.js';
+import { DEFAULT_ESCAPE_RADIUS } from '../plane/sample-parameters.js';
+import type { PlateJob, TileStats } from '../render/plate-job.js';
+import { createProgress } from '../render/progress.js';
+import { bytesPerPixel, DEFAULT_STRIP_BUDGET, DEFAULT_TILE_SIZE, renderPlate, type DataSink, type PlateSinks } from '../render/render-plate.js';
+import { renderRecord, type Sheet } from '../view/sheet.js';
+import { DOUBLE_MIN_RELATIVE_SPACING, doubleGrid, fitsDouble } from '../view/view.js';
+import { Received, UserError } from './user-error.js';
+import { toolVersion } from './version.js';
+
+export interface RenderSheetOptions {
+  readonly workers?: number;
+  readonly tileSize?: number;
+  readonly label?: string;
+}
+
+export interface PlateSummary {
+  readonly file: string;
+  readonly files: string[];
+  readonly view: { re: string; im: string; span: string; rotation: number; width: number; height: number; pixelSpacing: number };
+  readonly arithmetic: 'double';
+  readonly iterations: number;
+  readonly samples: number;
+  readonly seconds: number;
+  readonly pixels: { total: number; escaped: number; interior: number; undecided: number; refined: number };
+  readonly kernelSamples: number;
+  readonly periods: Record<string, number>;
+  readonly area: { interior: number; undecided: number; pixelArea: number; note: string };
+}
+
+/** The metadata JSON stored in the image: tool, version and everything that fixes the pixels. */
+export function plateMetadata(sheet: Sheet): string {
+  return JSON.stringify({ tool: 'quadatlas', version: toolVersion(), arithmetic: 'double', sheet: renderRecord(sheet) });
+}
+
+/** Periodicity tolerance in z units from the pixel spacing (methods.md A4: tie it to the spacing). */
+export function periodTolerance(spacing: number): number {
+  return Math.min(1e-6, Math.max(spacing * 1e-3, 1e-15));
+}
+
+async function prepareDirectory(dir: string, field: string): Promise<void> {
+  try {
+    await mkdir(dir, { recursive: true });
+  } catch (err) {
+    const code = (err as NodeJS.ErrnoException).code ?? 'error';
+    throw new UserError(field, 'a directory that exists or can be created', new Received(`${dir} (${code})`));
+  }
+  await checkWritableDirectory(dir, field);
+}
+
+export async function renderSheet(sheet: Sheet, options: RenderSheetOptions = {}): Promise<PlateSummary> {
+  const started = process.hrtime.bigint();
+  const view = { centerRe: sheet.view.re, centerIm: sheet.view.im, span: sheet.view.span, width: sheet.width, height: sheet.height, rotation: sheet.view.rotation };
+  const grid = doubleGrid(view);
+  if (!fitsDouble(grid)) {
+    const reach = Math.max(1, Math.abs(grid.centerRe), Math.abs(grid.centerIm));
+    const minSpan = sheet.width * DOUBLE_MIN_RELATIVE_SPACING * reach;
+    throw new UserError('view.span', `a span of at least ${minSpan.toPrecision(3)} at this width for double arithmetic (deeper views need the deep arithmetic, not available yet)`, sheet.view.span);
+  }
+  const workers = options.workers ?? os.availableParallelism();
+  const tileSize = options.tileSize ?? DEFAULT_TILE_SIZE;
+  const file = sheet.output.file;
+  const tiff = /\.tiff?$/i.test(file);
+  const job: PlateJob = {
+    grid,
+    iterations: sheet.iterations,
+    escapeRadius: DEFAULT_ESCAPE_RADIUS,
+    periodTolerance: periodTolerance(grid.spacing),
+    samples: sheet.samples,
+    depth: sheet.depth,
+    colour: sheet.colour,
+    dpi: sheet.dpi,
+    withData: sheet.output.data !== null,
+  };
+
+  // Memory: two strips of at least one tile row each must fit comfortably.
+  const minStrip = sheet.width * tileSize * bytesPerPixel(job);
+  if (2 * minStrip > os.totalmem() / 4) {
+    throw new UserError('pixels.width', `a width whose strips fit in memory (at most ${Math.floor(os.totalmem() / 8 / (tileSize * bytesPerPixel(job)))} pixels)`, sheet.width);
+  }
+  // Disk: the image (estimated at a quarter of its raw size, twice for TIFF's bands) plus the exact NPY sizes.
+  const rawImage = sheet.width * sheet.height * 3 * (sheet.depth / 8);
+  const imageDir = path.dirname(path.resolve(file));
+  await prepareDirectory(imageDir, 'output.file');
+  const dataDir = sheet.output.data === null ? null : path.resolve(sheet.output.data);
+  if (dataDir !== null) await prepareDirectory(dataDir, 'output.data');
+  const dataBytes = dataDir === null ? 0 : sheet.width * sheet.height * 21 + 4 * 128;
+  await checkFreeSpace(imageDir, (rawImage / 4) * (tiff ? 2 : 1) + (dataDir !== null && path.resolve(dataDir) === imageDir ? dataBytes : 0), 'pixels');
+  if (dataDir !== null && dataDir !== imageDir) await checkFreeSpace(dataDir, dataBytes, 'output.data');
+
+  const metadata = plateMetadata(sheet);
+  const spec: RasterSpec = { width: sheet.width, height: sheet.height, depth: sheet.depth, channels: 3, dpi: sheet.dpi, metadata, software: `quadatlas ${toolVersion()}` };
+  const opened: Array<RasterSink | DataSink> = [];
+  const files: string[] = [];
+  try {
+    const image = tiff ? await openTiffSink(file, spec) : await openPngSink(file, spec);
+    opened.push(image);
+    const sinks: { -readonly [K in keyof PlateSinks]: PlateSinks[K] } = { image };
+    if (dataDir !== null) {
+      const shape: [number, number] = [sheet.height, sheet.width];
+      sinks.period = await openNpySink(path.join(dataDir, 'period.npy'), '<i4', shape);
+      sinks.smooth = await openNpySink(path.join(dataDir, 'smooth.npy'), '<f8', shape);
+      sinks.distance = await openNpySink(path.join(dataDir, 'distance.npy'), '<f8', shape);
+      sinks.interior = await openNpySink(path.join(dataDir, 'interior.npy'), '|u1', shape);
+      opened.push(sinks.period, sinks.smooth, sinks.distance, sinks.interior);
+    }
+    const progress = createProgress(options.label ?? path.basename(file));
+    let stats: TileStats;
+    try {
+      stats = await renderPlate(job, sinks, { workers, tileSize, stripBudget: DEFAULT_STRIP_BUDGET, onProgress: (d, t) => progress.update(d, t) });
+    } finally {
+      progress.end();
+    }
+    for (const s of opened) await s.finish();
+    files.push(path.resolve(file));
+    if (dataDir !== null) for (const n of ['period', 'smooth', 'distance', 'interior']) files.push(path.join(dataDir, `${n}.npy`));
+    const seconds = Number(process.hrtime.bigint() - started) / 1e9;
+    const pixelArea = grid.spacing * grid.spacing;
+    const summary: PlateSummary = {
+      file: path.resolve(file),
+      files,
+      view: { ...sheet.view, width: sheet.width, height: sheet.height, pixelSpacing: grid.spacing },
+      arithmetic: 'double',
+      iterations: sheet.iterations,
+      samples: sheet.samples,
+      seconds: Math.round(seconds * 1000) / 1000,
+      pixels: { total: sheet.width * sheet.height, escaped: stats.escaped, interior: stats.interior, undecided: stats.undecided, refined: stats.refined },
+      kernelSamples: stats.samples,
+      periods: Object.fromEntries(Object.entries(stats.periods).sort((a, b) => Number(a[0]) - Number(b[0]))),
+      area: {
+        interior: stats.interior * pixelArea,
+        undecided: stats.undecided * pixelArea,
+        pixelArea,
+        note: 'interior area = interior pixel centres x pixel area; undecided pixels bound its uncertainty',
+      },
+    };
+    if (sheet.colour.legend === 'beside') {
+      const legendFile = file.replace(/\.(png|tiff?)$/i, '-legend.svg');
+      await writeFileAtomic(legendFile, legendSvg(sheet.colour));
+      files.push(path.resolve(legendFile));
+    }
+    if (sheet.output.sidecar) {
+      const sidecar = `${file}.json`;
+      await writeFileAtomic(sidecar, `${JSON.stringify({ metadata: JSON.parse(metadata) as unknown, summary }, null, 2)}\n`);
+      files.push(path.resolve(sidecar));
+    }
+    return summary;
+  } catch (err) {
+    await Promise.allSettled(opened.map((s) => s.abort()));
+    throw err;
+  }
+}
