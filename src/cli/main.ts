@@ -21,7 +21,6 @@ const COMMANDS: ReadonlyArray<readonly [string, string, () => Promise<CommandMod
   ['plate', 'render one image of a view of the c-plane', () => import('./plate.js')],
   ['presets', 'list, show, check and render the sheets in presets/', () => import('./presets.js')],
   ['section', 'the real slice: convert, cascade, windows, lyapunov, diagram, compare', () => import('./section.js')],
-  ['section', 'the real slice: convert, cascade, windows, lyapunov, diagram, compare', () => import('./section.js')],
 ];
 
 export async function main(argv: readonly string[]): Promise<number> {
