@@ -15,10 +15,11 @@
  *
  * Determinism: colour is computed once per sample, in the worker, always through
  * these same functions in the same order, so a plate's bytes depend only on the
- * sheet. The transcendental functions used here (Math.pow, Math.cbrt,
- * Math.atan2, Math.cos, Math.sin) are V8's own ports of fdlibm, not the host C
- * library, so they agree across machines running the same Node version; a
- * change of engine could move a value by an ulp, far below one 16-bit step.
+ * sheet. The transcendental functions used in src/colour/ (Math.pow, cbrt,
+ * atan2, cos, sin, log1p, tanh; hypot is a scaled square root) are V8's own
+ * ports of fdlibm, not the host C library, so they agree across machines
+ * running the same Node version; a change of engine could move a value by an
+ * ulp, far below one 16-bit step. The 8-bit dither is integer-only.
  */
 
 /** Something a conversion can write three numbers into (Float64Array, number[]). */
