@@ -32,11 +32,27 @@ export function filterScanline(
     let s2 = 0;
     let s3 = 0;
     let s4 = 0;
-    for (let i = 0; i < n; i++) {
+    // A filtered byte d counts as the signed difference d < 128 ? d : 256 - d.
+    const lead = Math.min(bpp, n);
+    for (let i = 0; i < lead; i++) {
+      // No left neighbour: a = c = 0, so Sub = None and Paeth predicts b, like Up.
       const x = cur[i]!;
-      const a = i >= bpp ? cur[i - bpp]! : 0;
       const b = prev[i]!;
-      const c = i >= bpp ? prev[i - bpp]! : 0;
+      const d0 = x < 128 ? x : 256 - x;
+      let d = (x - b) & 0xff;
+      const d2 = d < 128 ? d : 256 - d;
+      s0 += d0;
+      s1 += d0;
+      s2 += d2;
+      d = (x - (b >> 1)) & 0xff;
+      s3 += d < 128 ? d : 256 - d;
+      s4 += d2;
+    }
+    for (let i = lead; i < n; i++) {
+      const x = cur[i]!;
+      const a = cur[i - bpp]!;
+      const b = prev[i]!;
+      const c = prev[i - bpp]!;
       s0 += x < 128 ? x : 256 - x;
       let d = (x - a) & 0xff;
       s1 += d < 128 ? d : 256 - d;
@@ -44,7 +60,10 @@ export function filterScanline(
       s2 += d < 128 ? d : 256 - d;
       d = (x - ((a + b) >> 1)) & 0xff;
       s3 += d < 128 ? d : 256 - d;
-      d = (x - paeth(a, b, c)) & 0xff;
+      const pa = Math.abs(b - c);
+      const pb = Math.abs(a - c);
+      const pc = Math.abs(a + b - c - c);
+      d = (x - (pa <= pb && pa <= pc ? a : pb <= pc ? b : c)) & 0xff;
       s4 += d < 128 ? d : 256 - d;
     }
     best = 0;

@@ -125,9 +125,21 @@ export async function openPngSink(path: string, spec: RasterSpec, options: PngSi
   });
   const d = deflate;
 
+  // Deflate runs on libuv's thread pool: keep up to two filtered chunks in
+  // flight so filtering the next chunk (main thread) overlaps compressing
+  // the last one, while memory stays bounded.
+  const inflight: Promise<void>[] = [];
   const feed = async (buf: Uint8Array): Promise<void> => {
-    if (!d.write(buf)) await Promise.race([once(d, 'drain'), once(d, 'error')]);
+    const done = new Promise<void>((resolve, reject) => {
+      d.write(buf, (err) => (err ? reject(err) : resolve()));
+    });
+    done.catch(() => undefined); // surfaced through the awaits below or deflateError
+    inflight.push(done);
+    while (inflight.length > 2) await inflight.shift();
     if (deflateError !== undefined) throw deflateError;
+  };
+  const drainInflight = async (): Promise<void> => {
+    while (inflight.length > 0) await inflight.shift();
   };
 
   return {
@@ -161,6 +173,7 @@ export async function openPngSink(path: string, spec: RasterSpec, options: PngSi
       if (state !== 'open') throw new Error(`PNG sink for ${path} is ${state === 'done' ? 'finished' : 'closed'}`);
       try {
         if (rowsWritten !== height) throw new Error(`PNG sink for ${path} got ${rowsWritten} of ${height} rows`);
+        await drainInflight();
         const ended = once(d, 'end');
         d.end();
         await ended;

@@ -1,5 +1,5 @@
 import { spawnSync } from 'node:child_process';
-import { readdir, readFile } from 'node:fs/promises';
+import { mkdir, readdir, readFile } from 'node:fs/promises';
 import path from 'node:path';
 import { afterEach, beforeEach, describe, expect, it } from 'vitest';
 import { npyHeader, openNpySink } from '../../src/io/npy-sink.js';
@@ -106,6 +106,16 @@ describe('openNpySink', () => {
     // Compare bit patterns, so -0 and the smallest subnormal are checked exactly.
     const bits = Array.from(new BigUint64Array(new Float64Array([0.1, -2.5, 1e300, 5e-324, Math.PI, -0]).buffer));
     expect(py.stdout.trim()).toBe(`<f8 (3, 2) [${bits.join(', ')}]`);
+  });
+
+  it('cleans up its temporary file when the final rename fails, leaving the final name untouched', async () => {
+    const target = path.join(dir, 'e.npy');
+    await mkdir(target);
+    const sink = await openNpySink(target, '|u1', [1, 3]);
+    await sink.writeRows(new Uint8Array([1, 2, 3]), 1);
+    await expect(sink.finish()).rejects.toThrow();
+    expect(await readdir(dir)).toEqual(['e.npy']);
+    expect(await readdir(target)).toEqual([]);
   });
 
   it('rejects elements of the wrong size and leaves no file', async () => {

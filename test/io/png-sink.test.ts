@@ -1,4 +1,4 @@
-import { readdir, readFile } from 'node:fs/promises';
+import { mkdir, readdir, readFile } from 'node:fs/promises';
 import path from 'node:path';
 import { crc32, inflateSync } from 'node:zlib';
 import { PNG } from 'pngjs';
@@ -172,6 +172,17 @@ describe('openPngSink', () => {
     await expect(sink.writeRows(testPixels(10, 5, 3, 8), 5)).rejects.toThrow(/Uint16Array/);
     expect(await readdir(dir)).toEqual([]);
     await expect(sink.finish()).rejects.toThrow(/closed/);
+  });
+
+  it('cleans up its temporary file when the final rename fails, leaving the final name untouched', async () => {
+    // The final name is taken by a directory, so rename(2) fails (EISDIR) at the very end.
+    const target = path.join(dir, 'p.png');
+    await mkdir(target);
+    const sink = await openPngSink(target, spec(10, 10, 8, 3));
+    await sink.writeRows(testPixels(10, 10, 3, 8), 10);
+    await expect(sink.finish()).rejects.toThrow();
+    expect(await readdir(dir)).toEqual(['p.png']);
+    expect(await readdir(target)).toEqual([]);
   });
 
   it('refuses to finish before every row arrived and leaves no file', async () => {

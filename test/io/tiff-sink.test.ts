@@ -1,4 +1,4 @@
-import { readdir, readFile } from 'node:fs/promises';
+import { mkdir, readdir, readFile } from 'node:fs/promises';
 import path from 'node:path';
 import sharp from 'sharp';
 import { afterEach, beforeEach, describe, expect, it } from 'vitest';
@@ -90,6 +90,16 @@ describe('openTiffSink', () => {
     await sink.writeRows(testPixels(10, 5, 3, 16), 5);
     await sink.abort();
     expect(await readdir(dir)).toEqual([]);
+  });
+
+  it('cleans up its bands and temporary file when the final rename fails, leaving the final name untouched', async () => {
+    const target = path.join(dir, 'p.tif');
+    await mkdir(target); // rename(2) onto a directory fails
+    const sink = await openTiffSink(target, spec(10, 10, 16, 3), { bandRows: 3 });
+    await sink.writeRows(testPixels(10, 10, 3, 16), 10);
+    await expect(sink.finish()).rejects.toThrow();
+    expect(await readdir(dir)).toEqual(['p.tif']);
+    expect(await readdir(target)).toEqual([]);
   });
 
   it('refuses to finish before every row arrived and leaves nothing behind', async () => {
