@@ -7,6 +7,7 @@ import path from 'node:path';
 import { fileURLToPath } from 'node:url';
 import type { BenchRow, BenchSection } from './bench-section.js';
 import { kernelSection } from './kernel-section.js';
+import { plateSection } from './plate-section.js';
 
 /**
  * The section registry, run in this order.
@@ -16,7 +17,7 @@ import { kernelSection } from './kernel-section.js';
  */
 export const SECTIONS: readonly BenchSection[] = [
   kernelSection,
-  // <- renderer sections
+  plateSection,
 ];
 
 interface SectionResult {

@@ -41,6 +41,8 @@ export interface PlateSummary {
   readonly seconds: number;
   readonly pixels: { total: number; escaped: number; interior: number; undecided: number; refined: number };
   readonly kernelSamples: number;
+  /** Peak resident memory of the process (all worker threads included), MiB. */
+  readonly peakMemoryMiB: number;
   readonly periods: Record<string, number>;
   readonly area: { interior: number; undecided: number; pixelArea: number; note: string };
 }
@@ -143,6 +145,7 @@ export async function renderSheet(sheet: Sheet, options: RenderSheetOptions = {}
       seconds: Math.round(seconds * 1000) / 1000,
       pixels: { total: sheet.width * sheet.height, escaped: stats.escaped, interior: stats.interior, undecided: stats.undecided, refined: stats.refined },
       kernelSamples: stats.samples,
+      peakMemoryMiB: Math.round(process.resourceUsage().maxRSS / 1024),
       periods: Object.fromEntries(Object.entries(stats.periods).sort((a, b) => Number(a[0]) - Number(b[0]))),
       area: {
         interior: stats.interior * pixelArea,
