@@ -1,0 +1,30 @@
+/**
+ * Exterior distance estimate (methods.md A2; Peitgen & Saupe (eds.), The
+ * Science of Fractal Images (1988) p. 198; Wikibooks "Fractals/Iterations in
+ * the complex plane/demm"; bounds from Milnor, Dynamics in One Complex
+ * Variable, App. G): re-run the orbit of 0 for `iterations` steps carrying the
+ * c-derivative, updated BEFORE z (d_{k+1} = 2 z_k d_k + 1, d_0 = 0), then
+ * b = 2 |z_n| ln|z_n| / |d_n| in c units, with z_n = (zRe, zIm) the escaped
+ * iterate reported by the escape loop (the re-run repeats the loop's z
+ * arithmetic, so it reaches the same z_n). Roughly b/4 < dist(c, M) < b, and
+ * the estimate sharpens as the escape radius grows.
+ *
+ * Recomputing in a second pass keeps the hot loop free of the derivative;
+ * only escaped samples pay for it. Returns 0 if |d_n| overflowed.
+ */
+export function exteriorDistance(cRe: number, cIm: number, iterations: number, zRe: number, zIm: number): number {
+  let x = 0, y = 0, x2 = 0, y2 = 0, dr = 0, di = 0;
+  for (let j = 0; j < iterations; j++) {
+    const t = 2 * (x * dr - y * di) + 1;
+    di = 2 * (x * di + y * dr);
+    dr = t;
+    y = 2 * x * y + cIm;
+    x = x2 - y2 + cRe;
+    x2 = x * x;
+    y2 = y * y;
+  }
+  const mod2 = zRe * zRe + zIm * zIm;
+  const d = Math.hypot(dr, di);
+  if (!(d < Infinity)) return 0;
+  return (Math.sqrt(mod2) * Math.log(mod2)) / d;
+}

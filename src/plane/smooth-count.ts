@@ -1,0 +1,11 @@
+/**
+ * Smooth (continuous) escape count (methods.md A1; L. Vepstas, "Renormalizing
+ * the Mandelbrot escape" (1997)): mu = n - log2(ln|z_n| / ln R) for the first
+ * n with |z_n| > R. It lies in (n - 1, n] up to |c|/R^2 and is continuous
+ * across bands because ln|z_{n+1}| ~ 2 ln|z_n| once |z| is large; a larger R
+ * leaves smaller seams. `logEscapeRadius` is ln R.
+ */
+export function smoothCount(iterations: number, zRe: number, zIm: number, logEscapeRadius: number): number {
+  // ln|z| = ln(|z|^2) / 2
+  return iterations - Math.log2((0.5 * Math.log(zRe * zRe + zIm * zIm)) / logEscapeRadius);
+}
