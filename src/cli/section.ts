@@ -200,6 +200,178 @@ export async function windowsTable(values: Values): Promise<SectionTable> {
   };
 }
 
+// ---------------------------------------------------------------- marks
+
+interface Landmarks {
+  /** Period-doubling points of the cascade (family parameter). */
+  doublings: { at: number; label: string }[];
+  /** Periodic windows (onset to end, family parameter). */
+  windows: { from: number; to: number; superstable: number; period: number; label: string }[];
+}
+
+/** Cascade doublings (levels 1..6) and windows of period 3..maxPeriod, at modest precision, for plot marks. */
+export async function landmarks(family: UnimodalFamily, maxPeriod: number): Promise<Landmarks> {
+  const { computeCascade } = await import('../section/cascade.js');
+  const { familySolver } = await import('../section/cascade-solver.js');
+  const cascade = computeCascade(familySolver(family, 16), 6, 16);
+  const doublings = cascade.levels.filter((l) => l.doubling !== undefined).map((l) => ({ at: l.doubling!.toNumber(), label: `${l.period / 2}->${l.period}` }));
+  const windows: Landmarks['windows'] = [];
+  if (family.maximumOrder === 2 && maxPeriod >= 3) {
+    const { findWindows } = await import('../section/windows.js');
+    for (const w of findWindows(family, maxPeriod, 16).windows) {
+      if (w.satellite || w.period < 3) continue;
+      windows.push({ from: w.onset.toNumber(), to: w.end.toNumber(), superstable: w.superstable.toNumber(), period: w.period, label: `p${w.period} ${w.word}` });
+    }
+  }
+  return { doublings, windows };
+}
+
+function parseRange(values: Values, family: UnimodalFamily, defaults: readonly [string, string]): [number, number] {
+  const from = Number(values['from'] === undefined ? defaults[0] : parseDecimal(values['from'], '--from'));
+  const to = Number(values['to'] === undefined ? defaults[1] : parseDecimal(values['to'], '--to'));
+  const [lo, hi] = [Number(family.fixedPointOnset), Number(family.range[1])];
+  const ok = (v: number): boolean => v >= Math.min(lo, 0) && v <= hi;
+  if (!ok(from)) throw new UserError('--from', `a ${family.parameter} between ${Math.min(lo, 0)} and ${hi} for the ${family.name} family`, values['from']);
+  if (!ok(to)) throw new UserError('--to', `a ${family.parameter} between ${Math.min(lo, 0)} and ${hi} for the ${family.name} family`, values['to']);
+  if (!(to > from)) throw new UserError('--to', `a value above --from (${from})`, values['to']);
+  return [from, to];
+}
+
+async function writeText(file: string, text: string): Promise<void> {
+  const { writeFileAtomic } = await import('../io/write-file-atomic.js');
+  try {
+    await writeFileAtomic(file, text);
+  } catch (err) {
+    throw new UserError('--out', 'a writable file path', new Received(`${file} (${(err as NodeJS.ErrnoException).code ?? (err as Error).message})`));
+  }
+}
+
+// ---------------------------------------------------------------- lyapunov
+
+export async function lyapunovRun(values: Values): Promise<{ table: SectionTable; svg?: string }> {
+  const family = parseFamily(values['family']);
+  const defaults: Record<string, readonly [string, string]> = { logistic: ['2.8', '4'], sine: ['0.7', '1'], quartic: ['0.6', family.range[1]] };
+  const [from, to] = parseRange(values, family, defaults[family.name] ?? family.range);
+  const steps = parseInteger(values['steps'], '--steps', 2, 1_000_000, 1000);
+  const transient = parseInteger(values['transient'], '--transient', 0, 100_000_000, 1000);
+  const iterations = parseInteger(values['iterations'], '--iterations', 1, 100_000_000, 10_000);
+  const { lyapunovExponents } = await import('../section/lyapunov.js');
+  const params = new Float64Array(steps);
+  for (let k = 0; k < steps; k++) params[k] = from + ((to - from) * k) / (steps - 1);
+  const lam = new Float64Array(steps);
+  const spread = new Float64Array(steps);
+  lyapunovExponents(family, params, { transient, iterations, starts: 3 }, lam, spread);
+  const p = family.parameter;
+  const withC = family.toC !== undefined;
+  const columns = [p, ...(withC ? ['c'] : []), 'lyapunov', 'spread'];
+  const rows = Array.from(params, (r, k) => {
+    const row = [String(r)];
+    if (withC) row.push(String(r / 2 - (r * r) / 4));
+    row.push(lam[k]!.toPrecision(8), spread[k]!.toPrecision(3));
+    return row;
+  });
+  const table: SectionTable = {
+    title: `Lyapunov exponent of the ${family.name} family ${family.formula}, ${transient} transient + ${iterations} measured steps, 3 starts`,
+    columns,
+    rows,
+    summary: [],
+    extra: { family: family.name, from, to, steps, transient, iterations },
+  };
+  if (typeof values['out'] !== 'string') return { table };
+  const { plotSvg } = await import('../section/plot-svg.js');
+  const marks = await landmarks(family, 5);
+  const svg = plotSvg({
+    title: `Lyapunov exponent, ${family.formula} (shaded: periodic windows onset to end; red: period doublings)`,
+    xLabel: family.parameter,
+    yLabel: 'Lyapunov exponent',
+    xs: params,
+    ys: lam,
+    marks: marks.doublings.map((d) => ({ at: d.at, label: d.label })),
+    bands: marks.windows.map((w) => ({ from: w.from, to: w.to, label: w.label })),
+    yMin: -3,
+  });
+  return { table, svg };
+}
+
+// ---------------------------------------------------------------- diagram
+
+function parseSize(value: unknown, fallback: [number, number]): [number, number] {
+  if (value === undefined) return fallback;
+  const m = typeof value === 'string' ? /^\s*(\d+)\s*[xX]\s*(\d+)\s*$/.exec(value) : null;
+  const w = m ? Number(m[1]) : NaN;
+  const h = m ? Number(m[2]) : NaN;
+  if (!(w >= 1 && w <= 65535 && h >= 1 && h <= 65535)) throw new UserError('--size', 'a size WxH in pixels between 1x1 and 65535x65535 (e.g. 2000x1000)', value);
+  return [w, h];
+}
+
+function parseWorkers(value: unknown): number {
+  const { availableParallelism } = process as unknown as { availableParallelism?: () => number };
+  return parseInteger(value, '--workers', 1, 256, availableParallelism?.() ?? 2);
+}
+
+function parseOut(value: unknown, exts: readonly string[], fallback: string): string {
+  const file = value === undefined ? fallback : String(value);
+  if (!exts.some((e) => file.toLowerCase().endsWith(e))) throw new UserError('--out', `a file name ending in ${exts.join(' or ')}`, value);
+  return file;
+}
+
+async function writeInkPng(file: string, ink: Uint16Array, width: number, height: number, depth: 8 | 16, metadata: string): Promise<void> {
+  const { openPngSink } = await import('../io/png-sink.js');
+  const { toolVersion } = await import('./version.js');
+  let sink;
+  try {
+    sink = await openPngSink(file, { width, height, depth, channels: 3, metadata, software: `quadatlas ${toolVersion()}` });
+  } catch (err) {
+    throw new UserError('--out', 'a writable file path', new Received(`${file} (${(err as NodeJS.ErrnoException).code ?? (err as Error).message})`));
+  }
+  try {
+    const band = 64;
+    for (let j0 = 0; j0 < height; j0 += band) {
+      const rows = Math.min(band, height - j0);
+      const px = depth === 16 ? new Uint16Array(rows * width * 3) : new Uint8Array(rows * width * 3);
+      for (let k = 0; k < rows * width; k++) {
+        const v = ink[j0 * width + k]!;
+        const q = depth === 16 ? v : Math.round(v / 257);
+        px[3 * k] = q;
+        px[3 * k + 1] = q;
+        px[3 * k + 2] = q;
+      }
+      await sink.writeRows(px, rows);
+    }
+    await sink.finish();
+  } catch (err) {
+    await sink.abort();
+    throw err;
+  }
+}
+
+export async function diagramRun(values: Values, progress: (s: string) => void): Promise<{ file: string; seconds: number; width: number; height: number }> {
+  const family = parseFamily(values['family']);
+  const defaults: Record<string, readonly [string, string]> = { logistic: ['2.8', '4'], sine: ['0.7', '1'], quartic: ['0.6', family.range[1]] };
+  const [from, to] = parseRange(values, family, defaults[family.name] ?? family.range);
+  const [width, height] = parseSize(values['size'], [2000, 1000]);
+  const samples = parseInteger(values['samples'], '--samples', 1, 1024, 4);
+  const transient = parseInteger(values['transient'], '--transient', 0, 10_000_000, 1000);
+  const iterations = parseInteger(values['iterations'], '--iterations', 1, 10_000_000, Math.max(1000, 2 * height));
+  const depth = parseInteger(values['depth'], '--depth', 8, 16, 16);
+  if (depth !== 8 && depth !== 16) throw new UserError('--depth', '8 or 16', values['depth']);
+  const workers = parseWorkers(values['workers']);
+  const file = parseOut(values['out'], ['.png'], `out/${family.name}-diagram.png`);
+  const { renderDiagram } = await import('../section/render-diagram.js');
+  const { drawTicks } = await import('../section/diagram-ticks.js');
+  const { niceTicks } = await import('../section/plot-svg.js');
+  const [top, bottom] = [family.stateRange[1], family.stateRange[0]];
+  const settings = { width, height, samples, transient, iterations, stateTop: top, stateBottom: bottom };
+  const axis = { kind: 'parameter', from, to } as const;
+  const started = Date.now();
+  const ink = await renderDiagram(family, axis, settings, workers, (d, n) => progress(`diagram ${Math.round((100 * d) / n)} %`));
+  const ticks = niceTicks(from, to, 10);
+  drawTicks(ink, width, height, ticks.map((t) => (t - from) / (to - from)), Math.max(4, Math.round(height / 100)));
+  const metadata = JSON.stringify({ kind: 'section diagram', family: family.name, formula: family.formula, axis: { parameter: family.parameter, from, to, ticks }, state: { top, bottom }, samples, transient, iterations, depth });
+  await writeInkPng(file, ink, width, height, depth, metadata);
+  return { file, seconds: (Date.now() - started) / 1000, width, height };
+}
+
 // ---------------------------------------------------------------- register
 
 function opt(cmd: Command, key: keyof typeof OPTION): Command {
@@ -244,5 +416,26 @@ export function register(program: Command): void {
   windows.action(async (values: Values) => {
     const format = tableFormat(values);
     write(formatTable(await windowsTable(values), format));
+  });
+
+  const lyapunov = section.command('lyapunov').description('Lyapunov exponent across a parameter range (table, and an SVG plot with --out)');
+  for (const k of ['family', 'from', 'to', 'steps', 'transient', 'iterations', 'out', 'json', 'csv'] as const) opt(lyapunov, k);
+  lyapunov.action(async (values: Values) => {
+    const format = tableFormat(values);
+    if (values['out'] !== undefined) parseOut(values['out'], ['.svg'], '');
+    const { table, svg } = await lyapunovRun(values);
+    if (svg !== undefined) {
+      await writeText(String(values['out']), svg);
+      process.stderr.write(`quadatlas: wrote ${String(values['out'])}\n`);
+      if (format !== 'text') write(formatTable(table, format));
+    } else write(formatTable(table, format));
+  });
+
+  const diagram = section.command('diagram').description('the bifurcation diagram as a 16-bit density image (PNG)');
+  for (const k of ['family', 'from', 'to', 'size', 'samples', 'transient', 'iterations', 'depth', 'workers', 'out'] as const) opt(diagram, k);
+  diagram.action(async (values: Values) => {
+    const r = await diagramRun(values, progressLine);
+    if (process.stderr.isTTY) process.stderr.write('\r\x1b[K');
+    process.stderr.write(`quadatlas: wrote ${r.file} (${r.width}x${r.height}) in ${r.seconds.toFixed(1)} s\n`);
   });
 }

@@ -20,8 +20,8 @@ export interface CascadeSolver {
   readonly deltaGuess: string;
   /** The superstable parameter of `period` near `guess`. */
   superstable(period: number, guess: Decimal): SolvedParameter;
-  /** Where the cycle of `period` has multiplier -1, near `guess`. */
-  doubling(period: number, guess: Decimal): SolvedParameter;
+  /** Where the cycle of `period` has multiplier -1, near `guess`; `nucleus` is its superstable parameter. */
+  doubling(period: number, guess: Decimal, nucleus: Decimal): SolvedParameter;
   /** f^half(x_c) - x_c at parameter p (signed distance to the nearest cycle point). */
   gap(half: number, p: Decimal): Decimal;
 }

@@ -77,7 +77,7 @@ export function computeCascade(solver: CascadeSolver, maxLevel: number, digits: 
     if (n >= 1) {
       const prev = levels[n - 1]!;
       const dGuess = prev.superstable.plus(sup.value.minus(prev.superstable).times(fraction));
-      const dbl = solver.doubling(period / 2, dGuess);
+      const dbl = solver.doubling(period / 2, dGuess, prev.superstable);
       level.doubling = dbl.value;
       level.steps += dbl.steps;
       fraction = dbl.value.minus(prev.superstable).div(sup.value.minus(prev.superstable));
