@@ -1,4 +1,5 @@
 import { existsSync } from 'node:fs';
+import { loadavg } from 'node:os';
 import type { EscapeLoop } from '../src/plane/escape-loop.js';
 import { createLoopOut, escapeLoop } from '../src/plane/escape-loop.js';
 import { loadWasmEscapeLoop } from '../src/plane/escape-loop-wasm.js';
@@ -118,7 +119,8 @@ export const kernelSection: BenchSection = {
       rows.push(row('WASM SIMD loop (4 x f64x2)', wasm.total, wasm.seconds, yardstick));
       context.note(`WASM / JS = ${(js.seconds / wasm.seconds).toFixed(2)}`);
     }
-    context.note('JS and WASM: warm-up pass, then best of 3; C: one pass of each loop, as escape-ref prints it');
+    context.note('JS and WASM: warm-up pass, then best of 3; C: one pass of each loop, as escape-ref prints it; all wall-clock time on one thread');
+    context.note(`load average at the end: ${loadavg()[0]!.toFixed(2)} (figures from a busy machine are low and noisy)`);
     return rows;
   },
 };
