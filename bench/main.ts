@@ -1,7 +1,7 @@
 // The benchmark harness: `npm run bench [-- <section> ...]` runs the sections
 // of SECTIONS in order (or only those named), prints each as a plain table
 // and writes every figure to out/bench.json. Synthetic inputs only.
-import { existsSync, mkdirSync, renameSync, writeFileSync } from 'node:fs';
+import { existsSync, mkdirSync, readFileSync, renameSync, writeFileSync } from 'node:fs';
 import { cpus } from 'node:os';
 import path from 'node:path';
 import { fileURLToPath } from 'node:url';
@@ -59,6 +59,16 @@ export function formatTable(rows: readonly BenchRow[]): string {
   return [render(header), render(widths.map((w) => '-'.repeat(w))), ...cells.map(render)].join('\n');
 }
 
+/** The sections of an earlier out/bench.json, or none if it is missing or unreadable. */
+function previousSections(file: string): { readonly name: string }[] {
+  try {
+    const sections: unknown = JSON.parse(readFileSync(file, 'utf8')).sections;
+    return Array.isArray(sections) ? sections.filter((s): s is { name: string } => typeof s?.name === 'string') : [];
+  } catch {
+    return [];
+  }
+}
+
 async function main(argv: readonly string[]): Promise<void> {
   const root = projectRoot();
   const unknown = argv.filter((name) => !SECTIONS.some((s) => s.name === name));
@@ -79,16 +89,19 @@ async function main(argv: readonly string[]): Promise<void> {
     console.log(formatTable(rows));
     for (const n of notes) console.log(`  note: ${n}`);
   }
-  const report = {
-    date: new Date().toISOString(),
-    node: process.version,
-    cpu: cpus()[0]?.model ?? 'unknown',
-    cores: cpus().length,
-    sections: results,
-  };
   const outDir = path.join(root, 'out');
   mkdirSync(outDir, { recursive: true });
   const file = path.join(outDir, 'bench.json');
+  // A run of some sections keeps the other sections' last figures (each carries its own date).
+  const date = new Date().toISOString();
+  const kept = argv.length === 0 ? [] : previousSections(file).filter((s) => !results.some((r) => r.name === s.name));
+  const report = {
+    date,
+    node: process.version,
+    cpu: cpus()[0]?.model ?? 'unknown',
+    cores: cpus().length,
+    sections: [...results.map((r) => ({ ...r, date })), ...kept],
+  };
   writeFileSync(`${file}.tmp`, JSON.stringify(report, null, 2) + '\n');
   renameSync(`${file}.tmp`, file);
   console.log(`\nwrote ${path.relative(process.cwd(), file) || file}`);
