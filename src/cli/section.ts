@@ -237,7 +237,7 @@ function parseRange(values: Values, family: UnimodalFamily, defaults: readonly [
   return [from, to];
 }
 
-async function writeText(file: string, text: string): Promise<void> {
+async function writeText(file: string, text: string | Uint8Array): Promise<void> {
   const { writeFileAtomic } = await import('../io/write-file-atomic.js');
   try {
     await writeFileAtomic(file, text);
@@ -372,6 +372,61 @@ export async function diagramRun(values: Values, progress: (s: string) => void):
   return { file, seconds: (Date.now() - started) / 1000, width, height };
 }
 
+// ---------------------------------------------------------------- compare
+
+export async function compareRun(values: Values, progress: (s: string) => void): Promise<{ file: string; seconds: number }> {
+  const from = Number(values['from'] === undefined ? '-2' : parseDecimal(values['from'], '--from'));
+  const to = Number(values['to'] === undefined ? '-0.7' : parseDecimal(values['to'], '--to'));
+  if (!(from >= -2 && from <= 0.25)) throw new UserError('--from', 'a c between -2 and 0.25 (the real slice of the set)', values['from']);
+  if (!(to >= -2 && to <= 0.25 && to > from)) throw new UserError('--to', `a c between -2 and 0.25 above --from (${from})`, values['to']);
+  const [width, height] = parseSize(values['size'], [2400, 1500]);
+  if (width < 100 || height < 100) throw new UserError('--size', 'a plate of at least 100x100 pixels', values['size']);
+  const samples = parseInteger(values['samples'], '--samples', 1, 1024, 4);
+  const workers = parseWorkers(values['workers']);
+  const maxPeriod = parseInteger(values['maxPeriod'], '--max-period', 3, 8, 5);
+  const file = parseOut(values['out'], ['.svg', '.png'], 'out/section-compare.svg');
+  const started = Date.now();
+  const { logistic } = await import('../section/families/index.js');
+  const { planeStrip } = await import('../section/plane-strip.js');
+  const { renderDiagram } = await import('../section/render-diagram.js');
+  const { comparePlateSvg } = await import('../section/compare-plate.js');
+  const sharp = (await import('sharp')).default;
+  const stripHeight = Math.round(height / 3);
+  const diagramHeight = height - stripHeight;
+  progress('plane strip');
+  const strip = planeStrip(from, to, width, stripHeight, 4000);
+  const stripPng = await sharp(strip, { raw: { width, height: stripHeight, channels: 3 } }).png().toBuffer();
+  progress('diagram');
+  const settings = { width, height: diagramHeight, samples, transient: 2000, iterations: Math.max(2000, 2 * diagramHeight), stateTop: 1, stateBottom: 0 };
+  const ink = await renderDiagram(logistic, { kind: 'c', from, to }, settings, workers);
+  const grey = new Uint8Array(ink.length);
+  for (let k = 0; k < ink.length; k++) grey[k] = Math.round(ink[k]! / 257);
+  const diagramPng = await sharp(grey, { raw: { width, height: diagramHeight, channels: 1 } }).png().toBuffer();
+  progress('landmarks');
+  const marks = await landmarks(logistic, maxPeriod);
+  const cOf = (r: number): number => r / 2 - (r * r) / 4;
+  const svg = comparePlateSvg({
+    from,
+    to,
+    width,
+    stripHeight,
+    diagramHeight,
+    stripPng: stripPng.toString('base64'),
+    diagramPng: diagramPng.toString('base64'),
+    title: 'The real slice: z -> z^2 + c along the real axis above the logistic map, one parameter axis',
+    marks: [
+      ...marks.doublings.map((d) => ({ c: cOf(d.at), label: d.label, kind: 'doubling' as const })),
+      ...marks.windows.map((w) => ({ c: cOf(w.superstable), label: String(w.period), kind: 'window' as const, from: cOf(w.from), to: cOf(w.to) })),
+    ],
+  });
+  if (file.toLowerCase().endsWith('.svg')) await writeText(file, svg);
+  else {
+    const png = await sharp(Buffer.from(svg)).png().toBuffer();
+    await writeText(file, png);
+  }
+  return { file, seconds: (Date.now() - started) / 1000 };
+}
+
 // ---------------------------------------------------------------- register
 
 function opt(cmd: Command, key: keyof typeof OPTION): Command {
@@ -437,5 +492,19 @@ export function register(program: Command): void {
     const r = await diagramRun(values, progressLine);
     if (process.stderr.isTTY) process.stderr.write('\r\x1b[K');
     process.stderr.write(`quadatlas: wrote ${r.file} (${r.width}x${r.height}) in ${r.seconds.toFixed(1)} s\n`);
+  });
+
+  const compare = section
+    .command('compare')
+    .description('one plate: a strip of the c-plane above the logistic bifurcation diagram on one axis (SVG or PNG)')
+    .option('--from <c>', 'left end of the axis in c (default -2)')
+    .option('--to <c>', 'right end of the axis in c (default -0.7)')
+    .option('--size <WxH>', 'plate size in pixels without margins (default 2400x1500)')
+    .option('--max-period <p>', 'mark windows up to this period (default 5)');
+  for (const k of ['samples', 'workers', 'out'] as const) opt(compare, k);
+  compare.action(async (values: Values) => {
+    const r = await compareRun(values, progressLine);
+    if (process.stderr.isTTY) process.stderr.write('\r\x1b[K');
+    process.stderr.write(`quadatlas: wrote ${r.file} in ${r.seconds.toFixed(1)} s\n`);
   });
 }
