@@ -19,6 +19,14 @@ import { smoothCount } from './smooth-count.js';
  */
 export const DEFAULT_ESCAPE_RADIUS = 65536;
 
+/**
+ * Largest escape radius the kernels accept: an escaped |z_n| is at most
+ * R^2 + 2, and its square must stay finite (R^4 = 2^1020 < 2^1024), or the
+ * smooth count and distance become infinite. Validators should require
+ * 2 <= escapeRadius <= MAX_ESCAPE_RADIUS.
+ */
+export const MAX_ESCAPE_RADIUS = 2 ** 255;
+
 /** Failed cycle confirmations per sample before periodicity checking is switched off for it. */
 const MAX_CONFIRM_ATTEMPTS = 8;
 /** Each failed confirmation divides the squared tolerance by this (tolerance by 16). */
@@ -90,6 +98,13 @@ export function createSampleScratch(capacity: number): SampleScratch {
  * Multipliers are 0 and distance is as above for non-interior samples. The
  * loop receives escapeRadius^2 and periodTolerance^2. The result for a
  * sample depends on its c and the settings only, never on the batch.
+ *
+ * Settings are trusted (validate at the boundary): maxIterations an integer
+ * >= 1, 2 <= escapeRadius <= MAX_ESCAPE_RADIUS, periodTolerance >= 0 (0
+ * switches periodicity checking off, so interior samples outside the
+ * closed-form components end undecided). `scratch` is used when its capacity
+ * is at least `count`, otherwise a fresh one is allocated for this call.
+ * Returns `out`.
  */
 export function sampleParameters(
   cr: Float64Array,

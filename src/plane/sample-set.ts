@@ -9,7 +9,9 @@
  *   iteration limit was reached without a decision ("undecided").
  * - `smooth[k]`: smooth (continuous) escape count mu in (n-1, n] for escaped
  *   samples (methods.md A1); for interior samples the iteration at which the
- *   cycle was confirmed; for undecided samples the iteration limit.
+ *   cycle was confirmed (0 when a closed-form test for the main cardioid or
+ *   the period-2 disk decided it without iterating); for undecided samples
+ *   the iteration limit.
  * - `distance[k]`: for escaped samples the exterior distance estimate
  *   b = 2|z| ln|z| / |dz/dc| in c units (A2); for interior samples the interior
  *   distance estimate (A6) in c units; NaN where it cannot be computed.

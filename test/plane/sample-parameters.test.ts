@@ -3,7 +3,7 @@ import { attractingCycle } from '../../src/plane/attracting-cycle.js';
 import { LOOP_CYCLE, escapeLoop } from '../../src/plane/escape-loop.js';
 import type { EscapeLoop } from '../../src/plane/escape-loop.js';
 import { interiorDistance } from '../../src/plane/interior-distance.js';
-import { DEFAULT_ESCAPE_RADIUS, createSampleScratch, sampleParameters } from '../../src/plane/sample-parameters.js';
+import { DEFAULT_ESCAPE_RADIUS, MAX_ESCAPE_RADIUS, createSampleScratch, sampleParameters } from '../../src/plane/sample-parameters.js';
 import { createSampleSet } from '../../src/plane/sample-set.js';
 import type { EscapeSettings, SampleSet } from '../../src/plane/sample-set.js';
 
@@ -190,6 +190,20 @@ describe('sampleParameters', () => {
       expect(big.max).toBeLessThan(0.05);
       expect(jump(2).max).toBeGreaterThan(0.1);
     }
+  });
+
+  it('sampleParameters(escapeRadius = MAX_ESCAPE_RADIUS) keeps smooth count and distance finite, the distance within 1 % of R = 2^16', () => {
+    // The largest R whose escaped |z|^2 stays finite; a larger R (e.g. 1e100) overflows to Infinity.
+    const pts: [number, number][] = [[1, 0], [-2.1, 0], [0.3, 0], [2, 2], [-0.75, 0.1]];
+    const big = run(pts, { ...SETTINGS, escapeRadius: MAX_ESCAPE_RADIUS });
+    const usual = run(pts);
+    pts.forEach((_, k) => {
+      expect(big.period[k]).toBe(0);
+      expect(Number.isFinite(big.smooth[k])).toBe(true);
+      expect(Number.isFinite(big.distance[k])).toBe(true);
+      // Distance sharpens with R (A2); here it moves by under 1 % from R = 2^16.
+      expect(big.distance[k]! / usual.distance[k]!).toBeCloseTo(1, 2);
+    });
   });
 
   it('sampleParameters never gives a period to the Misiurewicz points c = i and c = -2 (checks.md)', () => {
