@@ -21,6 +21,8 @@ const COMMANDS: ReadonlyArray<readonly [string, string, () => Promise<CommandMod
   ['plate', 'render one image of a view of the c-plane', () => import('./plate.js')],
   ['presets', 'list, show, check and render the sheets in presets/', () => import('./presets.js')],
   ['section', 'the real slice: convert, cascade, windows, lyapunov, diagram, compare', () => import('./section.js')],
+  ['pyramid', 'write a deep-zoom tile pyramid of a view, with an offline viewer page', () => import('./pyramid.js')],
+  ['worker', 'take tile jobs from a shared queue (cluster mode)', () => import('./worker.js')],
 ];
 
 export async function main(argv: readonly string[]): Promise<number> {

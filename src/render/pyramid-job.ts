@@ -1,0 +1,88 @@
+/**
+ * What fixes every byte of a pyramid, and the plate job of each level.
+ *
+ * A pyramid's spec is the sheet's render record (renderRecord: view, pixels,
+ * iterations, samples, colouring) plus the tile size, format and JPEG
+ * quality. It is written once into the output folder as pyramid.json, so a
+ * resumed run, a shard, `--finish` and a queue worker on another machine all
+ * work from the same record.
+ *
+ * Each level is rendered at its own scale (not downsampled from the level
+ * below): level s is the base view with pixels s times as wide, i.e. the
+ * same centre and span over a grid of W / s x H / s pixels, sampled with the
+ * same adaptive supersampling as a plate. So every tile of every level is a
+ * pure function of the spec and its coordinates (no tile waits for another,
+ * memory does not grow with the base size, shards need no order), and every
+ * level is a properly filtered image of the view, not a filtered image of a
+ * filtered image. The alternative, averaging 2 x 2 base pixels in linear
+ * light, costs no kernel time for the coarse levels (they are a third of the
+ * base's pixels) but makes each coarse tile wait for four finished finer
+ * tiles and read them back; see docs/pyramids.md for the measured difference.
+ */
+import { periodTolerance } from '../cli/render-sheet.js';
+import { DEFAULT_ESCAPE_RADIUS } from '../plane/sample-parameters.js';
+import type { TileFormat } from '../io/iiif-info.js';
+import { parseSheet, renderRecord, type Sheet } from '../view/sheet.js';
+import { doubleGrid, type DoubleGrid } from '../view/view.js';
+import type { PlateJob } from './plate-job.js';
+import { planPyramid, type PyramidPlan } from './pyramid-plan.js';
+
+export interface PyramidSpec {
+  readonly tool: 'quadatlas';
+  readonly kind: 'pyramid';
+  /** The quadatlas version that started the pyramid (a different version may give different bytes). */
+  readonly version: string;
+  /** renderRecord of the sheet: everything that fixes the pixels. */
+  readonly sheet: Record<string, unknown>;
+  readonly tileSize: number;
+  readonly format: TileFormat;
+  /** JPEG quality (recorded for PNG too, where it has no effect). */
+  readonly quality: number;
+}
+
+export function pyramidSpec(sheet: Sheet, tileSize: number, format: TileFormat, quality: number, version: string): PyramidSpec {
+  return { tool: 'quadatlas', kind: 'pyramid', version, sheet: renderRecord(sheet), tileSize, format, quality };
+}
+
+/** The parts of two specs that decide the pixels and paths (everything but the version). */
+export function sameSpec(a: PyramidSpec, b: PyramidSpec): boolean {
+  const key = (s: PyramidSpec): string => JSON.stringify([s.sheet, s.tileSize, s.format, s.format === 'jpg' ? s.quality : 0]);
+  return key(a) === key(b);
+}
+
+/** Everything a renderer needs, derived once from a spec. */
+export interface PyramidSetup {
+  readonly spec: PyramidSpec;
+  readonly sheet: Sheet;
+  readonly plan: PyramidPlan;
+  readonly baseGrid: DoubleGrid;
+}
+
+export function pyramidSetup(spec: PyramidSpec): PyramidSetup {
+  const sheet = parseSheet(spec.sheet, 'pyramid');
+  const view = { centerRe: sheet.view.re, centerIm: sheet.view.im, span: sheet.view.span, width: sheet.width, height: sheet.height, rotation: sheet.view.rotation };
+  return { spec, sheet, plan: planPyramid(sheet.width, sheet.height, spec.tileSize), baseGrid: doubleGrid(view) };
+}
+
+/**
+ * The plate job of the level with scale factor `scale`: the base grid with
+ * spacing s times larger and a width and height of W / s and H / s (not
+ * rounded: pixel (i, j) of the level is centred on base coordinate
+ * (s (i + 1/2), s (j + 1/2)), and the last column or row may reach past the
+ * base image's edge, as IIIF's region arithmetic implies).
+ */
+export function levelJob(setup: PyramidSetup, scale: number): PlateJob {
+  const { sheet, baseGrid } = setup;
+  const grid: DoubleGrid = { ...baseGrid, spacing: baseGrid.spacing * scale, width: baseGrid.width / scale, height: baseGrid.height / scale };
+  return {
+    grid,
+    iterations: sheet.iterations,
+    escapeRadius: DEFAULT_ESCAPE_RADIUS,
+    periodTolerance: periodTolerance(grid.spacing),
+    samples: sheet.samples,
+    depth: 8,
+    colour: sheet.colour,
+    dpi: sheet.dpi,
+    withData: false,
+  };
+}

@@ -1,0 +1,150 @@
+/**
+ * Queue mode: the tiles of a pyramid as jobs on a BullMQ queue in Redis.
+ * `pyramid --queue` puts every tile not yet on disk on the queue and waits
+ * for them; `quadatlas worker --queue`, on any number of machines that see
+ * the same folder, takes them. Job ids are `<pyramid key>-<tile number>`, so
+ * putting the same tile on the queue twice while it waits or runs does
+ * nothing; finished jobs are removed, because the tile file on disk (checked
+ * by the worker before rendering) is the lasting record of a finished tile.
+ * A failed job is retried with exponential back-off (BullMQ `attempts`).
+ */
+import type { Job } from 'bullmq';
+import { Received, UserError } from '../cli/user-error.js';
+
+export const QUEUE_NAME = 'quadatlas-tiles';
+/** Attempts per tile before its failure is reported. */
+export const TILE_ATTEMPTS = 3;
+/** How long to wait for Redis before giving up. */
+export const REDIS_TIMEOUT_MS = 3000;
+
+export interface RedisTarget {
+  readonly host: string;
+  readonly port: number;
+  readonly db: number;
+}
+
+export interface TileJobData {
+  readonly dir: string;
+  readonly index: number;
+  readonly key: string;
+}
+
+export interface TileJobResult {
+  readonly index: number;
+  readonly skipped: boolean;
+  readonly bytes: number;
+  readonly worker: string;
+}
+
+/** redis://HOST:PORT or redis://HOST:PORT/DB (port 6379 when left out). */
+export function parseRedisUrl(text: string, field = '--queue'): RedisTarget {
+  let url: URL;
+  try {
+    url = new URL(text);
+  } catch {
+    throw new UserError(field, 'a Redis URL redis://HOST:PORT (e.g. redis://127.0.0.1:6379)', text);
+  }
+  const db = url.pathname === '' || url.pathname === '/' ? 0 : Number(url.pathname.slice(1));
+  if (url.protocol !== 'redis:' || url.hostname === '' || !Number.isInteger(db) || db < 0 || db > 15 || url.search !== '' || url.username !== '') {
+    throw new UserError(field, 'a Redis URL redis://HOST:PORT or redis://HOST:PORT/DB (DB 0-15)', text);
+  }
+  return { host: url.hostname.replace(/^\[|\]$/g, ''), port: url.port === '' ? 6379 : Number(url.port), db };
+}
+
+export function connectionOptions(t: RedisTarget): { host: string; port: number; db: number; connectTimeout: number } {
+  return { host: t.host, port: t.port, db: t.db, connectTimeout: REDIS_TIMEOUT_MS };
+}
+
+/** Connects once and pings, failing within REDIS_TIMEOUT_MS (never retrying), so a wrong URL is reported at once. */
+export async function checkRedis(t: RedisTarget, field = '--queue'): Promise<void> {
+  const { Redis } = await import('ioredis');
+  const client = new Redis({ ...connectionOptions(t), lazyConnect: true, enableOfflineQueue: false, maxRetriesPerRequest: 0, retryStrategy: () => null });
+  client.on('error', () => undefined);
+  let timer: NodeJS.Timeout | undefined;
+  try {
+    const timeout = new Promise<never>((_, reject) => {
+      timer = setTimeout(() => reject(new Error(`no answer within ${REDIS_TIMEOUT_MS / 1000} s`)), REDIS_TIMEOUT_MS);
+    });
+    await Promise.race([client.connect().then(() => client.ping()), timeout]);
+  } catch (err) {
+    const e = err as NodeJS.ErrnoException;
+    throw new UserError(field, 'a reachable Redis server', new Received(`redis://${t.host}:${t.port} (${e.code ?? e.message})`));
+  } finally {
+    clearTimeout(timer);
+    client.disconnect();
+  }
+}
+
+export function tileJobId(key: string, index: number): string {
+  return `${key}-${index}`;
+}
+
+export interface EnqueueOptions {
+  readonly target: RedisTarget;
+  readonly dir: string;
+  readonly key: string;
+  /** Tile numbers to put on the queue (those not yet on disk). */
+  readonly indices: readonly number[];
+  readonly onProgress?: (done: number, total: number) => void;
+}
+
+export interface EnqueueResult {
+  readonly completed: number;
+  readonly skipped: number;
+  readonly failed: ReadonlyArray<{ readonly index: number; readonly reason: string }>;
+  readonly workers: readonly string[];
+}
+
+/** Puts the tiles on the queue and resolves when every one has completed or finally failed. */
+export async function enqueueAndWait(o: EnqueueOptions): Promise<EnqueueResult> {
+  const { Queue, QueueEvents } = await import('bullmq');
+  const connection = connectionOptions(o.target);
+  const events = new QueueEvents(QUEUE_NAME, { connection });
+  const queue = new Queue<TileJobData, TileJobResult>(QUEUE_NAME, { connection });
+  const prefix = `${o.key}-`;
+  const total = o.indices.length;
+  let completed = 0;
+  let skipped = 0;
+  const failed: Array<{ index: number; reason: string }> = [];
+  const workers = new Set<string>();
+  try {
+    await events.waitUntilReady();
+    const finished = new Promise<void>((resolve) => {
+      const check = (): void => {
+        o.onProgress?.(completed + failed.length, total);
+        if (completed + failed.length >= total) resolve();
+      };
+      events.on('completed', ({ jobId, returnvalue }) => {
+        if (!jobId.startsWith(prefix)) return;
+        completed++;
+        const r = (typeof returnvalue === 'string' ? JSON.parse(returnvalue) : returnvalue) as TileJobResult | null;
+        if (r?.skipped === true) skipped++;
+        if (typeof r?.worker === 'string') workers.add(r.worker);
+        check();
+      });
+      events.on('failed', ({ jobId, failedReason }) => {
+        if (!jobId.startsWith(prefix)) return;
+        failed.push({ index: Number(jobId.slice(prefix.length)), reason: failedReason });
+        check();
+      });
+      check();
+    });
+    const BATCH = 500;
+    for (let at = 0; at < total; at += BATCH) {
+      await queue.addBulk(
+        o.indices.slice(at, at + BATCH).map((index) => ({
+          name: 'tile',
+          data: { dir: o.dir, index, key: o.key },
+          opts: { jobId: tileJobId(o.key, index), attempts: TILE_ATTEMPTS, backoff: { type: 'exponential', delay: 500 }, removeOnComplete: true, removeOnFail: true },
+        })),
+      );
+    }
+    await finished;
+  } finally {
+    await queue.close();
+    await events.close();
+  }
+  return { completed, skipped, failed, workers: [...workers].sort() };
+}
+
+export type TileJob = Job<TileJobData, TileJobResult>;
