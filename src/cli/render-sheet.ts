@@ -21,7 +21,10 @@ import type { PlateJob, TileStats } from '../render/plate-job.js';
 import { createProgress } from '../render/progress.js';
 import { bytesPerPixel, DEFAULT_STRIP_BUDGET, DEFAULT_TILE_SIZE, renderPlate, type DataSink, type PlateSinks } from '../render/render-plate.js';
 import { renderRecord, type Sheet } from '../view/sheet.js';
-import { DOUBLE_MIN_RELATIVE_SPACING, doubleGrid, fitsDouble } from '../view/view.js';
+import { DOUBLE_MIN_RELATIVE_SPACING, doubleGrid, fitsDouble, pixelToC, type DoubleGrid } from '../view/view.js';
+import { componentsInBox } from '../components/components-in-box.js';
+import type { Legend } from '../colour/legend.js';
+import { labelHeightPixels, layoutPeriodLabels } from '../colour/period-labels.js';
 import { Received, UserError } from './user-error.js';
 import { toolVersion } from './version.js';
 
@@ -67,6 +70,30 @@ async function prepareDirectory(dir: string, field: string): Promise<void> {
   await checkWritableDirectory(dir, field);
 }
 
+/**
+ * Label sprites for the nuclei of periods 1..maxPeriod in view whose
+ * component is large enough to hold its label: the size estimate |s| is about
+ * twice a disk's radius (methods.md C4: p = 2 gives 0.5 for radius 1/4), so we
+ * ask for |s| / 2 >= the label's height in pixels.
+ */
+async function periodLabels(grid: DoubleGrid, maxPeriod: number, dpi: number, workers: number): Promise<Legend[]> {
+  const corners = [[0, 0], [grid.width, 0], [0, grid.height], [grid.width, grid.height]].map(([x, y]) => pixelToC(grid, x!, y!, new Float64Array(2)));
+  const box = {
+    re0: Math.min(...corners.map((c) => c[0]!)),
+    re1: Math.max(...corners.map((c) => c[0]!)),
+    im0: Math.min(...corners.map((c) => c[1]!)),
+    im1: Math.max(...corners.map((c) => c[1]!)),
+  };
+  const minSize = 2 * labelHeightPixels(dpi) * grid.spacing;
+  const nuclei = await componentsInBox({ min: 1, max: maxPeriod }, box, minSize, { workers });
+  const points = nuclei.map((n) => {
+    const u = n.re - grid.centerRe;
+    const v = n.im - grid.centerIm;
+    return { period: n.period, x: grid.width / 2 + (u * grid.cos + v * grid.sin) / grid.spacing, y: grid.height / 2 - (-u * grid.sin + v * grid.cos) / grid.spacing };
+  });
+  return layoutPeriodLabels(points, dpi, grid.width, grid.height);
+}
+
 export async function renderSheet(sheet: Sheet, options: RenderSheetOptions = {}): Promise<PlateSummary> {
   const started = process.hrtime.bigint();
   const view = { centerRe: sheet.view.re, centerIm: sheet.view.im, span: sheet.view.span, width: sheet.width, height: sheet.height, rotation: sheet.view.rotation };
@@ -90,6 +117,7 @@ export async function renderSheet(sheet: Sheet, options: RenderSheetOptions = {}
     colour: sheet.colour,
     dpi: sheet.dpi,
     withData: sheet.output.data !== null,
+    labels: sheet.labels > 0 ? await periodLabels(grid, sheet.labels, sheet.dpi, workers) : [],
   };
 
   // Memory: two strips of at least one tile row each must fit comfortably.

@@ -1,5 +1,6 @@
 import type { ColourSettings, LegendCorner } from './colour-settings.js';
 import { hexToLinear } from './oklab.js';
+import { FONT_CHARACTERS, GLYPH_H, GLYPH_W, glyph, textCells } from './bitmap-font.js';
 import { periodHex, periodLinear } from './period-palette.js';
 
 /**
@@ -18,34 +19,8 @@ import { periodHex, periodLinear } from './period-palette.js';
 export const LEGEND_CAP_MM = 2.5;
 export const LEGEND_TITLE = 'INTERIOR PERIOD';
 
-const GLYPH_W = 5;
-const GLYPH_H = 7;
-/** Our own 5 x 7 glyphs; '#' is ink. Only what the legend prints. */
-const GLYPHS: Readonly<Record<string, readonly string[]>> = {
-  '0': ['.###.', '#...#', '#..##', '#.#.#', '##..#', '#...#', '.###.'],
-  '1': ['..#..', '.##..', '..#..', '..#..', '..#..', '..#..', '.###.'],
-  '2': ['.###.', '#...#', '....#', '...#.', '..#..', '.#...', '#####'],
-  '3': ['####.', '....#', '....#', '.###.', '....#', '....#', '####.'],
-  '4': ['...#.', '..##.', '.#.#.', '#..#.', '#####', '...#.', '...#.'],
-  '5': ['#####', '#....', '####.', '....#', '....#', '#...#', '.###.'],
-  '6': ['..##.', '.#...', '#....', '####.', '#...#', '#...#', '.###.'],
-  '7': ['#####', '....#', '...#.', '..#..', '.#...', '.#...', '.#...'],
-  '8': ['.###.', '#...#', '#...#', '.###.', '#...#', '#...#', '.###.'],
-  '9': ['.###.', '#...#', '#...#', '.####', '....#', '...#.', '.##..'],
-  I: ['.###.', '..#..', '..#..', '..#..', '..#..', '..#..', '.###.'],
-  N: ['#...#', '##..#', '##..#', '#.#.#', '#..##', '#..##', '#...#'],
-  T: ['#####', '..#..', '..#..', '..#..', '..#..', '..#..', '..#..'],
-  E: ['#####', '#....', '#....', '####.', '#....', '#....', '#####'],
-  R: ['####.', '#...#', '#...#', '####.', '#.#..', '#..#.', '#...#'],
-  O: ['.###.', '#...#', '#...#', '#...#', '#...#', '#...#', '.###.'],
-  P: ['####.', '#...#', '#...#', '####.', '#....', '#....', '#....'],
-  D: ['###..', '#..#.', '#...#', '#...#', '#...#', '#..#.', '###..'],
-  '-': ['.....', '.....', '.....', '.###.', '.....', '.....', '.....'],
-  ' ': ['.....', '.....', '.....', '.....', '.....', '.....', '.....'],
-};
-
 /** Glyphs the font can draw. */
-export const LEGEND_FONT_CHARACTERS = Object.keys(GLYPHS).join('');
+export const LEGEND_FONT_CHARACTERS = FONT_CHARACTERS;
 
 // Layout in font cells (one cell = `scale` pixels).
 const PAD = 4;
@@ -75,10 +50,6 @@ export interface Legend {
   readonly rgba: Float64Array;
 }
 
-/** Width of a text line in cells. */
-function textCells(text: string): number {
-  return text.length === 0 ? 0 : text.length * (GLYPH_W + 1) - 1;
-}
 
 /** The integer scale that gives a cap height near LEGEND_CAP_MM at this dpi (>= 1). */
 export function legendScale(dpi: number): number {
@@ -151,11 +122,10 @@ export function layoutLegend(settings: ColourSettings, plateWidth: number, plate
   };
   const text = (s: string, cx: number, cy: number): void => {
     for (let g = 0; g < s.length; g++) {
-      const glyph = GLYPHS[s[g]!];
-      if (glyph === undefined) throw new Error(`legend font has no glyph for ${JSON.stringify(s[g])}`);
+      const rows = glyph(s[g]!);
       for (let r = 0; r < GLYPH_H; r++)
         for (let col = 0; col < GLYPH_W; col++)
-          if (glyph[r]![col] === '#') fill((cx + g * (GLYPH_W + 1) + col) * scale, (cy + r) * scale, scale, scale, ink);
+          if (rows[r]![col] === '#') fill((cx + g * (GLYPH_W + 1) + col) * scale, (cy + r) * scale, scale, scale, ink);
     }
   };
 

@@ -1,4 +1,5 @@
 import type { ColourSettings } from '../colour/colour-settings.js';
+import type { Legend } from '../colour/legend.js';
 import type { DoubleGrid } from '../view/view.js';
 
 /**
@@ -18,6 +19,8 @@ export interface PlateJob {
   readonly dpi: number;
   /** Whether to return the per-pixel data arrays (for --data). */
   readonly withData: boolean;
+  /** Period labels (sprites in plate pixels), composited under the legend; empty for none. */
+  readonly labels?: readonly Legend[];
 }
 
 /** Per-tile counts, summed over tiles by the main thread (order-independent). */

@@ -222,7 +222,8 @@ export function renderTile(job: PlateJob, tile: Tile, scratch: TileScratch, loop
     flush();
   }
 
-  // 4. The inset legend, composited in linear light, then encode.
+  // 4. Period labels and the inset legend, composited in linear light, then encode.
+  for (const label of job.labels ?? []) paintLegendRect(label, x0, y0, w, h, linear);
   if (legend !== null) paintLegendRect(legend, x0, y0, w, h, linear);
   const pixels = job.depth === 16 ? new Uint16Array(pixelCount * 3) : new Uint8Array(pixelCount * 3);
   encodePixels(linear, w, h, x0, y0, job.depth, pixels);

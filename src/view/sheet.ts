@@ -16,6 +16,7 @@
  *   "samples": 16,                            // samples per pixel where refinement is needed (1 or a square)
  *   "depth": 8,                               // 8 or 16 bits per channel
  *   "colour": { ... },                        // see src/colour/colour-settings.ts
+ *   "labels": 6,                             // label nuclei of periods 1..6 that can carry a label (0: none)
  *   "output": { "file": "out/name.png", "data": "out/name-data", "sidecar": true },
  *   "startup": true                           // rendered by `npm start`
  * }
@@ -38,6 +39,8 @@ export interface Sheet {
   readonly samples: number;
   readonly depth: 8 | 16;
   readonly colour: ColourSettings;
+  /** Label the nuclei of components of period 1..labels that are large enough to carry a label (0: none). */
+  readonly labels: number;
   readonly output: { readonly file: string; readonly data: string | null; readonly sidecar: boolean };
   readonly startup: boolean;
 }
@@ -48,9 +51,11 @@ export const MAX_SIDE = 1_000_000;
 export const MAX_ITERATIONS = 2 ** 31 - 2;
 export const MAX_SAMPLES = 256;
 export const DEFAULT_DPI = 300;
+/** Labels need every component of each period located (the census); beyond 14 that takes too long for a plate. */
+export const MAX_LABEL_PERIOD = 14;
 
 const DECIMAL = /^[+-]?(\d+\.?\d*|\.\d+)([eE][+-]?\d+)?$/;
-const TOP_KEYS = ['title', 'note', 'view', 'pixels', 'print', 'dpi', 'iterations', 'samples', 'depth', 'colour', 'output', 'startup'];
+const TOP_KEYS = ['title', 'note', 'view', 'pixels', 'print', 'dpi', 'iterations', 'samples', 'depth', 'colour', 'labels', 'output', 'startup'];
 
 type Json = Record<string, unknown>;
 
@@ -171,6 +176,7 @@ export function parseSheet(value: unknown, name = 'plate'): Sheet {
     samples: parseSamples(value['samples'] ?? 9, 'samples'),
     depth,
     colour: parseColourSettings(value['colour'] ?? {}, 'colour'),
+    labels: parseInteger(value['labels'] ?? 0, 'labels', 0, MAX_LABEL_PERIOD),
     output: { file, data, sidecar },
     startup,
   };
@@ -192,5 +198,6 @@ export function renderRecord(sheet: Sheet): Json {
     samples: sheet.samples,
     depth: sheet.depth,
     colour: sheet.colour as unknown as Json,
+    labels: sheet.labels,
   };
 }

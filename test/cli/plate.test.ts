@@ -163,3 +163,20 @@ describe('quadatlas plate, bad input', () => {
     expect(r.stderr).toMatch(/output\.file/);
   });
 });
+
+describe('quadatlas plate --label-periods', () => {
+  it('marks the period-2 nucleus c = -1 (exact: F^2(0) = c^2 + c = 0) and nothing there without labels', () => {
+    const dir = tempDir();
+    // c = -1 is the image centre, the corner shared by pixels (99..100, 74..75).
+    const common = ['--center', '-1,0', '--span', '2', '--size', '200x150', '--iterations', '200', '--samples', '1', '--depth', '8', '--dpi', '72'];
+    expect(runCli(['plate', ...common, '--label-periods', '2', '--out', path.join(dir, 'l.png')]).status).toBe(0);
+    expect(runCli(['plate', ...common, '--out', path.join(dir, 'n.png')]).status).toBe(0);
+    const l = PNG.sync.read(readFileSync(path.join(dir, 'l.png')));
+    const n = PNG.sync.read(readFileSync(path.join(dir, 'n.png')));
+    const at = (png: PNG, x: number, y: number): number[] => [...png.data.subarray(4 * (y * 200 + x), 4 * (y * 200 + x) + 3)];
+    // The label's dot is dark ink (#1c1c1c); the unlabelled plate shows the period-2 colour there.
+    const around = (png: PNG): number => Math.min(...[[99, 74], [100, 74], [99, 75], [100, 75]].map(([x, y]) => Math.max(...at(png, x!, y!))));
+    expect(around(l)).toBeLessThan(40);
+    expect(around(n)).toBeGreaterThan(60);
+  });
+});
