@@ -36,10 +36,33 @@ export function decimalEscapeCount(D: typeof Decimal, cr: Dec, ci: Dec, maxItera
  * (methods.md A1) from decimal.js iteration; mu is NaN when not escaped.
  */
 export function decimalEscape(D: typeof Decimal, cr: Dec, ci: Dec, maxIterations: number, escapeRadius: number): { n: number; mu: number } {
+  return decimalEscapeDistance(D, cr, ci, maxIterations, escapeRadius, false);
+}
+
+/**
+ * As decimalEscape, and with `withDistance` also the exterior distance
+ * estimate b = 2|z_n| ln|z_n| / |dz_n/dc| (methods.md A2, derivative updated
+ * before z) as a Decimal (undefined when not asked or not escaped).
+ */
+export function decimalEscapeDistance(
+  D: typeof Decimal,
+  cr: Dec,
+  ci: Dec,
+  maxIterations: number,
+  escapeRadius: number,
+  withDistance: boolean,
+): { n: number; mu: number; distance?: Dec } {
   let x = new D(0);
   let y = new D(0);
+  let dx = new D(0);
+  let dy = new D(0);
   const r2 = escapeRadius * escapeRadius;
   for (let n = 1; n <= maxIterations; n++) {
+    if (withDistance) {
+      const ndx = x.times(dx).minus(y.times(dy)).times(2).plus(1);
+      dy = x.times(dy).plus(y.times(dx)).times(2);
+      dx = ndx;
+    }
     const x2 = x.times(x);
     const y2 = y.times(y);
     const nx = x2.minus(y2).plus(cr);
@@ -47,7 +70,12 @@ export function decimalEscape(D: typeof Decimal, cr: Dec, ci: Dec, maxIterations
     x = nx;
     // cheap magnitude test first: the leading digits are enough to compare with R^2
     const n2 = x.times(x).plus(y.times(y));
-    if (n2.gt(r2)) return { n, mu: n - Math.log2(n2.ln().div(2).toNumber() / Math.log(escapeRadius)) };
+    if (n2.gt(r2)) {
+      const mu = n - Math.log2(n2.ln().div(2).toNumber() / Math.log(escapeRadius));
+      if (!withDistance) return { n, mu };
+      const distance = n2.sqrt().times(n2.ln()).div(dx.times(dx).plus(dy.times(dy)).sqrt());
+      return { n, mu, distance };
+    }
   }
   return { n: -1, mu: NaN };
 }
