@@ -109,7 +109,8 @@ function componentPoint(
   }
   const probe = fixedScale(bitsForDigits(Math.max(digits, 20), 32));
   const c0 = { re: fromDecimal(nucleus.re, probe, 'nucleus'), im: fromDecimal(nucleus.im, probe, 'nucleus') };
-  const depthDigits = Math.max(0, Math.ceil(-log2SizeAt(period, c0, probe) / Math.log2(10)));
+  const log2size = log2SizeAt(period, c0, probe);
+  const depthDigits = Number.isFinite(log2size) ? Math.max(0, Math.ceil(-log2size / Math.log2(10))) : 0;
   const walkBits = bitsForDigits(depthDigits + 10, 32);
   const sw = fixedScale(walkBits);
   let b: FixedComplex = { re: rescale(c0.re, probe.bits, walkBits), im: rescale(c0.im, probe.bits, walkBits) };

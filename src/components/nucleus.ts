@@ -103,7 +103,8 @@ export function formatReal(n: bigint, s: FixedScale, digits: number): string {
 /** Bits the result needs: digits, and -log2(size) + 40 digits' worth so that the component is resolved. */
 function bitsNeeded(period: number, c: { re: bigint; im: bigint }, s: FixedScale, digits: number): number {
   const log2size = log2SizeAt(period, c, s);
-  const depthDigits = Math.max(0, Math.ceil(-log2size / Math.log2(10)));
+  // a zero multiplier along the orbit (a lower-period nucleus) gives -Infinity: the period check reports it
+  const depthDigits = Number.isFinite(log2size) ? Math.max(0, Math.ceil(-log2size / Math.log2(10))) : 0;
   return bitsForDigits(Math.max(digits, depthDigits + 12), 32);
 }
 

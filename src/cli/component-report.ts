@@ -1,0 +1,67 @@
+/**
+ * Shared parsing and printing for `components`, `locate` and `describe`:
+ * integer flags, boxes, and one component as key-value lines or JSON.
+ */
+import { UserError } from './user-error.js';
+import type { ComponentInfo } from '../components/component-info.js';
+import { angleText } from '../components/external-angle.js';
+import { addressText } from '../components/internal-address.js';
+
+/** Parses an integer flag in [min, max]. */
+export function parseIntFlag(value: unknown, field: string, min: number, max: number): number {
+  const t = typeof value === 'string' ? value.trim() : value;
+  const n = typeof t === 'string' && /^[+-]?\d+$/.test(t) ? Number(t) : typeof t === 'number' ? t : Number.NaN;
+  if (!Number.isInteger(n) || n < min || n > max) throw new UserError(field, `an integer between ${min} and ${max}`, value);
+  return n;
+}
+
+/** Parses "RE0,IM0,RE1,IM1" into a box with re0 < re1, im0 < im1. */
+export function parseBox(value: unknown, field: string): { re0: number; im0: number; re1: number; im1: number } {
+  const parts = typeof value === 'string' ? value.split(',').map((s) => s.trim()) : [];
+  const nums = parts.map((s) => (/^[+-]?(\d+\.?\d*|\.\d+)([eE][+-]?\d+)?$/.test(s) ? Number(s) : Number.NaN));
+  if (nums.length !== 4 || nums.some((n) => !Number.isFinite(n))) {
+    throw new UserError(field, 'four decimal numbers RE0,IM0,RE1,IM1', value);
+  }
+  const [re0, im0, re1, im1] = nums as [number, number, number, number];
+  if (!(re0 < re1 && im0 < im1)) throw new UserError(field, 'a box RE0,IM0,RE1,IM1 with RE0 < RE1 and IM0 < IM1', value);
+  return { re0, im0, re1, im1 };
+}
+
+/** Size as text: a double, or 10^x where it underflows. */
+export function sizeText(info: { size: number; log10Size: number }): string {
+  if (info.size > 0) return info.size.toPrecision(6);
+  const e = Math.floor(info.log10Size);
+  return `${(10 ** (info.log10Size - e)).toFixed(5)}e${e}`;
+}
+
+/** One component as plain JSON-able data. */
+export function componentJson(info: ComponentInfo): Record<string, unknown> {
+  return {
+    period: info.period,
+    nucleus: info.nucleus,
+    root: info.root,
+    size: sizeText(info),
+    orientationDegrees: Number(((info.orientation * 180) / Math.PI).toFixed(6)),
+    shape: info.shape,
+    parent: info.parent === null ? null : { period: info.parent.period, nucleus: info.parent.nucleus, internalAngle: `${info.parent.num}/${info.parent.den}` },
+    externalAngles: info.angles === null ? null : info.angles.map(angleText),
+    internalAddress: info.address === null ? null : addressText(info.address),
+  };
+}
+
+/** One component as aligned "key  value" lines. */
+export function componentLines(info: ComponentInfo): string[] {
+  const j = componentJson(info);
+  const parent = info.parent === null ? '-' : `period ${info.parent.period} at internal angle ${info.parent.num}/${info.parent.den} (nucleus ${info.parent.nucleus.re}, ${info.parent.nucleus.im})`;
+  return [
+    `period            ${info.period}`,
+    `nucleus           ${info.nucleus.re}, ${info.nucleus.im}`,
+    `root              ${info.root.re}, ${info.root.im}`,
+    `size              ${String(j['size'])}`,
+    `orientation       ${String(j['orientationDegrees'])} degrees`,
+    `shape             ${info.shape}`,
+    `parent            ${parent}`,
+    `external angles   ${info.angles === null ? `not computed (period above 12; use --angle)` : info.angles.map(angleText).join(', ')}`,
+    `internal address  ${info.address === null ? '-' : addressText(info.address)}`,
+  ];
+}

@@ -1,0 +1,111 @@
+/**
+ * `quadatlas components --period P`: every hyperbolic component of exact
+ * period P (all, real ones, or those in a box), or just their number.
+ * Components are found by landing the rays of every period-P external angle
+ * (src/components/census.ts); rows are sorted by the lower external angle of
+ * the root, i.e. counter-clockwise around the set starting from the cusp 1/4.
+ */
+import type { Command } from 'commander';
+import { availableParallelism } from 'node:os';
+import { census, MAX_CENSUS_PERIOD } from '../components/census.js';
+import type { CensusComponent } from '../components/census.js';
+import { componentInfo, mersenneAngle } from '../components/component-info.js';
+import type { ComponentInfo } from '../components/component-info.js';
+import { findNucleus } from '../components/nucleus.js';
+import { parseBox, parseIntFlag, componentJson } from './component-report.js';
+import { UserError } from './user-error.js';
+
+/** Longest listing period (the listing refines every nucleus and root to D digits). */
+export const MAX_LIST_PERIOD = 16;
+
+export function register(program: Command): void {
+  program
+    .command('components')
+    .description('list or count the hyperbolic components of exact period P')
+    .requiredOption('--period <P>', 'exact period')
+    .option('--real', 'only components on the real axis')
+    .option('--within <box>', 'only nuclei inside RE0,IM0,RE1,IM1')
+    .option('--digits <D>', 'digits after the point for nuclei and roots', '20')
+    .option('--count', 'print only the number of components (and the time taken, on stderr)')
+    .option('--workers <N>', 'worker threads for the census (default: all cores)')
+    .option('--json', 'JSON output')
+    .option('--csv', 'CSV output')
+    .action(async (o: Record<string, unknown>) => {
+      const count = o['count'] === true;
+      const period = parseIntFlag(o['period'], 'period', 1, count ? MAX_CENSUS_PERIOD : MAX_LIST_PERIOD);
+      const digits = parseIntFlag(o['digits'], 'digits', 1, 2000);
+      const workers = o['workers'] === undefined ? availableParallelism() : parseIntFlag(o['workers'], 'workers', 0, 256);
+      const box = o['within'] === undefined ? null : parseBox(o['within'], 'within');
+      if (o['json'] === true && o['csv'] === true) throw new UserError('output format', 'one of --json or --csv', '--json --csv');
+      const t0 = performance.now();
+      const progress = process.stderr.isTTY
+        ? (done: number, total: number): void => {
+            process.stderr.write(`\rperiod ${period}: ${done}/${total} rays`);
+          }
+        : undefined;
+      const result = await census(period, progress === undefined ? { workers } : { workers, onProgress: progress });
+      if (progress !== undefined) process.stderr.write('\n');
+      const seconds = (performance.now() - t0) / 1000;
+      let comps: readonly CensusComponent[] = result.components;
+      if (o['real'] === true) comps = comps.filter((c) => c.real);
+      if (box !== null) comps = comps.filter((c) => inBox(c, box));
+      if (result.unpaired > 0 || result.raysLost > 0) {
+        process.stderr.write(`quadatlas: warning: ${result.unpaired} components did not receive exactly two rays, ${result.raysLost} rays were lost\n`);
+      }
+      if (count) {
+        const n = comps.length;
+        if (o['json'] === true) {
+          process.stdout.write(`${JSON.stringify({ period, real: o['real'] === true, count: n, seconds: Number(seconds.toFixed(2)), raysTraced: result.raysTraced, unpaired: result.unpaired })}\n`);
+        } else process.stdout.write(`${n}\n`);
+        process.stderr.write(`period ${period}: ${n} components located in ${seconds.toFixed(2)} s (${result.raysTraced} rays, ${workers} workers)\n`);
+        return;
+      }
+      const rows: ComponentInfo[] = [];
+      for (const c of comps) {
+        const guess = { re: (c.reHi + c.reLo).toPrecision(17), im: (c.imHi + c.imLo).toPrecision(17) };
+        const nucleus = c.real ? { ...findNucleus(period, { re: guess.re, im: '0' }, digits).nucleus, im: '0' } : findNucleus(period, guess, digits).nucleus;
+        rows.push(await componentInfo(period, nucleus, digits, c.angles.map((n) => mersenneAngle(n, period))));
+      }
+      if (o['json'] === true) process.stdout.write(`${JSON.stringify(rows.map(componentJson), null, 2)}\n`);
+      else if (o['csv'] === true) process.stdout.write(toCsv(rows));
+      else process.stdout.write(toTable(rows));
+    });
+}
+
+function inBox(c: CensusComponent, b: { re0: number; im0: number; re1: number; im1: number }): boolean {
+  const re = c.reHi + c.reLo;
+  const im = c.imHi + c.imLo;
+  return re >= b.re0 && re <= b.re1 && im >= b.im0 && im <= b.im1;
+}
+
+const HEADER = ['period', 'nucleus_re', 'nucleus_im', 'root_re', 'root_im', 'size', 'orientation_deg', 'shape', 'parent_period', 'internal_angle', 'angle_lo', 'angle_hi', 'address'];
+
+function flat(r: ComponentInfo): string[] {
+  const j = componentJson(r);
+  const angles = (j['externalAngles'] as string[] | null) ?? [];
+  return [
+    String(r.period),
+    r.nucleus.re,
+    r.nucleus.im,
+    r.root.re,
+    r.root.im,
+    String(j['size']),
+    String(j['orientationDegrees']),
+    r.shape,
+    r.parent === null ? '' : String(r.parent.period),
+    r.parent === null ? '' : `${r.parent.num}/${r.parent.den}`,
+    angles[0] ?? '',
+    angles[1] ?? '',
+    String(j['internalAddress'] ?? ''),
+  ];
+}
+
+function toCsv(rows: ComponentInfo[]): string {
+  return [HEADER.join(','), ...rows.map((r) => flat(r).join(','))].join('\n') + '\n';
+}
+
+function toTable(rows: ComponentInfo[]): string {
+  const cells = [HEADER, ...rows.map(flat)];
+  const widths = HEADER.map((_, i) => Math.max(...cells.map((r) => (r[i] ?? '').length)));
+  return cells.map((r) => r.map((v, i) => v.padEnd(widths[i] ?? 0)).join('  ').trimEnd()).join('\n') + '\n';
+}

@@ -1,0 +1,103 @@
+/**
+ * `quadatlas describe RE,IM`: everything about one parameter c. Outside the
+ * set: iteration count, smooth count, exterior distance estimate. Inside a
+ * hyperbolic component: period of the attracting cycle, multiplier, internal
+ * angle, interior distance estimate, and the component (nucleus, root,
+ * size, shape, angles, address). For real c also the logistic parameter r
+ * and the map between z and x.
+ */
+import type { Command } from 'commander';
+import { attractingCycle, createCycleResult } from '../plane/attracting-cycle.js';
+import { exteriorDistance } from '../plane/exterior-distance.js';
+import { interiorDistance } from '../plane/interior-distance.js';
+import { smoothCount } from '../plane/smooth-count.js';
+import { cToR } from '../section/conjugacy.js';
+import { componentInfo } from '../components/component-info.js';
+import { findNucleus } from '../components/nucleus.js';
+import { decimalToNumber, parseDecimalPair } from '../precise/decimal-string.js';
+import { componentJson, componentLines, parseIntFlag } from './component-report.js';
+
+const ESCAPE_RADIUS = 1e6;
+
+export function register(program: Command): void {
+  program
+    .command('describe')
+    .description('everything known about one parameter c')
+    .argument('<re,im>', 'the parameter c as RE,IM (write `describe -- -1.76,0.01` when RE is negative, or give RE and IM apart)')
+    .argument('[im]', 'IM, when RE and IM are given as two arguments')
+    .option('--digits <D>', 'digits after the point', '20')
+    .option('--iterations <N>', 'iteration limit', '100000')
+    .option('--max-period <P>', 'longest attracting cycle looked for', '1000')
+    .option('--json', 'JSON output')
+    .action(async (first: string, second: string | undefined, o: Record<string, unknown>) => {
+      const c = parseDecimalPair(second === undefined ? first : `${first},${second}`, 'c');
+      const digits = parseIntFlag(o['digits'], 'digits', 1, 2000);
+      const iterations = parseIntFlag(o['iterations'], 'iterations', 1, 100_000_000);
+      const maxPeriod = parseIntFlag(o['maxPeriod'], 'max-period', 1, 100_000);
+      const cr = decimalToNumber(c.re);
+      const ci = decimalToNumber(c.im);
+      const out: Record<string, unknown> = { c: { re: c.re.text, im: c.im.text } };
+      const lines: string[] = [`c                 ${c.re.text}, ${c.im.text}`];
+      // escape test in double (A1, A2)
+      let zr = 0;
+      let zi = 0;
+      let n = 0;
+      while (n < iterations && zr * zr + zi * zi <= ESCAPE_RADIUS * ESCAPE_RADIUS) {
+        const t = zr * zr - zi * zi + cr;
+        zi = 2 * zr * zi + ci;
+        zr = t;
+        n += 1;
+      }
+      if (zr * zr + zi * zi > ESCAPE_RADIUS * ESCAPE_RADIUS) {
+        const mu = smoothCount(n, zr, zi, Math.log(ESCAPE_RADIUS));
+        const de = exteriorDistance(cr, ci, n, zr, zi);
+        Object.assign(out, { escapes: true, iterations: n, smoothCount: mu, exteriorDistance: de });
+        lines.push(`escapes           yes, after ${n} iterations (radius 1e6)`, `smooth count      ${mu.toFixed(6)}`, `distance estimate ${de.toPrecision(6)} (the distance to the set lies between a quarter of this and this)`);
+      } else {
+        // attracting cycle: try periods in order from the settled orbit (A5)
+        const cyc = createCycleResult();
+        let period = 0;
+        for (let p = 1; p <= maxPeriod; p += 1) {
+          attractingCycle(cr, ci, p, zr, zi, cyc);
+          if (cyc.ok) {
+            period = p;
+            break;
+          }
+        }
+        out['escapes'] = false;
+        lines.push(`escapes           no (${iterations} iterations)`);
+        if (period === 0) {
+          out['period'] = null;
+          lines.push(`attracting cycle  none of period up to ${maxPeriod} found (parabolic, Misiurewicz, or a longer period)`);
+        } else {
+          const mulAbs = Math.hypot(cyc.mulRe, cyc.mulIm);
+          const angle = Math.atan2(cyc.mulIm, cyc.mulRe) / (2 * Math.PI);
+          const ide = interiorDistance(cr, ci, cyc.wRe, cyc.wIm, period);
+          const nucleus = findNucleus(period, { re: c.re.text, im: c.im.text }, digits).nucleus;
+          const info = await componentInfo(period, nucleus, digits);
+          Object.assign(out, {
+            period,
+            multiplier: { re: cyc.mulRe, im: cyc.mulIm },
+            multiplierModulus: mulAbs,
+            internalAngle: angle < 0 ? angle + 1 : angle,
+            interiorDistance: ide,
+            component: componentJson(info),
+          });
+          lines.push(
+            `period            ${period}`,
+            `multiplier        ${cyc.mulRe.toPrecision(10)} ${cyc.mulIm < 0 ? '-' : '+'} ${Math.abs(cyc.mulIm).toPrecision(10)} i  (modulus ${mulAbs.toPrecision(6)})`,
+            `internal angle    ${(angle < 0 ? angle + 1 : angle).toFixed(8)} turns`,
+            `interior distance ${ide.toPrecision(6)}`,
+            `-- component --`,
+            ...componentLines(info),
+          );
+        }
+      }
+      if (ci === 0 && cr <= 0.25) {
+        const r = cToR(c.re.text, Math.max(digits, 17));
+        out['logistic'] = { r, z: `z = ${r} (1/2 - x)`, x: `x = 1/2 - z / ${r}` };
+        lines.push(`-- real slice --`, `logistic r        ${r}  (r = 1 + sqrt(1 - 4c))`, `z and x           z = r (1/2 - x), x = 1/2 - z/r`);
+      }
+      process.stdout.write(o['json'] === true ? `${JSON.stringify(out, null, 2)}\n` : `${lines.join('\n')}\n`);
+    });
+}

@@ -1,0 +1,120 @@
+/**
+ * `quadatlas locate`: one component, from a guess (--near), an external
+ * angle (--angle a/b: trace the parameter ray in, land on its component or,
+ * for a preperiodic angle, on its Misiurewicz point) or an internal address
+ * (--address 1-2-4). Reports nucleus, root, size, shape, parent, angles and
+ * address, each confirmed at higher precision before it is printed.
+ */
+import type { Command } from 'commander';
+import { componentInfo } from '../components/component-info.js';
+import { angleOrbit, angleText, parseAngle } from '../components/external-angle.js';
+import type { Angle } from '../components/external-angle.js';
+import { addressOfAngle, addressText } from '../components/internal-address.js';
+import { nucleusDD } from '../components/fast-nucleus.js';
+import { findMisiurewicz } from '../components/misiurewicz.js';
+import { findNucleus } from '../components/nucleus.js';
+import { periodicNumerators } from '../components/census.js';
+import { traceRayDD } from '../components/trace-ray.js';
+import { parseDecimalPair } from '../precise/decimal-string.js';
+import { componentJson, componentLines, parseIntFlag } from './component-report.js';
+import { UserError } from './user-error.js';
+
+/** Longest period for --angle (the ray is traced in double-double) and for --address (angles are enumerated). */
+export const MAX_ANGLE_PERIOD = 60;
+export const MAX_ADDRESS_PERIOD = 22;
+
+export function register(program: Command): void {
+  program
+    .command('locate')
+    .description('Newton to one nucleus of period P from a guess, an external angle or an internal address')
+    .option('--period <P>', 'exact period (required with --near)')
+    .option('--near <re,im>', 'start point for Newton')
+    .option('--angle <a/b>', 'a rational external angle: land its ray')
+    .option('--address <1-2-4>', 'an internal address')
+    .option('--digits <D>', 'digits after the point', '30')
+    .option('--json', 'JSON output')
+    .action(async (o: Record<string, unknown>) => {
+      const digits = parseIntFlag(o['digits'], 'digits', 1, 5000);
+      const given = ['near', 'angle', 'address'].filter((k) => o[k] !== undefined);
+      if (given.length !== 1) throw new UserError('locate', 'exactly one of --near, --angle or --address', given.length === 0 ? 'none' : given.map((g) => `--${g}`).join(' '));
+      const period = o['period'] === undefined ? null : parseIntFlag(o['period'], 'period', 1, 100_000);
+      let out: Record<string, unknown>;
+      let lines: string[];
+      if (o['near'] !== undefined) {
+        if (period === null) throw new UserError('period', 'an integer period with --near', 'nothing');
+        const near = parseDecimalPair(String(o['near']), 'near');
+        const found = findNucleus(period, { re: near.re.text, im: near.im.text }, digits);
+        const info = await componentInfo(period, found.nucleus, digits);
+        out = { ...componentJson(info), newtonSteps: found.steps };
+        lines = componentLines(info);
+      } else if (o['angle'] !== undefined) {
+        const angle = parseAngle(String(o['angle']), 'angle');
+        const orbit = angleOrbit(angle);
+        if (orbit.preperiod + orbit.period > MAX_ANGLE_PERIOD) {
+          throw new UserError('angle', `an angle with preperiod + period at most ${MAX_ANGLE_PERIOD}`, angleText(angle));
+        }
+        if (orbit.preperiod === 0) {
+          if (period !== null && period !== orbit.period) throw new UserError('period', `the period of angle ${angleText(angle)} (${orbit.period})`, period);
+          const info = await landAngle(angle, orbit.period, digits);
+          out = componentJson(info);
+          lines = componentLines(info);
+        } else {
+          const p = orbit.period;
+          const end = traceRayDD(angle.num, angle.den, 2 * (orbit.preperiod + p) + 8, 8);
+          if (!end.ok) throw new UserError('angle', 'an angle whose ray can be traced in double-double precision', angleText(angle));
+          const point = findMisiurewicz(orbit.preperiod, p, end, digits);
+          out = { misiurewicz: point, preperiod: orbit.preperiod, period: p, externalAngle: angleText(angle) };
+          lines = [`Misiurewicz point ${point.re}, ${point.im}`, `preperiod         ${orbit.preperiod}`, `period            ${p}`, `external angle    ${angleText(angle)}`];
+        }
+      } else {
+        const address = parseAddress(String(o['address']));
+        const p = address[address.length - 1]!;
+        if (period !== null && period !== p) throw new UserError('period', `the last entry of the address (${p})`, period);
+        const den = 2 ** p - 1;
+        const want = addressText(address);
+        const matches = Array.from(periodicNumerators(p, false)).filter((n) => {
+          const a = toAngle(n, den);
+          return p === 1 ? want === '1' : addressText(addressOfAngle(a, p)) === want;
+        });
+        if (matches.length === 0) throw new UserError('address', 'an internal address that some component has', want);
+        const info = await landAngle(toAngle(matches[0]!, den), p, digits);
+        out = { ...componentJson(info), componentsWithThisAddress: Math.max(1, Math.round(matches.length / (p === 1 ? 1 : 2))) };
+        lines = [...componentLines(info), `components with this address  ${String(out['componentsWithThisAddress'])} (the one with the lowest angle is shown)`];
+      }
+      process.stdout.write(o['json'] === true ? `${JSON.stringify(out, null, 2)}\n` : `${lines.join('\n')}\n`);
+    });
+}
+
+function toAngle(n: number, den: number): Angle {
+  let a = BigInt(n);
+  let b = BigInt(den);
+  let x = a;
+  let y = b;
+  while (y !== 0n) [x, y] = [y, x % y];
+  if (a === 0n) return { num: 0n, den: 1n };
+  a /= x;
+  b /= x;
+  return { num: a, den: b };
+}
+
+/** Lands the ray of a periodic angle, refines the nucleus and describes the component. */
+async function landAngle(angle: Angle, period: number, digits: number) {
+  if (period === 1) return componentInfo(1, { re: '0', im: '0' }, digits, [{ num: 0n, den: 1n }]);
+  const end = traceRayDD(angle.num, angle.den, 2 * period, 4);
+  const nu = end.ok ? nucleusDD(period, end) : null;
+  if (nu === null || !nu.ok) throw new UserError('angle', 'an angle whose ray lands in double-double precision', angleText(angle));
+  const guess = { re: (nu.reHi + nu.reLo).toPrecision(17), im: (nu.imHi + nu.imLo).toPrecision(17) };
+  const real = Math.abs(nu.imHi) <= 1e-3 * nu.size;
+  const found = findNucleus(period, real ? { re: guess.re, im: '0' } : guess, digits);
+  // the other angle of the pair: its numerator over 2^p - 1 is found by the census path in componentInfo for small p
+  return componentInfo(period, found.nucleus, digits, period <= 12 ? undefined : [angle]);
+}
+
+function parseAddress(text: string): number[] {
+  const parts = text.split(/->|-|→/).map((s) => s.trim());
+  const nums = parts.map((s) => (/^\d+$/.test(s) ? Number(s) : Number.NaN));
+  const ok = nums.length >= 1 && nums[0] === 1 && nums.every((n, i) => Number.isInteger(n) && (i === 0 || n > nums[i - 1]!));
+  if (!ok) throw new UserError('address', 'an internal address such as 1-2-4 (starting at 1, strictly increasing)', text);
+  if (nums[nums.length - 1]! > MAX_ADDRESS_PERIOD) throw new UserError('address', `an internal address ending at a period of at most ${MAX_ADDRESS_PERIOD}`, text);
+  return nums;
+}
