@@ -73,7 +73,7 @@ function runC(context: BenchContext, flags: readonly string[]): CReport | undefi
     context.note('C reference skipped: no C compiler (cc)');
     return undefined;
   }
-  return runCReference(source, flags, W, N);
+  return runCReference(source, flags, W, N, 3);
 }
 
 /**
@@ -119,7 +119,7 @@ export const kernelSection: BenchSection = {
       rows.push(row('WASM SIMD loop (4 x f64x2)', wasm.total, wasm.seconds, yardstick));
       context.note(`WASM / JS = ${(js.seconds / wasm.seconds).toFixed(2)}`);
     }
-    context.note('JS and WASM: warm-up pass, then best of 3; C: one pass of each loop, as escape-ref prints it; all wall-clock time on one thread');
+    context.note('JS and WASM: warm-up pass, then best of 3; C: best of 3 runs of escape-ref (each one pass per loop); all wall-clock time on one thread');
     context.note(`load average at the end: ${loadavg()[0]!.toFixed(2)} (figures from a busy machine are low and noisy)`);
     return rows;
   },
