@@ -97,8 +97,8 @@ export function buildBlaTable(orbit: ReferenceOrbit, unitExponent: number, delta
     aIm[i] = ai;
     bRe[i] = unit;
     bIm[i] = 0;
-    const r = a === 0 ? 0 : Math.max(0, epsilon * a - cMax / a);
-    radius2[i] = r * r;
+    const r = a === 0 ? 0 : epsilon * a - cMax / a;
+    radius2[i] = r > 0 ? r * r : 0;
     skip[i] = 1;
     minNorm[i] = re[m + 1]! * re[m + 1]! + im[m + 1]! * im[m + 1]!;
     minAt[i] = 1;
@@ -133,8 +133,9 @@ export function buildBlaTable(orbit: ReferenceOrbit, unitExponent: number, delta
       const ry = Math.sqrt(radius2[y]!);
       const ax = Math.hypot(axr, axi);
       const bx = Math.hypot(bxr, bxi) * deltaMax; // |B_x| |c|max, tile units cancel
-      const r = ax === 0 ? 0 : Math.max(0, Math.min(rx, (ry - bx) / ax));
-      radius2[d] = r * r;
+      const r = ax === 0 ? 0 : Math.min(rx, (ry - bx) / ax);
+      // long products overflow: Infinity - Infinity gives NaN, which must read as "never valid"
+      radius2[d] = r > 0 ? r * r : 0;
       skip[d] = skip[x]! + skip[y]!;
       if (minNorm[y]! < minNorm[x]!) {
         minNorm[d] = minNorm[y]!;
