@@ -55,14 +55,30 @@ export function accelerate(xs: readonly Decimal[], cap: number): Accelerated {
   let best: Accelerated = { value: xs[xs.length - 1]!, digits: 0, passes: 0 };
   let bestAgree = -1;
   let column: Decimal[] = [...xs];
+  let input: Decimal[] | undefined;
   for (let passes = 0; column.length >= 2; passes++) {
+    // A column counts only if the sequence it came from visibly converges
+    // (last difference ratio below 0.8): Aitken turns 1, -1, 1, ... into an
+    // exact 0, which agrees with itself but means nothing.
+    if (!converging(input ?? column)) break;
     const last = column[column.length - 1]!;
     const agree = agreeingDigits(last, column[column.length - 2]!, cap);
     if (agree > bestAgree) {
       bestAgree = agree;
       best = { value: last, digits: Math.max(0, agree - 1), passes };
     }
+    input = column;
     column = aitkenPass(column);
   }
   return best;
+}
+
+/** True when |x_n - x_{n-1}| / |x_{n-1} - x_{n-2}| < 0.8 at the end of xs (or the last difference is 0). */
+function converging(xs: readonly Decimal[]): boolean {
+  const n = xs.length;
+  if (n < 3) return false;
+  const d1 = xs[n - 1]!.minus(xs[n - 2]!).abs();
+  const d0 = xs[n - 2]!.minus(xs[n - 3]!).abs();
+  if (d1.isZero()) return true;
+  return d1.lt(d0.times(0.8));
 }
