@@ -8,6 +8,7 @@ import { fileURLToPath } from 'node:url';
 import type { BenchRow, BenchSection } from './bench-section.js';
 import { kernelSection } from './kernel-section.js';
 import { plateSection } from './plate-section.js';
+import { componentsSection } from './components-section.js';
 
 /**
  * The section registry, run in this order.
@@ -18,6 +19,7 @@ import { plateSection } from './plate-section.js';
 export const SECTIONS: readonly BenchSection[] = [
   kernelSection,
   plateSection,
+  componentsSection,
 ];
 
 interface SectionResult {

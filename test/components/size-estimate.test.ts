@@ -18,7 +18,7 @@ describe('sizeEstimate', () => {
     expect(a.size).toBeCloseTo(b.size, 15);
     expect(a.orientation).toBeCloseTo(-b.orientation, 14);
   });
-  it('log10Size stays finite where size would underflow: period 1000 near the 1/1000 bulb', () => {
+  it('sizeEstimateScaled(5, real nucleus near -2): log10Size equals log10(size)', () => {
     const s = sizeEstimateScaled(5, { re: '-1.985424253054205', im: '0' });
     expect(s.log10Size).toBeCloseTo(Math.log10(s.size), 10);
   });
