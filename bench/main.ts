@@ -9,6 +9,7 @@ import type { BenchRow, BenchSection } from './bench-section.js';
 import { kernelSection } from './kernel-section.js';
 import { plateSection } from './plate-section.js';
 import { componentsSection } from './components-section.js';
+import { sliceSection } from './slice-section.js';
 
 /**
  * The section registry, run in this order.
@@ -20,6 +21,7 @@ export const SECTIONS: readonly BenchSection[] = [
   kernelSection,
   plateSection,
   componentsSection,
+  sliceSection,
 ];
 
 interface SectionResult {
