@@ -55,24 +55,33 @@ export function connectionOptions(t: RedisTarget): { host: string; port: number;
   return { host: t.host, port: t.port, db: t.db, connectTimeout: REDIS_TIMEOUT_MS };
 }
 
-/** Connects once and pings, failing within REDIS_TIMEOUT_MS (never retrying), so a wrong URL is reported at once. */
+/**
+ * Connects once and sends PING (RESP, Redis protocol spec: inline command,
+ * reply "+PONG"), failing within REDIS_TIMEOUT_MS and never retrying, so a
+ * wrong URL is reported at once. A bare socket rather than a client library:
+ * it leaves no timer or reconnect behind to hold the process open.
+ */
 export async function checkRedis(t: RedisTarget, field = '--queue'): Promise<void> {
-  const { Redis } = await import('ioredis');
-  const client = new Redis({ ...connectionOptions(t), lazyConnect: true, enableOfflineQueue: false, maxRetriesPerRequest: 0, retryStrategy: () => null });
-  client.on('error', () => undefined);
-  let timer: NodeJS.Timeout | undefined;
-  try {
-    const timeout = new Promise<never>((_, reject) => {
-      timer = setTimeout(() => reject(new Error(`no answer within ${REDIS_TIMEOUT_MS / 1000} s`)), REDIS_TIMEOUT_MS);
+  const { connect } = await import('node:net');
+  const problem = await new Promise<string | undefined>((resolve) => {
+    const socket = connect({ host: t.host, port: t.port });
+    let reply = '';
+    const done = (p: string | undefined): void => {
+      clearTimeout(timer);
+      socket.destroy();
+      resolve(p);
+    };
+    const timer = setTimeout(() => done(`no answer within ${REDIS_TIMEOUT_MS / 1000} s`), REDIS_TIMEOUT_MS);
+    socket.on('error', (err: NodeJS.ErrnoException) => done(err.code ?? err.message));
+    socket.on('connect', () => socket.write(t.db === 0 ? 'PING\r\n' : `SELECT ${t.db}\r\nPING\r\n`));
+    socket.on('data', (chunk: Buffer) => {
+      reply += chunk.toString('latin1');
+      if (reply.startsWith('-')) done(`refused: ${reply.split('\r\n')[0]!.slice(1)}`);
+      else if (reply.includes('+PONG\r\n')) done(undefined);
     });
-    await Promise.race([client.connect().then(() => client.ping()), timeout]);
-  } catch (err) {
-    const e = err as NodeJS.ErrnoException;
-    throw new UserError(field, 'a reachable Redis server', new Received(`redis://${t.host}:${t.port} (${e.code ?? e.message})`));
-  } finally {
-    clearTimeout(timer);
-    client.disconnect();
-  }
+    socket.on('end', () => done(`closed the connection${reply === '' ? '' : `: ${reply.split('\r\n')[0]}`}`));
+  });
+  if (problem !== undefined) throw new UserError(field, 'a reachable Redis server', new Received(`redis://${t.host}:${t.port} (${problem})`));
 }
 
 export function tileJobId(key: string, index: number): string {
