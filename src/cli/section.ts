@@ -26,7 +26,7 @@ const OPTION = {
   steps: ['--steps <n>', 'number of parameter values (default 1000)'],
   transient: ['--transient <n>', 'iterations discarded before measuring'],
   iterations: ['--iterations <n>', 'iterations measured per parameter'],
-  out: ['--out <file>', 'output file'],
+  out: ['--out <file>', 'output file (lyapunov: .svg or .png plot; diagram: .png; compare: .svg or .png)'],
   size: ['--size <WxH>', 'image size in pixels, e.g. 2000x1000'],
   samples: ['--samples <k>', 'jittered parameter samples per pixel column (default 4)'],
   depth: ['--depth <bits>', 'bits per channel: 8 or 16 (default 16)'],
@@ -473,14 +473,18 @@ export function register(program: Command): void {
     write(formatTable(await windowsTable(values), format));
   });
 
-  const lyapunov = section.command('lyapunov').description('Lyapunov exponent across a parameter range (table, and an SVG plot with --out)');
+  const lyapunov = section.command('lyapunov').description('Lyapunov exponent across a parameter range (table; an SVG or PNG plot with --out)');
   for (const k of ['family', 'from', 'to', 'steps', 'transient', 'iterations', 'out', 'json', 'csv'] as const) opt(lyapunov, k);
   lyapunov.action(async (values: Values) => {
     const format = tableFormat(values);
-    if (values['out'] !== undefined) parseOut(values['out'], ['.svg'], '');
+    if (values['out'] !== undefined) parseOut(values['out'], ['.svg', '.png'], '');
     const { table, svg } = await lyapunovRun(values);
     if (svg !== undefined) {
-      await writeText(String(values['out']), svg);
+      const file = String(values['out']);
+      if (file.toLowerCase().endsWith('.png')) {
+        const sharp = (await import('sharp')).default;
+        await writeText(file, await sharp(Buffer.from(svg), { density: 144 }).png().toBuffer());
+      } else await writeText(file, svg);
       process.stderr.write(`quadatlas: wrote ${String(values['out'])}\n`);
       if (format !== 'text') write(formatTable(table, format));
     } else write(formatTable(table, format));

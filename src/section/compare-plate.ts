@@ -74,8 +74,8 @@ export function comparePlateSvg(spec: CompareSpec): string {
   out.push(`<rect x="${left}" y="${top}" width="${W}" height="${hs + hd}" fill="none" stroke="black"/>`);
   out.push(`<line x1="${left}" y1="${top + hs}" x2="${left + W}" y2="${top + hs}" stroke="black"/>`);
   for (const t of niceTicks(Math.min(from, to), Math.max(from, to), 12)) {
-    out.push(`<line x1="${f(x(t))}" y1="${top - 26}" x2="${f(x(t))}" y2="${top}" stroke="black"/>`);
-    out.push(`<text x="${f(x(t))}" y="${top - 30}" text-anchor="middle" font-size="12">${t}</text>`);
+    out.push(`<line x1="${f(x(t))}" y1="${top - 6}" x2="${f(x(t))}" y2="${top}" stroke="black"/>`);
+    out.push(`<text x="${f(x(t))}" y="${top - 32}" text-anchor="middle" font-size="12">${t}</text>`);
   }
   const rOf = (c: number): number => 1 + Math.sqrt(Math.max(0, 1 - 4 * c));
   const [rA, rB] = [rOf(to), rOf(from)];

@@ -66,3 +66,15 @@ describe('findWindows on the sine family', () => {
     expect(words(s)).toEqual(words(windows));
   });
 });
+
+describe('windowOf', () => {
+  it('windowOf finds RL at c = -1.76, R at -1.5 and no window of period <= 5 at -1.6', async () => {
+    const { windowOf } = await import('../../src/section/window-of.js');
+    // -1.76 lies between the period-3 onset -7/4 (checks.md) and its crisis -1.7903 (methods.md E4).
+    expect(windowOf('-1.76', 5)?.word).toBe('RL');
+    // c = -1.5 (r = 1 + sqrt 7 = 3.6458) lies inside the period-2 window R: onset r = 3, end (band merging) c = -1.5437 (r = 3.6786).
+    // c = -1.6 (r = 3.7203) lies between the windows of period <= 5.
+    expect(windowOf('-1.5', 5)?.word).toBe('R');
+    expect(windowOf('-1.6', 5)).toBeUndefined();
+  });
+});
