@@ -89,4 +89,14 @@ describe.skipIf(!existsSync(path.resolve('dist/src/cli/main.js')))('quadatlas se
     expect([png[24], png[25]]).toEqual([16, 2]);
     expect(readdirSync(dir)).toEqual(['d.png']);
   });
+
+  it('section diagram gives the same bytes with 1 and 2 workers', () => {
+    const dir = tempDir();
+    const files = ['1', '2'].map((w) => {
+      const file = path.join(dir, `w${w}.png`);
+      expect(runCli(['section', 'diagram', '--family', 'sine', '--size', '97x40', '--samples', '3', '--workers', w, '--out', file]).status).toBe(0);
+      return readFileSync(file);
+    });
+    expect(files[0]!.equals(files[1]!)).toBe(true);
+  });
 });
