@@ -153,7 +153,6 @@ export async function cascadeTable(values: Values, progress: (s: string) => void
     extra: {
       family: family.name,
       digits,
-      seconds: (Date.now() - started) / 1000,
       estimates: {
         delta: { value: show(cascade.delta.value, digits), digits: cascade.delta.digits },
         alpha: { value: show(cascade.alpha.value, digits), digits: cascade.alpha.digits },
