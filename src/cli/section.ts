@@ -19,7 +19,7 @@ const OPTION = {
   digits: ['--digits <n>', 'significant digits of the parameters'],
   json: ['--json', 'write the table as JSON to stdout'],
   csv: ['--csv', 'write the table as CSV to stdout'],
-  levels: ['--levels <k>', 'cascade levels: periods 1, 2, 4, ..., 2^k (default 12 for logistic, 9 otherwise)'],
+  levels: ['--levels <k>', 'cascade levels: periods 1, 2, 4, ..., 2^k (default 16 for logistic: delta to about 16 digits, alpha to 12; 9 otherwise)'],
   maxPeriod: ['--max-period <p>', 'largest period of the windows listed (default 6)'],
   from: ['--from <value>', 'start of the parameter range'],
   to: ['--to <value>', 'end of the parameter range'],
@@ -114,8 +114,8 @@ export function convertTable(values: Values): SectionTable {
 
 export async function cascadeTable(values: Values, progress: (s: string) => void): Promise<SectionTable> {
   const family = parseFamily(values['family']);
-  // decimal.js sin makes the sine family about 40 times slower per step than the BigInt logistic path.
-  const levels = parseInteger(values['levels'], '--levels', 2, 22, family.name === 'logistic' ? 12 : 9);
+  // 16 logistic levels take about 10 s on 2 cores; decimal.js sin makes the sine family about 40 times slower per step than the BigInt logistic path.
+  const levels = parseInteger(values['levels'], '--levels', 2, 22, family.name === 'logistic' ? 16 : 9);
   const digits = parseInteger(values['digits'], '--digits', 10, 500, 25);
   const { computeCascade } = await import('../section/cascade.js');
   const { cascadeSolverFor } = await import('../section/cascade-solver-for.js');
@@ -438,6 +438,25 @@ function write(s: string): void {
   process.stdout.write(s);
 }
 
+/**
+ * Runs an action; a Newton that did not settle is not the user's fault nor a
+ * crash: it is reported as one line with exit code 1.
+ */
+function guarded(action: (values: Values) => Promise<void> | void): (values: Values) => Promise<void> {
+  return async (values) => {
+    try {
+      await action(values);
+    } catch (err) {
+      if (err instanceof Error && err.name === 'NoConvergenceError') {
+        process.stderr.write(`quadatlas: no convergence: ${err.message.split('\n')[0]}\n`);
+        process.exitCode = 1;
+        return;
+      }
+      throw err;
+    }
+  };
+}
+
 function progressLine(s: string): void {
   if (process.stderr.isTTY) process.stderr.write(`\r\x1b[K${s}`);
 }
@@ -453,50 +472,60 @@ export function register(program: Command): void {
     .option('--x <value>', 'a logistic state x (needs the parameter)')
     .option('--z <value>', 'a quadratic state z (needs the parameter)');
   for (const k of ['digits', 'json', 'csv'] as const) opt(convert, k);
-  convert.action((values: Values) => {
-    write(formatTable(convertTable(values), tableFormat(values)));
-  });
+  convert.action(
+    guarded((values: Values) => {
+      write(formatTable(convertTable(values), tableFormat(values)));
+    }),
+  );
 
   const cascade = section.command('cascade').description('period-doubling cascade, Feigenbaum delta and alpha, accumulation point');
   for (const k of ['family', 'levels', 'digits', 'json', 'csv'] as const) opt(cascade, k);
-  cascade.action(async (values: Values) => {
-    const format = tableFormat(values);
-    const table = await cascadeTable(values, progressLine);
-    if (process.stderr.isTTY) process.stderr.write('\r\x1b[K');
-    write(formatTable(table, format));
-  });
+  cascade.action(
+    guarded(async (values: Values) => {
+      const format = tableFormat(values);
+      const table = await cascadeTable(values, progressLine);
+      if (process.stderr.isTTY) process.stderr.write('\r\x1b[K');
+      write(formatTable(table, format));
+    }),
+  );
 
   const windows = section.command('windows').description('periodic windows up to a period: MSS word, onset, superstable, doubling, end, component');
   for (const k of ['family', 'maxPeriod', 'digits', 'json', 'csv'] as const) opt(windows, k);
-  windows.action(async (values: Values) => {
-    const format = tableFormat(values);
-    write(formatTable(await windowsTable(values), format));
-  });
+  windows.action(
+    guarded(async (values: Values) => {
+      const format = tableFormat(values);
+      write(formatTable(await windowsTable(values), format));
+    }),
+  );
 
   const lyapunov = section.command('lyapunov').description('Lyapunov exponent across a parameter range (table; an SVG or PNG plot with --out)');
   for (const k of ['family', 'from', 'to', 'steps', 'transient', 'iterations', 'out', 'json', 'csv'] as const) opt(lyapunov, k);
-  lyapunov.action(async (values: Values) => {
-    const format = tableFormat(values);
-    if (values['out'] !== undefined) parseOut(values['out'], ['.svg', '.png'], '');
-    const { table, svg } = await lyapunovRun(values);
-    if (svg !== undefined) {
-      const file = String(values['out']);
-      if (file.toLowerCase().endsWith('.png')) {
-        const sharp = (await import('sharp')).default;
-        await writeText(file, await sharp(Buffer.from(svg), { density: 144 }).png().toBuffer());
-      } else await writeText(file, svg);
-      process.stderr.write(`quadatlas: wrote ${String(values['out'])}\n`);
-      if (format !== 'text') write(formatTable(table, format));
-    } else write(formatTable(table, format));
-  });
+  lyapunov.action(
+    guarded(async (values: Values) => {
+      const format = tableFormat(values);
+      if (values['out'] !== undefined) parseOut(values['out'], ['.svg', '.png'], '');
+      const { table, svg } = await lyapunovRun(values);
+      if (svg !== undefined) {
+        const file = String(values['out']);
+        if (file.toLowerCase().endsWith('.png')) {
+          const sharp = (await import('sharp')).default;
+          await writeText(file, await sharp(Buffer.from(svg), { density: 144 }).png().toBuffer());
+        } else await writeText(file, svg);
+        process.stderr.write(`quadatlas: wrote ${String(values['out'])}\n`);
+        if (format !== 'text') write(formatTable(table, format));
+      } else write(formatTable(table, format));
+    }),
+  );
 
   const diagram = section.command('diagram').description('the bifurcation diagram as a 16-bit density image (PNG)');
   for (const k of ['family', 'from', 'to', 'size', 'samples', 'transient', 'iterations', 'depth', 'workers', 'out'] as const) opt(diagram, k);
-  diagram.action(async (values: Values) => {
-    const r = await diagramRun(values, progressLine);
-    if (process.stderr.isTTY) process.stderr.write('\r\x1b[K');
-    process.stderr.write(`quadatlas: wrote ${r.file} (${r.width}x${r.height}) in ${r.seconds.toFixed(1)} s\n`);
-  });
+  diagram.action(
+    guarded(async (values: Values) => {
+      const r = await diagramRun(values, progressLine);
+      if (process.stderr.isTTY) process.stderr.write('\r\x1b[K');
+      process.stderr.write(`quadatlas: wrote ${r.file} (${r.width}x${r.height}) in ${r.seconds.toFixed(1)} s\n`);
+    }),
+  );
 
   const compare = section
     .command('compare')
@@ -506,9 +535,11 @@ export function register(program: Command): void {
     .option('--size <WxH>', 'plate size in pixels without margins (default 2400x1500)')
     .option('--max-period <p>', 'mark windows up to this period (default 5)');
   for (const k of ['samples', 'workers', 'out'] as const) opt(compare, k);
-  compare.action(async (values: Values) => {
-    const r = await compareRun(values, progressLine);
-    if (process.stderr.isTTY) process.stderr.write('\r\x1b[K');
-    process.stderr.write(`quadatlas: wrote ${r.file} in ${r.seconds.toFixed(1)} s\n`);
-  });
+  compare.action(
+    guarded(async (values: Values) => {
+      const r = await compareRun(values, progressLine);
+      if (process.stderr.isTTY) process.stderr.write('\r\x1b[K');
+      process.stderr.write(`quadatlas: wrote ${r.file} in ${r.seconds.toFixed(1)} s\n`);
+    }),
+  );
 }
