@@ -18,33 +18,40 @@
  *   since Z_0 = 0); level j entry i merges level j-1 entries 2i and 2i+1 and
  *   starts at m = 1 + i 2^j.
  *
- * B is stored in tile units (B * 2^unitExponent, the same unit as the
- * kernel's offsets), so it stays in double range at any depth. The table is
- * plain data (typed arrays) for workers, like the reference orbit.
+ * B (which grows like 1/|c|) is stored as a floatexp and R as log2 R, so
+ * the table works at any depth, including the rescaled iterations below
+ * 1e-300. Radii are computed in logarithms: log2(2^a - 2^b) for the
+ * subtractions. The table is plain data (typed arrays) for workers, like
+ * the reference orbit.
  * Each entry also records the smallest |Z| among the iterates it skips
  * (`minNorm`, at offset `minAt`), so that atom-domain period candidates are
  * not lost inside a skip.
  */
 import type { ReferenceOrbit } from '../precise/reference-orbit.js';
+import { exponentOf, ldexp } from '../precise/floatexp.js';
 
 export interface BlaTable {
-  /** Number of levels; level j has count(j) entries starting at offsets[j]. */
+  /** Number of levels; level j has counts[j] entries starting at offsets[j]. */
   readonly levels: number;
   readonly offsets: Int32Array;
   readonly counts: Int32Array;
   readonly aRe: Float64Array;
   readonly aIm: Float64Array;
-  /** B in tile units (times 2^unitExponent). */
+  /** B in c units as a floatexp: (bRe + i bIm) 2^bExp, max(|bRe|, |bIm|) in [0.5, 1). */
   readonly bRe: Float64Array;
   readonly bIm: Float64Array;
-  /** R^2 in c units (z of the kernel in plain mode is in c units). */
-  readonly radius2: Float64Array;
+  readonly bExp: Int32Array;
+  /**
+   * log2 of the validity radius R in c units (-Infinity: never valid).
+   * Logarithms, because at spans below 1e-300 the radii of the skips that
+   * matter most (the linear phase from |z| ~ |c|) are below the double range.
+   */
+  readonly logRadius: Float64Array;
   /** l: iterations skipped by the entry. */
   readonly skip: Int32Array;
   /** min over t = 1..l of |Z_{m+t}|^2, and the t where it occurs. */
   readonly minNorm: Float64Array;
   readonly minAt: Int32Array;
-  readonly unitExponent: number;
   readonly epsilon: number;
 }
 
@@ -58,11 +65,14 @@ export interface BlaOptions {
 }
 
 /**
- * Builds the table for `orbit`, for offsets |c| <= deltaMax * 2^unitExponent
+ * Builds the table for `orbit`, valid for offsets |c| <= deltaMax * 2^unitExponent
  * (deltaMax in tile units: the largest |offset| the plate will use).
  */
 export function buildBlaTable(orbit: ReferenceOrbit, unitExponent: number, deltaMax: number, options: BlaOptions = {}): BlaTable {
   const epsilon = options.epsilon ?? 2 ** -40;
+  const logEps = Math.log2(epsilon);
+  // log2 |c|max: never underflows, whatever the depth
+  const logC = deltaMax > 0 ? Math.log2(deltaMax) + unitExponent : -Infinity;
   const M = orbit.length;
   const n0 = Math.max(0, M - 1);
   const counts: number[] = [];
@@ -79,26 +89,24 @@ export function buildBlaTable(orbit: ReferenceOrbit, unitExponent: number, delta
   const aIm = new Float64Array(total);
   const bRe = new Float64Array(total);
   const bIm = new Float64Array(total);
-  const radius2 = new Float64Array(total);
+  const bExp = new Int32Array(total);
+  const logRadius = new Float64Array(total);
   const skip = new Int32Array(total);
   const minNorm = new Float64Array(total);
   const minAt = new Int32Array(total);
-  const unit = 2 ** Math.max(-1074, Math.min(1023, unitExponent)); // may round to 0 at extreme depth (harmless: see below)
-  const cMax = deltaMax * unit; // c units; 0 when it underflows, a negligible loss next to eps |A|
   const { re, im } = orbit;
   for (let i = 0; i < n0; i++) {
     const m = i + 1;
-    const zr = re[m]!;
-    const zi = im[m]!;
-    const ar = 2 * zr;
-    const ai = 2 * zi;
-    const a = Math.hypot(ar, ai);
+    const ar = 2 * re[m]!;
+    const ai = 2 * im[m]!;
     aRe[i] = ar;
     aIm[i] = ai;
-    bRe[i] = unit;
+    bRe[i] = 0.5; // B = 1 = 0.5 * 2^1
     bIm[i] = 0;
-    const r = a === 0 ? 0 : epsilon * a - cMax / a;
-    radius2[i] = r > 0 ? r * r : 0;
+    bExp[i] = 1;
+    // R = eps |A| - |c| / |A| = eps |A| (1 - |c| / (eps |A|^2))
+    const la = Math.log2(Math.hypot(ar, ai));
+    logRadius[i] = logSubtract(logEps + la, logC - la);
     skip[i] = 1;
     minNorm[i] = re[m + 1]! * re[m + 1]! + im[m + 1]! * im[m + 1]!;
     minAt[i] = 1;
@@ -116,7 +124,8 @@ export function buildBlaTable(orbit: ReferenceOrbit, unitExponent: number, delta
         aIm[d] = aIm[x]!;
         bRe[d] = bRe[x]!;
         bIm[d] = bIm[x]!;
-        radius2[d] = radius2[x]!;
+        bExp[d] = bExp[x]!;
+        logRadius[d] = logRadius[x]!;
         skip[d] = skip[x]!;
         minNorm[d] = minNorm[x]!;
         minAt[d] = minAt[x]!;
@@ -126,16 +135,38 @@ export function buildBlaTable(orbit: ReferenceOrbit, unitExponent: number, delta
       const axr = aRe[x]!, axi = aIm[x]!, ayr = aRe[y]!, ayi = aIm[y]!;
       aRe[d] = ayr * axr - ayi * axi;
       aIm[d] = ayr * axi + ayi * axr;
+      // B = A_y B_x + B_y, aligned to the larger exponent
+      const ex = bExp[x]!, ey = bExp[y]!;
       const bxr = bRe[x]!, bxi = bIm[x]!;
-      bRe[d] = ayr * bxr - ayi * bxi + bRe[y]!;
-      bIm[d] = ayr * bxi + ayi * bxr + bIm[y]!;
-      const rx = Math.sqrt(radius2[x]!);
-      const ry = Math.sqrt(radius2[y]!);
-      const ax = Math.hypot(axr, axi);
-      const bx = Math.hypot(bxr, bxi) * deltaMax; // |B_x| |c|max, tile units cancel
-      const r = ax === 0 ? 0 : Math.min(rx, (ry - bx) / ax);
-      // long products overflow: Infinity - Infinity gives NaN, which must read as "never valid"
-      radius2[d] = r > 0 ? r * r : 0;
+      let tr = ayr * bxr - ayi * bxi, ti = ayr * bxi + ayi * bxr;
+      let byr = bRe[y]!, byi = bIm[y]!;
+      let e = ex;
+      if (ey > ex) {
+        tr = ldexp(tr, ex - ey);
+        ti = ldexp(ti, ex - ey);
+        e = ey;
+      } else {
+        byr = ldexp(byr, ey - ex);
+        byi = ldexp(byi, ey - ex);
+      }
+      let br = tr + byr, bi = ti + byi;
+      const big = Math.max(Math.abs(br), Math.abs(bi));
+      if (big !== 0 && Number.isFinite(big)) {
+        const k = exponentOf(big);
+        br = ldexp(br, -k);
+        bi = ldexp(bi, -k);
+        e += k;
+      }
+      bRe[d] = br;
+      bIm[d] = bi;
+      bExp[d] = e;
+      // R = min(R_x, (R_y - |B_x| |c|) / |A_x|), in logarithms
+      const lbx = Math.log2(Math.hypot(bxr, bxi)) + ex;
+      const lax = Math.log2(Math.hypot(axr, axi));
+      const r = logSubtract(logRadius[y]!, lbx + logC) - lax;
+      const rx = logRadius[x]!;
+      const lr = r < rx ? r : rx;
+      logRadius[d] = Number.isNaN(lr) ? -Infinity : lr;
       skip[d] = skip[x]! + skip[y]!;
       if (minNorm[y]! < minNorm[x]!) {
         minNorm[d] = minNorm[y]!;
@@ -150,18 +181,24 @@ export function buildBlaTable(orbit: ReferenceOrbit, unitExponent: number, delta
     levels,
     offsets: Int32Array.from(offsets),
     counts: Int32Array.from(counts),
-    aRe, aIm, bRe, bIm, radius2, skip, minNorm, minAt,
-    unitExponent,
+    aRe, aIm, bRe, bIm, bExp, logRadius, skip, minNorm, minAt,
     epsilon,
   };
 }
 
+/** log2(2^a - 2^b), -Infinity when b >= a (or either is NaN). */
+function logSubtract(a: number, b: number): number {
+  if (!(a > b)) return -Infinity;
+  if (b === -Infinity) return a;
+  return a + Math.log2(1 - 2 ** (b - a));
+}
+
 /**
- * The index of the entry to apply at reference iteration m for a delta of
- * squared size z2 (c units), skipping at most maxSkip iterations; -1 if
- * none is valid. Tries the longest aligned entry first and halves.
+ * The index of the entry to apply at reference iteration m for a delta with
+ * log2 |z| = logZ (c units), skipping at most maxSkip iterations; -1 if none
+ * is valid. Tries the longest aligned entry first and halves.
  */
-export function findBla(table: BlaTable, m: number, z2: number, maxSkip: number): number {
+export function findBla(table: BlaTable, m: number, logZ: number, maxSkip: number): number {
   if (m < 1) return -1;
   const k = m - 1;
   // highest level at which an entry starts at m: the trailing zero bits of k
@@ -170,7 +207,7 @@ export function findBla(table: BlaTable, m: number, z2: number, maxSkip: number)
     const i = k >> j;
     if (i >= table.counts[j]!) continue;
     const e = table.offsets[j]! + i;
-    if (z2 < table.radius2[e]! && table.skip[e]! <= maxSkip) return e;
+    if (logZ < table.logRadius[e]! && table.skip[e]! <= maxSkip) return e;
   }
   return -1;
 }

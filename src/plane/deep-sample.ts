@@ -101,6 +101,13 @@ const EV_NEWMIN = 2;
 const SCALED_BELOW = 2 ** -500;
 /** Leave rescaled mode when 2^k |w| reaches this. */
 const PLAIN_FROM_EXP = -480;
+/**
+ * A new atom-domain minimum must at least halve |Z + z|^2. Near-ties (an
+ * orbit shadowing a reference whose |Z_m| repeat, as near a Misiurewicz
+ * point) would otherwise raise an event every few steps and cap every skip;
+ * a genuine period candidate drops by orders of magnitude.
+ */
+const MIN_DROP = 0.5;
 const W_HIGH = 2 ** 64;
 const W_LOW = 2 ** -64;
 const P_HIGH = 2 ** 256;
@@ -196,40 +203,50 @@ function run(
   let event = EV_STOP;
   let stepped = 0;
   while (n < stopAt) {
-    if (k === 0) {
-      // ---------------------------------------------------------------- plain mode
-      let skipped = false;
-      if (bla !== null && m >= 1) {
-        const z2 = wr * wr + wi * wi;
-        const maxSkip = stopAt - n;
-        const minLimit = track && minK === 0 ? minN : 0;
-        const kk = m - 1;
-        let j = kk === 0 ? bla.levels - 1 : Math.min(bla.levels - 1, 31 - Math.clz32(kk & -kk));
-        for (; j >= 0; j--) {
-          const i = kk >> j;
-          if (i >= bla.counts[j]!) continue;
-          const e = bla.offsets[j]! + i;
-          const l = bla.skip[e]!;
-          if (z2 < bla.radius2[e]! && l <= maxSkip && bla.minNorm[e]! >= minLimit) {
-            const ar = bla.aRe[e]!, ai = bla.aIm[e]!, br = bla.bRe[e]!, bi = bla.bIm[e]!;
-            const nwr = ar * wr - ai * wi + (br * dlr - bi * dli);
-            wi = ar * wi + ai * wr + (br * dli + bi * dlr);
-            wr = nwr;
-            const ngr = ar * gr - ai * gi + br;
-            gi = ar * gi + ai * gr + bi;
-            gr = ngr;
-            const npr = ar * pr - ai * pi;
-            pi = ar * pi + ai * pr;
-            pr = npr;
-            n += l;
-            m += l;
-            stats.skipped += l;
-            stats.skips += 1;
-            skipped = true;
-            break;
+    // ------------------------------------------------------------ bilinear skip (B5), both modes
+    let skipped = false;
+    if (bla !== null && m >= 1) {
+      const logZ = 0.5 * Math.log2(wr * wr + wi * wi) + k;
+      const maxSkip = stopAt - n;
+      const minLimit = track && minK === 0 ? MIN_DROP * minN : 0;
+      const kk = m - 1;
+      let j = kk === 0 ? bla.levels - 1 : Math.min(bla.levels - 1, 31 - Math.clz32(kk & -kk));
+      for (; j >= 0; j--) {
+        const i = kk >> j;
+        if (i >= bla.counts[j]!) continue;
+        const e = bla.offsets[j]! + i;
+        const l = bla.skip[e]!;
+        if (logZ < bla.logRadius[e]! && l <= maxSkip && bla.minNorm[e]! >= minLimit) {
+          const ar = bla.aRe[e]!, ai = bla.aIm[e]!, br = bla.bRe[e]!, bi = bla.bIm[e]!;
+          // B c and B u in the units of w: B 2^(U - k), B a floatexp
+          const fe = bla.bExp[e]! + unitExponent - k;
+          let cr = br * dlr - bi * dli, ci = br * dli + bi * dlr, ur = br, ui = bi;
+          if (fe >= -1022 && fe <= 1023) {
+            const f = 2 ** fe;
+            cr *= f; ci *= f; ur *= f; ui *= f;
+          } else {
+            cr = ldexp(cr, fe); ci = ldexp(ci, fe); ur = ldexp(ur, fe); ui = ldexp(ui, fe);
           }
+          const nwr = ar * wr - ai * wi + cr;
+          wi = ar * wi + ai * wr + ci;
+          wr = nwr;
+          const ngr = ar * gr - ai * gi + ur;
+          gi = ar * gi + ai * gr + ui;
+          gr = ngr;
+          const npr = ar * pr - ai * pi;
+          pi = ar * pi + ai * pr;
+          pr = npr;
+          n += l;
+          m += l;
+          stats.skipped += l;
+          stats.skips += 1;
+          skipped = true;
+          break;
         }
       }
+    }
+    if (k === 0) {
+      // ---------------------------------------------------------------- plain mode
       if (!skipped) {
         const zr = re[m]!, zi = im[m]!;
         // derivative before z (A2): G <- 2 (Z + z) G + u, with Z + z = f
@@ -300,7 +317,7 @@ function run(
           s = k < -1000 ? 0 : ldexp(1, k); sdr = ldexp(dlr, unitExponent - k); sdi = ldexp(dli, unitExponent - k); hs = ldexp(1, unitExponent - k); lim = ldexp(1, k + 66);
         }
       }
-      if (track && (minK !== 0 ? false : nf < minN)) {
+      if (track && (minK !== 0 ? false : nf < MIN_DROP * minN)) {
         minN = nf;
         minK = 0;
         event = EV_NEWMIN;
@@ -308,44 +325,49 @@ function run(
       }
     } else {
       // ---------------------------------------------------------------- rescaled mode (B6b)
-      const zr = re[m]!, zi = im[m]!;
-      let tiny = -1;
-      if (o.tinySlot !== null) tiny = o.tinySlot[m]!;
-      if (tiny >= 0 || (zr === 0 && zi === 0)) {
-        // Z is as small as z (m = 0 after a rebase, or a tiny reference
-        // iterate): work in units of 2^k, z' = 2^k w (2 Zs + w) + c
-        let zsr = 0, zsi = 0;
-        if (tiny >= 0) {
-          zsr = ldexp(o.tinyRe[tiny]!, o.tinyExp[tiny]! - k);
-          zsi = ldexp(o.tinyIm[tiny]!, o.tinyExp[tiny]! - k);
+      if (!skipped) {
+        const zr = re[m]!, zi = im[m]!;
+        let tiny = -1;
+        if (o.tinySlot !== null) tiny = o.tinySlot[m]!;
+        if (tiny >= 0 || (zr === 0 && zi === 0)) {
+          // Z is as small as z (m = 0 after a rebase, or a tiny reference
+          // iterate): work in units of 2^k, z' = 2^k w (2 Zs + w) + c
+          let zsr = 0, zsi = 0;
+          if (tiny >= 0) {
+            zsr = ldexp(o.tinyRe[tiny]!, o.tinyExp[tiny]! - k);
+            zsi = ldexp(o.tinyIm[tiny]!, o.tinyExp[tiny]! - k);
+          }
+          const tr = 2 * zsr + wr, ti = 2 * zsi + wi; // 2 Zs + w
+          const ur = 2 * (zsr + wr), ui = 2 * (zsi + wi); // 2 (Z + z) / 2^k
+          // G <- 2 (Z + z) G + u; the factor may underflow only where the term is negligible
+          const fcr = ldexp(ur, k), fci = ldexp(ui, k);
+          const ngr = fcr * gr - fci * gi + hs;
+          gi = fcr * gi + fci * gr;
+          gr = ngr;
+          const npr = ur * pr - ui * pi;
+          pi = ur * pi + ui * pr;
+          pr = npr;
+          pe += k;
+          const qr = wr * tr - wi * ti, qi = wr * ti + wi * tr;
+          wr = ldexp(qr, k) + sdr;
+          wi = ldexp(qi, k) + sdi;
+        } else {
+          // |Z| >= 2^-500 >> |z|: s = 2^k is flushed to 0 below 2^-1000, where
+          // s w is below 2^-436 |Z| (and subnormal products would be slow)
+          const fcr = 2 * (zr + s * wr), fci = 2 * (zi + s * wi);
+          const ngr = fcr * gr - fci * gi + hs;
+          gi = fcr * gi + fci * gr;
+          gr = ngr;
+          const npr = fcr * pr - fci * pi;
+          pi = fcr * pi + fci * pr;
+          pr = npr;
+          const nwr = 2 * (zr * wr - zi * wi) + s * (wr * wr - wi * wi) + sdr;
+          wi = 2 * (zr * wi + zi * wr) + s * (2 * wr * wi) + sdi;
+          wr = nwr;
         }
-        const tr = 2 * zsr + wr, ti = 2 * zsi + wi; // 2 Zs + w
-        const ur = 2 * (zsr + wr), ui = 2 * (zsi + wi); // 2 (Z + z) / 2^k
-        // G <- 2 (Z + z) G + u; the factor may underflow only where the term is negligible
-        const fcr = ldexp(ur, k), fci = ldexp(ui, k);
-        const ngr = fcr * gr - fci * gi + hs;
-        gi = fcr * gi + fci * gr;
-        gr = ngr;
-        const npr = ur * pr - ui * pi;
-        pi = ur * pi + ui * pr;
-        pr = npr;
-        pe += k;
-        const qr = wr * tr - wi * ti, qi = wr * ti + wi * tr;
-        wr = ldexp(qr, k) + sdr;
-        wi = ldexp(qi, k) + sdi;
-      } else {
-        // |Z| >= 2^-500 >> |z|: s = 2^k is flushed to 0 below 2^-1000, where
-        // s w is below 2^-436 |Z| (and subnormal products would be slow)
-        const fcr = 2 * (zr + s * wr), fci = 2 * (zi + s * wi);
-        const ngr = fcr * gr - fci * gi + hs;
-        gi = fcr * gi + fci * gr;
-        gr = ngr;
-        const npr = fcr * pr - fci * pi;
-        pi = fcr * pi + fci * pr;
-        pr = npr;
-        const nwr = 2 * (zr * wr - zi * wi) + s * (wr * wr - wi * wi) + sdr;
-        wi = 2 * (zr * wi + zi * wr) + s * (2 * wr * wi) + sdi;
-        wr = nwr;
+        n += 1;
+        m += 1;
+        stepped += 1;
       }
       const ap = Math.abs(pr) + Math.abs(pi);
       if (ap > P_HIGH || (ap < P_LOW && ap !== 0)) {
@@ -354,9 +376,6 @@ function run(
         pi = ldexp(pi, -e);
         pe += e;
       }
-      n += 1;
-      m += 1;
-      stepped += 1;
       // full value and rebasing: only possible when |Z_m| < 2^(k+66)
       const nzr = re[m]!, nzi = im[m]!;
       const az = Math.abs(nzr) + Math.abs(nzi);
@@ -383,7 +402,7 @@ function run(
           rebased = true;
           stats.rebases += 1;
         }
-        if (track && lessNorm(nf, k, minN, minK)) {
+        if (track && lessNorm(nf, k, MIN_DROP * minN, minK)) {
           minN = nf;
           minK = k;
           event = EV_NEWMIN;
@@ -410,7 +429,7 @@ function run(
           }
         }
         const nf = nzr * nzr + nzi * nzi;
-        if (track && minK === 0 && nf < minN) {
+        if (track && minK === 0 && nf < MIN_DROP * minN) {
           minN = nf;
           event = EV_NEWMIN;
         }
@@ -497,8 +516,14 @@ function diffScaled(ar: number, ai: number, ak: number, br: number, bi: number, 
   out[2] = k;
 }
 
-const NEWTON_STEPS = 40;
+const NEWTON_STEPS = 24;
+/**
+ * Relative Newton step at which w counts as converged. With skipping, F^p is
+ * evaluated with relative error about eps per skip (2^-40 ~ 1e-12), so the
+ * steps stall near 1e-12; 1e-9 still leaves the multiplier good to ~1e-9.
+ */
 const NEWTON_TOLERANCE = 1e-12;
+const NEWTON_TOLERANCE_SKIPPING = 1e-9;
 
 /**
  * Newton on F^p(w, c) = w by perturbation from w0 = (r, i) 2^k (methods.md
@@ -562,7 +587,7 @@ function confirmCycle(
     // relative step small, or w so close to 0 that nothing at this depth resolves it
     const rel = wn === 0 ? Infinity : (Math.hypot(sr, si) / wn) * 2 ** Math.max(-1000, Math.min(1000, dk - wk));
     if (!Number.isFinite(rel) && wn !== 0) return false;
-    if (rel <= NEWTON_TOLERANCE || (wn === 0 || wk < U - 1100) && stepExp < U - 1100) {
+    if (rel <= (bla === null ? NEWTON_TOLERANCE : NEWTON_TOLERANCE_SKIPPING) || ((wn === 0 || wk < U - 1100) && stepExp < U - 1100)) {
       converged = true;
       break;
     }
@@ -711,7 +736,6 @@ export function sampleDeep(
     let armed = false;
     let nextCheck = Infinity;
     let savedR = 0, savedI = 0, savedK = 0;
-    let attempts = 0;
     let newtonLeft = budget;
     let result = PERIOD_UNDECIDED;
     period[idx] = PERIOD_UNDECIDED;
@@ -737,15 +761,16 @@ export function sampleDeep(
         candidate = st[N]!;
         minAt = st[N]!;
         doubling = 1;
-        attempts = 0;
         armed = false; // arm right here
       } else if (armed) {
         // test: one candidate period after the arm
         const lr = ldexp(st[PR]!, st[PE]!), li = ldexp(st[PI]!, st[PE]!);
         diffScaled(st[FR]!, st[FI]!, st[FK]!, savedR, savedI, savedK, d);
         const gap = Math.hypot(d[0]!, d[1]!) * 2 ** Math.max(-1000, Math.min(1000, d[2]! - savedK));
-        if (lr * lr + li * li < 1 && gap <= 0.5 * Math.hypot(savedR, savedI) && attempts < 2 && newtonLeft > 0) {
-          attempts += 1;
+        // Gate for Newton: the orbit contracted over the last period. The
+        // return gap is not required to be small: Newton's basin is wide, and
+        // slowly converging orbits (|multiplier| near 1) would wait too long.
+        if (lr * lr + li * li < 1 && gap < Infinity && newtonLeft > 0) {
           newtonLeft -= 1;
           if (confirmCycle(o, bla, scratch, candidate, st[FR]!, st[FI]!, st[FK]!, dlr, dli, settings, stats, res)) {
             const p = exactPeriod(o, bla, scratch, candidate, res[0]!, res[1]!, res[2]!, dlr, dli, settings, stats, res);

@@ -29,12 +29,12 @@ describe('buildBlaTable', () => {
     for (const [j, i] of [[3, 5], [5, 7], [6, 1], [7, 2]] as const) {
       const e = entry(j, i);
       const m = 1 + i * 2 ** j;
-      // direct linearised iteration: z_{t+1} = 2 Z z_t (A), B_{t+1} = 2 Z B_t + u (tile units)
+      // direct linearised iteration: z_{t+1} = 2 Z z_t (A), B_{t+1} = 2 Z B_t + 1 (c units)
       let ar = 1, ai = 0, br = 0, bi = 0, minNorm = Infinity, minAt = 0;
       for (let t = 0; t < table.skip[e]!; t++) {
         const zr = 2 * re[m + t]!, zi = 2 * im[m + t]!;
         [ar, ai] = [zr * ar - zi * ai, zr * ai + zi * ar];
-        [br, bi] = [zr * br - zi * bi + u, zr * bi + zi * br];
+        [br, bi] = [zr * br - zi * bi + 1, zr * bi + zi * br];
         const n2 = re[m + t + 1]! ** 2 + im[m + t + 1]! ** 2;
         if (n2 < minNorm) {
           minNorm = n2;
@@ -43,17 +43,21 @@ describe('buildBlaTable', () => {
       }
       // same operations in a different association: agree to rounding growth (1e-10 relative)
       expect(Math.hypot(table.aRe[e]! - ar, table.aIm[e]! - ai) / Math.hypot(ar, ai)).toBeLessThan(1e-10);
-      expect(Math.hypot(table.bRe[e]! - br, table.bIm[e]! - bi) / Math.hypot(br, bi)).toBeLessThan(1e-10);
+      const tb = 2 ** table.bExp[e]!;
+      expect(Math.hypot(table.bRe[e]! * tb - br, table.bIm[e]! * tb - bi) / Math.hypot(br, bi)).toBeLessThan(1e-10);
+      expect(Math.max(Math.abs(table.bRe[e]!), Math.abs(table.bIm[e]!))).toBeGreaterThanOrEqual(0.5);
+      expect(Math.max(Math.abs(table.bRe[e]!), Math.abs(table.bIm[e]!))).toBeLessThan(1);
       expect(table.minNorm[e]).toBe(minNorm);
       expect(table.minAt[e]).toBe(minAt);
     }
   });
 
-  it('validity radii never grow when merging and are 0 where 2 |Z| eps is below the c term', () => {
+  it('validity radii never grow when merging and are never NaN', () => {
     for (let j = 1; j < table.levels; j++) {
       for (let i = 0; i < table.counts[j]!; i++) {
         const e = entry(j, i);
-        expect(table.radius2[e]).toBeLessThanOrEqual(table.radius2[entry(j - 1, 2 * i)]!);
+        expect(table.logRadius[e]).toBeLessThanOrEqual(table.logRadius[entry(j - 1, 2 * i)]!);
+        expect(Number.isNaN(table.logRadius[e])).toBe(false);
       }
     }
   });
@@ -62,9 +66,9 @@ describe('buildBlaTable', () => {
     const { re, im } = orbit;
     let worst = 0;
     for (const m of [1, 33, 257, 1025, 1026]) {
-      const e = findBla(table, m, 0, 2999);
+      const e = findBla(table, m, -Infinity, 2999);
       expect(e).toBeGreaterThanOrEqual(0);
-      const r = Math.sqrt(table.radius2[e]!);
+      const r = 2 ** table.logRadius[e]!;
       // a delta at half the radius, and the largest offset
       let zr = 0.5 * r, zi = 0;
       const dr = DELTA_MAX * u, di = 0;
@@ -72,8 +76,9 @@ describe('buildBlaTable', () => {
         const Zr = re[m + t]!, Zi = im[m + t]!;
         [zr, zi] = [2 * (Zr * zr - Zi * zi) + zr * zr - zi * zi + dr, 2 * (Zr * zi + Zi * zr) + 2 * zr * zi + di];
       }
-      const lr = table.aRe[e]! * 0.5 * r + table.bRe[e]! * DELTA_MAX;
-      const li = table.aIm[e]! * 0.5 * r + table.bIm[e]! * DELTA_MAX;
+      const tb = 2 ** table.bExp[e]!;
+      const lr = table.aRe[e]! * 0.5 * r + table.bRe[e]! * tb * dr;
+      const li = table.aIm[e]! * 0.5 * r + table.bIm[e]! * tb * dr;
       worst = Math.max(worst, Math.hypot(lr - zr, li - zi) / Math.hypot(zr, zi));
     }
     // the dropped z^2 terms are below eps relative per step; allow 2^-30
@@ -83,21 +88,21 @@ describe('buildBlaTable', () => {
 
 describe('findBla', () => {
   it('returns -1 at m = 0 (Z_0 = 0 is never linear), respects maxSkip, and prefers the longest valid skip', () => {
-    expect(findBla(table, 0, 0, 100)).toBe(-1);
-    const e = findBla(table, 1, 0, 100);
+    expect(findBla(table, 0, -Infinity, 100)).toBe(-1);
+    const e = findBla(table, 1, -Infinity, 100);
     expect(table.skip[e]).toBeLessThanOrEqual(100);
     // the longest entry from m = 1 within 100 steps whose radius is not 0
     let best = 0;
     for (let j = 0; j < table.levels; j++) {
       const k = entry(j, 0);
-      if (table.skip[k]! <= 100 && table.radius2[k]! > 0) best = Math.max(best, table.skip[k]!);
+      if (table.skip[k]! <= 100 && table.logRadius[k]! > -Infinity) best = Math.max(best, table.skip[k]!);
     }
     expect(best).toBeGreaterThan(8);
     expect(table.skip[e]).toBe(best);
-    const huge = findBla(table, 1, 1e300, 100);
+    const huge = findBla(table, 1, 1000, 100);
     expect(huge).toBe(-1);
     // at m = 1 + 3 * 16 only levels up to 4 are aligned
-    const e2 = findBla(table, 49, 0, 3000);
+    const e2 = findBla(table, 49, -Infinity, 3000);
     expect(table.skip[e2]).toBeLessThanOrEqual(16);
   });
 });

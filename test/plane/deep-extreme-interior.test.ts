@@ -1,0 +1,132 @@
+import { describe, expect, it } from 'vitest';
+import { computeReferenceOrbit, referenceBits } from '../../src/precise/reference-orbit.js';
+import { buildBlaTable } from '../../src/plane/bla-table.js';
+import { createDeepStats, sampleDeep } from '../../src/plane/deep-sample.js';
+import { createSampleSet, PERIOD_ESCAPED, PERIOD_UNDECIDED } from '../../src/plane/sample-set.js';
+import { decimalAt, decimalEscape, exactDouble, gridOffsets } from './deep-helpers.js';
+import type { Dec } from './deep-helpers.js';
+
+// A period-427 nucleus near c = i at depth 1e-160, found by Newton's method in
+// decimal.js (380 digits) from the guess 1e-160 + (1 + 5e-161)i, whose
+// atom-domain period is 427; re-checked below. Its size estimate is 7.7e-321
+// (components/size-estimate.ts, Hunt & Ott 1997), so a span of 3e-320 frames
+// the minibrot entirely below the double range.
+const NUCLEUS = {
+  re: '0.000000000000000000000000000000000000000000000000000000000000000000000000000000000000000000000000000000000000000000000000000000000000000000000000000000000000000031832602242810733032753860063466035169533992689405029474031654293444213366503366037688609799988586953191566051267791174490177586520832282809105095266987530688925672751468093852375502496357750764412436',
+  im: '1.000000000000000000000000000000000000000000000000000000000000000000000000000000000000000000000000000000000000000000000000000000000000000000000000000000000000000063794318818135972697309254379149175339096396231348468625569673262971317791706143308273288036485243142036282837085306923110290733862196683344278600572010823467799202280561822029870283122100478805447717',
+};
+const PERIOD = 427;
+const SPAN = '3e-320';
+const UNIT = -1070; // offsets and distances in units of 2^-1070
+const SIZE = 16;
+const MAX_IT = 20000;
+const R = 65536;
+
+const D = decimalAt(380);
+const orbit = computeReferenceOrbit(NUCLEUS, referenceBits(SPAN, SIZE), MAX_IT, { period: PERIOD, escapeRadius: R });
+const off = gridOffsets(D, new D(0), new D(0), new D(SPAN), SIZE, UNIT);
+const settings = { maxIterations: MAX_IT, escapeRadius: R, unitExponent: UNIT };
+const unit = new D(2).pow(UNIT);
+const c = (k: number): [Dec, Dec] => [new D(NUCLEUS.re).plus(exactDouble(D, off.re[k]!).times(unit)), new D(NUCLEUS.im).plus(exactDouble(D, off.im[k]!).times(unit))];
+
+/** Multiplier of the p-cycle through the point near 0, by Newton on F^p(w) = w in decimal.js (methods.md A5), from w = 0. */
+function decimalMultiplier(cr: Dec, ci: Dec, p: number): [number, number] {
+  let wr = new D(0), wi = new D(0);
+  let lr = new D(0), li = new D(0);
+  for (let s = 0; s < 12; s++) {
+    let x = wr, y = wi, dr = new D(1), di = new D(0);
+    for (let n = 0; n < p; n++) {
+      const ndr = x.times(dr).minus(y.times(di)).times(2);
+      di = x.times(di).plus(y.times(dr)).times(2);
+      dr = ndr;
+      const nx = x.times(x).minus(y.times(y)).plus(cr);
+      y = x.times(y).times(2).plus(ci);
+      x = nx;
+    }
+    lr = dr;
+    li = di;
+    const fr = x.minus(wr), fi = y.minus(wi);
+    const gr = dr.minus(1), gi = di;
+    const g2 = gr.times(gr).plus(gi.times(gi));
+    const sr = fr.times(gr).plus(fi.times(gi)).div(g2);
+    const si = fi.times(gr).minus(fr.times(gi)).div(g2);
+    wr = wr.minus(sr);
+    wi = wi.minus(si);
+    if (sr.abs().plus(si.abs()).lt(new D(10).pow(-360))) break;
+  }
+  return [lr.toNumber(), li.toNumber()];
+}
+
+describe('sampleDeep around a period-427 minibrot at span 3e-320 (rescaled iterations, periodic reference)', () => {
+  const out = createSampleSet(SIZE * SIZE);
+  sampleDeep(orbit, null, off.re, off.im, SIZE * SIZE, settings, out, createDeepStats());
+  const skipped = createSampleSet(SIZE * SIZE);
+  const stats = createDeepStats();
+  const deltaMax = Math.max(...off.re.map(Math.abs), ...off.im.map(Math.abs));
+  sampleDeep(orbit, buildBlaTable(orbit, UNIT, deltaMax), off.re, off.im, SIZE * SIZE, settings, skipped, stats);
+
+  it('uses a nucleus: the decimal.js Newton step z_427 / (dz_427/dc) is below 1e-340 and Z_427 is kept in full range', () => {
+    let x = new D(0), y = new D(0), dx = new D(0), dy = new D(0);
+    for (let n = 0; n < PERIOD; n++) {
+      const ndx = x.times(dx).minus(y.times(dy)).times(2).plus(1);
+      dy = x.times(dy).plus(y.times(dx)).times(2);
+      dx = ndx;
+      const nx = x.times(x).minus(y.times(y)).plus(NUCLEUS.re);
+      y = x.times(y).times(2).plus(NUCLEUS.im);
+      x = nx;
+    }
+    expect(x.times(x).plus(y.times(y)).div(dx.times(dx).plus(dy.times(dy))).sqrt().lt('1e-340')).toBe(true);
+    expect(orbit.period).toBe(PERIOD);
+    expect(Array.from(orbit.tinyIndex)).toEqual([PERIOD]);
+  });
+
+  it('finds period 427 inside with the decimal.js multiplier, and mostly decides the rest', () => {
+    const interior: number[] = [];
+    let undecided = 0;
+    for (let k = 0; k < SIZE * SIZE; k++) {
+      if (out.period[k] === PERIOD) interior.push(k);
+      if (out.period[k] === PERIOD_UNDECIDED) undecided++;
+      // the minibrot's bulbs have periods q 427 (period-q bulbs of a cardioid)
+      expect(out.period[k]! <= 0 || out.period[k]! % PERIOD === 0).toBe(true);
+    }
+    expect(interior.length).toBeGreaterThan(10);
+    // stated: at most 3% undecided; measured 3 of 256
+    expect(undecided / (SIZE * SIZE)).toBeLessThanOrEqual(0.03);
+    const k = interior[Math.floor(interior.length / 2)]!;
+    const [cr, ci] = c(k);
+    const [lr, li] = decimalMultiplier(cr, ci, PERIOD);
+    expect(Math.hypot(lr, li)).toBeLessThan(1);
+    expect(Math.hypot(out.mulRe[k]! - lr, out.mulIm[k]! - li)).toBeLessThan(1e-9);
+  });
+
+  it('matches decimal.js escape counts on sampled exterior pixels', () => {
+    let checked = 0, mismatched = 0;
+    for (const k of [0, 100, 255]) {
+      if (out.period[k] !== PERIOD_ESCAPED) continue;
+      const [cr, ci] = c(k);
+      checked++;
+      if (decimalEscape(D, cr, ci, MAX_IT, R).n !== Math.ceil(out.smooth[k]!)) mismatched++;
+    }
+    expect(checked).toBe(3);
+    // stated: at most 1 of the 3 sampled pixels on an escape boundary; measured 0
+    expect(mismatched).toBeLessThanOrEqual(1);
+  });
+
+  it('skipping keeps every period and escape count within 1 iteration on 2% of pixels, and skips most iterations', () => {
+    let changed = 0, worst = 0;
+    for (let k = 0; k < SIZE * SIZE; k++) {
+      if (out.period[k] === PERIOD_ESCAPED && skipped.period[k] === PERIOD_ESCAPED) {
+        const d = Math.abs(Math.ceil(out.smooth[k]!) - Math.ceil(skipped.smooth[k]!));
+        if (d > 0) changed++;
+        worst = Math.max(worst, d);
+      } else if (out.period[k] !== skipped.period[k]) {
+        changed++;
+        if (out.period[k] !== PERIOD_UNDECIDED && skipped.period[k] !== PERIOD_UNDECIDED) worst = Infinity;
+      }
+    }
+    // measured: 0 changed; 99% of iterations skipped (the rescaled steps skip too)
+    expect(worst).toBeLessThanOrEqual(1);
+    expect(changed / (SIZE * SIZE)).toBeLessThanOrEqual(0.02);
+    expect(stats.skipped / (stats.skipped + stats.stepped)).toBeGreaterThan(0.9);
+  });
+});
