@@ -12,6 +12,10 @@ import { exteriorDistance } from '../plane/exterior-distance.js';
 import { interiorDistance } from '../plane/interior-distance.js';
 import { smoothCount } from '../plane/smooth-count.js';
 import { cToR } from '../section/conjugacy.js';
+import { windowOf } from '../section/window-of.js';
+
+/** Periods searched for the window that holds a real c (the windows of period <= 10 list in well under a second). */
+const WINDOW_PERIODS = 10;
 import { componentInfo } from '../components/component-info.js';
 import { findNucleus } from '../components/nucleus.js';
 import { decimalToNumber, parseDecimalPair } from '../precise/decimal-string.js';
@@ -97,6 +101,21 @@ export function register(program: Command): void {
         const r = cToR(c.re.text, Math.max(digits, 17));
         out['logistic'] = { r, z: `z = ${r} (1/2 - x)`, x: `x = 1/2 - z / ${r}` };
         lines.push(`-- real slice --`, `logistic r        ${r}  (r = 1 + sqrt(1 - 4c))`, `z and x           z = r (1/2 - x), x = 1/2 - z/r`);
+        // The innermost periodic window of period <= 12 holding c (its onset .. crisis end).
+        const w = cr >= -2 && cr < -0.75 ? windowOf(c.re.text, WINDOW_PERIODS) : undefined;
+        if (w === undefined) {
+          lines.push(`window            none of period <= ${WINDOW_PERIODS}`);
+        } else {
+          const at = (d: { toSignificantDigits(n: number): { toString(): string } }): string => d.toSignificantDigits(15).toString();
+          out['window'] = { period: w.period, word: w.word, onset_r: at(w.onset), superstable_r: at(w.superstable), doubling_r: at(w.doubling), end_r: at(w.end) };
+          lines.push(
+            `window            period ${w.period}, MSS word ${w.word}`,
+            `  onset r         ${at(w.onset)}`,
+            `  superstable r   ${at(w.superstable)}`,
+            `  doubling r      ${at(w.doubling)}`,
+            `  end r           ${at(w.end)}`,
+          );
+        }
       }
       process.stdout.write(o['json'] === true ? `${JSON.stringify(out, null, 2)}\n` : `${lines.join('\n')}\n`);
     });
