@@ -211,3 +211,30 @@ export function findBla(table: BlaTable, m: number, logZ: number, maxSkip: numbe
   }
   return -1;
 }
+
+/**
+ * Copies a table's arrays into SharedArrayBuffers, so that every worker of a
+ * plate reads one copy (see shareReferenceOrbit).
+ */
+export function shareBlaTable(table: BlaTable): BlaTable {
+  const share = <T extends Float64Array | Int32Array>(a: T): T => {
+    const buffer = new SharedArrayBuffer(Math.max(8, a.byteLength));
+    const out = (a instanceof Float64Array ? new Float64Array(buffer, 0, a.length) : new Int32Array(buffer, 0, a.length)) as T;
+    out.set(a as never);
+    return out;
+  };
+  return {
+    ...table,
+    offsets: share(table.offsets),
+    counts: share(table.counts),
+    aRe: share(table.aRe),
+    aIm: share(table.aIm),
+    bRe: share(table.bRe),
+    bIm: share(table.bIm),
+    bExp: share(table.bExp),
+    logRadius: share(table.logRadius),
+    skip: share(table.skip),
+    minNorm: share(table.minNorm),
+    minAt: share(table.minAt),
+  };
+}

@@ -109,3 +109,41 @@ describe('sampleDeep at span 1e-20 near the Misiurewicz point c = i', () => {
     }
   });
 });
+
+describe('sampleDeep as a worker would call it', () => {
+  it('gives identical bytes for shared or structured-cloned inputs and for any batching of the pixels', async () => {
+    const { shareReferenceOrbit } = await import('../../src/precise/reference-orbit.js');
+    const { shareBlaTable } = await import('../../src/plane/bla-table.js');
+    const size = 12;
+    const D = decimalAt(45);
+    const orbit = computeReferenceOrbit({ re: '0', im: '1' }, referenceBits('1e-30', size), 1000, { escapeRadius: R });
+    const span = new D('1e-30');
+    const off = gridOffsets(D, span.times(0.2), new D(0), span, size, -100);
+    const settings = { maxIterations: 1000, escapeRadius: R, unitExponent: -100 };
+    const table = buildBlaTable(orbit, -100, 1e-30 * 2 ** 100);
+    const n = size * size;
+    const a = createSampleSet(n);
+    sampleDeep(orbit, table, off.re, off.im, n, settings, a, createDeepStats());
+    // plain data: survives structuredClone (what postMessage does) and SharedArrayBuffer copies
+    const cloned = structuredClone({ orbit, table });
+    const b = createSampleSet(n);
+    sampleDeep(cloned.orbit, cloned.table, off.re, off.im, n, settings, b, createDeepStats());
+    const c = createSampleSet(n);
+    sampleDeep(shareReferenceOrbit(orbit), shareBlaTable(table), off.re, off.im, n, settings, c, createDeepStats());
+    // batches of 7 pixels
+    const d = createSampleSet(n);
+    for (let k0 = 0; k0 < n; k0 += 7) {
+      const m = Math.min(7, n - k0);
+      const part = createSampleSet(m);
+      sampleDeep(orbit, table, off.re.subarray(k0, k0 + m), off.im.subarray(k0, k0 + m), m, settings, part, createDeepStats());
+      d.smooth.set(part.smooth, k0);
+      d.distance.set(part.distance, k0);
+      d.period.set(part.period, k0);
+    }
+    for (const other of [b, c, d]) {
+      expect(Buffer.from(other.smooth.buffer)).toEqual(Buffer.from(a.smooth.buffer));
+      expect(Buffer.from(other.distance.buffer)).toEqual(Buffer.from(a.distance.buffer));
+      expect(Array.from(other.period)).toEqual(Array.from(a.period));
+    }
+  });
+});
