@@ -28,22 +28,44 @@
  *   exterior-distance.ts); b is written in tile units (c units when
  *   unitExponent = 0).
  * - A4/A5 interior: candidate periods from atom domains (the iteration n at
- *   which |Z_m + z_n| reaches a new minimum), checked once a period, and
- *   confirmed by Newton on F^p(w) = w (itself run by perturbation) with
+ *   which |Z_m + z_n|^2 at least halves), checked at doubling intervals
+ *   (arm at n_min + 2^t p, test one period later: the product of 2 (Z + z)
+ *   over that period must be below 1), and confirmed by Newton on
+ *   F^p(w) = w (itself run by perturbation, with skips) with
  *   |multiplier| < 1 (mathr "Practical interior distance rendering";
  *   "Interior coordinates"). Brent's saved-value test on full values was
  *   dropped: at depth the full values of neighbouring pixels agree to far
  *   more digits than a double holds, so its tolerance cannot be tied to the
  *   pixel spacing; the atom-domain candidate needs no tolerance.
- * - A6 interior distance along one period by perturbation (in tile units).
+ * - A6 interior distance along one period by perturbation (in tile units);
+ *   NaN when U < -900 (spans below ~1e-290), where its derivatives would
+ *   need extended range too: left for later.
  *
- * Data a worker must receive (plain data, no closures): the ReferenceOrbit
- * (reference-orbit.ts; arrays may be SharedArrayBuffer-backed), the BlaTable
- * or null (bla-table.ts; same), the offsets dcRe/dcIm in tile units, and the
- * DeepSettings below.
+ * How a plate uses it (all inputs are plain data; a worker receives them by
+ * postMessage / structured clone, or once as SharedArrayBuffer copies):
+ * 1. once per plate, on the main thread: bits = referenceBits(span, pixels);
+ *    orbit = computeReferenceOrbit(reference, bits, maxIterations, { escapeRadius,
+ *    period? }) (a nucleus in view gives a periodic reference, else the view
+ *    centre); choose U (0 while the span is above ~1e-290, else about
+ *    floor(log2(span)) - 10); geometry: origin = referenceOffset(orbit,
+ *    pixel (0, 0) centre, U), steps = pixel spacing / 2^U (deep-offsets.ts);
+ *    deltaMax = the plate's largest |offset| component (corners);
+ *    table = buildBlaTable(orbit, U, deltaMax) (or null to switch skipping off).
+ *    Share with shareReferenceOrbit / shareBlaTable.
+ * 2. per tile, in a worker: fillDeepOffsets(geometry, x0, y0, w, h, dcRe, dcIm);
+ *    sampleDeep(orbit, table, dcRe, dcIm, w * h, settings, out, stats).
+ * Because orbit, table, U and geometry are per plate and each pixel's result
+ * depends only on them and its own offset, output bytes do not depend on
+ * tiling or worker count (tested).
+ *
+ * Data shapes: ReferenceOrbit = { centreRe, centreIm: string; bits, length,
+ * escapeRadius, period: number; escaped: boolean; re, im: Float64Array(M+1);
+ * tinyIndex: Int32Array, tinyRe, tinyIm: Float64Array, tinyExp: Int32Array }.
+ * BlaTable = { levels, epsilon: number; offsets, counts, bExp, skip, minAt:
+ * Int32Array; aRe, aIm, bRe, bIm, logRadius, minNorm: Float64Array } (about
+ * 2M entries, 80 bytes each, for an orbit of length M). DeepSettings below.
  */
 import type { ReferenceOrbit } from '../precise/reference-orbit.js';
-import { TINY_ITERATE } from '../precise/reference-orbit.js';
 import type { BlaTable } from './bla-table.js';
 import type { SampleSet } from './sample-set.js';
 import { PERIOD_ESCAPED, PERIOD_UNDECIDED } from './sample-set.js';
@@ -806,4 +828,3 @@ export function sampleDeep(
   return out;
 }
 
-export { TINY_ITERATE };
