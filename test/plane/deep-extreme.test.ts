@@ -15,7 +15,7 @@ const CASES = [
   // span, tile unit exponent, decimal digits, sampling stride
   { span: '1e-60', unit: 0, digits: 85, stride: 7 },
   // 1e-320 is below the double range: offsets are given in units of 2^-1070
-  { span: '1e-320', unit: -1070, digits: 345, stride: 29 },
+  { span: '1e-320', unit: -1070, digits: 345, stride: 43 },
 ] as const;
 
 describe.each(CASES)('sampleDeep at span $span near c = i', ({ span, unit, digits, stride }) => {
@@ -47,7 +47,7 @@ describe.each(CASES)('sampleDeep at span $span near c = i', ({ span, unit, digit
         distErr = Math.max(distErr, Math.abs(plain.distance[k]! / distance.div(u).toNumber() - 1));
       }
     }
-    expect(checked).toBeGreaterThanOrEqual(8);
+    expect(checked).toBeGreaterThanOrEqual(6);
     // stated: at most 1 in 10 sampled pixels may sit on an escape boundary; measured 0
     expect(mismatched / checked).toBeLessThanOrEqual(0.1);
     // measured: smooth 3e-14 and distance 2e-15 relative at both depths
