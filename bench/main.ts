@@ -8,6 +8,7 @@ import { fileURLToPath } from 'node:url';
 import type { BenchRow, BenchSection } from './bench-section.js';
 import { kernelSection } from './kernel-section.js';
 import { plateSection } from './plate-section.js';
+import { pyramidSection } from './pyramid-section.js';
 import { componentsSection } from './components-section.js';
 import { sliceSection } from './slice-section.js';
 
@@ -22,6 +23,7 @@ export const SECTIONS: readonly BenchSection[] = [
   plateSection,
   componentsSection,
   sliceSection,
+  pyramidSection,
 ];
 
 interface SectionResult {
