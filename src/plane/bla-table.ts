@@ -42,6 +42,15 @@ export interface BlaTable {
   readonly bIm: Float64Array;
   readonly bExp: Int32Array;
   /**
+   * B 2^unitExponent as plain doubles (0 or subnormal where that underflows),
+   * for the kernel's plain mode, where |z| >= 2^-500 makes such terms
+   * negligible; saves a power of two per skip.
+   */
+  readonly bTileRe: Float64Array;
+  readonly bTileIm: Float64Array;
+  /** R^2 as a plain double (0 where it underflows), for plain-mode lookups without a logarithm. */
+  readonly radius2: Float64Array;
+  /**
    * log2 of the validity radius R in c units (-Infinity: never valid).
    * Logarithms, because at spans below 1e-300 the radii of the skips that
    * matter most (the linear phase from |z| ~ |c|) are below the double range.
@@ -53,6 +62,8 @@ export interface BlaTable {
   readonly minNorm: Float64Array;
   readonly minAt: Int32Array;
   readonly epsilon: number;
+  /** The unit the table was built for (offsets c = delta 2^unitExponent). */
+  readonly unitExponent: number;
 }
 
 /** Options of {@link buildBlaTable}. */
@@ -177,12 +188,22 @@ export function buildBlaTable(orbit: ReferenceOrbit, unitExponent: number, delta
       }
     }
   }
+  const bTileRe = new Float64Array(total);
+  const bTileIm = new Float64Array(total);
+  const radius2 = new Float64Array(total);
+  for (let e = 0; e < total; e++) {
+    bTileRe[e] = ldexp(bRe[e]!, bExp[e]! + unitExponent);
+    bTileIm[e] = ldexp(bIm[e]!, bExp[e]! + unitExponent);
+    const lr = logRadius[e]!;
+    radius2[e] = lr > -1000 ? 2 ** (2 * lr) : 0;
+  }
   return {
     levels,
     offsets: Int32Array.from(offsets),
     counts: Int32Array.from(counts),
-    aRe, aIm, bRe, bIm, bExp, logRadius, skip, minNorm, minAt,
+    aRe, aIm, bRe, bIm, bExp, bTileRe, bTileIm, logRadius, radius2, skip, minNorm, minAt,
     epsilon,
+    unitExponent,
   };
 }
 
@@ -232,7 +253,10 @@ export function shareBlaTable(table: BlaTable): BlaTable {
     bRe: share(table.bRe),
     bIm: share(table.bIm),
     bExp: share(table.bExp),
+    bTileRe: share(table.bTileRe),
+    bTileIm: share(table.bTileIm),
     logRadius: share(table.logRadius),
+    radius2: share(table.radius2),
     skip: share(table.skip),
     minNorm: share(table.minNorm),
     minAt: share(table.minAt),

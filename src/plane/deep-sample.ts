@@ -228,7 +228,11 @@ function run(
     // ------------------------------------------------------------ bilinear skip (B5), both modes
     let skipped = false;
     if (bla !== null && m >= 1) {
-      const logZ = 0.5 * Math.log2(wr * wr + wi * wi) + k;
+      // plain mode compares squares (radius2 is 0 where R^2 underflows, and
+      // such radii are below the plain-mode |z| >= 2^-500); rescaled mode
+      // compares logarithms
+      const w2 = wr * wr + wi * wi;
+      const logZ = k === 0 ? 0 : 0.5 * Math.log2(w2) + k;
       const maxSkip = stopAt - n;
       const minLimit = track && minK === 0 ? MIN_DROP * minN : 0;
       const kk = m - 1;
@@ -238,16 +242,28 @@ function run(
         if (i >= bla.counts[j]!) continue;
         const e = bla.offsets[j]! + i;
         const l = bla.skip[e]!;
-        if (logZ < bla.logRadius[e]! && l <= maxSkip && bla.minNorm[e]! >= minLimit) {
-          const ar = bla.aRe[e]!, ai = bla.aIm[e]!, br = bla.bRe[e]!, bi = bla.bIm[e]!;
-          // B c and B u in the units of w: B 2^(U - k), B a floatexp
-          const fe = bla.bExp[e]! + unitExponent - k;
-          let cr = br * dlr - bi * dli, ci = br * dli + bi * dlr, ur = br, ui = bi;
-          if (fe >= -1022 && fe <= 1023) {
-            const f = 2 ** fe;
-            cr *= f; ci *= f; ur *= f; ui *= f;
+        if ((k === 0 ? w2 < bla.radius2[e]! : logZ < bla.logRadius[e]!) && l <= maxSkip && bla.minNorm[e]! >= minLimit) {
+          const ar = bla.aRe[e]!, ai = bla.aIm[e]!;
+          // B c and B u in the units of w: B 2^(U - k)
+          let cr: number, ci: number, ur: number, ui: number;
+          if (k === 0) {
+            ur = bla.bTileRe[e]!;
+            ui = bla.bTileIm[e]!;
+            cr = ur * dlr - ui * dli;
+            ci = ur * dli + ui * dlr;
           } else {
-            cr = ldexp(cr, fe); ci = ldexp(ci, fe); ur = ldexp(ur, fe); ui = ldexp(ui, fe);
+            const br = bla.bRe[e]!, bi = bla.bIm[e]!;
+            const fe = bla.bExp[e]! + unitExponent - k;
+            cr = br * dlr - bi * dli;
+            ci = br * dli + bi * dlr;
+            ur = br;
+            ui = bi;
+            if (fe >= -1022 && fe <= 1023) {
+              const f = 2 ** fe;
+              cr *= f; ci *= f; ur *= f; ui *= f;
+            } else {
+              cr = ldexp(cr, fe); ci = ldexp(ci, fe); ur = ldexp(ur, fe); ui = ldexp(ui, fe);
+            }
           }
           const nwr = ar * wr - ai * wi + cr;
           wi = ar * wi + ai * wr + ci;
@@ -721,8 +737,9 @@ function interiorDistanceDeep(o: Orbit, p: number, wr: number, wi: number, wk: n
  * reference C of `reference`, writing slot k of `out` with the meanings of
  * sample-set.ts (distance in units of 2^U). `bla` may be null (no skipping);
  * a table must have been built for the same orbit and unitExponent and for
- * offsets at least as large as these. Adds to `stats`. Pure: no I/O, no
- * module state; the result depends only on the arguments.
+ * offsets at least as large as these (a different unit is a RangeError).
+ * Adds to `stats`. Pure: no I/O, no module state; the result depends only
+ * on the arguments.
  */
 export function sampleDeep(
   reference: ReferenceOrbit,
@@ -734,6 +751,9 @@ export function sampleDeep(
   out: SampleSet,
   stats: DeepStats,
 ): SampleSet {
+  if (bla !== null && bla.unitExponent !== settings.unitExponent) {
+    throw new RangeError(`sampleDeep: table built for unit 2^${bla.unitExponent}, settings use 2^${settings.unitExponent}`);
+  }
   const o = makeOrbit(reference);
   const maxIterations = settings.maxIterations;
   const R2 = settings.escapeRadius * settings.escapeRadius;
