@@ -11,7 +11,7 @@ describe('deepPlan', () => {
     const p = deepPlan({ re: '-0.75', im: '0.1' }, '1e-11', 1000);
     expect(p.arithmetic).toBe('deep');
     expect(p.unitExponent).toBe(0);
-    expect(p.bits).toBe(Math.ceil(14 * Math.log2(10)) + 32);
+    expect(p.bits).toBe(Math.ceil(14 * Math.log2(10)) + 64);
   });
 
   it('picks a tile unit below 2^-900: span 1e-320 gives U = floor(log2 1e-320) - 8 = -1072', () => {

@@ -77,11 +77,12 @@ describe('computeReferenceOrbit', () => {
 });
 
 describe('referenceBits', () => {
-  it('referenceBits("1e-20", 100) is ceil(-log2(1e-22)) + 32 = 74 + 32', () => {
+  it('referenceBits("1e-20", 100) is ceil(-log2(1e-22)) + 64 = 74 + 64', () => {
     // log2(1e-22) = -73.08 (exact algebra: 22 log2 10)
-    expect(referenceBits('1e-20', 100)).toBe(106);
-    expect(referenceBits('2.5e-1000', 1000)).toBe(Math.ceil(1000 * Math.log2(10) - Math.log2(2.5) + Math.log2(1000)) + 32);
-    expect(referenceBits('3', 10)).toBe(64);
+    expect(referenceBits('1e-20', 100)).toBe(138);
+    expect(referenceBits('1e-20', 100, 32)).toBe(106);
+    expect(referenceBits('2.5e-1000', 1000)).toBe(Math.ceil(1000 * Math.log2(10) - Math.log2(2.5) + Math.log2(1000)) + 64);
+    expect(referenceBits('3', 10)).toBe(66); // ceil(-log2 0.3) = 2
   });
 });
 
