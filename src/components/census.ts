@@ -1,20 +1,28 @@
 /**
  * The census of a period: every hyperbolic component of exact period p,
- * located by landing the parameter rays of all period-p external angles on
- * their nuclei (methods.md C5(c) with D1 and D4; see land-rays.ts).
+ * located by landing a parameter ray of each of its period-p external angle
+ * pairs on its nucleus (methods.md C5(c) with D1, D2 and D4; see land-rays.ts).
  *
- * Checks built in (methods.md C5 "counting checks"): rays land in pairs, so
- * every component except the main cardioid must receive exactly two of the
- * 2 N(p) angles; a component that receives one or three is re-landed in the
- * careful mode, and what is still unpaired after that is reported. Only the
- * angles in (0, 1/2) are traced: the set is symmetric about the real axis,
- * and the ray of 1 - t is the mirror image of the ray of t.
+ * The pairs come from Lavaurs' algorithm (lavaurs-sweep.ts), so one ray per
+ * component is traced: the lower angle of each pair. The set is symmetric
+ * about the real axis, so only pairs with lo + hi <= 2^p - 1 are traced (the
+ * others are mirror images; lo + hi = 2^p - 1 exactly for real components).
+ *
+ * Checks built in (methods.md C5 "counting checks"): the located nuclei and
+ * their mirror images are sorted and compared with their neighbours, so a
+ * nucleus reached by two pairs is counted once; a pair whose ray was lost,
+ * whose nucleus another pair also reached, or whose nucleus is real when the
+ * pair is not symmetric (or the reverse) is re-landed in the careful mode, and
+ * what is still wrong after that is reported as `unpaired`. The count is the
+ * number of distinct nuclei located. (Until December 2026 both rays of every
+ * pair were traced and grouped; that took twice the time.)
  *
  * The result never depends on worker count or chunk order: records are
- * written by angle index and grouped after sorting.
+ * written by pair index and grouped after sorting.
  */
 import { Worker } from 'node:worker_threads';
 import { landRays, RAY_RECORD } from './land-rays.js';
+import { lavaursSweep } from './lavaurs-sweep.js';
 
 /** One component found by the census; c = nucleus, angles are numerators over 2^p - 1 (lower first). */
 export interface CensusComponent {
@@ -25,7 +33,7 @@ export interface CensusComponent {
   readonly imLo: number;
   /** |size estimate| (Hunt-Ott). */
   readonly size: number;
-  /** Numerators of the external angles that landed here, ascending (two for every component but the cardioid). */
+  /** Numerators of the external angles of the root, ascending (two for every component but the cardioid): the lower one landed here, its partner is Lavaurs'. */
   readonly angles: readonly number[];
   /** The nucleus is on the real axis. */
   readonly real: boolean;
@@ -35,11 +43,11 @@ export interface CensusResult {
   readonly period: number;
   /** Components sorted by their lower external angle. */
   readonly components: readonly CensusComponent[];
-  /** Rays traced (angles in (0, 1/2), re-landings included). */
+  /** Rays traced (one per pair with lo + hi <= 2^p - 1, re-landings included). */
   readonly raysTraced: number;
   /** Rays that failed to land even in careful mode. */
   readonly raysLost: number;
-  /** Components that did not receive exactly two rays after re-landing. */
+  /** Pairs still lost, sharing a nucleus with another pair, or off/on the real axis against their symmetry after re-landing. */
   readonly unpaired: number;
   /** Rays re-landed in careful mode. */
   readonly relanded: number;
@@ -98,34 +106,28 @@ export async function census(period: number, options: CensusOptions = {}): Promi
     };
   }
   const den = 2 ** period - 1;
-  const nums = periodicNumerators(period, true);
-  const records = await landAll(period, nums, false, options);
-  let groups = groupRecords(period, nums, records);
-  let anomalies = groups.filter((g) => g.angles.length !== 2);
-  const lost = countLost(records);
+  const pairs = lavaursSweep(period);
+  // One pair of each mirror couple: lo + hi < den (upper half plane) or = den (real).
+  const keep: number[] = [];
+  for (let i = 0; i < pairs.lo.length; i += 1) if (pairs.lo[i]! + pairs.hi[i]! <= den) keep.push(i);
+  const lo = Float64Array.from(keep, (i) => pairs.lo[i]!);
+  const hi = Float64Array.from(keep, (i) => pairs.hi[i]!);
+  const records = await landAll(period, lo, false, options);
+  let found = locateDistinct(period, lo, hi, records);
   let relanded = 0;
-  if (anomalies.length > 0 || lost > 0) {
-    const redo = new Set<number>();
-    for (const g of anomalies) for (const a of g.angles) redo.add(a < den / 2 ? a : den - a);
-    for (let i = 0; i < nums.length; i += 1) if (records[i * RAY_RECORD + 5] === 0) redo.add(nums[i]!);
-    const redoNums = Float64Array.from([...redo].sort((a, b) => a - b));
-    const again = await landAll(period, redoNums, true, {});
-    relanded = redoNums.length;
-    const index = new Map<number, number>();
-    nums.forEach((n, i) => index.set(n, i));
-    redoNums.forEach((n, j) => {
-      const i = index.get(n)!;
-      records.set(again.subarray(j * RAY_RECORD, (j + 1) * RAY_RECORD), i * RAY_RECORD);
-    });
-    groups = groupRecords(period, nums, records);
-    anomalies = groups.filter((g) => g.angles.length !== 2);
+  if (found.suspects.length > 0) {
+    const redo = Float64Array.from(found.suspects, (i) => lo[i]!);
+    const again = await landAll(period, redo, true, {});
+    relanded = redo.length;
+    found.suspects.forEach((i, j) => records.set(again.subarray(j * RAY_RECORD, (j + 1) * RAY_RECORD), i * RAY_RECORD));
+    found = locateDistinct(period, lo, hi, records);
   }
   return {
     period,
-    components: groups,
-    raysTraced: nums.length + relanded,
+    components: found.components,
+    raysTraced: lo.length + relanded,
     raysLost: countLost(records),
-    unpaired: anomalies.length,
+    unpaired: found.suspects.length,
     relanded,
   };
 }
@@ -136,54 +138,81 @@ function countLost(records: Float64Array): number {
   return lost;
 }
 
-/** Groups landed rays (and their mirror images) by nucleus; sorted by lower angle. */
-function groupRecords(period: number, nums: Float64Array, rec: Float64Array): CensusComponent[] {
+/**
+ * The distinct nuclei among the landed rays and their mirror images: sorted
+ * by real part, each compared with its neighbours; two are the same when
+ * closer than 1e-3 of the smaller size estimate. `suspects` are the pairs
+ * (indices into lo) whose ray was lost, whose nucleus is shared with another
+ * pair, or whose realness disagrees with the pair's symmetry (lo + hi = den
+ * exactly for real components); shared nuclei are counted once.
+ */
+function locateDistinct(
+  period: number,
+  lo: Float64Array,
+  hi: Float64Array,
+  rec: Float64Array,
+): { components: CensusComponent[]; suspects: number[] } {
   const den = 2 ** period - 1;
-  interface Entry { re: number; reHi: number; reLo: number; imHi: number; imLo: number; size: number; angle: number }
-  const entries: Entry[] = [];
-  for (let i = 0; i < nums.length; i += 1) {
+  const suspect = new Uint8Array(lo.length);
+  // Entries: 2i for pair i, 2i + 1 for its mirror image (absent for real pairs).
+  const order: number[] = [];
+  const imHiOf = (e: number): number => ((e & 1) === 1 ? -1 : 1) * rec[(e >> 1) * RAY_RECORD + 2]!;
+  const imLoOf = (e: number): number => ((e & 1) === 1 ? -1 : 1) * rec[(e >> 1) * RAY_RECORD + 3]!;
+  for (let i = 0; i < lo.length; i += 1) {
     const o = i * RAY_RECORD;
-    if (rec[o + 5] !== 1) continue;
-    const e = { reHi: rec[o]!, reLo: rec[o + 1]!, imHi: rec[o + 2]!, imLo: rec[o + 3]!, size: rec[o + 4]! };
-    entries.push({ ...e, re: e.reHi + e.reLo, angle: nums[i]! });
-    entries.push({ ...e, re: e.reHi + e.reLo, imHi: -e.imHi, imLo: -e.imLo, angle: den - nums[i]! });
+    if (rec[o + 5] !== 1) {
+      suspect[i] = 1;
+      continue;
+    }
+    const symmetric = lo[i]! + hi[i]! === den;
+    const real = Math.abs(rec[o + 2]! + rec[o + 3]!) <= 1e-3 * rec[o + 4]!;
+    if (symmetric !== real) suspect[i] = 1;
+    order.push(2 * i);
+    if (!symmetric) order.push(2 * i + 1);
   }
-  entries.sort((a, b) => a.re - b.re || a.reLo - b.reLo || a.imHi - b.imHi || a.angle - b.angle);
-  interface Group { e: Entry; angles: number[] }
-  const groups: Group[] = [];
-  for (const e of entries) {
-    let hit: Group | null = null;
-    const reach = 1e-3 * e.size;
-    for (let j = groups.length - 1; j >= 0; j -= 1) {
-      const g = groups[j]!;
-      const dre = e.reHi - g.e.reHi + (e.reLo - g.e.reLo);
-      if (dre > reach) break;
-      const dim = e.imHi - g.e.imHi + (e.imLo - g.e.imLo);
-      if (Math.hypot(dre, dim) <= 1e-3 * Math.min(e.size, g.e.size)) {
-        hit = g;
-        break;
+  const re = new Float64Array(2 * lo.length);
+  for (const e of order) re[e] = rec[(e >> 1) * RAY_RECORD]! + rec[(e >> 1) * RAY_RECORD + 1]!;
+  order.sort((a, b) => re[a]! - re[b]! || imHiOf(a) - imHiOf(b) || a - b);
+  const first = new Uint8Array(2 * lo.length).fill(1);
+  for (let k = 1; k < order.length; k += 1) {
+    const e = order[k]!;
+    const se = rec[(e >> 1) * RAY_RECORD + 4]!;
+    for (let j = k - 1; j >= 0; j -= 1) {
+      const g = order[j]!;
+      const sg = rec[(g >> 1) * RAY_RECORD + 4]!;
+      const dre = rec[(e >> 1) * RAY_RECORD]! - rec[(g >> 1) * RAY_RECORD]! + (rec[(e >> 1) * RAY_RECORD + 1]! - rec[(g >> 1) * RAY_RECORD + 1]!);
+      if (dre > 1e-3 * se) break;
+      const dim = imHiOf(e) - imHiOf(g) + (imLoOf(e) - imLoOf(g));
+      if (Math.hypot(dre, dim) <= 1e-3 * Math.min(se, sg)) {
+        first[e] = 0;
+        suspect[e >> 1] = 1;
+        suspect[g >> 1] = 1;
       }
     }
-    if (hit === null) groups.push({ e, angles: [e.angle] });
-    else hit.angles.push(e.angle);
   }
-  const out: CensusComponent[] = groups.map((g) => {
-    const angles = g.angles.sort((a, b) => a - b);
-    const im = g.e.imHi + g.e.imLo;
-    const real = Math.abs(im) <= 1e-3 * g.e.size;
-    return {
+  const components: CensusComponent[] = [];
+  for (const e of order) {
+    if (first[e] === 0) continue;
+    const o = (e >> 1) * RAY_RECORD;
+    const mirror = (e & 1) === 1;
+    const a = lo[e >> 1]!;
+    const b = hi[e >> 1]!;
+    const real = a + b === den && Math.abs(rec[o + 2]! + rec[o + 3]!) <= 1e-3 * rec[o + 4]!;
+    components.push({
       period,
-      reHi: g.e.reHi,
-      reLo: g.e.reLo,
-      imHi: real ? 0 : g.e.imHi,
-      imLo: real ? 0 : g.e.imLo,
-      size: g.e.size,
-      angles,
+      reHi: rec[o]!,
+      reLo: rec[o + 1]!,
+      imHi: real ? 0 : mirror ? -rec[o + 2]! : rec[o + 2]!,
+      imLo: real ? 0 : mirror ? -rec[o + 3]! : rec[o + 3]!,
+      size: rec[o + 4]!,
+      angles: mirror ? [den - b, den - a] : [a, b],
       real,
-    };
-  });
-  out.sort((a, b) => (a.angles[0] ?? 0) - (b.angles[0] ?? 0));
-  return out;
+    });
+  }
+  components.sort((x, y) => x.angles[0]! - y.angles[0]!);
+  const suspects: number[] = [];
+  for (let i = 0; i < lo.length; i += 1) if (suspect[i] === 1) suspects.push(i);
+  return { components, suspects };
 }
 
 /** Lands all angles, in this thread or in worker_threads, chunk by chunk. */

@@ -1,0 +1,63 @@
+import { describe, expect, it } from 'vitest';
+import { lavaursPairs } from '../../src/components/lavaurs.js';
+import { lavaursSweep } from '../../src/components/lavaurs-sweep.js';
+import { landRays, RAY_RECORD } from '../../src/components/land-rays.js';
+
+// OEIS A000740: components of exact period n, i.e. Lavaurs pairs of period n (methods.md C5, D2).
+const A000740 = [1, 1, 3, 6, 15, 27, 63, 120, 252, 495, 1023, 2010, 4020, 8127, 16365, 32640];
+// OEIS A000048: real components of period n, i.e. pairs symmetric about 1/2.
+const A000048 = [1, 1, 1, 2, 3, 5, 9, 16, 28, 51, 93, 170, 315, 585, 1091, 2048];
+
+describe('lavaursSweep', () => {
+  it('lavaursSweep(p) gives the same pairs as the quadratic lavaursPairs for p = 2..11', () => {
+    const all = lavaursPairs(11);
+    for (let p = 2; p <= 11; p += 1) {
+      const s = lavaursSweep(p);
+      const ref = all.filter((x) => x.period === p);
+      expect(Array.from(s.lo), `period ${p}`).toEqual(ref.map((x) => x.lo));
+      expect(Array.from(s.hi), `period ${p}`).toEqual(ref.map((x) => x.hi));
+    }
+  });
+  it('lavaursSweep(4) gives the period-4 pairs of methods.md D2', () => {
+    const s = lavaursSweep(4);
+    expect(Array.from(s.lo, (lo, i) => [lo, s.hi[i]])).toEqual([[1, 2], [3, 4], [6, 9], [7, 8], [11, 12], [13, 14]]); // over 15
+  });
+  it('lavaursSweep(16) gives A000740(16) pairs, A000048(16) of them symmetric about 1/2, every period-16 angle used once', () => {
+    for (const p of [12, 16]) {
+      const s = lavaursSweep(p);
+      const den = 2 ** p - 1;
+      expect(s.lo.length).toBe(A000740[p - 1]);
+      let symmetric = 0;
+      const seen = new Set<number>();
+      for (let i = 0; i < s.lo.length; i += 1) {
+        if (s.lo[i]! + s.hi[i]! === den) symmetric += 1;
+        expect(s.lo[i]!).toBeLessThan(s.hi[i]!);
+        seen.add(s.lo[i]!).add(s.hi[i]!);
+      }
+      expect(symmetric).toBe(A000048[p - 1]);
+      expect(seen.size).toBe(2 * A000740[p - 1]!);
+    }
+  });
+  it('both rays of every pair land on one nucleus and different pairs on different nuclei, p = 2..10 (combinatorics = numerics)', () => {
+    for (let p = 2; p <= 10; p += 1) {
+      const s = lavaursSweep(p);
+      const lo = landRays(p, s.lo, false, new Float64Array(s.lo.length * RAY_RECORD));
+      const hi = landRays(p, s.hi, false, new Float64Array(s.hi.length * RAY_RECORD));
+      const nuclei: Array<[number, number, number]> = [];
+      for (let i = 0; i < s.lo.length; i += 1) {
+        const o = i * RAY_RECORD;
+        expect(lo[o + 5]).toBe(1);
+        expect(hi[o + 5]).toBe(1);
+        const size = lo[o + 4]!;
+        expect(Math.hypot(lo[o]! - hi[o]!, lo[o + 2]! - hi[o + 2]!), `period ${p} pair ${s.lo[i]}/${s.hi[i]}`).toBeLessThan(1e-6 * size);
+        nuclei.push([lo[o]!, lo[o + 2]!, size]);
+      }
+      nuclei.sort((a, b) => a[0] - b[0]);
+      for (let i = 0; i < nuclei.length; i += 1) {
+        for (let j = i + 1; j < nuclei.length && nuclei[j]![0] - nuclei[i]![0] < 1e-3; j += 1) {
+          expect(Math.hypot(nuclei[j]![0] - nuclei[i]![0], nuclei[j]![1] - nuclei[i]![1])).toBeGreaterThan(1e-3 * Math.min(nuclei[i]![2], nuclei[j]![2]));
+        }
+      }
+    }
+  });
+});
