@@ -9,6 +9,13 @@
  * level the angle doubles and k grows by one. The angle stays exact (BigInt
  * or exact integer numerator); only e^{2 pi i theta_k} is rounded.
  *
+ * Newton in double: the first step of each sub-step is taken on log F^k
+ * (step F log(F/t) / D_c), exact for F ~ Phi^(2^(k-1)) far out, where plain
+ * Newton on a polynomial of degree 2^(k-1) creeps in linearly; later steps are
+ * plain Newton. Measured on period 16: 2532 iterations of z per ray instead of
+ * 8509, the same 32640 nuclei. (Log steps after the first made rays jump to
+ * neighbours.)
+ *
  * Sub-steps: `sharpness` per level; when a Newton solve fails (no convergence
  * in 12 steps or a non-finite value), the sub-step is halved (adaptive, down
  * to 2^-20 of a level). Without the halving, rays near the tip c = -2 broke
@@ -23,6 +30,15 @@ import { ddAdd, ddMulInto, ddSqrInto } from './double-double.js';
 
 /** Escape radius R of the potential steps (large: fewer levels mis-step near escape). */
 export const RAY_RADIUS = 65536;
+
+/**
+ * A double-precision sub-step is settled when a Newton step after the first
+ * is below 1/10 of the first (squared: 1e-2): the next sub-step starts from
+ * this point and corrects what is left, so solving each point to 1e-12 (as
+ * before December 2026: 8 to 9 Newton steps per sub-step) buys nothing.
+ * Looser (1/3) made rays jump to neighbours at period 16.
+ */
+const STEP_SETTLED = 1e-2;
 
 /** The end of a traced ray: c = (reHi + reLo) + i (imHi + imLo); ok false when the trace broke off. */
 export interface RayEnd {
@@ -56,6 +72,7 @@ export function traceRayDouble(num: number, den: number, depth: number, sharpnes
       let xr = cr;
       let xi = ci;
       let ok = false;
+      let first = 0;
       for (let it = 0; it < 12; it += 1) {
         let zr = 0;
         let zi = 0;
@@ -69,15 +86,27 @@ export function traceRayDouble(num: number, den: number, depth: number, sharpnes
           zi = 2 * zr * zi + xi;
           zr = nzr;
         }
-        const er = zr - tr;
-        const ei = zi - ti;
+        let er = zr - tr;
+        let ei = zi - ti;
+        if (it === 0) {
+          // log step: solve log F = log t, i.e. step = F log(F / t) / D_c
+          const tm = tr * tr + ti * ti;
+          const qr = (zr * tr + zi * ti) / tm;
+          const qi = (zi * tr - zr * ti) / tm;
+          const lr = 0.5 * Math.log(qr * qr + qi * qi);
+          const li = Math.atan2(qi, qr);
+          er = lr * zr - li * zi;
+          ei = lr * zi + li * zr;
+        }
         const dm = dr * dr + di * di;
         const sr = (er * dr + ei * di) / dm;
         const si = (ei * dr - er * di) / dm;
         if (!Number.isFinite(sr) || !Number.isFinite(si)) break;
         xr -= sr;
         xi -= si;
-        if (sr * sr + si * si < 1e-24 * (xr * xr + xi * xi)) {
+        const st = sr * sr + si * si;
+        if (it === 0) first = st;
+        else if (st < STEP_SETTLED * first || st < 1e-24 * (xr * xr + xi * xi)) {
           ok = true;
           break;
         }
