@@ -38,8 +38,7 @@
  *   more digits than a double holds, so its tolerance cannot be tied to the
  *   pixel spacing; the atom-domain candidate needs no tolerance.
  * - A6 interior distance along one period by perturbation (in tile units);
- *   NaN when U < -900 (spans below ~1e-290), where its derivatives would
- *   need extended range too: left for later.
+ *   below U = -900 with the derivatives carried as (re, im, exponent).
  *
  * How a plate uses it (all inputs are plain data; a worker receives them by
  * postMessage / structured clone, or once as SharedArrayBuffer copies):
@@ -732,6 +731,89 @@ function interiorDistanceDeep(o: Orbit, p: number, wr: number, wi: number, wk: n
   return Number.isFinite(b) && b > 0 ? b : NaN;
 }
 
+/** out = (a 2^ae) (b 2^be) + (c 2^ce) (d 2^de) as (re, im, exp), normalised. */
+function mulAdd(
+  ar: number, ai: number, ae: number, br: number, bi: number, be: number,
+  cr: number, ci: number, ce: number, dr: number, di: number, de: number,
+  out: Float64Array,
+): void {
+  let xr = ar * br - ai * bi, xi = ar * bi + ai * br;
+  let yr = cr * dr - ci * di, yi = cr * di + ci * dr;
+  const xe = ae + be, ye = ce + de;
+  const xz = xr === 0 && xi === 0, yz = yr === 0 && yi === 0;
+  let e: number;
+  if (xz && yz) {
+    out[0] = 0; out[1] = 0; out[2] = 0;
+    return;
+  } else if (yz || (!xz && xe >= ye)) {
+    e = xe;
+    yr = ldexp(yr, ye - xe);
+    yi = ldexp(yi, ye - xe);
+  } else {
+    e = ye;
+    xr = ldexp(xr, xe - ye);
+    xi = ldexp(xi, xe - ye);
+  }
+  let r = xr + yr, i = xi + yi;
+  const big = Math.max(Math.abs(r), Math.abs(i));
+  if (big !== 0) {
+    const k = exponentOf(big);
+    r = ldexp(r, -k);
+    i = ldexp(i, -k);
+    e += k;
+  }
+  out[0] = r; out[1] = i; out[2] = e;
+}
+
+/**
+ * Interior distance estimate (methods.md A6) in full range, for tiles whose
+ * unit is below the double range: the pixel is single-stepped by the same
+ * perturbation loop (rescaled where tiny) and the four derivatives carried
+ * as (re, im, exponent). Slower than interiorDistanceDeep (a call and a few
+ * power-of-two scalings per step), so only used below U = -900.
+ */
+function interiorDistanceScaled(
+  o: Orbit, scratch: Float64Array, p: number, wr: number, wi: number, wk: number,
+  dlr: number, dli: number, settings: DeepSettings, stats: DeepStats,
+): number {
+  const U = settings.unitExponent;
+  const R2 = settings.escapeRadius * settings.escapeRadius;
+  startState(scratch, wr, wi, wk, dlr, dli, U);
+  // derivatives as (re, im, exp): D_z = 1, D_zz = D_c = D_cz = 0 (c units)
+  const dz = Float64Array.of(1, 0, 0), dzz = new Float64Array(3), dc = new Float64Array(3), dcz = new Float64Array(3);
+  const t = new Float64Array(3), t2 = new Float64Array(3);
+  for (let j = 0; j < p; j++) {
+    // 2 z at the current point
+    const zr = 2 * scratch[FR]!, zi = 2 * scratch[FI]!, ze = scratch[FK]!;
+    // D_cz <- 2 z D_cz + 2 D_c D_z
+    mulAdd(zr, zi, ze, dcz[0]!, dcz[1]!, dcz[2]!, 2 * dc[0]!, 2 * dc[1]!, dc[2]!, dz[0]!, dz[1]!, dz[2]!, t);
+    // D_zz <- 2 z D_zz + 2 D_z^2
+    mulAdd(zr, zi, ze, dzz[0]!, dzz[1]!, dzz[2]!, 2 * dz[0]!, 2 * dz[1]!, dz[2]!, dz[0]!, dz[1]!, dz[2]!, t2);
+    dcz.set(t);
+    dzz.set(t2);
+    // D_c <- 2 z D_c + 1
+    mulAdd(zr, zi, ze, dc[0]!, dc[1]!, dc[2]!, 1, 0, 0, 1, 0, 0, t);
+    dc.set(t);
+    // D_z <- 2 z D_z
+    mulAdd(zr, zi, ze, dz[0]!, dz[1]!, dz[2]!, 0, 0, 0, 0, 0, 0, t);
+    dz.set(t);
+    if (run(o, null, scratch, j + 1, false, R2, U, stats) === EV_ESCAPED) return NaN;
+  }
+  stats.newtonIterations += p;
+  const lr = ldexp(dz[0]!, dz[2]!), li = ldexp(dz[1]!, dz[2]!);
+  const mod2 = lr * lr + li * li;
+  if (!(mod2 < 1)) return NaN;
+  // Y = D_cz + D_zz D_c / (1 - D_z)
+  const gr = 1 - lr, gi = -li, g2 = gr * gr + gi * gi;
+  mulAdd(dzz[0]!, dzz[1]!, dzz[2]!, dc[0]!, dc[1]!, dc[2]!, 0, 0, 0, 0, 0, 0, t);
+  const qr = (t[0]! * gr + t[1]! * gi) / g2, qi = (t[1]! * gr - t[0]! * gi) / g2;
+  mulAdd(qr, qi, t[2]!, 1, 0, 0, dcz[0]!, dcz[1]!, dcz[2]!, 1, 0, 0, t2);
+  const y = Math.hypot(t2[0]!, t2[1]!);
+  // b = (1 - |D_z|^2) / |Y| in c units; in tile units divide by 2^U
+  const b = ldexp((1 - mod2) / y, -t2[2]! - U);
+  return Number.isFinite(b) && b > 0 ? b : NaN;
+}
+
 /**
  * Samples `count` parameters c = C + (dcRe[k] + i dcIm[k]) 2^U around the
  * reference C of `reference`, writing slot k of `out` with the meanings of
@@ -820,7 +902,9 @@ export function sampleDeep(
             smooth[idx] = st[N]!;
             mulRe[idx] = res[3]!;
             mulIm[idx] = res[4]!;
-            distance[idx] = interiorDistanceDeep(o, p, res[0]!, res[1]!, res[2]!, dlr, dli, U);
+            distance[idx] = U < -900
+              ? interiorDistanceScaled(o, scratch, p, res[0]!, res[1]!, res[2]!, dlr, dli, settings, stats)
+              : interiorDistanceDeep(o, p, res[0]!, res[1]!, res[2]!, dlr, dli, U);
             result = p;
             break;
           }

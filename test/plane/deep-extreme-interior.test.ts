@@ -90,6 +90,14 @@ describe('sampleDeep around a period-427 minibrot at span 3e-320 (rescaled itera
       expect(out.period[k]! <= 0 || out.period[k]! % PERIOD === 0).toBe(true);
     }
     expect(interior.length).toBeGreaterThan(10);
+    // interior distances (full-range A6, tile units): positive and below the
+    // span; their bound is b/4 <= dist <= b (methods.md A6), so no interior
+    // pixel is farther than 4b from the boundary, which lies in view
+    const spanTile = new D(SPAN).div(unit).toNumber();
+    for (const k of interior) {
+      expect(out.distance[k]).toBeGreaterThan(0);
+      expect(out.distance[k]).toBeLessThan(spanTile);
+    }
     // stated: at most 3% undecided; measured 3 of 256
     expect(undecided / (SIZE * SIZE)).toBeLessThanOrEqual(0.03);
     const k = interior[Math.floor(interior.length / 2)]!;

@@ -134,3 +134,33 @@ describe('sampleDeep around a period-79 minibrot at span 2.4e-58 (periodic refer
     expect(s2.skipped / (s2.skipped + s2.stepped)).toBeGreaterThan(0.8);
   });
 });
+
+describe('sampleDeep with a tile unit of 2^-1000 on the same view', () => {
+  it('gives the same periods, counts and multipliers, exterior distances exactly 2^1000 larger and interior ones (full-range A6) to 1e-9', () => {
+    const a = createSampleSet(SIZE * SIZE);
+    const sa = createDeepStats();
+    sampleDeep(orbit, null, off.re, off.im, SIZE * SIZE, settings, a, sa);
+    const scale = 2 ** 1000;
+    const re = off.re.map((x) => x * scale), im = off.im.map((y) => y * scale);
+    const b = createSampleSet(SIZE * SIZE);
+    const sb = createDeepStats();
+    sampleDeep(orbit, null, re, im, SIZE * SIZE, { ...settings, unitExponent: -1000 }, b, sb);
+    let interior = 0, worst = 0, periods = 0;
+    for (let k = 0; k < SIZE * SIZE; k++) {
+      expect(b.period[k]).toBe(a.period[k]);
+      expect(b.smooth[k]).toBe(a.smooth[k]);
+      expect(b.mulRe[k]).toBe(a.mulRe[k]);
+      if (a.period[k] === PERIOD_ESCAPED) expect(b.distance[k]).toBe(a.distance[k]! * scale);
+      else if (a.period[k]! > 0) {
+        interior++;
+        periods += a.period[k]!;
+        worst = Math.max(worst, Math.abs(b.distance[k]! / scale / a.distance[k]! - 1));
+      }
+    }
+    expect(interior).toBeGreaterThan(25);
+    // the full-range A6 ran (one period per interior pixel, counted with Newton's iterations)
+    expect(sb.newtonIterations - sa.newtonIterations).toBe(periods);
+    // the same products and sums up to exact power-of-two scalings (measured: identical)
+    expect(worst).toBeLessThan(1e-9);
+  });
+});
