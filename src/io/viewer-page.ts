@@ -56,7 +56,7 @@ export function viewerHtml(f: ViewerFacts): string {
     width: sheet.width,
     height: sheet.height,
   };
-  const legend = sheet.colour.legend === 'none' ? '' : `<div id="legend">${legendSvg(sheet.colour)}</div>`;
+  const legend = sheet.colour.legend === 'none' ? '' : `<details id="legend"><summary>period legend</summary>${legendSvg(sheet.colour)}</details>`;
   const rows: Array<[string, string]> = [
     ['centre', `${sheet.view.re} ${im} i`],
     ['span', `${sheet.view.span} (width in c)`],
@@ -84,7 +84,8 @@ html, body { margin: 0; height: 100%; background: #111; color: #eee; font: 13px/
 #pointer { font-family: ui-monospace, monospace; white-space: pre; }
 #status:empty { display: none; }
 #status { color: #f99; }
-#legend svg { max-width: 100%; height: auto; background: #fff; margin-top: 6px; }
+#legend { margin-top: 4px; cursor: pointer; }
+#legend svg { display: block; width: 12em; height: auto; margin-top: 4px; }
 </style>
 </head>
 <body>
