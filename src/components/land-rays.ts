@@ -2,7 +2,7 @@
  * The census kernel: land the parameter rays of a list of period-p angles on
  * their components' nuclei.
  *
- * For each angle n/(2^p - 1): trace the ray inward to depth 2p (methods.md
+ * For each angle n/(2^p - 1): trace the ray inward to depth min(2p, p + 14) (methods.md
  * D4), then run deflated Newton for the period-p nucleus from the ray's end
  * (methods.md C2 and C5(c)). The trace is in double precision; when the
  * component is smaller than {@link DD_SIZE} (too few doubles across it to tell
@@ -28,6 +28,17 @@ import type { FastNucleus } from './fast-nucleus.js';
 /** Components smaller than this (absolute size estimate) are landed in double-double. */
 export const DD_SIZE = 1e-11;
 
+/**
+ * Levels traced beyond the period in the double trace (at most 2p levels in
+ * all). Measured on samples of about 10 000 rays at periods 16, 18 and 20: the
+ * nucleus reached from depth p + a differed from the one reached from depth 2p
+ * for a = 6, 8, 10 in about 2e-3, 1e-3, 2e-4 of rays, and for none at a = 12
+ * and 14 (depth 2.5p agrees with 2p too). Depth p + 14 saves a quarter of the
+ * work at period 20; a ray that still lands on another pair's nucleus is
+ * caught by the census's distinctness check and re-landed in careful mode.
+ */
+export const RAY_MARGIN = 14;
+
 /** Values per ray in the output array: reHi, reLo, imHi, imLo, size, ok (1/0). */
 export const RAY_RECORD = 6;
 
@@ -42,7 +53,7 @@ export function landRays(period: number, nums: Float64Array, careful: boolean, o
     const n = nums[i]!;
     let res: FastNucleus | null = null;
     if (!careful) {
-      const end = traceRayDouble(n, den, 2 * period, 2);
+      const end = traceRayDouble(n, den, Math.min(2 * period, period + RAY_MARGIN), 2);
       if (end.ok) {
         res = nucleusDouble(period, end.reHi, end.imHi);
         if (!res.ok || res.size < DD_SIZE) res = nucleusDD(period, end);
