@@ -155,9 +155,8 @@ function locateDistinct(
   const den = 2 ** period - 1;
   const suspect = new Uint8Array(lo.length);
   // Entries: 2i for pair i, 2i + 1 for its mirror image (absent for real pairs).
-  const order: number[] = [];
-  const imHiOf = (e: number): number => ((e & 1) === 1 ? -1 : 1) * rec[(e >> 1) * RAY_RECORD + 2]!;
-  const imLoOf = (e: number): number => ((e & 1) === 1 ? -1 : 1) * rec[(e >> 1) * RAY_RECORD + 3]!;
+  const entries = new Int32Array(2 * lo.length);
+  let count = 0;
   for (let i = 0; i < lo.length; i += 1) {
     const o = i * RAY_RECORD;
     if (rec[o + 5] !== 1) {
@@ -167,23 +166,26 @@ function locateDistinct(
     const symmetric = lo[i]! + hi[i]! === den;
     const real = Math.abs(rec[o + 2]! + rec[o + 3]!) <= 1e-3 * rec[o + 4]!;
     if (symmetric !== real) suspect[i] = 1;
-    order.push(2 * i);
-    if (!symmetric) order.push(2 * i + 1);
+    entries[count++] = 2 * i;
+    if (!symmetric) entries[count++] = 2 * i + 1;
   }
   const re = new Float64Array(2 * lo.length);
-  for (const e of order) re[e] = rec[(e >> 1) * RAY_RECORD]! + rec[(e >> 1) * RAY_RECORD + 1]!;
-  order.sort((a, b) => re[a]! - re[b]! || imHiOf(a) - imHiOf(b) || a - b);
+  for (let i = 0; i < lo.length; i += 1) re[2 * i] = re[2 * i + 1] = rec[i * RAY_RECORD]! + rec[i * RAY_RECORD + 1]!;
+  const order = entries.subarray(0, count).sort((a, b) => re[a]! - re[b]! || a - b);
   const first = new Uint8Array(2 * lo.length).fill(1);
   for (let k = 1; k < order.length; k += 1) {
     const e = order[k]!;
-    const se = rec[(e >> 1) * RAY_RECORD + 4]!;
+    const oe = (e >> 1) * RAY_RECORD;
+    const se = rec[oe + 4]!;
+    const sign = (e & 1) === 1 ? -1 : 1;
     for (let j = k - 1; j >= 0; j -= 1) {
       const g = order[j]!;
-      const sg = rec[(g >> 1) * RAY_RECORD + 4]!;
-      const dre = rec[(e >> 1) * RAY_RECORD]! - rec[(g >> 1) * RAY_RECORD]! + (rec[(e >> 1) * RAY_RECORD + 1]! - rec[(g >> 1) * RAY_RECORD + 1]!);
+      const og = (g >> 1) * RAY_RECORD;
+      const dre = rec[oe]! - rec[og]! + (rec[oe + 1]! - rec[og + 1]!);
       if (dre > 1e-3 * se) break;
-      const dim = imHiOf(e) - imHiOf(g) + (imLoOf(e) - imLoOf(g));
-      if (Math.hypot(dre, dim) <= 1e-3 * Math.min(se, sg)) {
+      const gsign = (g & 1) === 1 ? -1 : 1;
+      const dim = sign * rec[oe + 2]! - gsign * rec[og + 2]! + (sign * rec[oe + 3]! - gsign * rec[og + 3]!);
+      if (Math.hypot(dre, dim) <= 1e-3 * Math.min(se, rec[og + 4]!)) {
         first[e] = 0;
         suspect[e >> 1] = 1;
         suspect[g >> 1] = 1;

@@ -6,11 +6,12 @@
  * D4), then run deflated Newton for the period-p nucleus from the ray's end
  * (methods.md C2 and C5(c)). The trace is in double precision; when the
  * component is smaller than {@link DD_SIZE} (too few doubles across it to tell
- * neighbours apart), Newton is run again in double-double from the same ray
- * end: the end lies in the atom domain, which is much wider than the
- * component (period 16: all 4092 such rays reached the nucleus that a
- * double-double trace reaches, in 18 ms instead of 1.3 s). Only when the
- * double trace or that Newton fails is the ray traced again in double-double.
+ * neighbours apart), Newton is continued in double-double from the double
+ * nucleus (from the ray end when double Newton failed): the double result lies
+ * in the atom domain, which is much wider than the component (period 16: all
+ * 4092 such rays reached the nucleus that a double-double trace reaches, in
+ * 18 ms instead of 1.3 s). Only when the double trace or that Newton fails is
+ * the ray traced again in double-double.
  * `careful` mode (used to re-land rays whose component did not
  * receive exactly two rays) goes straight to double-double with depth 3p and
  * sharpness 8.
@@ -56,7 +57,8 @@ export function landRays(period: number, nums: Float64Array, careful: boolean, o
       const end = traceRayDouble(n, den, Math.min(2 * period, period + RAY_MARGIN), 2);
       if (end.ok) {
         res = nucleusDouble(period, end.reHi, end.imHi);
-        if (!res.ok || res.size < DD_SIZE) res = nucleusDD(period, end);
+        if (!res.ok) res = nucleusDD(period, end);
+        else if (res.size < DD_SIZE) res = nucleusDD(period, res);
       }
     }
     if (res === null || !res.ok) {
