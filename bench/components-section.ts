@@ -1,6 +1,6 @@
 /**
- * Components: time to count every component of periods 10..16 by landing
- * their rays (all cores), checked against OEIS A000740, and time to locate a
+ * Components: time to count every component of periods 10..20 by landing
+ * one ray per Lavaurs pair (all cores), checked against OEIS A000740, and time to locate a
  * period-1000 nucleus (the 1/1000 bulb of the main cardioid) to 300 digits.
  */
 import { availableParallelism } from 'node:os';
@@ -28,17 +28,17 @@ function a000740(p: number): number {
 
 export const componentsSection: BenchSection = {
   name: 'components',
-  title: 'census of periods 10..16 (ray landing, all cores) and a period-1000 nucleus to 300 digits',
+  title: 'census of periods 10..20 (ray landing, all cores) and a period-1000 nucleus to 300 digits',
   async run(context) {
     const rows: BenchRow[] = [];
     const workers = availableParallelism();
     await census(8, { workers }); // warm-up: workers start, code is compiled
-    for (let p = 10; p <= 16; p += 1) {
+    for (let p = 10; p <= 20; p += 1) {
       const t0 = performance.now();
       const r = await census(p, { workers });
       const seconds = (performance.now() - t0) / 1000;
       if (r.components.length !== a000740(p)) context.note(`period ${p}: found ${r.components.length}, OEIS A000740 says ${a000740(p)}`);
-      rows.push({ label: `count period ${p}`, figures: { components: r.components.length, seconds, workers } });
+      rows.push({ label: `count period ${p}`, figures: { components: r.components.length, seconds, workers, rays: r.raysTraced } });
     }
     const q = 1000;
     const th = (2 * Math.PI) / q;
