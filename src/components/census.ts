@@ -113,14 +113,14 @@ export async function census(period: number, options: CensusOptions = {}): Promi
   const lo = Float64Array.from(keep, (i) => pairs.lo[i]!);
   const hi = Float64Array.from(keep, (i) => pairs.hi[i]!);
   const records = await landAll(period, lo, false, options);
-  let found = locateDistinct(period, lo, hi, records);
+  let found = distinctNuclei(period, lo, hi, records);
   let relanded = 0;
   if (found.suspects.length > 0) {
     const redo = Float64Array.from(found.suspects, (i) => lo[i]!);
     const again = await landAll(period, redo, true, {});
     relanded = redo.length;
     found.suspects.forEach((i, j) => records.set(again.subarray(j * RAY_RECORD, (j + 1) * RAY_RECORD), i * RAY_RECORD));
-    found = locateDistinct(period, lo, hi, records);
+    found = distinctNuclei(period, lo, hi, records);
   }
   return {
     period,
@@ -146,7 +146,7 @@ function countLost(records: Float64Array): number {
  * pair, or whose realness disagrees with the pair's symmetry (lo + hi = den
  * exactly for real components); shared nuclei are counted once.
  */
-function locateDistinct(
+export function distinctNuclei(
   period: number,
   lo: Float64Array,
   hi: Float64Array,

@@ -1,5 +1,7 @@
 import { describe, expect, it } from 'vitest';
-import { census, periodicNumerators } from '../../src/components/census.js';
+import { census, distinctNuclei, periodicNumerators } from '../../src/components/census.js';
+import { landRays, RAY_RECORD } from '../../src/components/land-rays.js';
+import { lavaursSweep } from '../../src/components/lavaurs-sweep.js';
 
 // OEIS A000740: number of components of exact period n (also methods.md C5, checks.md "Counts").
 const A000740 = [1, 1, 3, 6, 15, 27, 63, 120, 252, 495, 1023, 2010];
@@ -17,6 +19,16 @@ describe('census', () => {
       if (p > 1) for (const c of r.components) expect(c.angles.length).toBe(2);
       // every nucleus lies in |c| <= 2 (methods.md C5)
       for (const c of r.components) expect(Math.hypot(c.reHi, c.imHi)).toBeLessThanOrEqual(2);
+    }
+  });
+  it('census(p) finds A000740(p) and A000048(p) components for p = 13..15 (4095, 8127, 16365; 315, 585, 1091), nothing unpaired or lost', async () => {
+    const all = [4095, 8127, 16365]; // OEIS A000740
+    const real = [315, 585, 1091]; // OEIS A000048
+    for (let p = 13; p <= 15; p += 1) {
+      const r = await census(p);
+      expect(r.components.length, `period ${p}`).toBe(all[p - 13]);
+      expect(r.components.filter((c) => c.real).length, `real, period ${p}`).toBe(real[p - 13]);
+      expect(r.unpaired + r.raysLost).toBe(0);
     }
   });
   it('census(2) lands 1/3 and 2/3 on c = -1; census(3) lands 3/7 and 4/7 on the real nucleus (checks.md external angles)', async () => {
@@ -37,5 +49,49 @@ describe('census', () => {
   });
   it('periodicNumerators(4, false) lists the 12 angles of exact period 4', () => {
     expect(Array.from(periodicNumerators(4, false))).toEqual([1, 2, 3, 4, 6, 7, 8, 9, 11, 12, 13, 14]);
+  });
+});
+
+describe('distinctNuclei', () => {
+  const p = 6;
+  const den = 2 ** p - 1;
+  const pairs = lavaursSweep(p);
+  const keep = Array.from(pairs.lo.keys()).filter((i) => pairs.lo[i]! + pairs.hi[i]! <= den);
+  const lo = Float64Array.from(keep, (i) => pairs.lo[i]!);
+  const hi = Float64Array.from(keep, (i) => pairs.hi[i]!);
+  const landed = landRays(p, lo, false, new Float64Array(lo.length * RAY_RECORD));
+  const real = keep.findIndex((i) => pairs.lo[i]! + pairs.hi[i]! === den);
+  const upper = keep.findIndex((i) => pairs.lo[i]! + pairs.hi[i]! < den);
+  const upper2 = keep.findIndex((i, j) => j > upper && pairs.lo[i]! + pairs.hi[i]! < den);
+
+  it('distinctNuclei(6, ...) on the landed rays gives A000740(6) = 27 components, A000048(6) = 5 real, no suspects', () => {
+    const r = distinctNuclei(p, lo, hi, landed);
+    expect(r.components).toHaveLength(27);
+    expect(r.components.filter((c) => c.real)).toHaveLength(5);
+    expect(r.suspects).toEqual([]);
+  });
+  it('distinctNuclei flags two pairs that reached one nucleus, a lost ray, and a real pair off the axis', () => {
+    const shared = landed.slice();
+    shared.copyWithin(upper2 * RAY_RECORD, upper * RAY_RECORD, (upper + 1) * RAY_RECORD);
+    const a = distinctNuclei(p, lo, hi, shared);
+    expect(a.suspects).toEqual([upper, upper2].sort((x, y) => x - y));
+    expect(a.components).toHaveLength(25); // the nucleus and its mirror image are counted once each
+    const lost = landed.slice();
+    lost[upper * RAY_RECORD + 5] = 0;
+    expect(distinctNuclei(p, lo, hi, lost).suspects).toEqual([upper]);
+    const offAxis = landed.slice();
+    offAxis[real * RAY_RECORD + 2] = 0.1;
+    expect(distinctNuclei(p, lo, hi, offAxis).suspects).toEqual([real]);
+  });
+  it('landRays in careful mode (double-double, depth 3p) lands the period-9 rays on the same nuclei as the default mode', () => {
+    const s = lavaursSweep(9);
+    const nums = s.lo.subarray(0, 60);
+    const a = landRays(9, nums, false, new Float64Array(nums.length * RAY_RECORD));
+    const b = landRays(9, nums, true, new Float64Array(nums.length * RAY_RECORD));
+    for (let i = 0; i < nums.length; i += 1) {
+      const o = i * RAY_RECORD;
+      expect(b[o + 5]).toBe(1);
+      expect(Math.hypot(a[o]! - b[o]!, a[o + 2]! - b[o + 2]!)).toBeLessThan(1e-9 * a[o + 4]!);
+    }
   });
 });
