@@ -1,5 +1,6 @@
 import type { ColourSettings } from '../colour/colour-settings.js';
 import type { Legend } from '../colour/legend.js';
+import type { DeepJob } from './deep-job.js';
 import type { DoubleGrid } from '../view/view.js';
 
 /**
@@ -21,6 +22,8 @@ export interface PlateJob {
   readonly withData: boolean;
   /** Period labels (sprites in plate pixels), composited under the legend; empty for none. */
   readonly labels?: readonly Legend[];
+  /** Present when the plate uses the deep arithmetic (perturbation around a reference orbit). */
+  readonly deep?: DeepJob;
 }
 
 /** Per-tile counts, summed over tiles by the main thread (order-independent). */
@@ -34,10 +37,13 @@ export interface TileStats {
   samples: number;
   /** periods[p] = number of interior pixels of period p. */
   periods: Record<number, number>;
+  /** Deep arithmetic: iterations stepped one at a time, and covered by bilinear-approximation skips. */
+  stepped: number;
+  skipped: number;
 }
 
 export function emptyStats(): TileStats {
-  return { escaped: 0, interior: 0, undecided: 0, refined: 0, samples: 0, periods: {} };
+  return { escaped: 0, interior: 0, undecided: 0, refined: 0, samples: 0, periods: {}, stepped: 0, skipped: 0 };
 }
 
 export function addStats(into: TileStats, from: TileStats): void {
@@ -46,6 +52,8 @@ export function addStats(into: TileStats, from: TileStats): void {
   into.undecided += from.undecided;
   into.refined += from.refined;
   into.samples += from.samples;
+  into.stepped += from.stepped;
+  into.skipped += from.skipped;
   for (const [p, n] of Object.entries(from.periods)) {
     const k = Number(p);
     into.periods[k] = (into.periods[k] ?? 0) + n;

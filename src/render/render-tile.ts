@@ -26,6 +26,7 @@ import { shadeSamples } from '../colour/shade-samples.js';
 import { createSampleSet, PERIOD_UNDECIDED, type SampleSet } from '../plane/sample-set.js';
 import { sampleParameters } from '../plane/sample-parameters.js';
 import type { EscapeLoop } from '../plane/escape-loop.js';
+import { sampleDeep, type DeepStats } from '../plane/deep-sample.js';
 import type { Tile } from '../view/tile-plan.js';
 import { emptyStats, type PlateJob, type TileStats } from './plate-job.js';
 
@@ -46,12 +47,16 @@ export interface TileResult {
 /** Reusable buffers for tiles up to `maxTile` pixels a side. */
 export interface TileScratch {
   readonly maxTile: number;
+  /** Continuous pixel coordinates of the centre samples (pixel (i, j) spans [i, i+1) x [j, j+1)). */
+  readonly xs: Float64Array;
+  readonly ys: Float64Array;
+  /** Parameters (double path) or offsets from the reference (deep path) of a batch. */
   readonly cr: Float64Array;
   readonly ci: Float64Array;
   readonly centre: SampleSet;
   readonly centreLinear: Float64Array;
-  readonly refineCr: Float64Array;
-  readonly refineCi: Float64Array;
+  readonly refineXs: Float64Array;
+  readonly refineYs: Float64Array;
   readonly refined: SampleSet;
   readonly refinedLinear: Float64Array;
   readonly linear: Float64Array;
@@ -64,12 +69,14 @@ export function createTileScratch(maxTile: number): TileScratch {
   const apron = (maxTile + 2) * (maxTile + 2);
   return {
     maxTile,
-    cr: new Float64Array(apron),
-    ci: new Float64Array(apron),
+    xs: new Float64Array(apron),
+    ys: new Float64Array(apron),
+    cr: new Float64Array(Math.max(apron, REFINE_BATCH)),
+    ci: new Float64Array(Math.max(apron, REFINE_BATCH)),
     centre: createSampleSet(apron),
     centreLinear: new Float64Array(apron * 3),
-    refineCr: new Float64Array(REFINE_BATCH),
-    refineCi: new Float64Array(REFINE_BATCH),
+    refineXs: new Float64Array(REFINE_BATCH),
+    refineYs: new Float64Array(REFINE_BATCH),
     refined: createSampleSet(REFINE_BATCH),
     refinedLinear: new Float64Array(REFINE_BATCH * 3),
     linear: new Float64Array(maxTile * maxTile * 3),
@@ -88,6 +95,39 @@ export function jitter(x: number, y: number, k: number, axis: number): number {
   return (h >>> 0) / 4294967296;
 }
 
+/**
+ * Evaluates the kernel at n samples given by continuous pixel coordinates:
+ * the double path maps them to c through the grid (centre + rotated offset);
+ * the deep path to offsets from the reference orbit, origin + (x - 1/2) stepX
+ * + (y - 1/2) stepY in units of 2^U, the same formula as fillDeepOffsets
+ * (src/plane/deep-offsets.ts), so every pixel gets the same bits in any tile.
+ */
+function evaluate(job: PlateJob, xs: Float64Array, ys: Float64Array, n: number, scratch: TileScratch, out: SampleSet, deepStats: DeepStats, loop?: EscapeLoop): void {
+  const { cr, ci } = scratch;
+  const deep = job.deep;
+  if (deep !== undefined) {
+    const g = deep.geometry;
+    for (let k = 0; k < n; k++) {
+      const x = xs[k]! - 0.5;
+      const y = ys[k]! - 0.5;
+      cr[k] = g.originRe + x * g.stepXRe + y * g.stepYRe;
+      ci[k] = g.originIm + x * g.stepXIm + y * g.stepYIm;
+    }
+    sampleDeep(deep.reference, deep.bla, cr, ci, n, { maxIterations: job.iterations, escapeRadius: job.escapeRadius, unitExponent: deep.unitExponent }, out, deepStats);
+    return;
+  }
+  const grid = job.grid;
+  const spacing = grid.spacing;
+  for (let k = 0; k < n; k++) {
+    const u = (xs[k]! - grid.width / 2) * spacing;
+    const v = (grid.height / 2 - ys[k]!) * spacing;
+    cr[k] = grid.centerRe + (u * grid.cos - v * grid.sin);
+    ci[k] = grid.centerIm + (u * grid.sin + v * grid.cos);
+  }
+  const settings = { maxIterations: job.iterations, escapeRadius: job.escapeRadius, periodTolerance: job.periodTolerance };
+  sampleParameters(cr, ci, n, settings, out, loop);
+}
+
 function kindOf(period: number): number {
   return period === 0 ? 0 : period === PERIOD_UNDECIDED ? 2 : 1;
 }
@@ -103,24 +143,23 @@ export function renderTile(job: PlateJob, tile: Tile, scratch: TileScratch, loop
   const aw = w + 2;
   const ah = h + 2;
   const n = aw * ah;
-  const settings = { maxIterations: job.iterations, escapeRadius: job.escapeRadius, periodTolerance: job.periodTolerance };
-  const spacing = grid.spacing;
+  // Distances come in c units (double, and deep above ~1e-271) or in units of 2^U (deeper).
+  const spacing = job.deep !== undefined ? job.deep.spacingUnits : grid.spacing;
+  const stats = emptyStats();
+  const deepStats = { stepped: 0, skipped: 0, skips: 0, rebases: 0, newtonIterations: 0 };
 
   // 1. Centre samples over the tile and its apron.
-  const { cr, ci, centre, centreLinear } = scratch;
+  const { xs, ys, centre, centreLinear } = scratch;
   for (let j = 0; j < ah; j++) {
-    const v = (grid.height / 2 - (y0 - 1 + j + 0.5)) * spacing;
     for (let i = 0; i < aw; i++) {
-      const u = (x0 - 1 + i + 0.5 - grid.width / 2) * spacing;
       const k = j * aw + i;
-      cr[k] = grid.centerRe + (u * grid.cos - v * grid.sin);
-      ci[k] = grid.centerIm + (u * grid.sin + v * grid.cos);
+      xs[k] = x0 - 1 + i + 0.5;
+      ys[k] = y0 - 1 + j + 0.5;
     }
   }
-  sampleParameters(cr, ci, n, settings, centre, loop);
+  evaluate(job, xs, ys, n, scratch, centre, deepStats, loop);
   shadeSamples(centre, 0, n, spacing, job.colour, centreLinear);
 
-  const stats = emptyStats();
   stats.samples += n;
   const pixelCount = w * h;
   const { linear, flags } = scratch;
@@ -176,12 +215,12 @@ export function renderTile(job: PlateJob, tile: Tile, scratch: TileScratch, loop
     const side = Math.round(Math.sqrt(job.samples));
     const K = side * side;
     const perBatch = Math.floor(REFINE_BATCH / K);
-    const { refineCr, refineCi, refined, refinedLinear } = scratch;
+    const { refineXs, refineYs, refined, refinedLinear } = scratch;
     const owners: number[] = [];
     const flush = (): void => {
       const m = owners.length * K;
       if (m === 0) return;
-      sampleParameters(refineCr, refineCi, m, settings, refined, loop);
+      evaluate(job, refineXs, refineYs, m, scratch, refined, deepStats, loop);
       shadeSamples(refined, 0, m, spacing, job.colour, refinedLinear);
       stats.samples += m;
       for (let o = 0; o < owners.length; o++) {
@@ -208,12 +247,8 @@ export function renderTile(job: PlateJob, tile: Tile, scratch: TileScratch, loop
       for (let b = 0; b < side; b++) {
         for (let a = 0; a < side; a++) {
           const s = b * side + a;
-          const x = px + (a + jitter(px, py, s, 0)) / side;
-          const y = py + (b + jitter(px, py, s, 1)) / side;
-          const u = (x - grid.width / 2) * spacing;
-          const v = (grid.height / 2 - y) * spacing;
-          refineCr[base + s] = grid.centerRe + (u * grid.cos - v * grid.sin);
-          refineCi[base + s] = grid.centerIm + (u * grid.sin + v * grid.cos);
+          refineXs[base + s] = px + (a + jitter(px, py, s, 0)) / side;
+          refineYs[base + s] = py + (b + jitter(px, py, s, 1)) / side;
         }
       }
       owners.push(p);
@@ -228,6 +263,8 @@ export function renderTile(job: PlateJob, tile: Tile, scratch: TileScratch, loop
   const pixels = job.depth === 16 ? new Uint16Array(pixelCount * 3) : new Uint8Array(pixelCount * 3);
   encodePixels(linear, w, h, x0, y0, job.depth, pixels);
 
+  stats.stepped = deepStats.stepped;
+  stats.skipped = deepStats.skipped;
   const result: TileResult = { pixels, stats };
   if (job.withData) {
     const period = new Int32Array(pixelCount);
