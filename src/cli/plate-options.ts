@@ -69,7 +69,18 @@ export const PLATE_OPTIONS: readonly OptionSpec[] = [
     },
   },
   { flags: '--dpi <dots>', description: 'print resolution written into the file (default 300)', apply: (s, v) => void (s['dpi'] = number(v)) },
-  { flags: '--iterations <n>', description: 'iteration limit per sample', apply: (s, v) => void (s['iterations'] = integer(v, '--iterations')) },
+  { flags: '--iterations <n>', description: 'iteration limit per sample, or auto (chosen from the depth, reported)', apply: (s, v) => void (s['iterations'] = v.trim() === 'auto' ? 'auto' : integer(v, '--iterations')) },
+  { flags: '--arith <mode>', description: 'arithmetic: auto (default), double or deep; auto picks deep where doubles cannot resolve the pixels', apply: (s, v) => void (s['arithmetic'] = v) },
+  { flags: '--no-skip', description: 'deep arithmetic: step every iteration (no bilinear-approximation skipping)' },
+  {
+    flags: '--reference <re,im,period>',
+    description: 'deep arithmetic: a nucleus (e.g. from `quadatlas locate`) and its period as the reference orbit',
+    apply: (s, v) => {
+      const parts = v.split(',');
+      if (parts.length !== 3) throw new UserError('--reference', 'RE,IM,PERIOD (a nucleus and its period)', v);
+      s['reference'] = { re: parts[0]!.trim(), im: parts[1]!.trim(), period: integer(parts[2]!, '--reference') };
+    },
+  },
   { flags: '--samples <k>', description: 'samples per refined pixel: 1 (off) or a square, e.g. 4, 9, 16', apply: (s, v) => void (s['samples'] = integer(v, '--samples')) },
   { flags: '--depth <bits>', description: 'bits per channel: 8 or 16', apply: (s, v) => void (s['depth'] = integer(v, '--depth')) },
   { flags: '--legend <where>', description: 'period legend: none, inset or beside', apply: (s, v) => void (sub(s, 'colour')['legend'] = v) },
@@ -93,6 +104,7 @@ export function applyPlateOptions(sheet: Record<string, unknown>, values: Record
     if (typeof v === 'string') spec.apply(sheet, v);
   }
   if (values['sidecar'] === false) sub(sheet, 'output')['sidecar'] = false;
+  if (values['skip'] === false) sheet['skip'] = false;
   return sheet;
 }
 

@@ -20,8 +20,11 @@ import { DEFAULT_ESCAPE_RADIUS } from '../plane/sample-parameters.js';
 import type { PlateJob, TileStats } from '../render/plate-job.js';
 import { createProgress } from '../render/progress.js';
 import { bytesPerPixel, DEFAULT_STRIP_BUDGET, DEFAULT_TILE_SIZE, renderPlate, type DataSink, type PlateSinks } from '../render/render-plate.js';
-import { renderRecord, type Sheet } from '../view/sheet.js';
-import { DOUBLE_MIN_RELATIVE_SPACING, doubleGrid, fitsDouble, pixelToC, type DoubleGrid } from '../view/view.js';
+import { renderRecord, resolveIterations, type Sheet } from '../view/sheet.js';
+import { deepPlan } from '../plane/deep-plan.js';
+import { referenceBits } from '../precise/reference-orbit.js';
+import { prepareDeepJob } from '../render/deep-job.js';
+import { doubleGrid, fitsDouble, pixelToC, type DoubleGrid } from '../view/view.js';
 import { componentsInBox } from '../components/components-in-box.js';
 import type { Legend } from '../colour/legend.js';
 import { labelHeightPixels, layoutPeriodLabels } from '../colour/period-labels.js';
@@ -38,8 +41,13 @@ export interface PlateSummary {
   readonly file: string;
   readonly files: string[];
   readonly view: { re: string; im: string; span: string; rotation: number; width: number; height: number; pixelSpacing: number };
-  readonly arithmetic: 'double';
+  readonly arithmetic: 'double' | 'deep';
+  /** Precision used: 53-bit doubles, or the deep path's reference bits, tile unit and timings. */
+  readonly precision: Record<string, unknown>;
   readonly iterations: number;
+  readonly iterationsRule: 'auto' | 'given';
+  /** Deep arithmetic: iterations stepped one at a time and covered by bilinear-approximation skips. */
+  readonly deepIterations: { stepped: number; skipped: number; skippedFraction: number } | null;
   readonly samples: number;
   readonly seconds: number;
   readonly pixels: { total: number; escaped: number; interior: number; undecided: number; refined: number };
@@ -50,9 +58,17 @@ export interface PlateSummary {
   readonly area: { interior: number; undecided: number; pixelArea: number; note: string };
 }
 
-/** The metadata JSON stored in the image: tool, version and everything that fixes the pixels. */
-export function plateMetadata(sheet: Sheet): string {
-  return JSON.stringify({ tool: 'quadatlas', version: toolVersion(), arithmetic: 'double', sheet: renderRecord(sheet) });
+/**
+ * The metadata JSON stored in the image: tool, version and the sheet that
+ * fixes the pixels, plus what was derived from it (arithmetic, reference
+ * precision, the resolved iteration limit) for the reader's information.
+ */
+export function plateMetadata(sheet: Sheet, derived: { arithmetic: 'double' | 'deep'; bits: number; iterations: number }): string {
+  return JSON.stringify({ tool: 'quadatlas', version: toolVersion(), arithmetic: derived.arithmetic, referenceBits: derived.arithmetic === 'deep' ? derived.bits : 53, iterations: derived.iterations, sheet: renderRecord(sheet) });
+}
+
+function round3(x: number): number {
+  return Math.round(x * 1000) / 1000;
 }
 
 /** Periodicity tolerance in z units from the pixel spacing (methods.md A4: tie it to the spacing). */
@@ -98,18 +114,29 @@ export async function renderSheet(sheet: Sheet, options: RenderSheetOptions = {}
   const started = process.hrtime.bigint();
   const view = { centerRe: sheet.view.re, centerIm: sheet.view.im, span: sheet.view.span, width: sheet.width, height: sheet.height, rotation: sheet.view.rotation };
   const grid = doubleGrid(view);
-  if (!fitsDouble(grid)) {
-    const reach = Math.max(1, Math.abs(grid.centerRe), Math.abs(grid.centerIm));
-    const minSpan = sheet.width * DOUBLE_MIN_RELATIVE_SPACING * reach;
-    throw new UserError('view.span', `a span of at least ${minSpan.toPrecision(3)} at this width for double arithmetic (deeper views need the deep arithmetic, not available yet)`, sheet.view.span);
+  const iterations = resolveIterations(sheet);
+  const plan = deepPlan({ re: sheet.view.re, im: sheet.view.im }, sheet.view.span, sheet.width);
+  const arithmetic = sheet.arithmetic === 'auto' ? plan.arithmetic : sheet.arithmetic;
+  if (arithmetic === 'double' && !fitsDouble(grid)) {
+    process.stderr.write('quadatlas: note: doubles cannot resolve this view; the plate is forced to double arithmetic and will be wrong\n');
+  }
+  const bits = arithmetic === 'deep' ? (plan.bits > 0 ? plan.bits : referenceBits(sheet.view.span, sheet.width)) : 0;
+  if (arithmetic === 'deep') {
+    // Reference orbit (16 bytes an iteration) and table (about 170 bytes an iteration) live in memory.
+    const perIteration = 16 + (sheet.skip ? 170 : 0);
+    const most = Math.floor(os.totalmem() / 2 / perIteration);
+    if (iterations > most) throw new UserError('iterations', `at most ${most} iterations for the deep arithmetic on this machine`, iterations);
+  }
+  if (arithmetic === 'deep' && sheet.labels > 0) {
+    throw new UserError('labels', '0 for a deep view (labels are placed from nuclei located in double precision)', sheet.labels);
   }
   const workers = options.workers ?? os.availableParallelism();
   const tileSize = options.tileSize ?? DEFAULT_TILE_SIZE;
   const file = sheet.output.file;
   const tiff = /\.tiff?$/i.test(file);
-  const job: PlateJob = {
+  let job: PlateJob = {
     grid,
-    iterations: sheet.iterations,
+    iterations,
     escapeRadius: DEFAULT_ESCAPE_RADIUS,
     periodTolerance: periodTolerance(grid.spacing),
     samples: sheet.samples,
@@ -119,6 +146,20 @@ export async function renderSheet(sheet: Sheet, options: RenderSheetOptions = {}
     withData: sheet.output.data !== null,
     labels: sheet.labels > 0 ? await periodLabels(grid, sheet.labels, sheet.dpi, workers) : [],
   };
+  let deepTimes = { reference: 0, table: 0 };
+  if (arithmetic === 'deep') {
+    const prepared = prepareDeepJob(
+      { re: sheet.view.re, im: sheet.view.im, span: sheet.view.span, rotation: sheet.view.rotation, width: sheet.width, height: sheet.height },
+      bits,
+      plan.unitExponent,
+      iterations,
+      DEFAULT_ESCAPE_RADIUS,
+      sheet.skip,
+      sheet.reference ?? undefined,
+    );
+    job = { ...job, deep: prepared.job };
+    deepTimes = { reference: prepared.referenceSeconds, table: prepared.tableSeconds };
+  }
 
   // Memory: two strips of at least one tile row each must fit comfortably.
   const minStrip = sheet.width * tileSize * bytesPerPixel(job);
@@ -135,7 +176,7 @@ export async function renderSheet(sheet: Sheet, options: RenderSheetOptions = {}
   await checkFreeSpace(imageDir, (rawImage / 4) * (tiff ? 2 : 1) + (dataDir !== null && path.resolve(dataDir) === imageDir ? dataBytes : 0), 'pixels');
   if (dataDir !== null && dataDir !== imageDir) await checkFreeSpace(dataDir, dataBytes, 'output.data');
 
-  const metadata = plateMetadata(sheet);
+  const metadata = plateMetadata(sheet, { arithmetic, bits, iterations });
   const spec: RasterSpec = { width: sheet.width, height: sheet.height, depth: sheet.depth, channels: 3, dpi: sheet.dpi, metadata, software: `quadatlas ${toolVersion()}` };
   const opened: Array<RasterSink | DataSink> = [];
   const files: string[] = [];
@@ -167,8 +208,11 @@ export async function renderSheet(sheet: Sheet, options: RenderSheetOptions = {}
       file: path.resolve(file),
       files,
       view: { ...sheet.view, width: sheet.width, height: sheet.height, pixelSpacing: grid.spacing },
-      arithmetic: 'double',
-      iterations: sheet.iterations,
+      arithmetic,
+      precision: arithmetic === 'deep' ? { referenceBits: bits, unitExponent: plan.unitExponent, reference: sheet.reference ?? { re: sheet.view.re, im: sheet.view.im, period: 0 }, referenceSeconds: round3(deepTimes.reference), tableSeconds: round3(deepTimes.table) } : { referenceBits: 53 },
+      iterations,
+      iterationsRule: sheet.iterations === 'auto' ? 'auto' : 'given',
+      deepIterations: arithmetic === 'deep' ? { stepped: stats.stepped, skipped: stats.skipped, skippedFraction: stats.stepped + stats.skipped > 0 ? stats.skipped / (stats.stepped + stats.skipped) : 0 } : null,
       samples: sheet.samples,
       seconds: Math.round(seconds * 1000) / 1000,
       pixels: { total: sheet.width * sheet.height, escaped: stats.escaped, interior: stats.interior, undecided: stats.undecided, refined: stats.refined },

@@ -12,11 +12,14 @@
  *   "view": { "re": "-0.75", "im": "0", "span": "3.2", "rotation": 0 },
  *   "pixels": { "width": 1600, "height": 1200 },   // or "print": { "width_mm": 420, "height_mm": 297 }
  *   "dpi": 300,
- *   "iterations": 4000,
+ *   "iterations": 4000,                       // or "auto"
  *   "samples": 16,                            // samples per pixel where refinement is needed (1 or a square)
  *   "depth": 8,                               // 8 or 16 bits per channel
  *   "colour": { ... },                        // see src/colour/colour-settings.ts
  *   "labels": 6,                             // label nuclei of periods 1..6 that can carry a label (0: none)
+ *   "arithmetic": "auto",                    // auto | double | deep
+ *   "skip": true,                            // deep: bilinear-approximation skipping
+ *   "reference": { "re": "...", "im": "...", "period": 79 },   // deep: a nucleus as periodic reference (default: the centre)
  *   "output": { "file": "out/name.png", "data": "out/name-data", "sidecar": true },
  *   "startup": true                           // rendered by `npm start`
  * }
@@ -35,12 +38,19 @@ export interface Sheet {
   readonly width: number;
   readonly height: number;
   readonly dpi: number;
-  readonly iterations: number;
+  /** Iteration limit, or 'auto' (chosen from the depth of the view; see autoIterations). */
+  readonly iterations: number | 'auto';
   readonly samples: number;
   readonly depth: 8 | 16;
   readonly colour: ColourSettings;
   /** Label the nuclei of components of period 1..labels that are large enough to carry a label (0: none). */
   readonly labels: number;
+  /** 'auto' picks doubles where they resolve every pixel, else the deep arithmetic; the others force one (for testing). */
+  readonly arithmetic: 'auto' | 'double' | 'deep';
+  /** Deep arithmetic: skip iterations with the bilinear-approximation table (false: step every iteration). */
+  readonly skip: boolean;
+  /** Deep arithmetic: reference point, e.g. a nucleus from `quadatlas locate` with its period; default the view centre. */
+  readonly reference: { readonly re: string; readonly im: string; readonly period: number } | null;
   readonly output: { readonly file: string; readonly data: string | null; readonly sidecar: boolean };
   readonly startup: boolean;
 }
@@ -55,7 +65,7 @@ export const DEFAULT_DPI = 300;
 export const MAX_LABEL_PERIOD = 14;
 
 const DECIMAL = /^[+-]?(\d+\.?\d*|\.\d+)([eE][+-]?\d+)?$/;
-const TOP_KEYS = ['title', 'note', 'view', 'pixels', 'print', 'dpi', 'iterations', 'samples', 'depth', 'colour', 'labels', 'output', 'startup'];
+const TOP_KEYS = ['title', 'note', 'view', 'pixels', 'print', 'dpi', 'iterations', 'samples', 'depth', 'colour', 'labels', 'arithmetic', 'skip', 'reference', 'output', 'startup'];
 
 type Json = Record<string, unknown>;
 
@@ -108,6 +118,43 @@ function parseSamples(value: unknown, field: string): number {
   const root = Math.round(Math.sqrt(k));
   if (root * root !== k) throw new UserError(field, 'a square number of samples per pixel (1, 4, 9, 16, ... 256)', value);
   return k;
+}
+
+function parseBoolean(value: unknown, field: string): boolean {
+  if (typeof value !== 'boolean') throw new UserError(field, 'true or false', value);
+  return value;
+}
+
+function parseArithmetic(value: unknown): 'auto' | 'double' | 'deep' {
+  if (value !== 'auto' && value !== 'double' && value !== 'deep') throw new UserError('arithmetic', 'one of auto, double, deep', value);
+  return value;
+}
+
+function parseReference(value: unknown): Sheet['reference'] {
+  if (value === null) return null;
+  if (!isObject(value)) throw new UserError('reference', 'an object { "re": "...", "im": "...", "period": P } or null', value);
+  noUnknownKeys(value, ['re', 'im', 'period'], 'reference');
+  return {
+    re: parseDecimalString(value['re'], 'reference.re'),
+    im: parseDecimalString(value['im'], 'reference.im'),
+    period: parseInteger(value['period'], 'reference.period', 1, 1_000_000),
+  };
+}
+
+/**
+ * The iteration limit for 'auto': 1000 at the whole set, growing as the
+ * 1.5th power of the magnification in bits, zoom = log2(3 / span):
+ * 19 000 at a span of 1e-13, 370 000 at 1e-100, capped at 10^7. Common
+ * practice (deeper views need more iterations), not a published rule.
+ */
+export function autoIterations(span: string): number {
+  const zoom = Math.max(0, Math.log2(3) - new Decimal(span).log(2).toNumber());
+  return Math.min(10_000_000, Math.round(1000 + 40 * zoom ** 1.5));
+}
+
+/** The iteration limit a sheet asks for, with 'auto' resolved from its span. */
+export function resolveIterations(sheet: Pick<Sheet, 'iterations' | 'view'>): number {
+  return sheet.iterations === 'auto' ? autoIterations(sheet.view.span) : sheet.iterations;
 }
 
 /** Pixels from a print size in millimetres at a given dpi. */
@@ -172,11 +219,14 @@ export function parseSheet(value: unknown, name = 'plate'): Sheet {
     width,
     height,
     dpi,
-    iterations: parseInteger(value['iterations'] ?? 2000, 'iterations', 1, MAX_ITERATIONS),
+    iterations: value['iterations'] === 'auto' ? 'auto' : parseInteger(value['iterations'] ?? 2000, 'iterations', 1, MAX_ITERATIONS),
     samples: parseSamples(value['samples'] ?? 9, 'samples'),
     depth,
     colour: parseColourSettings(value['colour'] ?? {}, 'colour'),
     labels: parseInteger(value['labels'] ?? 0, 'labels', 0, MAX_LABEL_PERIOD),
+    arithmetic: parseArithmetic(value['arithmetic'] ?? 'auto'),
+    skip: parseBoolean(value['skip'] ?? true, 'skip'),
+    reference: parseReference(value['reference'] ?? null),
     output: { file, data, sidecar },
     startup,
   };
@@ -199,5 +249,8 @@ export function renderRecord(sheet: Sheet): Json {
     depth: sheet.depth,
     colour: sheet.colour as unknown as Json,
     labels: sheet.labels,
+    arithmetic: sheet.arithmetic,
+    skip: sheet.skip,
+    reference: sheet.reference === null ? null : { ...sheet.reference },
   };
 }
