@@ -22,7 +22,7 @@
 import { periodTolerance } from '../cli/render-sheet.js';
 import { DEFAULT_ESCAPE_RADIUS } from '../plane/sample-parameters.js';
 import type { TileFormat } from '../io/iiif-info.js';
-import { parseSheet, renderRecord, type Sheet } from '../view/sheet.js';
+import { resolveIterations, parseSheet, renderRecord, type Sheet } from '../view/sheet.js';
 import { doubleGrid, type DoubleGrid } from '../view/view.js';
 import type { PlateJob } from './plate-job.js';
 import { planPyramid, type PyramidPlan } from './pyramid-plan.js';
@@ -76,7 +76,7 @@ export function levelJob(setup: PyramidSetup, scale: number): PlateJob {
   const grid: DoubleGrid = { ...baseGrid, spacing: baseGrid.spacing * scale, width: baseGrid.width / scale, height: baseGrid.height / scale };
   return {
     grid,
-    iterations: sheet.iterations,
+    iterations: resolveIterations(sheet),
     escapeRadius: DEFAULT_ESCAPE_RADIUS,
     periodTolerance: periodTolerance(grid.spacing),
     samples: sheet.samples,
