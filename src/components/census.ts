@@ -140,7 +140,8 @@ function countLost(records: Float64Array): number {
 
 /**
  * The distinct nuclei among the landed rays and their mirror images: sorted
- * by real part, each compared with its neighbours; two are the same when
+ * by real part (to within about 1e-15 · 2^(p - 20) buckets), each compared with
+ * every neighbour whose real part may lie within reach; two are the same when
  * closer than 1e-3 of the smaller size estimate. `suspects` are the pairs
  * (indices into lo) whose ray was lost, whose nucleus is shared with another
  * pair, or whose realness disagrees with the pair's symmetry (lo + hi = den
@@ -169,20 +170,36 @@ export function distinctNuclei(
     entries[count++] = 2 * i;
     if (!symmetric) entries[count++] = 2 * i + 1;
   }
-  const re = new Float64Array(2 * lo.length);
-  for (let i = 0; i < lo.length; i += 1) re[2 * i] = re[2 * i + 1] = rec[i * RAY_RECORD]! + rec[i * RAY_RECORD + 1]!;
-  const order = entries.subarray(0, count).sort((a, b) => re[a]! - re[b]! || a - b);
+  // Order by real part, in buckets of width 1/scale, ties by entry: one packed
+  // double per entry, sorted natively (a comparator sort took 3x as long).
+  const ebits = Math.max(1, Math.ceil(Math.log2(2 * lo.length + 1)));
+  const scale = 2 ** (52 - ebits) / 3;
+  const key = new Float64Array(count);
+  for (let k = 0; k < count; k += 1) {
+    const e = entries[k]!;
+    const re = rec[(e >> 1) * RAY_RECORD]! + rec[(e >> 1) * RAY_RECORD + 1]!;
+    key[k] = Math.floor((Math.min(0.5, Math.max(-2.5, re)) + 2.5) * scale) * 2 ** ebits + e;
+  }
+  key.sort();
+  const order = new Int32Array(count);
+  const bucket = new Float64Array(count);
+  for (let k = 0; k < count; k += 1) {
+    bucket[k] = Math.floor(key[k]! / 2 ** ebits);
+    order[k] = key[k]! - bucket[k]! * 2 ** ebits;
+  }
   const first = new Uint8Array(2 * lo.length).fill(1);
   for (let k = 1; k < order.length; k += 1) {
     const e = order[k]!;
     const oe = (e >> 1) * RAY_RECORD;
     const se = rec[oe + 4]!;
     const sign = (e & 1) === 1 ? -1 : 1;
+    const reach = rec[oe]! + rec[oe + 1]! - 1e-3 * se - 2 / scale;
     for (let j = k - 1; j >= 0; j -= 1) {
+      // every entry at j or before lies in a bucket ending below `reach`: none is within reach
+      if ((bucket[j]! + 1) / scale - 2.5 < reach) break;
       const g = order[j]!;
       const og = (g >> 1) * RAY_RECORD;
       const dre = rec[oe]! - rec[og]! + (rec[oe + 1]! - rec[og + 1]!);
-      if (dre > 1e-3 * se) break;
       const gsign = (g & 1) === 1 ? -1 : 1;
       const dim = sign * rec[oe + 2]! - gsign * rec[og + 2]! + (sign * rec[oe + 3]! - gsign * rec[og + 3]!);
       if (Math.hypot(dre, dim) <= 1e-3 * Math.min(se, rec[og + 4]!)) {
@@ -192,9 +209,20 @@ export function distinctNuclei(
       }
     }
   }
+  // Components in the order of their lower angle (distinct numerators below 2^p).
+  const lower = (e: number): number => ((e & 1) === 1 ? den - hi[e >> 1]! : lo[e >> 1]!);
+  let byAngle: Int32Array;
+  if (period + ebits <= 52) {
+    const ak = new Float64Array(count);
+    let n = 0;
+    for (let k = 0; k < count; k += 1) if (first[order[k]!] === 1) ak[n++] = lower(order[k]!) * 2 ** ebits + order[k]!;
+    const sorted = ak.subarray(0, n).sort();
+    byAngle = Int32Array.from(sorted, (v) => v % 2 ** ebits);
+  } else {
+    byAngle = order.filter((e) => first[e] === 1).sort((a, b) => lower(a) - lower(b));
+  }
   const components: CensusComponent[] = [];
-  for (const e of order) {
-    if (first[e] === 0) continue;
+  for (const e of byAngle) {
     const o = (e >> 1) * RAY_RECORD;
     const mirror = (e & 1) === 1;
     const a = lo[e >> 1]!;
@@ -211,7 +239,6 @@ export function distinctNuclei(
       real,
     });
   }
-  components.sort((x, y) => x.angles[0]! - y.angles[0]!);
   const suspects: number[] = [];
   for (let i = 0; i < lo.length; i += 1) if (suspect[i] === 1) suspects.push(i);
   return { components, suspects };
