@@ -58,6 +58,9 @@ export function traceRayDouble(num: number, den: number, depth: number, sharpnes
   const a0 = (2 * Math.PI * n) / den;
   let cr = RAY_RADIUS * Math.cos(a0);
   let ci = RAY_RADIUS * Math.sin(a0);
+  // R^(2^-u) at u = j / sharpness (two pow calls per sub-step were a third of the time)
+  const radius = new Float64Array(sharpness + 1);
+  for (let j = 0; j <= sharpness; j += 1) radius[j] = RAY_RADIUS ** (0.5 ** (j / sharpness));
   for (let k = 1; k <= depth; k += 1) {
     const a = (2 * Math.PI * n) / den;
     const ca = Math.cos(a);
@@ -66,7 +69,8 @@ export function traceRayDouble(num: number, den: number, depth: number, sharpnes
     let du = 1 / sharpness;
     while (u < 1) {
       const un = Math.min(1, u + du);
-      const r = RAY_RADIUS ** (0.5 ** un);
+      const j = un * sharpness;
+      const r = Number.isInteger(j) ? radius[j]! : RAY_RADIUS ** (0.5 ** un);
       const tr = r * ca;
       const ti = r * sa;
       let xr = cr;
