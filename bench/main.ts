@@ -8,6 +8,7 @@ import { fileURLToPath } from 'node:url';
 import type { BenchRow, BenchSection } from './bench-section.js';
 import { kernelSection } from './kernel-section.js';
 import { plateSection } from './plate-section.js';
+import { deepSection } from './deep-section.js';
 import { pyramidSection } from './pyramid-section.js';
 import { componentsSection } from './components-section.js';
 import { sliceSection } from './slice-section.js';
@@ -21,6 +22,7 @@ import { sliceSection } from './slice-section.js';
 export const SECTIONS: readonly BenchSection[] = [
   kernelSection,
   plateSection,
+  deepSection,
   componentsSection,
   sliceSection,
   pyramidSection,

@@ -47,7 +47,7 @@ export interface PlateSummary {
   readonly iterations: number;
   readonly iterationsRule: 'auto' | 'given';
   /** Deep arithmetic: iterations stepped one at a time and covered by bilinear-approximation skips. */
-  readonly deepIterations: { stepped: number; skipped: number; skippedFraction: number } | null;
+  readonly deepIterations: { stepped: number; skipped: number; skips: number; skippedFraction: number } | null;
   readonly samples: number;
   readonly seconds: number;
   readonly pixels: { total: number; escaped: number; interior: number; undecided: number; refined: number };
@@ -212,7 +212,7 @@ export async function renderSheet(sheet: Sheet, options: RenderSheetOptions = {}
       precision: arithmetic === 'deep' ? { referenceBits: bits, unitExponent: plan.unitExponent, reference: sheet.reference ?? { re: sheet.view.re, im: sheet.view.im, period: 0 }, referenceSeconds: round3(deepTimes.reference), tableSeconds: round3(deepTimes.table) } : { referenceBits: 53 },
       iterations,
       iterationsRule: sheet.iterations === 'auto' ? 'auto' : 'given',
-      deepIterations: arithmetic === 'deep' ? { stepped: stats.stepped, skipped: stats.skipped, skippedFraction: stats.stepped + stats.skipped > 0 ? stats.skipped / (stats.stepped + stats.skipped) : 0 } : null,
+      deepIterations: arithmetic === 'deep' ? { stepped: stats.stepped, skipped: stats.skipped, skips: stats.skips, skippedFraction: stats.stepped + stats.skipped > 0 ? stats.skipped / (stats.stepped + stats.skipped) : 0 } : null,
       samples: sheet.samples,
       seconds: Math.round(seconds * 1000) / 1000,
       pixels: { total: sheet.width * sheet.height, escaped: stats.escaped, interior: stats.interior, undecided: stats.undecided, refined: stats.refined },

@@ -40,10 +40,12 @@ export interface TileStats {
   /** Deep arithmetic: iterations stepped one at a time, and covered by bilinear-approximation skips. */
   stepped: number;
   skipped: number;
+  /** Deep arithmetic: bilinear-approximation skips applied (each one operation). */
+  skips: number;
 }
 
 export function emptyStats(): TileStats {
-  return { escaped: 0, interior: 0, undecided: 0, refined: 0, samples: 0, periods: {}, stepped: 0, skipped: 0 };
+  return { escaped: 0, interior: 0, undecided: 0, refined: 0, samples: 0, periods: {}, stepped: 0, skipped: 0, skips: 0 };
 }
 
 export function addStats(into: TileStats, from: TileStats): void {
@@ -54,6 +56,7 @@ export function addStats(into: TileStats, from: TileStats): void {
   into.samples += from.samples;
   into.stepped += from.stepped;
   into.skipped += from.skipped;
+  into.skips += from.skips;
   for (const [p, n] of Object.entries(from.periods)) {
     const k = Number(p);
     into.periods[k] = (into.periods[k] ?? 0) + n;

@@ -265,6 +265,7 @@ export function renderTile(job: PlateJob, tile: Tile, scratch: TileScratch, loop
 
   stats.stepped = deepStats.stepped;
   stats.skipped = deepStats.skipped;
+  stats.skips = deepStats.skips;
   const result: TileResult = { pixels, stats };
   if (job.withData) {
     const period = new Int32Array(pixelCount);
