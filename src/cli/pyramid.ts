@@ -212,7 +212,7 @@ export async function runPyramid(sheetFile: string | undefined, values: Record<s
     const progress = createProgress('pyramid (queue)');
     let r;
     try {
-      r = await enqueueAndWait({ target, dir, key, indices: todo, onProgress: (d, t) => progress.update(d, t) });
+      r = await enqueueAndWait({ target, dir, key, indices: todo, tileCount: plan.tileCount, onDisk: async (t) => (await tileFileSize(path.join(dir, TILES_FOLDER, iiifTilePath(plan, pyramidTileAt(plan, t), spec.format)))) > 0, onProgress: (d, t) => progress.update(d, t) });
     } finally {
       progress.end();
     }
@@ -228,7 +228,7 @@ export async function runPyramid(sheetFile: string | undefined, values: Record<s
       mode: 'queue',
       shard: null,
       tiles: { total: plan.tileCount, share: todo.length, rendered, skipped: plan.tileCount - todo.length + r.skipped, missing: 0 },
-      bytesWritten: 0,
+      bytesWritten: r.bytes,
       finished: true,
       seconds: s,
       tilesPerSecond: Math.round((rendered / s) * 10) / 10,

@@ -52,16 +52,16 @@ export async function preparePyramidDir(dir: string, spec: PyramidSpec): Promise
   } catch (err) {
     throw new UserError('--out', 'a folder that exists or can be created', new Received(`${dir} (${(err as NodeJS.ErrnoException).code ?? 'error'})`));
   }
-  const existing = await readPyramidSpec(dir);
-  if (existing !== undefined) {
+  const check = (existing: PyramidSpec): void => {
     if (!sameSpec(existing, spec)) {
       throw new UserError('--out', 'an empty folder or one holding this same pyramid', new Received(`${dir} (holds a pyramid of a different sheet, size, tile size or format)`));
     }
     if (existing.version !== spec.version) {
       throw new UserError('--out', `a pyramid started by quadatlas ${spec.version} (tiles of two versions may not match)`, new Received(`${dir} (started by quadatlas ${existing.version})`));
     }
-    return;
-  }
+  };
+  const existing = await readPyramidSpec(dir);
+  if (existing !== undefined) return check(existing);
   let names: string[];
   try {
     names = (await readdir(dir)).filter((n) => !isTemporary(n));
@@ -69,6 +69,9 @@ export async function preparePyramidDir(dir: string, spec: PyramidSpec): Promise
     throw new UserError('--out', 'a readable folder', new Received(`${dir} (${(err as NodeJS.ErrnoException).code ?? 'error'})`));
   }
   if (names.length > 0) {
+    // Another shard or producer may have written the record between the two looks.
+    const late = await readPyramidSpec(dir);
+    if (late !== undefined) return check(late);
     throw new UserError('--out', 'an empty folder or one holding this same pyramid', new Received(`${dir} (not empty and has no ${MANIFEST_NAME})`));
   }
   try {

@@ -94,12 +94,18 @@ export interface EnqueueOptions {
   readonly key: string;
   /** Tile numbers to put on the queue (those not yet on disk). */
   readonly indices: readonly number[];
+  /** Tiles in the pyramid (tile numbers are below it). */
+  readonly tileCount: number;
+  /** Whether a tile's file is on disk (the lasting record of a finished tile). */
+  readonly onDisk: (index: number) => Promise<boolean>;
   readonly onProgress?: (done: number, total: number) => void;
 }
 
 export interface EnqueueResult {
   readonly completed: number;
   readonly skipped: number;
+  /** Bytes of the tiles the workers wrote for this run. */
+  readonly bytes: number;
   readonly failed: ReadonlyArray<{ readonly index: number; readonly reason: string }>;
   readonly workers: readonly string[];
 }
@@ -114,10 +120,16 @@ export async function enqueueAndWait(o: EnqueueOptions): Promise<EnqueueResult> 
   const total = o.indices.length;
   let completed = 0;
   let skipped = 0;
+  let bytes = 0;
   const failed: Array<{ index: number; reason: string }> = [];
   const workers = new Set<string>();
+  // Per tile: 1 waiting for us, 2 completed, 3 failed. A tile can complete twice (another
+  // producer re-queued it after our job finished and was removed), so count each tile once.
+  const state = new Uint8Array(o.tileCount);
+  for (const i of o.indices) state[i] = 1;
   try {
     await events.waitUntilReady();
+    let checkDone = (): void => undefined;
     const finished = new Promise<void>((resolve) => {
       const check = (): void => {
         o.onProgress?.(completed + failed.length, total);
@@ -125,35 +137,75 @@ export async function enqueueAndWait(o: EnqueueOptions): Promise<EnqueueResult> 
       };
       events.on('completed', ({ jobId, returnvalue }) => {
         if (!jobId.startsWith(prefix)) return;
+        const index = Number(jobId.slice(prefix.length));
+        if (state[index] !== 1) return;
+        state[index] = 2;
         completed++;
         const r = (typeof returnvalue === 'string' ? JSON.parse(returnvalue) : returnvalue) as TileJobResult | null;
         if (r?.skipped === true) skipped++;
+        else if (typeof r?.bytes === 'number') bytes += r.bytes;
         if (typeof r?.worker === 'string') workers.add(r.worker);
         check();
       });
       events.on('failed', ({ jobId, failedReason }) => {
         if (!jobId.startsWith(prefix)) return;
-        failed.push({ index: Number(jobId.slice(prefix.length)), reason: failedReason });
+        const index = Number(jobId.slice(prefix.length));
+        if (state[index] !== 1) return;
+        state[index] = 3;
+        failed.push({ index, reason: failedReason });
         check();
       });
+      checkDone = check;
       check();
     });
+    const jobFor = (index: number) => ({
+      name: 'tile',
+      data: { dir: o.dir, index, key: o.key },
+      opts: { jobId: tileJobId(o.key, index), attempts: TILE_ATTEMPTS, backoff: { type: 'exponential', delay: 500 }, removeOnComplete: true, removeOnFail: true },
+    });
     const BATCH = 500;
-    for (let at = 0; at < total; at += BATCH) {
-      await queue.addBulk(
-        o.indices.slice(at, at + BATCH).map((index) => ({
-          name: 'tile',
-          data: { dir: o.dir, index, key: o.key },
-          opts: { jobId: tileJobId(o.key, index), attempts: TILE_ATTEMPTS, backoff: { type: 'exponential', delay: 500 }, removeOnComplete: true, removeOnFail: true },
-        })),
-      );
+    for (let at = 0; at < total; at += BATCH) await queue.addBulk(o.indices.slice(at, at + BATCH).map(jobFor));
+    // Events can be missed (QueueEvents starts reading the stream a moment after it is
+    // ready), so when nothing has happened for a while, look at the disk: a tile file
+    // there is finished; a tile with neither file nor job was lost and goes on again.
+    let seen = completed + failed.length;
+    let quiet = 0;
+    let sweeping = false;
+    const sweep = setInterval(() => {
+      if (sweeping) return;
+      if (completed + failed.length !== seen) {
+        seen = completed + failed.length;
+        quiet = 0;
+        return;
+      }
+      if (++quiet < 4) return;
+      sweeping = true;
+      void (async () => {
+        for (let i = 0; i < state.length; i++) {
+          if (state[i] !== 1) continue;
+          if (await o.onDisk(i)) {
+            state[i] = 2;
+            completed++;
+          } else if ((await queue.getJob(tileJobId(o.key, i))) === undefined) {
+            await queue.add(jobFor(i).name, jobFor(i).data, jobFor(i).opts);
+          }
+        }
+        checkDone();
+      })().finally(() => {
+        sweeping = false;
+        quiet = 0;
+      });
+    }, 500);
+    try {
+      await finished;
+    } finally {
+      clearInterval(sweep);
     }
-    await finished;
   } finally {
     await queue.close();
     await events.close();
   }
-  return { completed, skipped, failed, workers: [...workers].sort() };
+  return { completed, skipped, bytes, failed, workers: [...workers].sort() };
 }
 
 export type TileJob = Job<TileJobData, TileJobResult>;
