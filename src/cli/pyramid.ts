@@ -77,11 +77,11 @@ function parseFormat(v: unknown): TileFormat {
 }
 
 function checkDouble(s: PyramidSetup): void {
-  if (!fitsDouble(s.baseGrid)) {
+  if (s.arithmetic === 'double' && !fitsDouble(s.baseGrid)) {
     const g = s.baseGrid;
     const reach = Math.max(1, Math.abs(g.centerRe), Math.abs(g.centerIm));
     const minSpan = s.sheet.width * DOUBLE_MIN_RELATIVE_SPACING * reach;
-    throw new UserError('view.span', `a span of at least ${minSpan.toPrecision(3)} at this base width for double arithmetic (deeper views need the deep arithmetic, not available yet)`, s.sheet.view.span);
+    throw new UserError('view.span', `a span of at least ${minSpan.toPrecision(3)} at this base width for double arithmetic (leave arithmetic at auto for deeper views)`, s.sheet.view.span);
   }
 }
 

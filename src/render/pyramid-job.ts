@@ -25,6 +25,9 @@ import type { TileFormat } from '../io/iiif-info.js';
 import { resolveIterations, parseSheet, renderRecord, type Sheet } from '../view/sheet.js';
 import { doubleGrid, type DoubleGrid } from '../view/view.js';
 import type { PlateJob } from './plate-job.js';
+import { deepPlan, type DeepPlan } from '../plane/deep-plan.js';
+import { prepareDeepJob } from './deep-job.js';
+import { referenceBits } from '../precise/reference-orbit.js';
 import { planPyramid, type PyramidPlan } from './pyramid-plan.js';
 
 export interface PyramidSpec {
@@ -56,12 +59,17 @@ export interface PyramidSetup {
   readonly sheet: Sheet;
   readonly plan: PyramidPlan;
   readonly baseGrid: DoubleGrid;
+  /** Arithmetic for every level, decided at the base (the finest level); deep levels share its precision. */
+  readonly arithmetic: 'double' | 'deep';
+  readonly deepPlan: DeepPlan;
 }
 
 export function pyramidSetup(spec: PyramidSpec): PyramidSetup {
   const sheet = parseSheet(spec.sheet, 'pyramid');
   const view = { centerRe: sheet.view.re, centerIm: sheet.view.im, span: sheet.view.span, width: sheet.width, height: sheet.height, rotation: sheet.view.rotation };
-  return { spec, sheet, plan: planPyramid(sheet.width, sheet.height, spec.tileSize), baseGrid: doubleGrid(view) };
+  const deep = deepPlan({ re: sheet.view.re, im: sheet.view.im }, sheet.view.span, sheet.width);
+  const arithmetic = sheet.arithmetic === 'auto' ? deep.arithmetic : sheet.arithmetic;
+  return { spec, sheet, plan: planPyramid(sheet.width, sheet.height, spec.tileSize), baseGrid: doubleGrid(view), arithmetic, deepPlan: deep };
 }
 
 /**
@@ -74,9 +82,24 @@ export function pyramidSetup(spec: PyramidSpec): PyramidSetup {
 export function levelJob(setup: PyramidSetup, scale: number): PlateJob {
   const { sheet, baseGrid } = setup;
   const grid: DoubleGrid = { ...baseGrid, spacing: baseGrid.spacing * scale, width: baseGrid.width / scale, height: baseGrid.height / scale };
+  const iterations = resolveIterations(sheet);
+  // Deep levels: the same reference and precision as the base, the level's own pixel geometry.
+  const deep =
+    setup.arithmetic === 'deep'
+      ? prepareDeepJob(
+          { re: sheet.view.re, im: sheet.view.im, span: sheet.view.span, rotation: sheet.view.rotation, width: grid.width, height: grid.height },
+          setup.deepPlan.bits > 0 ? setup.deepPlan.bits : referenceBits(sheet.view.span, sheet.width),
+          setup.deepPlan.unitExponent,
+          iterations,
+          DEFAULT_ESCAPE_RADIUS,
+          sheet.skip,
+          sheet.reference ?? undefined,
+        ).job
+      : undefined;
   return {
+    ...(deep === undefined ? {} : { deep }),
     grid,
-    iterations: resolveIterations(sheet),
+    iterations,
     escapeRadius: DEFAULT_ESCAPE_RADIUS,
     periodTolerance: periodTolerance(grid.spacing),
     samples: sheet.samples,
