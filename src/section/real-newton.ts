@@ -125,7 +125,8 @@ export function iterateFamily(family: UnimodalFamily, x: Decimal, r: Decimal, n:
  * period p: with u = x - x_c and e = r - r_s, f^p(x_c + u) ~ x_c + K u^2 + L e,
  * and v = K u turns it into v -> v^2 + C with C = K L e (methods.md C4, the
  * same renormalisation as the Hunt-Ott size estimate, read in the family's
- * own coordinates). Returns K = (f^p)''(x_c)/2 and L = d f^p(x_c)/dr.
+ * own coordinates). Returns K, half the second x-derivative of the p-th
+ * iterate at x_c, and L, the r-derivative of that iterate at x_c.
  */
 export function localRenormalisation(family: UnimodalFamily, period: number, r: Decimal, D: DecimalCtor): { k: Decimal; l: Decimal } {
   let x = new D(family.critical);
