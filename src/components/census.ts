@@ -117,14 +117,14 @@ export async function census(period: number, options: CensusOptions = {}): Promi
   let relanded = 0;
   if (found.suspects.length > 0) {
     const redo = Float64Array.from(found.suspects, (i) => lo[i]!);
-    const again = await landAll(period, redo, true, {});
+    const again = await landAll(period, redo, true, { workers: options.workers ?? 0 });
     relanded = redo.length;
     found.suspects.forEach((i, j) => records.set(again.subarray(j * RAY_RECORD, (j + 1) * RAY_RECORD), i * RAY_RECORD));
     found = distinctNuclei(period, lo, hi, records);
   }
   return {
     period,
-    components: found.components,
+    components: found.components(),
     raysTraced: lo.length + relanded,
     raysLost: countLost(records),
     unpaired: found.suspects.length,
@@ -146,13 +146,15 @@ function countLost(records: Float64Array): number {
  * (indices into lo) whose ray was lost, whose nucleus is shared with another
  * pair, or whose realness disagrees with the pair's symmetry (lo + hi = den
  * exactly for real components); shared nuclei are counted once.
+ * `components()` builds the component list (kept lazy: the census calls this
+ * again after re-landing suspects).
  */
 export function distinctNuclei(
   period: number,
   lo: Float64Array,
   hi: Float64Array,
   rec: Float64Array,
-): { components: CensusComponent[]; suspects: number[] } {
+): { components: () => CensusComponent[]; suspects: number[] } {
   const den = 2 ** period - 1;
   const suspect = new Uint8Array(lo.length);
   // Entries: 2i for pair i, 2i + 1 for its mirror image (absent for real pairs).
@@ -209,36 +211,39 @@ export function distinctNuclei(
       }
     }
   }
-  // Components in the order of their lower angle (distinct numerators below 2^p).
-  const lower = (e: number): number => ((e & 1) === 1 ? den - hi[e >> 1]! : lo[e >> 1]!);
-  let byAngle: Int32Array;
-  if (period + ebits <= 52) {
-    const ak = new Float64Array(count);
-    let n = 0;
-    for (let k = 0; k < count; k += 1) if (first[order[k]!] === 1) ak[n++] = lower(order[k]!) * 2 ** ebits + order[k]!;
-    const sorted = ak.subarray(0, n).sort();
-    byAngle = Int32Array.from(sorted, (v) => v % 2 ** ebits);
-  } else {
-    byAngle = order.filter((e) => first[e] === 1).sort((a, b) => lower(a) - lower(b));
-  }
-  const components: CensusComponent[] = [];
-  for (const e of byAngle) {
-    const o = (e >> 1) * RAY_RECORD;
-    const mirror = (e & 1) === 1;
-    const a = lo[e >> 1]!;
-    const b = hi[e >> 1]!;
-    const real = a + b === den && Math.abs(rec[o + 2]! + rec[o + 3]!) <= 1e-3 * rec[o + 4]!;
-    components.push({
-      period,
-      reHi: rec[o]!,
-      reLo: rec[o + 1]!,
-      imHi: real ? 0 : mirror ? -rec[o + 2]! : rec[o + 2]!,
-      imLo: real ? 0 : mirror ? -rec[o + 3]! : rec[o + 3]!,
-      size: rec[o + 4]!,
-      angles: mirror ? [den - b, den - a] : [a, b],
-      real,
-    });
-  }
+  const components = (): CensusComponent[] => {
+    // Components in the order of their lower angle (distinct numerators below 2^p).
+    const lower = (e: number): number => ((e & 1) === 1 ? den - hi[e >> 1]! : lo[e >> 1]!);
+    let byAngle: Int32Array;
+    if (period + ebits <= 52) {
+      const ak = new Float64Array(count);
+      let n = 0;
+      for (let k = 0; k < count; k += 1) if (first[order[k]!] === 1) ak[n++] = lower(order[k]!) * 2 ** ebits + order[k]!;
+      const sorted = ak.subarray(0, n).sort();
+      byAngle = Int32Array.from(sorted, (v) => v % 2 ** ebits);
+    } else {
+      byAngle = order.filter((e) => first[e] === 1).sort((a, b) => lower(a) - lower(b));
+    }
+    const list: CensusComponent[] = [];
+    for (const e of byAngle) {
+      const o = (e >> 1) * RAY_RECORD;
+      const mirror = (e & 1) === 1;
+      const a = lo[e >> 1]!;
+      const b = hi[e >> 1]!;
+      const real = a + b === den && Math.abs(rec[o + 2]! + rec[o + 3]!) <= 1e-3 * rec[o + 4]!;
+      list.push({
+        period,
+        reHi: rec[o]!,
+        reLo: rec[o + 1]!,
+        imHi: real ? 0 : mirror ? -rec[o + 2]! : rec[o + 2]!,
+        imLo: real ? 0 : mirror ? -rec[o + 3]! : rec[o + 3]!,
+        size: rec[o + 4]!,
+        angles: mirror ? [den - b, den - a] : [a, b],
+        real,
+      });
+    }
+    return list;
+  };
   const suspects: number[] = [];
   for (let i = 0; i < lo.length; i += 1) if (suspect[i] === 1) suspects.push(i);
   return { components, suspects };

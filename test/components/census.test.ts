@@ -66,8 +66,8 @@ describe('distinctNuclei', () => {
 
   it('distinctNuclei(6, ...) on the landed rays gives A000740(6) = 27 components, A000048(6) = 5 real, no suspects', () => {
     const r = distinctNuclei(p, lo, hi, landed);
-    expect(r.components).toHaveLength(27);
-    expect(r.components.filter((c) => c.real)).toHaveLength(5);
+    expect(r.components()).toHaveLength(27);
+    expect(r.components().filter((c) => c.real)).toHaveLength(5);
     expect(r.suspects).toEqual([]);
   });
   it('distinctNuclei flags two pairs that reached one nucleus, a lost ray, and a real pair off the axis', () => {
@@ -75,7 +75,7 @@ describe('distinctNuclei', () => {
     shared.copyWithin(upper2 * RAY_RECORD, upper * RAY_RECORD, (upper + 1) * RAY_RECORD);
     const a = distinctNuclei(p, lo, hi, shared);
     expect(a.suspects).toEqual([upper, upper2].sort((x, y) => x - y));
-    expect(a.components).toHaveLength(25); // the nucleus and its mirror image are counted once each
+    expect(a.components()).toHaveLength(25); // the nucleus and its mirror image are counted once each
     const lost = landed.slice();
     lost[upper * RAY_RECORD + 5] = 0;
     expect(distinctNuclei(p, lo, hi, lost).suspects).toEqual([upper]);
