@@ -100,8 +100,9 @@ export function lavaursSweep(period: number): LavaursSweep {
   return { period, lo, hi };
 }
 
-/** n1/d1 < n2/d2 for angles of different exact periods (never equal); exact when the doubles are too close. */
+/** n1/d1 < n2/d2 for angles of different exact periods (never equal), exactly: cross products in doubles while below 2^53. */
 function before(n1: number, d1: number, v1: number, n2: number, d2: number, v2: number): boolean {
-  if (Math.abs(v1 - v2) > 1e-12) return v1 < v2;
+  if (Math.abs(v1 - v2) > 1e-9) return v1 < v2;
+  if (d1 * d2 < 2 ** 53) return n1 * d2 < n2 * d1;
   return BigInt(n1) * BigInt(d2) < BigInt(n2) * BigInt(d1);
 }
