@@ -118,7 +118,7 @@ describe('quadatlas plate, bad input', () => {
     ['samples', ['--samples', '3'], /samples/],
     ['depth', ['--depth', '12'], /depth/],
     ['output type', ['--out', 'x.jpg'], /output\.file/],
-    ['span too small for doubles', ['--span', '1e-16', '--size', '100x100'], /view\.span/],
+    ['arithmetic forced to an unknown mode', ['--arith', 'single'], /arithmetic/],
     // A strip holds at least one row of tiles: 1e6 pixels x 1024 rows x 24 bytes with data is ~24 GB.
     ['plate too big for memory', ['--size', '1000000x10', '--tile', '1024', '--data', 'DATA'], /pixels\.width/],
     ['plate too big for disk', ['--size', '900000x900000', '--depth', '16'], /pixels/],
@@ -145,7 +145,7 @@ describe('quadatlas plate, bad input', () => {
     writeFileSync(sheet, JSON.stringify({ view: { re: '-0.5', im: '0', span: '3' }, zoom: 4 }));
     const r = runCli(['plate', sheet, '--out', path.join(dir, 'p.png')]);
     expect(r.status).toBe(2);
-    expect(r.stderr.trim()).toBe('quadatlas: Expected one of the fields title, note, view, pixels, print, dpi, iterations, samples, depth, colour, labels, output, startup for zoom but received an unknown field "zoom"');
+    expect(r.stderr.trim()).toBe('quadatlas: Expected one of the fields title, note, view, pixels, print, dpi, iterations, samples, depth, colour, labels, arithmetic, skip, reference, output, startup for zoom but received an unknown field "zoom"');
     expect(existsSync(path.join(dir, 'p.png'))).toBe(false);
   });
 
