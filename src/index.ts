@@ -25,3 +25,33 @@ export { openTiffSink } from './io/tiff-sink.js';
 export { openNpySink } from './io/npy-sink.js';
 export { readPlateMetadata } from './io/plate-metadata.js';
 export type { RasterSink, RasterSpec } from './io/raster-sink.js';
+
+// Components by number.
+export { findNucleus, type ComplexDecimal } from './components/nucleus.js';
+export { findBoundaryPoint } from './components/boundary-point.js';
+export { sizeEstimate } from './components/size-estimate.js';
+export { census, type CensusComponent, type CensusResult } from './components/census.js';
+export { componentsInBox, type BoxedNucleus } from './components/components-in-box.js';
+export { componentInfo, type ComponentInfo } from './components/component-info.js';
+export { lavaursPairs, type AnglePair } from './components/lavaurs.js';
+export { kneadingSequence, internalAddress, addressOfAngle } from './components/internal-address.js';
+export { parseAngle, type Angle } from './components/external-angle.js';
+export { findMisiurewicz } from './components/misiurewicz.js';
+
+// The real slice.
+export { cToR, rToC, xToZ, zToX } from './section/conjugacy.js';
+export { FAMILIES, logistic, sine, quartic } from './section/families/index.js';
+export type { UnimodalFamily } from './section/unimodal-family.js';
+export { computeCascade, type Cascade, type CascadeLevel } from './section/cascade.js';
+export { cascadeSolverFor } from './section/cascade-solver-for.js';
+export { findWindows, type PeriodicWindow } from './section/windows.js';
+export { windowOf } from './section/window-of.js';
+export { mssWords } from './section/kneading.js';
+export { lyapunovExponents } from './section/lyapunov.js';
+
+// Deep arithmetic.
+export { computeReferenceOrbit, referenceBits, type ReferenceOrbit } from './precise/reference-orbit.js';
+export { buildBlaTable, type BlaTable } from './plane/bla-table.js';
+export { sampleDeep, type DeepSettings } from './plane/deep-sample.js';
+export { deepPlan } from './plane/deep-plan.js';
+export { prepareDeepJob, type DeepJob } from './render/deep-job.js';
