@@ -9,7 +9,7 @@ const A000740 = [1, 1, 3, 6, 15, 27, 63, 120, 252, 495, 1023, 2010];
 const A000048 = [1, 1, 1, 2, 3, 5, 9, 16, 28, 51, 93, 170];
 
 describe('census', () => {
-  it('census(p) finds A000740(p) components and A000048(p) real ones for p = 1..12, every one with exactly two rays', async () => {
+  it('census(p) finds A000740(p) components and A000048(p) real ones for p = 1..12, every one with an angle pair, none unpaired or lost', async () => {
     for (let p = 1; p <= 12; p += 1) {
       const r = await census(p);
       expect(r.components.length, `period ${p}`).toBe(A000740[p - 1]);
