@@ -50,7 +50,7 @@ export function register(program: Command): void {
       if (o['real'] === true) comps = comps.filter((c) => c.real);
       if (box !== null) comps = comps.filter((c) => inBox(c, box));
       if (result.unpaired > 0 || result.raysLost > 0) {
-        process.stderr.write(`quadatlas: warning: ${result.unpaired} components did not receive exactly two rays, ${result.raysLost} rays were lost\n`);
+        process.stderr.write(`quadatlas: warning: ${result.unpaired} angle pairs could not be given a nucleus of their own, ${result.raysLost} rays were lost\n`);
       }
       if (count) {
         const n = comps.length;

@@ -21,11 +21,11 @@ const COMMANDS: ReadonlyArray<readonly [string, string, () => Promise<CommandMod
   ['plate', 'render one image of a view of the c-plane', () => import('./plate.js')],
   ['presets', 'list, show, check and render the sheets in presets/', () => import('./presets.js')],
   ['section', 'the real slice: convert, cascade, windows, lyapunov, diagram, compare', () => import('./section.js')],
+  ['pyramid', 'write a deep-zoom tile pyramid of a view, with an offline viewer page', () => import('./pyramid.js')],
+  ['worker', 'take tile jobs from a shared queue (cluster mode)', () => import('./worker.js')],
   ['components', 'list or count the hyperbolic components of a period', () => import('./components.js')],
   ['locate', 'Newton to one nucleus from a guess, an external angle or an internal address', () => import('./locate.js')],
   ['describe', 'everything known about one parameter c', () => import('./describe.js')],
-  ['pyramid', 'write a deep-zoom tile pyramid of a view, with an offline viewer page', () => import('./pyramid.js')],
-  ['worker', 'take tile jobs from a shared queue (cluster mode)', () => import('./worker.js')],
 ];
 
 export async function main(argv: readonly string[]): Promise<number> {

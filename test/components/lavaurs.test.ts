@@ -1,5 +1,4 @@
 import { describe, expect, it } from 'vitest';
-import { census } from '../../src/components/census.js';
 import { lavaursPairs } from '../../src/components/lavaurs.js';
 
 describe('lavaursPairs', () => {
@@ -15,13 +14,5 @@ describe('lavaursPairs', () => {
     const p5 = lavaursPairs(5).filter((x) => x.period === 5).map((x) => `${x.lo}/${x.hi}`);
     expect(p5).toContain('13/18');
     expect(p5).toContain('14/17');
-  });
-  it('Lavaurs pairs equal the angle pairs the census lands on one nucleus, for periods 2..9 (combinatorics = numerics)', async () => {
-    const pairs = lavaursPairs(9);
-    for (let p = 2; p <= 9; p += 1) {
-      const want = pairs.filter((x) => x.period === p).map((x) => `${x.lo},${x.hi}`).sort();
-      const got = (await census(p)).components.map((c) => c.angles.join(',')).sort();
-      expect(got).toEqual(want);
-    }
   });
 });
