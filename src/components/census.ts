@@ -20,7 +20,7 @@
  * The result never depends on worker count or chunk order: records are
  * written by pair index and grouped after sorting.
  */
-import { Worker } from 'node:worker_threads';
+import { mapOnWorkers } from '../render/map-on-workers.js';
 import { landRays, RAY_RECORD } from './land-rays.js';
 import { lavaursSweep } from './lavaurs-sweep.js';
 
@@ -265,37 +265,18 @@ async function landAll(period: number, nums: Float64Array, careful: boolean, opt
     }
     return out;
   }
-  const url = censusWorkerUrl();
-  const pool = Array.from({ length: Math.min(workers, chunks.length) }, () => new Worker(url));
-  let next = 0;
-  try {
-    await Promise.all(
-      pool.map(
-        (w) =>
-          new Promise<void>((resolve, reject) => {
-            const send = (): void => {
-              if (next >= chunks.length) {
-                resolve();
-                return;
-              }
-              const [s, e] = chunks[next]!;
-              next += 1;
-              w.once('message', (m: { records: Float64Array }) => {
-                out.set(m.records, s * RAY_RECORD);
-                done += e - s;
-                options.onProgress?.(done, nums.length);
-                send();
-              });
-              w.postMessage({ period, nums: nums.slice(s, e), careful });
-            };
-            w.once('error', reject);
-            send();
-          }),
-      ),
-    );
-  } finally {
-    await Promise.all(pool.map((w) => w.terminate()));
-  }
+  await mapOnWorkers<{ period: number; nums: Float64Array; careful: boolean }, { records: Float64Array }>(
+    censusWorkerUrl(),
+    chunks.length,
+    (i) => ({ message: { period, nums: nums.slice(chunks[i]![0], chunks[i]![1]), careful } }),
+    workers,
+    (i, m) => {
+      const [s, e] = chunks[i]!;
+      out.set(m.records, s * RAY_RECORD);
+      done += e - s;
+      options.onProgress?.(done, nums.length);
+    },
+  );
   return out;
 }
 

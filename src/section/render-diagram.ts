@@ -4,7 +4,7 @@
  * Block order and worker count never change the result (see
  * density-diagram.ts).
  */
-import { Worker } from 'node:worker_threads';
+import { mapOnWorkers } from '../render/map-on-workers.js';
 import { diagramColumns, type DiagramSettings, type ParameterAxis } from './density-diagram.js';
 import type { DiagramJob } from './diagram-worker.js';
 import type { UnimodalFamily } from './unimodal-family.js';
@@ -36,32 +36,15 @@ export async function renderDiagram(
     }
     return image;
   }
-  const url = new URL('./diagram-worker.js', import.meta.url);
-  const pool = Array.from({ length: Math.min(workers, blocks.length) }, () => new Worker(url));
-  let next = 0;
-  try {
-    await Promise.all(
-      pool.map(
-        (w) =>
-          new Promise<void>((resolve, reject) => {
-            const send = (): void => {
-              if (next >= blocks.length) return resolve();
-              const [col0, col1] = blocks[next++]!;
-              const job: DiagramJob = { family: family.name, axis, settings, col0, col1 };
-              w.postMessage(job);
-            };
-            w.on('message', (m: { col0: number; out: Uint16Array }) => {
-              place(m.col0, m.out);
-              onProgress?.(++done, blocks.length);
-              send();
-            });
-            w.on('error', reject);
-            send();
-          }),
-      ),
-    );
-  } finally {
-    await Promise.all(pool.map((w) => w.terminate()));
-  }
+  await mapOnWorkers<DiagramJob, { col0: number; out: Uint16Array }>(
+    new URL('./diagram-worker.js', import.meta.url),
+    blocks.length,
+    (i) => ({ message: { family: family.name, axis, settings, col0: blocks[i]![0], col1: blocks[i]![1] } }),
+    workers,
+    (_, m) => {
+      place(m.col0, m.out);
+      onProgress?.(++done, blocks.length);
+    },
+  );
   return image;
 }
