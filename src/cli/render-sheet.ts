@@ -161,10 +161,10 @@ export async function renderSheet(sheet: Sheet, options: RenderSheetOptions = {}
     deepTimes = { reference: prepared.referenceSeconds, table: prepared.tableSeconds };
   }
 
-  // Memory: two strips of at least one tile row each must fit comfortably.
+  // Memory: three strips of at least one tile row each must fit comfortably.
   const minStrip = sheet.width * tileSize * bytesPerPixel(job);
-  if (2 * minStrip > os.totalmem() / 4) {
-    throw new UserError('pixels.width', `a width whose strips fit in memory (at most ${Math.floor(os.totalmem() / 8 / (tileSize * bytesPerPixel(job)))} pixels)`, sheet.width);
+  if (3 * minStrip > os.totalmem() / 4) {
+    throw new UserError('pixels.width', `a width whose strips fit in memory (at most ${Math.floor(os.totalmem() / 12 / (tileSize * bytesPerPixel(job)))} pixels)`, sheet.width);
   }
   // Disk: the image (estimated at a quarter of its raw size, twice for TIFF's bands) plus the exact NPY sizes.
   const rawImage = sheet.width * sheet.height * 3 * (sheet.depth / 8);

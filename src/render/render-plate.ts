@@ -1,7 +1,7 @@
 /**
  * Renders a plate strip by strip over a worker pool and hands finished rows
- * to the sinks, top to bottom. Memory is bounded by two strips (the one being
- * written and the one being computed), never the whole image.
+ * to the sinks, top to bottom. Memory is bounded by three strips (two queued
+ * on the workers and one being written), never the whole image.
  */
 import type { RasterSink } from '../io/raster-sink.js';
 import { planStrips, type Strip } from '../view/tile-plan.js';
@@ -33,6 +33,10 @@ export interface RenderOptions {
 }
 
 export const DEFAULT_TILE_SIZE = 64;
+/** Strips queued on the workers at once (the one finishing and the next). */
+const AHEAD = 2;
+/** At most this many tile rows per strip, so writing overlaps rendering even for plates that would fit one strip. */
+const MAX_TILE_ROWS_PER_STRIP = 4;
 export const DEFAULT_STRIP_BUDGET = 96 * 1024 * 1024;
 
 /** Bytes a strip holds per pixel: encoded RGB plus, with data, int32 + 2 x float64 + uint8. */
@@ -43,7 +47,7 @@ export function bytesPerPixel(job: PlateJob): number {
 /** Strip height in rows for a width and budget (a whole number of tiles, at least one). */
 export function stripRows(width: number, job: PlateJob, tileSize: number, budget: number): number {
   const rows = Math.floor(budget / (width * bytesPerPixel(job)));
-  return Math.max(tileSize, Math.floor(rows / tileSize) * tileSize);
+  return Math.max(tileSize, Math.min(MAX_TILE_ROWS_PER_STRIP * tileSize, Math.floor(rows / tileSize) * tileSize));
 }
 
 interface StripBuffers {
@@ -96,23 +100,31 @@ export async function renderPlate(job: PlateJob, sinks: PlateSinks, options: Ren
   const stats = emptyStats();
   let done = 0;
   options.onProgress?.(0, total);
+  // Tiles of a strip are queued as soon as the strip before it is queued, so
+  // workers never wait at a strip boundary; a finished strip is written while
+  // the next ones are computed. At most AHEAD strips are queued at once.
+  const start = (strip: Strip): { strip: Strip; buffers: StripBuffers; done: Promise<PromiseSettledResult<void>[]> } => {
+    const buffers = allocate(job, width, strip.h);
+    const results = strip.tiles.map((tile) =>
+      pool.render(tile).then((t) => {
+        place(buffers, strip, width, t);
+        addStats(stats, t.stats);
+        done++;
+        options.onProgress?.(done, total);
+      }),
+    );
+    return { strip, buffers, done: Promise.allSettled(results) };
+  };
   try {
     let writing: Promise<void> = Promise.resolve();
-    for (const strip of strips) {
-      const buffers = allocate(job, width, strip.h);
-      const results = strip.tiles.map((tile) =>
-        pool.render(tile).then((t) => {
-          place(buffers, strip, width, t);
-          addStats(stats, t.stats);
-          done++;
-          options.onProgress?.(done, total);
-        }),
-      );
-      // Compute this strip while the previous one is written.
-      const settled = await Promise.allSettled([writing, ...results]);
+    const queued = strips.slice(0, AHEAD).map(start);
+    for (let k = 0; k < strips.length; k++) {
+      const current = queued.shift()!;
+      const settled = [...(await current.done), ...(await Promise.allSettled([writing]))];
       const bad = settled.find((s): s is PromiseRejectedResult => s.status === 'rejected');
       if (bad) throw bad.reason;
-      writing = writeStrip(sinks, buffers, strip.h);
+      if (k + AHEAD < strips.length) queued.push(start(strips[k + AHEAD]!));
+      writing = writeStrip(sinks, current.buffers, current.strip.h);
     }
     await writing;
   } finally {

@@ -24,7 +24,7 @@ import { encodePixels } from '../colour/encode-pixels.js';
 import { paintLegendRect, type Legend } from '../colour/legend.js';
 import { shadeSamples } from '../colour/shade-samples.js';
 import { createSampleSet, PERIOD_UNDECIDED, type SampleSet } from '../plane/sample-set.js';
-import { sampleParameters } from '../plane/sample-parameters.js';
+import { createSampleScratch, sampleParameters, type SampleScratch } from '../plane/sample-parameters.js';
 import type { EscapeLoop } from '../plane/escape-loop.js';
 import { sampleDeep, type DeepStats } from '../plane/deep-sample.js';
 import type { Tile } from '../view/tile-plan.js';
@@ -61,6 +61,8 @@ export interface TileScratch {
   readonly refinedLinear: Float64Array;
   readonly linear: Float64Array;
   readonly flags: Uint8Array;
+  /** The kernel's own scratch, sized for the larger of the apron and a refinement batch. */
+  readonly kernel: SampleScratch;
 }
 
 const REFINE_BATCH = 4096;
@@ -81,6 +83,7 @@ export function createTileScratch(maxTile: number): TileScratch {
     refinedLinear: new Float64Array(REFINE_BATCH * 3),
     linear: new Float64Array(maxTile * maxTile * 3),
     flags: new Uint8Array(maxTile * maxTile),
+    kernel: createSampleScratch(Math.max(apron, REFINE_BATCH)),
   };
 }
 
@@ -125,7 +128,7 @@ function evaluate(job: PlateJob, xs: Float64Array, ys: Float64Array, n: number, 
     ci[k] = grid.centerIm + (u * grid.sin + v * grid.cos);
   }
   const settings = { maxIterations: job.iterations, escapeRadius: job.escapeRadius, periodTolerance: job.periodTolerance };
-  sampleParameters(cr, ci, n, settings, out, loop);
+  sampleParameters(cr, ci, n, settings, out, loop, scratch.kernel);
 }
 
 function kindOf(period: number): number {
