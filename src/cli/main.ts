@@ -28,6 +28,32 @@ const COMMANDS: ReadonlyArray<readonly [string, string, () => Promise<CommandMod
   ['describe', 'everything known about one parameter c', () => import('./describe.js')],
 ];
 
+/** Commands whose positional arguments are numbers that may be negative (e.g. `describe -0.12,0.75`). */
+const NUMERIC_POSITIONALS = new Set(['describe']);
+
+/**
+ * For commands whose positional arguments are numbers ("describe -0.12,0.75",
+ * "describe -1.76 0"), puts every positional argument, in order, behind a
+ * "--", where commander reads a leading minus as part of an argument rather
+ * than as an unknown option. Options and their values stay in front. Pure.
+ */
+export function protectNegativeNumbers(argv: readonly string[]): string[] {
+  if (!NUMERIC_POSITIONALS.has(argv[0] ?? '') || argv.includes('--') || !argv.some((t, i) => i > 0 && /^-[0-9.]/.test(t))) return [...argv];
+  const flagsWithoutValue = new Set(['--json', '--csv', '--help', '-h']);
+  const options: string[] = [];
+  const positionals: string[] = [];
+  for (let i = 1; i < argv.length; i++) {
+    const token = argv[i]!;
+    if (/^-[0-9.]/.test(token) || !token.startsWith('-')) {
+      positionals.push(token);
+    } else {
+      options.push(token);
+      if (!flagsWithoutValue.has(token) && !token.includes('=') && i + 1 < argv.length) options.push(argv[++i]!);
+    }
+  }
+  return [argv[0]!, ...options, '--', ...positionals];
+}
+
 export async function main(argv: readonly string[]): Promise<number> {
   const program = new Command('quadatlas')
     .description('Plates, components, the real slice and deep-zoom pyramids for z -> z^2 + c.')
@@ -40,7 +66,7 @@ export async function main(argv: readonly string[]): Promise<number> {
     else program.command(name).description(summary).allowUnknownOption().helpOption(false);
   }
   try {
-    await program.parseAsync([...argv], { from: 'user' });
+    await program.parseAsync(protectNegativeNumbers(argv), { from: 'user' });
     return typeof process.exitCode === 'number' ? process.exitCode : 0;
   } catch (err) {
     return reportError(err);
