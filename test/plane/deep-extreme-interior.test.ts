@@ -3,7 +3,7 @@ import { computeReferenceOrbit, referenceBits } from '../../src/precise/referenc
 import { buildBlaTable } from '../../src/plane/bla-table.js';
 import { createDeepStats, sampleDeep } from '../../src/plane/deep-sample.js';
 import { createSampleSet, PERIOD_ESCAPED, PERIOD_UNDECIDED } from '../../src/plane/sample-set.js';
-import { decimalAt, decimalEscape, exactDouble, gridOffsets } from './deep-helpers.js';
+import { decimalAt, decimalEscape, exactDouble, gridOffsets, decimalMultiplier } from './deep-helpers.js';
 import type { Dec } from './deep-helpers.js';
 
 // A period-427 nucleus near c = i at depth 1e-160, found by Newton's method in
@@ -29,33 +29,7 @@ const settings = { maxIterations: MAX_IT, escapeRadius: R, unitExponent: UNIT };
 const unit = new D(2).pow(UNIT);
 const c = (k: number): [Dec, Dec] => [new D(NUCLEUS.re).plus(exactDouble(D, off.re[k]!).times(unit)), new D(NUCLEUS.im).plus(exactDouble(D, off.im[k]!).times(unit))];
 
-/** Multiplier of the p-cycle through the point near 0, by Newton on F^p(w) = w in decimal.js (methods.md A5), from w = 0. */
-function decimalMultiplier(cr: Dec, ci: Dec, p: number): [number, number] {
-  let wr = new D(0), wi = new D(0);
-  let lr = new D(0), li = new D(0);
-  for (let s = 0; s < 12; s++) {
-    let x = wr, y = wi, dr = new D(1), di = new D(0);
-    for (let n = 0; n < p; n++) {
-      const ndr = x.times(dr).minus(y.times(di)).times(2);
-      di = x.times(di).plus(y.times(dr)).times(2);
-      dr = ndr;
-      const nx = x.times(x).minus(y.times(y)).plus(cr);
-      y = x.times(y).times(2).plus(ci);
-      x = nx;
-    }
-    lr = dr;
-    li = di;
-    const fr = x.minus(wr), fi = y.minus(wi);
-    const gr = dr.minus(1), gi = di;
-    const g2 = gr.times(gr).plus(gi.times(gi));
-    const sr = fr.times(gr).plus(fi.times(gi)).div(g2);
-    const si = fi.times(gr).minus(fr.times(gi)).div(g2);
-    wr = wr.minus(sr);
-    wi = wi.minus(si);
-    if (sr.abs().plus(si.abs()).lt(new D(10).pow(-360))) break;
-  }
-  return [lr.toNumber(), li.toNumber()];
-}
+const decimalMultiplierAt = (cr: Dec, ci: Dec, p: number): [number, number] => decimalMultiplier(D, cr, ci, p, 12, 360);
 
 describe('sampleDeep around a period-427 minibrot at span 3e-320 (rescaled iterations, periodic reference)', () => {
   const out = createSampleSet(SIZE * SIZE);
@@ -102,7 +76,7 @@ describe('sampleDeep around a period-427 minibrot at span 3e-320 (rescaled itera
     expect(undecided / (SIZE * SIZE)).toBeLessThanOrEqual(0.03);
     const k = interior[Math.floor(interior.length / 2)]!;
     const [cr, ci] = c(k);
-    const [lr, li] = decimalMultiplier(cr, ci, PERIOD);
+    const [lr, li] = decimalMultiplierAt(cr, ci, PERIOD);
     expect(Math.hypot(lr, li)).toBeLessThan(1);
     expect(Math.hypot(out.mulRe[k]! - lr, out.mulIm[k]! - li)).toBeLessThan(1e-9);
   });

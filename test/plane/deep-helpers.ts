@@ -159,3 +159,36 @@ export function decimalNucleus(D: typeof Decimal, period: number, gr: Dec, gi: D
   }
   return { re: cr, im: ci };
 }
+
+/**
+ * Multiplier of the p-cycle through the point near 0 at c, by Newton on
+ * F^p(w) = w in decimal.js from w = 0 (methods.md A5): at most `steps`
+ * steps, stopping once a step is below 10^-stopDigits.
+ */
+export function decimalMultiplier(D: typeof Decimal, cr: Dec, ci: Dec, p: number, steps: number, stopDigits: number): [number, number] {
+  let wr = new D(0), wi = new D(0);
+  let lr = new D(0), li = new D(0);
+  for (let s = 0; s < steps; s++) {
+    let x = wr, y = wi, dr = new D(1), di = new D(0);
+    for (let n = 0; n < p; n++) {
+      const ndr = x.times(dr).minus(y.times(di)).times(2);
+      di = x.times(di).plus(y.times(dr)).times(2);
+      dr = ndr;
+      const nx = x.times(x).minus(y.times(y)).plus(cr);
+      y = x.times(y).times(2).plus(ci);
+      x = nx;
+    }
+    lr = dr;
+    li = di;
+    // w <- w - (F(w) - w) / (D - 1)
+    const fr = x.minus(wr), fi = y.minus(wi);
+    const gr = dr.minus(1), gi = di;
+    const g2 = gr.times(gr).plus(gi.times(gi));
+    const sr = fr.times(gr).plus(fi.times(gi)).div(g2);
+    const si = fi.times(gr).minus(fr.times(gi)).div(g2);
+    wr = wr.minus(sr);
+    wi = wi.minus(si);
+    if (sr.abs().plus(si.abs()).lt(new D(10).pow(-stopDigits))) break;
+  }
+  return [lr.toNumber(), li.toNumber()];
+}
