@@ -49,3 +49,21 @@ export function ddSqrInto(out: Float64Array, i: number, ah: number, al: number):
   out[i] = h;
   out[i + 1] = e - (h - p);
 }
+
+/**
+ * One step of z -> z^2 + c in double-double complex arithmetic: z and c hold
+ * (re hi, re lo, im hi, im lo); t is a caller's scratch of 4 entries.
+ * re' = re^2 - im^2 + c.re, im' = 2 re im + c.im.
+ */
+export function ddComplexSquareAdd(z: Float64Array, c: Float64Array, t: Float64Array): void {
+  ddSqrInto(t, 0, z[0]!, z[1]!); // re^2
+  ddSqrInto(t, 2, z[2]!, z[3]!); // im^2
+  ddMulInto(z, 2, z[0]!, z[1]!, z[2]!, z[3]!); // re im -> z.im
+  z[2] = 2 * z[2]!;
+  z[3] = 2 * z[3]!;
+  ddAdd(z, 2, c[2]!, c[3]!);
+  z[0] = t[0]!;
+  z[1] = t[1]!;
+  ddAdd(z, 0, -t[2]!, -t[3]!);
+  ddAdd(z, 0, c[0]!, c[1]!);
+}

@@ -11,7 +11,7 @@
  * 2018-11-17). Deflation keeps a start near a satellite's root from sliding
  * into the parent's nucleus, which is also a root of F^p.
  */
-import { ddAdd, ddMulInto, ddSqrInto } from './double-double.js';
+import { ddAdd, ddComplexSquareAdd } from './double-double.js';
 
 /** A census nucleus: c = (reHi + reLo) + i (imHi + imLo); size is the Hunt-Ott size estimate modulus. */
 export interface FastNucleus {
@@ -105,16 +105,7 @@ export function nucleusDD(period: number, c0: { reHi: number; reLo: number; imHi
       const ndr = 2 * (zr0 * dr - zi0 * di) + 1;
       di = 2 * (zr0 * di + zi0 * dr);
       dr = ndr;
-      ddSqrInto(t, 0, z[0]!, z[1]!);
-      ddSqrInto(t, 2, z[2]!, z[3]!);
-      ddMulInto(z, 2, z[0]!, z[1]!, z[2]!, z[3]!);
-      z[2] = 2 * z[2]!;
-      z[3] = 2 * z[3]!;
-      ddAdd(z, 2, c[2]!, c[3]!);
-      z[0] = t[0]!;
-      z[1] = t[1]!;
-      ddAdd(z, 0, -t[2]!, -t[3]!);
-      ddAdd(z, 0, c[0]!, c[1]!);
+      ddComplexSquareAdd(z, c, t);
       const zr = z[0]!;
       const zi = z[2]!;
       if (k < period && period % k === 0) {
