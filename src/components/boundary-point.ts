@@ -21,6 +21,8 @@ import { NewtonError } from './newton-error.js';
 
 /** Steps of the walk in t from 0 to its target. */
 export const WALK_STEPS = 16;
+/** How often a failed walk step may be halved before giving up. */
+export const MAX_HALVINGS = 10;
 
 /**
  * The parameter b on the component of period `period` around `nucleus` where
@@ -117,12 +119,21 @@ function componentPoint(
   let w: FixedComplex = { re: 0n, im: 0n };
   const nearRoot = 're' in multiplier ? Math.hypot(multiplier.re - 1, multiplier.im) < 1e-9 : multiplier.num % multiplier.den === 0;
   const reach = nearRoot ? 0.999 : 1;
-  for (let k = 1; k <= WALK_STEPS; k += 1) {
-    const f = (reach * k) / WALK_STEPS;
-    const t = multiplierAt(multiplier, sw, f);
-    const r = solve(period, w, b, t, sw, 60);
-    if (r === null) throw failure(period, nucleus, multiplier, `Newton failed on the walk at t = ${f} of the way`);
+  // WALK_STEPS equal steps, each halved (up to MAX_HALVINGS times) where
+  // Newton fails: near a cusp the system grows nearly singular and a full
+  // step can leave the basin of the cycle being followed.
+  let done = 0;
+  let step = reach / WALK_STEPS;
+  while (done < reach) {
+    const f = Math.min(reach, done + step);
+    const r = solve(period, w, b, multiplierAt(multiplier, sw, f), sw, 60);
+    if (r === null) {
+      step /= 2;
+      if (step < reach / (WALK_STEPS * 2 ** MAX_HALVINGS)) throw failure(period, nucleus, multiplier, `Newton failed on the walk at t = ${f} of the way`);
+      continue;
+    }
     ({ w, b } = r);
+    done = f;
   }
   if (nearRoot) {
     const parent = findParent(period, w, b, sw, digits);

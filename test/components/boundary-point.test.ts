@@ -44,3 +44,19 @@ describe('componentRoot', () => {
     expect(componentRoot(3, { re: '-1.7548776662466927600', im: '0' }, 20).parent).toBeNull();
   });
 });
+
+describe('componentRoot near the tip c = -2', () => {
+  it('reaches the root of the tiny real period-16 satellite, equal to its period-8 parent doubling point found in x-space', async () => {
+    const { logistic } = await import('../../src/section/families/index.js');
+    const { multiplierParameter } = await import('../../src/section/real-newton.js');
+    // The full-step walk used to fail on the last step here (the system is nearly singular near a root).
+    const { root, parent } = componentRoot(16, { re: '-1.99796304079807759274', im: '0' }, 20);
+    expect(parent).toMatchObject({ period: 8, num: 1, den: 2 });
+    // Independent path: the logistic 8-cycle with multiplier -1 (decimal.js, x-space; conjugacy c = r/2 - r^2/4, checks.md).
+    const guessR = String(1 + Math.sqrt(1 - 4 * Number(parent!.nucleus.re)));
+    const s = multiplierParameter(logistic, 8, -1, guessR, '0.5', 30);
+    expect(s.converged).toBe(true);
+    const r = s.r.toNumber();
+    expect(Math.abs(r / 2 - (r * r) / 4 - Number(root.re))).toBeLessThan(1e-13);
+  });
+});
