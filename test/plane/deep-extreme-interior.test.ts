@@ -3,7 +3,7 @@ import { computeReferenceOrbit, referenceBits } from '../../src/precise/referenc
 import { buildBlaTable } from '../../src/plane/bla-table.js';
 import { createDeepStats, sampleDeep } from '../../src/plane/deep-sample.js';
 import { createSampleSet, PERIOD_ESCAPED, PERIOD_UNDECIDED } from '../../src/plane/sample-set.js';
-import { decimalAt, decimalEscape, exactDouble, gridOffsets, decimalMultiplier } from './deep-helpers.js';
+import { decimalAt, decimalEscape, exactDouble, gridOffsets, decimalMultiplier, decimalNucleusStep } from './deep-helpers.js';
 import type { Dec } from './deep-helpers.js';
 
 // A period-427 nucleus near c = i at depth 1e-160, found by Newton's method in
@@ -40,16 +40,7 @@ describe('sampleDeep around a period-427 minibrot at span 3e-320 (rescaled itera
   sampleDeep(orbit, buildBlaTable(orbit, UNIT, deltaMax), off.re, off.im, SIZE * SIZE, settings, skipped, stats);
 
   it('uses a nucleus: the decimal.js Newton step z_427 / (dz_427/dc) is below 1e-340 and Z_427 is kept in full range', () => {
-    let x = new D(0), y = new D(0), dx = new D(0), dy = new D(0);
-    for (let n = 0; n < PERIOD; n++) {
-      const ndx = x.times(dx).minus(y.times(dy)).times(2).plus(1);
-      dy = x.times(dy).plus(y.times(dx)).times(2);
-      dx = ndx;
-      const nx = x.times(x).minus(y.times(y)).plus(NUCLEUS.re);
-      y = x.times(y).times(2).plus(NUCLEUS.im);
-      x = nx;
-    }
-    expect(x.times(x).plus(y.times(y)).div(dx.times(dx).plus(dy.times(dy))).sqrt().lt('1e-340')).toBe(true);
+    expect(decimalNucleusStep(D, NUCLEUS.re, NUCLEUS.im, PERIOD).lt('1e-340')).toBe(true);
     expect(orbit.period).toBe(PERIOD);
     expect(Array.from(orbit.tinyIndex)).toEqual([PERIOD]);
   });

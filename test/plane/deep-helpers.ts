@@ -192,3 +192,20 @@ export function decimalMultiplier(D: typeof Decimal, cr: Dec, ci: Dec, p: number
   }
   return [lr.toNumber(), li.toNumber()];
 }
+
+/**
+ * |z_p(c) / (dz_p/dc)(c)| in decimal.js: the size of one Newton step for a
+ * nucleus of period p at c (methods.md C2); tiny when c is a nucleus.
+ */
+export function decimalNucleusStep(D: typeof Decimal, re: string, im: string, period: number): Dec {
+  let x = new D(0), y = new D(0), dx = new D(0), dy = new D(0);
+  for (let n = 0; n < period; n++) {
+    const ndx = x.times(dx).minus(y.times(dy)).times(2).plus(1);
+    dy = x.times(dy).plus(y.times(dx)).times(2);
+    dx = ndx;
+    const nx = x.times(x).minus(y.times(y)).plus(re);
+    y = x.times(y).times(2).plus(im);
+    x = nx;
+  }
+  return x.times(x).plus(y.times(y)).div(dx.times(dx).plus(dy.times(dy))).sqrt();
+}

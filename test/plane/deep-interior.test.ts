@@ -3,7 +3,7 @@ import { computeReferenceOrbit, referenceBits } from '../../src/precise/referenc
 import { buildBlaTable } from '../../src/plane/bla-table.js';
 import { createDeepStats, sampleDeep } from '../../src/plane/deep-sample.js';
 import { createSampleSet, PERIOD_ESCAPED, PERIOD_UNDECIDED } from '../../src/plane/sample-set.js';
-import { decimalAt, decimalEscape, exactDouble, gridOffsets, decimalMultiplier } from './deep-helpers.js';
+import { decimalAt, decimalEscape, exactDouble, gridOffsets, decimalMultiplier, decimalNucleusStep } from './deep-helpers.js';
 import type { Dec } from './deep-helpers.js';
 
 // A period-79 nucleus near c = i, found by Newton's method in decimal.js from
@@ -35,16 +35,7 @@ describe('sampleDeep around a period-79 minibrot at span 2.4e-58 (periodic refer
 
   it('uses a reference that is a nucleus: the decimal.js Newton step z_79 / (dz_79/dc) is below 1e-100', () => {
     const E = decimalAt(160);
-    let x = new E(0), y = new E(0), dx = new E(0), dy = new E(0);
-    for (let n = 0; n < PERIOD; n++) {
-      const ndx = x.times(dx).minus(y.times(dy)).times(2).plus(1);
-      dy = x.times(dy).plus(y.times(dx)).times(2);
-      dx = ndx;
-      const nx = x.times(x).minus(y.times(y)).plus(NUCLEUS.re);
-      y = x.times(y).times(2).plus(NUCLEUS.im);
-      x = nx;
-    }
-    const step = x.times(x).plus(y.times(y)).div(dx.times(dx).plus(dy.times(dy))).sqrt();
+    const step = decimalNucleusStep(E, NUCLEUS.re, NUCLEUS.im, PERIOD);
     expect(step.lt(1e-100)).toBe(true);
     expect(orbit.length).toBe(PERIOD);
     expect(orbit.period).toBe(PERIOD);
