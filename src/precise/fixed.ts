@@ -74,8 +74,8 @@ export function bitLength(n: bigint): number {
   return (hex.length - 1) * 4 + (32 - Math.clz32(parseInt(hex[0] ?? '0', 16)));
 }
 
-/** num / den rounded to nearest, ties to even (den != 0). */
-export function divRoundEven(num: bigint, den: bigint): bigint {
+/** floor(num / den) and the remainder r, 0 <= r < |den| (den != 0; den made positive). */
+function floorDivRem(num: bigint, den: bigint): { q: bigint; r: bigint; den: bigint } {
   if (den < 0n) {
     num = -num;
     den = -den;
@@ -86,26 +86,20 @@ export function divRoundEven(num: bigint, den: bigint): bigint {
     q -= 1n;
     r += den;
   }
-  // now num = q*den + r with 0 <= r < den, q = floor
+  return { q, r, den };
+}
+
+/** num / den rounded to nearest, ties to even (den != 0). */
+export function divRoundEven(num: bigint, den: bigint): bigint {
+  const { q, r, den: d } = floorDivRem(num, den);
   const twice = 2n * r;
-  if (twice > den || (twice === den && (q & 1n) === 1n)) q += 1n;
-  return q;
+  return twice > d || (twice === d && (q & 1n) === 1n) ? q + 1n : q;
 }
 
 /** num / den rounded to nearest, ties towards +infinity (den != 0). */
 export function divRoundUp(num: bigint, den: bigint): bigint {
-  if (den < 0n) {
-    num = -num;
-    den = -den;
-  }
-  let q = num / den;
-  let r = num - q * den;
-  if (r < 0n) {
-    q -= 1n;
-    r += den;
-  }
-  if (2n * r >= den) q += 1n;
-  return q;
+  const { q, r, den: d } = floorDivRem(num, den);
+  return 2n * r >= d ? q + 1n : q;
 }
 
 /** floor(sqrt(a)) for a >= 0 (Newton's method on integers). */
