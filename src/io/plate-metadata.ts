@@ -3,6 +3,8 @@ import { open } from 'node:fs/promises';
 import { inflateSync } from 'node:zlib';
 import { METADATA_KEYWORD, PNG_SIGNATURE } from './png-chunk.js';
 import { jsonFromXmp } from './xmp-packet.js';
+import { metadataFromSvg } from './embed-metadata.js';
+import { readFile } from 'node:fs/promises';
 
 /**
  * The metadata JSON text a plate sink stored in the file at `path`, or
@@ -10,7 +12,8 @@ import { jsonFromXmp } from './xmp-packet.js';
  * tEXt chunk with keyword "quadatlas-sheet", read chunk by chunk up to the
  * first IDAT without loading the image data (PNG spec 11.3.4). TIFF: the
  * quadatlas:sheet element of the XMP packet (tag 700), via sharp's header
- * read. Other files: undefined.
+ * read. SVG: the `<metadata id="quadatlas-sheet">` element. JSON: a sidecar
+ * `{ metadata, summary }` or a metadata object itself. Other files: undefined.
  */
 export async function readPlateMetadata(path: string): Promise<string | undefined> {
   const fh = await open(path, 'r');
@@ -21,6 +24,7 @@ export async function readPlateMetadata(path: string): Promise<string | undefine
     if (bytesRead === 8 && head.equals(PNG_SIGNATURE)) return await pngMetadata(fh);
     const magic = head.toString('latin1', 0, 4);
     kind = magic === 'II*\0' || magic === 'MM\0*' || magic === 'II+\0' || magic === 'MM\0+' ? 'tiff' : 'other';
+    if (kind === 'other' && bytesRead > 0) return await textMetadata(path);
   } finally {
     await fh.close();
   }
@@ -57,4 +61,24 @@ async function pngMetadata(fh: FileHandle): Promise<string | undefined> {
     }
     at += 12 + len;
   }
+}
+
+/** SVG and JSON files: read whole (they are small), look for the metadata. */
+async function textMetadata(path: string): Promise<string | undefined> {
+  const text = await readFile(path, 'utf8');
+  const start = text.trimStart()[0];
+  if (start === '{') {
+    let value: unknown;
+    try {
+      value = JSON.parse(text);
+    } catch {
+      return undefined;
+    }
+    if (typeof value !== 'object' || value === null) return undefined;
+    const o = value as Record<string, unknown>;
+    const meta = typeof o['metadata'] === 'object' && o['metadata'] !== null ? o['metadata'] : o;
+    return (meta as Record<string, unknown>)['tool'] === 'quadatlas' ? JSON.stringify(meta) : undefined;
+  }
+  if (start === '<') return metadataFromSvg(text);
+  return undefined;
 }
