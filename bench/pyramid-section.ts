@@ -56,7 +56,7 @@ function countTiles(dir: string): number {
 async function stoppedRun(size: string, stopSeconds: number): Promise<{ seconds: number; tiles: number; peakMiB: number | null }> {
   const dir = mkdtempSync(path.join(os.tmpdir(), 'quadatlas-bench-pyr-'));
   try {
-    const child = spawn(process.execPath, [CLI, 'pyramid', ...VIEW, '--size', size, '--out', path.join(dir, 'p')], { stdio: 'ignore' });
+    const child = spawn(process.execPath, [CLI, 'pyramid', ...VIEW, '--size', size, '--out-dir', path.join(dir, 'p')], { stdio: 'ignore' });
     const t0 = performance.now();
     let peak: number | null = null;
     while (child.exitCode === null && performance.now() - t0 < stopSeconds * 1000) {
@@ -81,9 +81,9 @@ export const pyramidSection: BenchSection = {
     const dir = mkdtempSync(path.join(os.tmpdir(), 'quadatlas-bench-pyr-'));
     let full: Summary;
     try {
-      const warm = spawnSync(process.execPath, [CLI, 'pyramid', ...VIEW, '--size', '512x512', '--out', path.join(dir, 'warm')], { encoding: 'utf8' });
+      const warm = spawnSync(process.execPath, [CLI, 'pyramid', ...VIEW, '--size', '512x512', '--out-dir', path.join(dir, 'warm')], { encoding: 'utf8' });
       if (warm.status !== 0) throw new Error(`pyramid failed: ${warm.stderr}`);
-      const r = spawnSync(process.execPath, [CLI, 'pyramid', ...VIEW, '--size', '16384x16384', '--out', path.join(dir, 'p'), '--json'], { encoding: 'utf8', maxBuffer: 1 << 24 });
+      const r = spawnSync(process.execPath, [CLI, 'pyramid', ...VIEW, '--size', '16384x16384', '--out-dir', path.join(dir, 'p'), '--json'], { encoding: 'utf8', maxBuffer: 1 << 24 });
       if (r.status !== 0) throw new Error(`pyramid failed: ${r.stderr}`);
       full = JSON.parse(r.stdout) as Summary;
     } finally {

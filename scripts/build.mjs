@@ -1,6 +1,6 @@
 // Compiles the TypeScript sources into dist/ (and the WebAssembly kernels, when present).
 import { spawnSync } from 'node:child_process';
-import { existsSync, rmSync } from 'node:fs';
+import { chmodSync, existsSync, rmSync } from 'node:fs';
 import { fileURLToPath } from 'node:url';
 import path from 'node:path';
 
@@ -13,3 +13,5 @@ rmSync(path.join(root, 'dist'), { recursive: true, force: true });
 run(process.execPath, [path.join(root, 'node_modules/typescript/bin/tsc'), '-p', 'tsconfig.build.json']);
 const wasmBuild = path.join(root, 'scripts/build-wasm.mjs');
 if (existsSync(wasmBuild)) run(process.execPath, [wasmBuild]);
+// The bin must stay executable: npx links it once and runs it directly after every rebuild.
+chmodSync(path.join(root, 'dist/src/cli/main.js'), 0o755);

@@ -8,6 +8,7 @@
 import { realpathSync } from 'node:fs';
 import { fileURLToPath } from 'node:url';
 import { Command, CommanderError } from 'commander';
+import { removeLiveTemps } from '../io/temp-path.js';
 import { UserError } from './user-error.js';
 import { toolVersion } from './version.js';
 
@@ -25,15 +26,16 @@ const COMMANDS: ReadonlyArray<readonly [string, string, () => Promise<CommandMod
   ['worker', 'take tile jobs from a shared queue (cluster mode)', () => import('./worker.js')],
   ['components', 'list or count the hyperbolic components of a period', () => import('./components.js')],
   ['locate', 'Newton to one nucleus from a guess, an external angle or an internal address', () => import('./locate.js')],
-  ['describe', 'everything known about one parameter c', () => import('./describe.js')],
+  ['probe', 'everything known about one parameter c', () => import('./probe.js')],
+  ['sheet', 'print the sheet stored in an image, plot or sidecar quadatlas wrote', () => import('./sheet.js')],
 ];
 
-/** Commands whose positional arguments are numbers that may be negative (e.g. `describe -0.12,0.75`). */
-const NUMERIC_POSITIONALS = new Set(['describe']);
+/** Commands whose positional arguments are numbers that may be negative (e.g. `probe -0.12,0.75`). */
+const NUMERIC_POSITIONALS = new Set(['probe']);
 
 /**
- * For commands whose positional arguments are numbers ("describe -0.12,0.75",
- * "describe -1.76 0"), puts every positional argument, in order, behind a
+ * For commands whose positional arguments are numbers ("probe -0.12,0.75",
+ * "probe -1.76 0"), puts every positional argument, in order, behind a
  * "--", where commander reads a leading minus as part of an argument rather
  * than as an unknown option. Options and their values stay in front. Pure.
  */
@@ -97,8 +99,27 @@ function invokedDirectly(): boolean {
   }
 }
 
+/** Commands that stop cleanly on a signal by themselves (they finish the job in hand first). */
+const OWN_SIGNAL_HANDLING = new Set(['worker']);
+
+/**
+ * On SIGINT or SIGTERM, removes the temporary files the run still holds
+ * (nothing half-written stays behind; a later run also removes those of a
+ * killed process) and exits with 128 + the signal number.
+ */
+function removeTempsOnSignal(): void {
+  for (const [signal, code] of [['SIGINT', 130], ['SIGTERM', 143]] as const) {
+    process.on(signal, () => {
+      removeLiveTemps();
+      process.stderr.write(`\nquadatlas: stopped by ${signal}; partial files removed\n`);
+      process.exit(code);
+    });
+  }
+}
+
 const isMain = invokedDirectly();
 if (isMain) {
+  if (!OWN_SIGNAL_HANDLING.has(process.argv[2] ?? '')) removeTempsOnSignal();
   main(process.argv.slice(2)).then(
     (code) => {
       process.exitCode = code;

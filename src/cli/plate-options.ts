@@ -39,7 +39,7 @@ export function parsePair(value: string, field: string, unit = ''): [number, num
 export const PLATE_OPTIONS: readonly OptionSpec[] = [
   {
     flags: '--center <re,im>',
-    description: 'centre of the view as two decimal numbers, e.g. -0.75,0 (kept as written)',
+    description: 'centre of the view in c, RE,IM as decimal numbers kept as written (default -0.75,0; sheet view.re, view.im)',
     apply: (s, v) => {
       const parts = v.split(',');
       if (parts.length !== 2) throw new UserError('--center', 'two decimal numbers RE,IM (e.g. -0.75,0.1)', v);
@@ -48,11 +48,11 @@ export const PLATE_OPTIONS: readonly OptionSpec[] = [
       view['im'] = parts[1]!.trim();
     },
   },
-  { flags: '--span <width>', description: 'width of the view in c units (decimal, e.g. 3.2 or 1e-9)', apply: (s, v) => void (sub(s, 'view')['span'] = v) },
-  { flags: '--rotation <degrees>', description: 'turn the view counter-clockwise about its centre', apply: (s, v) => void (sub(s, 'view')['rotation'] = number(v)) },
+  { flags: '--span <width>', description: 'width of the view in c units, a decimal such as 3.2 or 1e-9 (default 3.2; sheet view.span)', apply: (s, v) => void (sub(s, 'view')['span'] = v) },
+  { flags: '--rotation <degrees>', description: 'turn the view counter-clockwise about its centre, in degrees (default 0; sheet view.rotation)', apply: (s, v) => void (sub(s, 'view')['rotation'] = number(v)) },
   {
     flags: '--size <WxH>',
-    description: 'size in pixels, e.g. 1600x1200',
+    description: 'image size in pixels WxH, e.g. 1600x1200 (default 1200x900; sheet pixels)',
     apply: (s, v) => {
       const [w, h] = parsePair(v, '--size');
       delete s['print'];
@@ -61,38 +61,38 @@ export const PLATE_OPTIONS: readonly OptionSpec[] = [
   },
   {
     flags: '--print <WxHmm>',
-    description: 'print size in millimetres, e.g. 420x297mm (A3 landscape); pixels follow from --dpi',
+    description: 'print size in millimetres WxHmm, e.g. 420x297mm; pixels follow from --dpi (default: use --size; sheet print)',
     apply: (s, v) => {
       const [w, h] = parsePair(v, '--print', 'mm');
       delete s['pixels'];
       s['print'] = { width_mm: w, height_mm: h };
     },
   },
-  { flags: '--dpi <dots>', description: 'print resolution written into the file (default 300)', apply: (s, v) => void (s['dpi'] = number(v)) },
-  { flags: '--iterations <n>', description: 'iteration limit per sample, or auto (chosen from the depth, reported)', apply: (s, v) => void (s['iterations'] = v.trim() === 'auto' ? 'auto' : integer(v, '--iterations')) },
-  { flags: '--arith <mode>', description: 'arithmetic: auto (default), double or deep; auto picks deep where doubles cannot resolve the pixels', apply: (s, v) => void (s['arithmetic'] = v) },
-  { flags: '--no-skip', description: 'deep arithmetic: step every iteration (no bilinear-approximation skipping)' },
+  { flags: '--dpi <dots>', description: 'print resolution in dots per inch, written into the file (default 300; sheet dpi)', apply: (s, v) => void (s['dpi'] = number(v)) },
+  { flags: '--iterations <n>', description: 'iteration limit per sample, or auto (chosen from the view, reported) (default 2000; sheet iterations)', apply: (s, v) => void (s['iterations'] = v.trim() === 'auto' ? 'auto' : integer(v, '--iterations')) },
+  { flags: '--arith <mode>', description: 'arithmetic: auto, double or deep; auto picks deep where doubles cannot resolve the pixels (default auto; sheet arithmetic)', apply: (s, v) => void (s['arithmetic'] = v) },
+  { flags: '--no-skip', description: 'deep arithmetic: step every iteration, no bilinear-approximation skipping (default: skip; sheet skip)' },
   {
     flags: '--reference <re,im,period>',
-    description: 'deep arithmetic: a nucleus (e.g. from `quadatlas locate`) and its period as the reference orbit',
+    description: 'deep arithmetic: a nucleus RE,IM and its period (e.g. from `quadatlas locate`) as the reference orbit (default: the centre; sheet reference)',
     apply: (s, v) => {
       const parts = v.split(',');
       if (parts.length !== 3) throw new UserError('--reference', 'RE,IM,PERIOD (a nucleus and its period)', v);
       s['reference'] = { re: parts[0]!.trim(), im: parts[1]!.trim(), period: integer(parts[2]!, '--reference') };
     },
   },
-  { flags: '--samples <k>', description: 'samples per refined pixel: 1 (off) or a square, e.g. 4, 9, 16', apply: (s, v) => void (s['samples'] = integer(v, '--samples')) },
-  { flags: '--depth <bits>', description: 'bits per channel: 8 or 16', apply: (s, v) => void (s['depth'] = integer(v, '--depth')) },
+  { flags: '--samples <k>', description: 'samples per refined pixel: 1 (off) or a square such as 4, 9, 16 (default 9; sheet samples)', apply: (s, v) => void (s['samples'] = integer(v, '--samples')) },
+  { flags: '--depth <bits>', description: 'bits per channel: 8 or 16 (default 8; sheet depth)', apply: (s, v) => void (s['depth'] = integer(v, '--depth')) },
   { flags: '--legend <where>', description: 'period legend: none, inset or beside', apply: (s, v) => void (sub(s, 'colour')['legend'] = v) },
-  { flags: '--label-periods <n>', description: 'mark and label the nuclei of periods 1..n that are large enough (0: none)', apply: (s, v) => void (s['labels'] = integer(v, '--label-periods')) },
-  { flags: '--title <text>', description: 'title recorded in the metadata', apply: (s, v) => void (s['title'] = v) },
-  { flags: '--out <file>', description: 'output image (.png, .tif or .tiff)', apply: (s, v) => void (sub(s, 'output')['file'] = v) },
-  { flags: '--data <dir>', description: 'also write the per-pixel arrays as NPY files into this directory', apply: (s, v) => void (sub(s, 'output')['data'] = v) },
-  { flags: '--no-sidecar', description: 'do not write the JSON sidecar beside the image' },
-  { flags: '--workers <n>', description: 'worker threads (default: all cores); never changes the output' },
-  { flags: '--tile <pixels>', description: 'tile size in pixels (default 64); never changes the output' },
-  { flags: '--again <file>', description: 're-render a plate from the metadata stored in its PNG or TIFF' },
-  { flags: '--json', description: 'print a JSON summary of the render on stdout' },
+  { flags: '--label-periods <n>', description: 'mark and label the nuclei of periods 1..n that are large enough, n from 0 (none) to 14 (default 0; sheet labels)', apply: (s, v) => void (s['labels'] = integer(v, '--label-periods')) },
+  { flags: '--title <text>', description: 'title recorded in the metadata (default none; sheet title)', apply: (s, v) => void (s['title'] = v) },
+  { flags: '--out <file>', description: 'output image file ending in .png, .tif or .tiff (default out/<sheet>.png; sheet output.file)', apply: (s, v) => void (sub(s, 'output')['file'] = v) },
+  { flags: '--data <dir>', description: 'also write the per-pixel arrays as NPY files into this directory (default none; sheet output.data)', apply: (s, v) => void (sub(s, 'output')['data'] = v) },
+  { flags: '--no-sidecar', description: 'do not write the JSON sidecar FILE.json beside the image (default: write it; sheet output.sidecar)' },
+  { flags: '--workers <n>', description: 'worker threads, never changes the output (default: one per core)' },
+  { flags: '--tile-size <pixels>', description: 'tile side in pixels, 8 to 1024, never changes the output (default 64)' },
+  { flags: '--again <file>', description: 'render again from the sheet stored in a PNG, TIFF or JSON sidecar quadatlas wrote (default: none)' },
+  { flags: '--json', description: 'print a JSON summary of the render on stdout (default: a one-line report on stderr)' },
 ];
 
 /** Applies flag values (keyed by commander's camelCase names) to a raw sheet object, in table order. */
@@ -113,4 +113,44 @@ export function attributeName(flags: string): string {
   const long = flags.split(/[ ,|]+/).find((f) => f.startsWith('--'))!;
   const bare = long.replace(/^--(no-)?/, '');
   return bare.replace(/-([a-z])/g, (_, c: string) => c.toUpperCase());
+}
+
+/** Sheet fields (or their prefixes) and the plate flag that sets each. */
+const FIELD_FLAGS: ReadonlyArray<readonly [string, string]> = [
+  ['view.re', '--center'],
+  ['view.im', '--center'],
+  ['view.span', '--span'],
+  ['view.rotation', '--rotation'],
+  ['pixels', '--size'],
+  ['print', '--print'],
+  ['dpi', '--dpi'],
+  ['iterations', '--iterations'],
+  ['arithmetic', '--arith'],
+  ['reference', '--reference'],
+  ['samples', '--samples'],
+  ['depth', '--depth'],
+  ['labels', '--label-periods'],
+  ['title', '--title'],
+  ['output.file', '--out'],
+  ['output.data', '--data'],
+];
+
+/**
+ * The flag that set sheet field `field` in this run, or undefined when the
+ * field came from the sheet file (or no flag sets it).
+ */
+export function flagForField(field: string, values: Record<string, unknown>, options: readonly OptionSpec[] = PLATE_OPTIONS): string | undefined {
+  for (const [prefix, flag] of FIELD_FLAGS) {
+    if (field !== prefix && !field.startsWith(`${prefix}.`)) continue;
+    const spec = options.find((o) => o.flags.startsWith(`${flag} `) || o.flags === flag);
+    if (spec !== undefined && typeof values[attributeName(spec.flags)] === 'string') return flag;
+  }
+  return undefined;
+}
+
+/** A UserError about a sheet field set by a flag names both: "--size (sheet field pixels.width)". */
+export function nameTheFlag(err: unknown, values: Record<string, unknown>): unknown {
+  if (!(err instanceof UserError)) return err;
+  const flag = flagForField(err.field, values);
+  return flag === undefined ? err : err.withField(`${flag} (sheet field ${err.field})`);
 }

@@ -6,25 +6,29 @@
 import type { Command } from 'commander';
 import { readPlateMetadata } from '../io/plate-metadata.js';
 import { parseSheet, type Sheet } from '../view/sheet.js';
-import { applyPlateOptions, PLATE_OPTIONS } from './plate-options.js';
+import { applyPlateOptions, nameTheFlag, PLATE_OPTIONS } from './plate-options.js';
+import { reportWrote } from './wrote.js';
 import { renderSheet } from './render-sheet.js';
 import { readSheetFile, sheetName } from './sheet-file.js';
 import { Received, UserError } from './user-error.js';
 import { toolVersion } from './version.js';
 
-/** The sheet recorded in a plate's metadata, as raw JSON. */
-export async function sheetFromPlate(file: string): Promise<Record<string, unknown>> {
+/**
+ * The sheet recorded in a file quadatlas wrote (PNG, TIFF, SVG or JSON
+ * sidecar), as raw JSON; `field` names the flag or argument in errors.
+ */
+export async function sheetFromPlate(file: string, field = '--again'): Promise<Record<string, unknown>> {
   let text: string | undefined;
   try {
     text = await readPlateMetadata(file);
   } catch (err) {
-    throw new UserError('--again', 'a PNG or TIFF plate written by quadatlas', new Received(`${file} (${(err as Error).message.split('\n')[0]})`));
+    throw new UserError(field, 'a PNG, TIFF, SVG or JSON sidecar written by quadatlas', new Received(`${file} (${(err as Error).message.split('\n')[0]})`));
   }
-  if (text === undefined) throw new UserError('--again', 'a plate carrying quadatlas metadata', new Received(`${file} (none found)`));
+  if (text === undefined) throw new UserError(field, 'a file carrying a quadatlas sheet (PNG, TIFF, SVG or JSON sidecar)', new Received(`${file} (none found)`));
   const meta = JSON.parse(text) as { version?: string; sheet?: Record<string, unknown> };
-  if (meta.sheet === undefined) throw new UserError('--again', 'metadata holding a sheet', file);
+  if (meta.sheet === undefined) throw new UserError(field, 'metadata holding a sheet', file);
   if (meta.version !== toolVersion()) {
-    process.stderr.write(`quadatlas: note: ${file} was rendered by quadatlas ${meta.version ?? '?'}; this is ${toolVersion()}, so bytes may differ\n`);
+    process.stderr.write(`quadatlas: note: ${file} was written by quadatlas ${meta.version ?? '?'}; this is ${toolVersion()}, so bytes may differ\n`);
   }
   return meta.sheet;
 }
@@ -48,10 +52,11 @@ export function register(program: Command): void {
     if (typeof values['again'] === 'string') {
       if (sheetFile !== undefined) throw new UserError('--again', 'either a sheet or --again, not both', sheetFile);
       raw = await sheetFromPlate(values['again']);
-      name = `${sheetName(values['again']).replace(/\.(png|tiff?)$/i, '')}-again`;
+      const stem = values['again'].replace(/\.json$/i, '').replace(/\.(png|tiff?|svg)$/i, '');
+      name = `${sheetName(stem)}-again`;
       if (typeof values['out'] !== 'string') {
-        const ext = /\.tiff?$/i.test(values['again']) ? 'tif' : 'png';
-        raw['output'] = { file: values['again'].replace(/\.(png|tiff?)$/i, `-again.${ext}`) };
+        const ext = /\.tiff?(\.json)?$/i.test(values['again']) ? 'tif' : 'png';
+        raw['output'] = { file: `${stem}-again.${ext}` };
       }
     } else if (sheetFile !== undefined) {
       raw = await readSheetFile(sheetFile);
@@ -60,11 +65,16 @@ export function register(program: Command): void {
       raw = {};
     }
     delete raw['startup'];
-    const sheet: Sheet = parseSheet(applyPlateOptions(raw, values), name);
     const workers = parseCount(values['workers'], '--workers', 1, 256);
-    const tileSize = parseCount(values['tile'], '--tile', 8, 1024);
-    const summary = await renderSheet(sheet, { ...(workers === undefined ? {} : { workers }), ...(tileSize === undefined ? {} : { tileSize }) });
+    const tileSize = parseCount(values['tileSize'], '--tile-size', 8, 1024);
+    let summary;
+    try {
+      const sheet: Sheet = parseSheet(applyPlateOptions(raw, values), name);
+      summary = await renderSheet(sheet, { ...(workers === undefined ? {} : { workers }), ...(tileSize === undefined ? {} : { tileSize }) });
+    } catch (err) {
+      throw nameTheFlag(err, values);
+    }
     if (values['json'] === true) process.stdout.write(`${JSON.stringify(summary, null, 2)}\n`);
-    else process.stderr.write(`wrote ${summary.files.join(', ')} (${summary.seconds} s)\n`);
+    else reportWrote(summary.files, summary.seconds);
   });
 }

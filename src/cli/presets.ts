@@ -4,12 +4,14 @@
 import { readdir } from 'node:fs/promises';
 import path from 'node:path';
 import type { Command } from 'commander';
-import { parseSheet, type Sheet } from '../view/sheet.js';
+import { parseSheet, sheetRecord, type Sheet } from '../view/sheet.js';
 import { parseCount } from './plate.js';
 import { presetsDir } from './presets-dir.js';
 import { renderSheet } from './render-sheet.js';
 import { readSheetFile, sheetName } from './sheet-file.js';
 import { UserError } from './user-error.js';
+import { reportWrote } from './wrote.js';
+import { toolVersion } from './version.js';
 
 interface Entry {
   name: string;
@@ -43,7 +45,7 @@ export function register(program: Command): void {
       const rows = [];
       for (const e of await entries()) {
         const s = await load(e);
-        rows.push({ name: e.name, width: s.width, height: s.height, startup: s.startup, title: s.title });
+        rows.push({ name: e.name, kind: 'plate', width: s.width, height: s.height, startup: s.startup, title: s.title });
       }
       if (opts.json) {
         process.stdout.write(`${JSON.stringify(rows, null, 2)}\n`);
@@ -55,10 +57,10 @@ export function register(program: Command): void {
     });
   presets
     .command('show <name>')
-    .description('print a preset with every default filled in')
+    .description('print a preset as a complete sheet, every default filled in (plate renders it to the same bytes)')
     .action(async (name: string) => {
       const s = await load(await find(name));
-      process.stdout.write(`${JSON.stringify(s, null, 2)}\n`);
+      process.stdout.write(`${JSON.stringify(sheetRecord(s, toolVersion()), null, 2)}\n`);
     });
   presets
     .command('check [files...]')
@@ -81,10 +83,10 @@ export function register(program: Command): void {
   presets
     .command('render [names...]')
     .description('render presets (default: those marked startup) into their output files')
-    .option('--out <dir>', 'write into this directory instead of the sheets\' own paths')
+    .option('--out-dir <dir>', 'write into this directory instead of the sheets\' own paths (default: each sheet\'s output.file)')
     .option('--all', 'render every preset')
-    .option('--workers <n>', 'worker threads (default: all cores)')
-    .action(async (names: string[], opts: { out?: string; all?: boolean; workers?: string }) => {
+    .option('--workers <n>', 'worker threads, never changes the output (default: one per core)')
+    .action(async (names: string[], opts: { outDir?: string; all?: boolean; workers?: string }) => {
       const all = await entries();
       let chosen: Entry[];
       if (names.length > 0) chosen = await Promise.all(names.map(find));
@@ -96,12 +98,13 @@ export function register(program: Command): void {
       const workers = parseCount(opts.workers, '--workers', 1, 256);
       for (const e of chosen) {
         let sheet = await load(e);
-        if (opts.out !== undefined) {
-          const rebase = (p: string): string => path.join(opts.out!, path.basename(p));
+        if (opts.outDir !== undefined) {
+          const outDir = opts.outDir;
+          const rebase = (p: string): string => path.join(outDir, path.basename(p));
           sheet = { ...sheet, output: { ...sheet.output, file: rebase(sheet.output.file), data: sheet.output.data === null ? null : rebase(sheet.output.data) } };
         }
         const summary = await renderSheet(sheet, { label: e.name, ...(workers === undefined ? {} : { workers }) });
-        process.stderr.write(`${e.name}: wrote ${summary.files.map((f) => path.relative(process.cwd(), f)).join(', ')} (${summary.seconds} s)\n`);
+        reportWrote(summary.files, summary.seconds);
       }
     });
 }

@@ -36,7 +36,7 @@ const SHARED = ['--center', '--span', '--rotation', '--size', '--print', '--dpi'
 
 export const PYRAMID_OPTIONS: readonly OptionSpec[] = [
   ...PLATE_OPTIONS.filter((o) => SHARED.some((f) => o.flags.startsWith(`${f} `))),
-  { flags: '--out <dir>', description: 'output folder (default out/<sheet>-pyramid); must be empty or hold this same pyramid' },
+  { flags: '--out-dir <dir>', description: 'output folder, empty or holding this same pyramid (default out/<sheet>-pyramid)' },
   { flags: '--tile-size <pixels>', description: 'tile side in pixels, 16-4096 (default 256)' },
   { flags: '--format <png|jpg>', description: 'tile format (default png)' },
   { flags: '--quality <q>', description: 'JPEG quality 1-100 (default 90)' },
@@ -149,7 +149,7 @@ async function missingIndices(dir: string, setup: PyramidSetup): Promise<number[
 export async function runPyramid(sheetFile: string | undefined, values: Record<string, unknown>): Promise<PyramidSummary> {
   const started = process.hrtime.bigint();
   const given = await sheetFrom(sheetFile, values);
-  const dir = path.resolve(typeof values['out'] === 'string' ? values['out'] : `out/${given?.name ?? 'pyramid'}-pyramid`);
+  const dir = path.resolve(typeof values['outDir'] === 'string' ? values['outDir'] : `out/${given?.name ?? 'pyramid'}-pyramid`);
   const baseUrl = parseBaseUrl(values['baseUrl']);
   const workers = parseCount(values['workers'], '--workers', 1, 256) ?? os.availableParallelism();
   const tileSize = parseCount(values['tileSize'], '--tile-size', 16, 4096) ?? DEFAULT_PYRAMID_TILE;
@@ -162,7 +162,7 @@ export async function runPyramid(sheetFile: string | undefined, values: Record<s
   if (given === undefined) {
     const recorded = await readPyramidSpec(dir);
     if (recorded === undefined) {
-      if (isFinish) throw new UserError('--out', `a pyramid folder (holding ${MANIFEST_NAME})`, new Received(`${dir} (no ${MANIFEST_NAME})`));
+      if (isFinish) throw new UserError('--out-dir', `a pyramid folder (holding ${MANIFEST_NAME})`, new Received(`${dir} (no ${MANIFEST_NAME})`));
       spec = pyramidSpec(parseSheet({}, 'pyramid'), tileSize, format, quality, toolVersion());
     } else {
       spec = recorded;
@@ -185,8 +185,8 @@ export async function runPyramid(sheetFile: string | undefined, values: Record<s
 
   if (isFinish) {
     const recorded = await readPyramidSpec(dir);
-    if (recorded === undefined) throw new UserError('--out', `a pyramid folder (holding ${MANIFEST_NAME})`, new Received(`${dir} (no ${MANIFEST_NAME})`));
-    if (!sameSpec(recorded, spec)) throw new UserError('--out', 'a folder holding the pyramid of this sheet', new Received(`${dir} (holds a different pyramid)`));
+    if (recorded === undefined) throw new UserError('--out-dir', `a pyramid folder (holding ${MANIFEST_NAME})`, new Received(`${dir} (no ${MANIFEST_NAME})`));
+    if (!sameSpec(recorded, spec)) throw new UserError('--out-dir', 'a folder holding the pyramid of this sheet', new Received(`${dir} (holds a different pyramid)`));
     const f = await finish(dir, setup, baseUrl);
     const s = seconds();
     return { ...base, mode: 'finish', shard: null, tiles: { total: plan.tileCount, share: 0, rendered: 0, skipped: 0, missing: 0 }, bytesWritten: 0, finished: true, seconds: s, tilesPerSecond: 0, peakMemoryMiB: peak(), info: f.info, viewer: f.viewer };
@@ -195,7 +195,7 @@ export async function runPyramid(sheetFile: string | undefined, values: Record<s
   // Disk: all levels' pixels (4/3 of the base) at a guessed compression (PNG 1/4, JPEG 1/10 of raw).
   const levelPixels = plan.levels.reduce((n, l) => n + l.width * l.height, 0);
   const parent = path.dirname(dir);
-  await checkFreeSpace(existingAncestor(parent), levelPixels * 3 * (spec.format === 'png' ? 0.25 : 0.1), '--out');
+  await checkFreeSpace(existingAncestor(parent), levelPixels * 3 * (spec.format === 'png' ? 0.25 : 0.1), '--out-dir');
 
   if (queueUrl !== undefined) {
     if (values['shard'] !== undefined) throw new UserError('--shard', 'no --shard beside --queue', values['shard']);

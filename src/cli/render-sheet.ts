@@ -5,7 +5,7 @@
  * the disk before any work, writes every file under a temporary name and
  * renames only when all is done.
  */
-import { mkdir } from 'node:fs/promises';
+import { mkdir, stat } from 'node:fs/promises';
 import os from 'node:os';
 import path from 'node:path';
 import { checkFreeSpace } from '../io/check-free-space.js';
@@ -64,7 +64,7 @@ export interface PlateSummary {
  * precision, the resolved iteration limit) for the reader's information.
  */
 export function plateMetadata(sheet: Sheet, derived: { arithmetic: 'double' | 'deep'; bits: number; iterations: number }): string {
-  return JSON.stringify({ tool: 'quadatlas', version: toolVersion(), arithmetic: derived.arithmetic, referenceBits: derived.arithmetic === 'deep' ? derived.bits : 53, iterations: derived.iterations, sheet: renderRecord(sheet) });
+  return JSON.stringify({ tool: 'quadatlas', version: toolVersion(), arithmetic: derived.arithmetic, referenceBits: derived.arithmetic === 'deep' ? derived.bits : 53, iterations: derived.iterations, sheet: renderRecord(sheet, toolVersion()) });
 }
 
 function round3(x: number): number {
@@ -74,6 +74,17 @@ function round3(x: number): number {
 /** Periodicity tolerance in z units from the pixel spacing (methods.md A4: tie it to the spacing). */
 export function periodTolerance(spacing: number): number {
   return Math.min(1e-6, Math.max(spacing * 1e-3, 1e-15));
+}
+
+/** An output name that is an existing directory is refused before any work (it would fail at the final rename). */
+async function refuseDirectory(file: string, field: string): Promise<void> {
+  let isDir = false;
+  try {
+    isDir = (await stat(file)).isDirectory();
+  } catch {
+    return;
+  }
+  if (isDir) throw new UserError(field, 'a file name (not an existing directory)', new Received(`${file} (a directory)`));
 }
 
 async function prepareDirectory(dir: string, field: string): Promise<void> {
@@ -170,6 +181,7 @@ export async function renderSheet(sheet: Sheet, options: RenderSheetOptions = {}
   const rawImage = sheet.width * sheet.height * 3 * (sheet.depth / 8);
   const imageDir = path.dirname(path.resolve(file));
   await prepareDirectory(imageDir, 'output.file');
+  for (const f of [file, ...(sheet.output.sidecar ? [`${file}.json`] : [])]) await refuseDirectory(f, 'output.file');
   const dataDir = sheet.output.data === null ? null : path.resolve(sheet.output.data);
   if (dataDir !== null) await prepareDirectory(dataDir, 'output.data');
   const dataBytes = dataDir === null ? 0 : sheet.width * sheet.height * 21 + 4 * 128;

@@ -17,6 +17,11 @@ export class UserError extends Error {
     this.expected = expected;
     this.received = shown;
   }
+
+  /** The same error told of another field (e.g. the flag that set a sheet field). */
+  withField(field: string): UserError {
+    return new UserError(field, this.expected, new Received(this.received));
+  }
 }
 
 /** A description of what was received, shown as written (not quoted as a value). */
@@ -38,7 +43,8 @@ export function showValue(value: unknown): string {
     }
   }
   s = s.replace(/\s+/g, ' ');
-  return s.length > 80 ? `${s.slice(0, 77)}...` : s;
+  // Long values (paths, decimals of many digits) differ at their ends: keep both.
+  return s.length > 80 ? `${s.slice(0, 30)}...${s.slice(-47)}` : s;
 }
 
 /** Throws a UserError naming the field unless the test holds. */

@@ -1,7 +1,7 @@
 import { stat, open, rm } from 'node:fs/promises';
 import path from 'node:path';
 import { UserError } from '../cli/user-error.js';
-import { tempPathFor } from './temp-path.js';
+import { releaseTemp, tempPathFor } from './temp-path.js';
 
 /**
  * Throws UserError(field, 'a writable directory', path) unless `path` names an
@@ -23,7 +23,9 @@ export async function checkWritableDirectory(dir: string, field: string): Promis
     const fh = await open(probe, 'wx');
     await fh.close();
   } catch {
+    releaseTemp(probe);
     throw new UserError(field, 'a writable directory', dir);
   }
   await rm(probe, { force: true });
+  releaseTemp(probe);
 }

@@ -4,6 +4,7 @@
  * shard, `--finish`, a queue worker on another machine) renders from the same
  * record and refuses a folder that holds something else.
  */
+import { addTempRoot, removeStaleTempsUnder } from './temp-path.js';
 import { createHash } from 'node:crypto';
 import { mkdir, readdir, readFile } from 'node:fs/promises';
 import path from 'node:path';
@@ -19,7 +20,7 @@ export function pyramidKey(dir: string, spec: PyramidSpec): string {
 }
 
 /** The spec recorded in `dir`, or undefined when there is none. */
-export async function readPyramidSpec(dir: string, field = '--out'): Promise<PyramidSpec | undefined> {
+export async function readPyramidSpec(dir: string, field = '--out-dir'): Promise<PyramidSpec | undefined> {
   let text: string;
   try {
     text = await readFile(path.join(dir, MANIFEST_NAME), 'utf8');
@@ -50,14 +51,16 @@ export async function preparePyramidDir(dir: string, spec: PyramidSpec): Promise
   try {
     await mkdir(dir, { recursive: true });
   } catch (err) {
-    throw new UserError('--out', 'a folder that exists or can be created', new Received(`${dir} (${(err as NodeJS.ErrnoException).code ?? 'error'})`));
+    throw new UserError('--out-dir', 'a folder that exists or can be created', new Received(`${dir} (${(err as NodeJS.ErrnoException).code ?? 'error'})`));
   }
+  addTempRoot(dir);
+  await removeStaleTempsUnder(dir);
   const check = (existing: PyramidSpec): void => {
     if (!sameSpec(existing, spec)) {
-      throw new UserError('--out', 'an empty folder or one holding this same pyramid', new Received(`${dir} (holds a pyramid of a different sheet, size, tile size or format)`));
+      throw new UserError('--out-dir', 'an empty folder or one holding this same pyramid', new Received(`${dir} (holds a pyramid of a different sheet, size, tile size or format)`));
     }
     if (existing.version !== spec.version) {
-      throw new UserError('--out', `a pyramid started by quadatlas ${spec.version} (tiles of two versions may not match)`, new Received(`${dir} (started by quadatlas ${existing.version})`));
+      throw new UserError('--out-dir', `a pyramid started by quadatlas ${spec.version} (tiles of two versions may not match)`, new Received(`${dir} (started by quadatlas ${existing.version})`));
     }
   };
   const existing = await readPyramidSpec(dir);
@@ -66,17 +69,17 @@ export async function preparePyramidDir(dir: string, spec: PyramidSpec): Promise
   try {
     names = (await readdir(dir)).filter((n) => !isTemporary(n));
   } catch (err) {
-    throw new UserError('--out', 'a readable folder', new Received(`${dir} (${(err as NodeJS.ErrnoException).code ?? 'error'})`));
+    throw new UserError('--out-dir', 'a readable folder', new Received(`${dir} (${(err as NodeJS.ErrnoException).code ?? 'error'})`));
   }
   if (names.length > 0) {
     // Another shard or producer may have written the record between the two looks.
     const late = await readPyramidSpec(dir);
     if (late !== undefined) return check(late);
-    throw new UserError('--out', 'an empty folder or one holding this same pyramid', new Received(`${dir} (not empty and has no ${MANIFEST_NAME})`));
+    throw new UserError('--out-dir', 'an empty folder or one holding this same pyramid', new Received(`${dir} (not empty and has no ${MANIFEST_NAME})`));
   }
   try {
     await writeFileAtomic(path.join(dir, MANIFEST_NAME), `${JSON.stringify(spec, null, 2)}\n`);
   } catch (err) {
-    throw new UserError('--out', 'a writable folder', new Received(`${dir} (${(err as NodeJS.ErrnoException).code ?? 'error'})`));
+    throw new UserError('--out-dir', 'a writable folder', new Received(`${dir} (${(err as NodeJS.ErrnoException).code ?? 'error'})`));
   }
 }

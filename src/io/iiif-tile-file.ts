@@ -13,7 +13,7 @@ import path from 'node:path';
 import { deflateSync } from 'node:zlib';
 import { ihdrChunk, PNG_SIGNATURE, pngChunk, srgbChunks } from './png-chunk.js';
 import { filterScanline } from './png-filter.js';
-import { tempPathFor } from './temp-path.js';
+import { releaseTemp, tempPathFor } from './temp-path.js';
 import type { TileFormat } from './iiif-info.js';
 
 /**
@@ -60,6 +60,8 @@ export async function writeTileFile(file: string, bytes: Uint8Array): Promise<vo
   } catch (err) {
     await rm(tmp, { force: true });
     throw err;
+  } finally {
+    releaseTemp(tmp);
   }
 }
 

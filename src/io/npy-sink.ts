@@ -1,6 +1,7 @@
 import type { FileHandle } from 'node:fs/promises';
 import { open, rename, rm } from 'node:fs/promises';
-import { tempPathFor } from './temp-path.js';
+import { basename, dirname } from 'node:path';
+import { releaseTemp, removeStaleTemps, tempPathFor } from './temp-path.js';
 
 /** The element types we write: little-endian int32, float64, float32, and bytes. */
 export type NpyDtype = '<i4' | '<f8' | '|u1' | '<f4';
@@ -53,6 +54,7 @@ export async function openNpySink(path: string, dtype: NpyDtype, shape: [number,
   }
   const itemBytes = ITEM_BYTES[dtype];
   if (itemBytes === undefined) throw new RangeError(`NPY dtype ${String(dtype)}`);
+  await removeStaleTemps(dirname(path), basename(path));
   const tmp = tempPathFor(path);
   const fh = await open(tmp, 'wx');
   let state: 'open' | 'done' | 'failed' = 'open';
@@ -63,6 +65,7 @@ export async function openNpySink(path: string, dtype: NpyDtype, shape: [number,
       state = 'failed';
       await fh.close().catch(() => undefined);
       await rm(tmp, { force: true });
+      releaseTemp(tmp);
     }
     throw err;
   };
@@ -100,6 +103,7 @@ export async function openNpySink(path: string, dtype: NpyDtype, shape: [number,
         await fh.sync();
         await fh.close();
         await rename(tmp, path);
+        releaseTemp(tmp);
         state = 'done';
       } catch (err) {
         return fail(err);

@@ -1,6 +1,7 @@
 import { once } from 'node:events';
 import type { FileHandle } from 'node:fs/promises';
 import { open, rename, rm } from 'node:fs/promises';
+import { basename, dirname } from 'node:path';
 import { createDeflate } from 'node:zlib';
 import type { Deflate } from 'node:zlib';
 import {
@@ -17,7 +18,7 @@ import {
 import { filterScanline } from './png-filter.js';
 import type { RasterSink, RasterSpec } from './raster-sink.js';
 import { assertBand, assertRasterSpec } from './raster-sink.js';
-import { tempPathFor } from './temp-path.js';
+import { releaseTemp, removeStaleTemps, tempPathFor } from './temp-path.js';
 
 /** Largest IDAT chunk we write (bytes of data); PNG allows up to 2^31 - 1. */
 const IDAT_BYTES = 256 * 1024;
@@ -51,6 +52,7 @@ export async function openPngSink(path: string, spec: RasterSpec, options: PngSi
   const { width, height, depth, channels } = spec;
   const bpp = (channels * depth) / 8;
   const stride = width * bpp;
+  await removeStaleTemps(dirname(path), basename(path));
   const tmp = tempPathFor(path);
   const fh = await open(tmp, 'wx');
 
@@ -98,6 +100,7 @@ export async function openPngSink(path: string, spec: RasterSpec, options: PngSi
       await fileChain;
       await fh.close().catch(() => undefined);
       await rm(tmp, { force: true });
+      releaseTemp(tmp);
     }
     throw err;
   };
@@ -184,6 +187,7 @@ export async function openPngSink(path: string, spec: RasterSpec, options: PngSi
         await fh.sync();
         await fh.close();
         await rename(tmp, path);
+        releaseTemp(tmp);
         state = 'done';
       } catch (err) {
         return fail(err);

@@ -1,11 +1,11 @@
-import { mkdtemp, rename, rm } from 'node:fs/promises';
+import { mkdir, rename, rm } from 'node:fs/promises';
 import os from 'node:os';
 import path from 'node:path';
 import type { PngSinkOptions } from './png-sink.js';
 import { openPngSink } from './png-sink.js';
 import type { RasterSink, RasterSpec } from './raster-sink.js';
 import { assertBand, assertRasterSpec } from './raster-sink.js';
-import { tempPathFor } from './temp-path.js';
+import { releaseTemp, removeStaleTemps, tempPathFor } from './temp-path.js';
 import { xmpPacket } from './xmp-packet.js';
 
 /** Rows per temporary band file: few enough files for any plate, small enough to bound memory. */
@@ -71,7 +71,10 @@ export async function openTiffSink(path_: string, spec: RasterSpec, options: Tif
   const rowBytes = (width * channels * depth) / 8;
   const bandRows = Math.max(1, Math.min(height, options.bandRows ?? Math.floor(BAND_BYTES / rowBytes)));
   const icc = await srgbIcc();
-  const bandDir = await mkdtemp(path.join(path.dirname(path_), `.${path.basename(path_)}.bands-`));
+  await removeStaleTemps(path.dirname(path_), path.basename(path_));
+  // The bands wait in a hidden folder named like a temporary file, so a signal or a later run removes it too.
+  const bandDir = tempPathFor(path_);
+  await mkdir(bandDir);
   const bandFiles: string[] = [];
   const bandOptions: PngSinkOptions = { compressionLevel: 1, filter: 1, iccProfile: icc };
   let band: RasterSink | undefined;
@@ -85,7 +88,11 @@ export async function openTiffSink(path_: string, spec: RasterSpec, options: Tif
       state = 'failed';
       await band?.abort();
       await rm(bandDir, { recursive: true, force: true });
-      if (tmp !== undefined) await rm(tmp, { force: true });
+      releaseTemp(bandDir);
+      if (tmp !== undefined) {
+        await rm(tmp, { force: true });
+        releaseTemp(tmp);
+      }
     }
     throw err;
   };
@@ -149,8 +156,10 @@ export async function openTiffSink(path_: string, spec: RasterSpec, options: Tif
           })
           .toFile(tmp);
         await rename(tmp, path_);
+        releaseTemp(tmp);
         state = 'done';
         await rm(bandDir, { recursive: true, force: true });
+        releaseTemp(bandDir);
       } catch (err) {
         return fail(err);
       }

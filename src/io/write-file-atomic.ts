@@ -1,5 +1,5 @@
 import { open, rename, rm } from 'node:fs/promises';
-import { tempPathFor } from './temp-path.js';
+import { releaseTemp, tempPathFor } from './temp-path.js';
 
 /**
  * Writes `data` (a string is written as UTF-8) to `path` all at once: to a
@@ -20,5 +20,7 @@ export async function writeFileAtomic(path: string, data: string | Uint8Array): 
   } catch (err) {
     await rm(tmp, { force: true });
     throw err;
+  } finally {
+    releaseTemp(tmp);
   }
 }

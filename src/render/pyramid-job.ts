@@ -44,7 +44,7 @@ export interface PyramidSpec {
 }
 
 export function pyramidSpec(sheet: Sheet, tileSize: number, format: TileFormat, quality: number, version: string): PyramidSpec {
-  return { tool: 'quadatlas', kind: 'pyramid', version, sheet: renderRecord(sheet), tileSize, format, quality };
+  return { tool: 'quadatlas', kind: 'pyramid', version, sheet: renderRecord(sheet, version), tileSize, format, quality };
 }
 
 /** The parts of two specs that decide the pixels and paths (everything but the version). */

@@ -30,6 +30,7 @@
 import { Decimal } from 'decimal.js';
 import { Received, UserError } from '../cli/user-error.js';
 import { parseColourSettings, type ColourSettings } from '../colour/colour-settings.js';
+import { migrateSheet, SHEET_SCHEMA } from './sheet-kind.js';
 
 export interface Sheet {
   readonly title: string;
@@ -65,7 +66,7 @@ export const DEFAULT_DPI = 300;
 export const MAX_LABEL_PERIOD = 14;
 
 const DECIMAL = /^[+-]?(\d+\.?\d*|\.\d+)([eE][+-]?\d+)?$/;
-const TOP_KEYS = ['title', 'note', 'view', 'pixels', 'print', 'dpi', 'iterations', 'samples', 'depth', 'colour', 'labels', 'arithmetic', 'skip', 'reference', 'output', 'startup'];
+const TOP_KEYS = ['kind', 'schema', 'writtenBy', 'title', 'note', 'view', 'pixels', 'print', 'dpi', 'iterations', 'samples', 'depth', 'colour', 'labels', 'arithmetic', 'skip', 'reference', 'output', 'startup'];
 
 type Json = Record<string, unknown>;
 
@@ -163,9 +164,12 @@ export function printPixels(mm: number, dpi: number): number {
 }
 
 /** Checks a parsed JSON sheet and fills in defaults. `name` becomes the default output file name. */
-export function parseSheet(value: unknown, name = 'plate'): Sheet {
-  if (!isObject(value)) throw new UserError('sheet', 'a JSON object', value);
+export function parseSheet(input: unknown, name = 'plate'): Sheet {
+  if (!isObject(input)) throw new UserError('sheet', 'a JSON object', input);
+  const value: Json = { ...input };
+  migrateSheet(value, 'sheet', ['plate']);
   noUnknownKeys(value, TOP_KEYS, '');
+  if (value['writtenBy'] !== undefined && typeof value['writtenBy'] !== 'string') throw new UserError('writtenBy', 'a string naming the quadatlas version that wrote the sheet', value['writtenBy']);
   const text = (v: unknown, field: string): string => {
     if (v === undefined) return '';
     if (typeof v !== 'string') throw new UserError(field, 'a string', v);
@@ -237,8 +241,11 @@ export function parseSheet(value: unknown, name = 'plate'): Sheet {
  * metadata: everything but where the files go. Re-rendering from it gives the
  * same bytes.
  */
-export function renderRecord(sheet: Sheet): Json {
+export function renderRecord(sheet: Sheet, version: string): Json {
   return {
+    kind: 'plate',
+    schema: SHEET_SCHEMA,
+    writtenBy: `quadatlas ${version}`,
     title: sheet.title,
     note: sheet.note,
     view: { ...sheet.view },
@@ -252,5 +259,17 @@ export function renderRecord(sheet: Sheet): Json {
     arithmetic: sheet.arithmetic,
     skip: sheet.skip,
     reference: sheet.reference === null ? null : { ...sheet.reference },
+  };
+}
+
+/**
+ * The whole sheet as JSON, outputs included: what `presets show` prints.
+ * `parseSheet(sheetRecord(s))` gives back `s`.
+ */
+export function sheetRecord(sheet: Sheet, version: string): Json {
+  return {
+    ...renderRecord(sheet, version),
+    output: { file: sheet.output.file, data: sheet.output.data, sidecar: sheet.output.sidecar },
+    startup: sheet.startup,
   };
 }

@@ -38,7 +38,7 @@ describe('quadatlas components / locate / describe', () => {
       ['locate', '--angle', '3/2'],
       ['locate', '--address', '1-3-2'],
       ['locate', '--period', '3', '--near', 'abc,0'],
-      ['describe', '1,2,3'],
+      ['probe', '1,2,3'],
     ];
     for (const args of cases) {
       const r = run(...args);
@@ -48,7 +48,7 @@ describe('quadatlas components / locate / describe', () => {
     }
   });
   it('describe -1.76 0.01 reports period 3 and the nucleus of the real period-3 component', () => {
-    const r = run('describe', '-1.76', '0.01', '--json');
+    const r = run('probe', '-1.76', '0.01', '--json');
     const j = JSON.parse(r.out) as { period: number; component: { nucleus: { re: string } } };
     expect(j.period).toBe(3);
     expect(j.component.nucleus.re.startsWith('-1.754877666246692760')).toBe(true); // OEIS A060006

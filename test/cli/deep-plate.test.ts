@@ -134,8 +134,8 @@ describe('deep plates: skipping, reproducibility and the interior', () => {
   it('writes the same bytes for 1 and 2 workers and tile sizes 16 and 64, and again from the metadata', () => {
     const dir = tempDir();
     const base = ['plate', '--center', `${RE79},${IM79}`, '--span', '3e-58', '--size', '96x64', '--iterations', 'auto', '--samples', '4', '--reference', `${RE79},${IM79},79`];
-    expect(runCli([...base, '--workers', '1', '--tile', '64', '--out', path.join(dir, 'a.png')]).status).toBe(0);
-    expect(runCli([...base, '--workers', '2', '--tile', '16', '--out', path.join(dir, 'b.png')]).status).toBe(0);
+    expect(runCli([...base, '--workers', '1', '--tile-size', '64', '--out', path.join(dir, 'a.png')]).status).toBe(0);
+    expect(runCli([...base, '--workers', '2', '--tile-size', '16', '--out', path.join(dir, 'b.png')]).status).toBe(0);
     expect(runCli(['plate', '--again', path.join(dir, 'a.png'), '--out', path.join(dir, 'c.png')]).status).toBe(0);
     const a = readFileSync(path.join(dir, 'a.png'));
     expect(readFileSync(path.join(dir, 'b.png')).equals(a)).toBe(true);

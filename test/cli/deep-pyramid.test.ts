@@ -21,7 +21,7 @@ describe('quadatlas pyramid on a deep view', () => {
         reference: { re: RE79, im: IM79, period: 79 },
       }),
     );
-    const pyr = runCli(['pyramid', sheet, '--out', path.join(dir, 'pyr'), '--json']);
+    const pyr = runCli(['pyramid', sheet, '--out-dir', path.join(dir, 'pyr'), '--json']);
     expect(pyr.status, pyr.stderr).toBe(0);
     expect((JSON.parse(pyr.stdout) as { finished: boolean }).finished).toBe(true);
     const plate = runCli(['plate', sheet, '--out', path.join(dir, 'plate.png')]);

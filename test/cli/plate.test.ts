@@ -17,9 +17,9 @@ describe('quadatlas plate', () => {
   it('writes the same bytes for --workers 1 and 2 and tile sizes 16 and 64 (same sheet, same bytes)', () => {
     const dir = tempDir();
     const runs = [
-      ['--workers', '1', '--tile', '64'],
-      ['--workers', '2', '--tile', '16'],
-      ['--workers', '2', '--tile', '64'],
+      ['--workers', '1', '--tile-size', '64'],
+      ['--workers', '2', '--tile-size', '16'],
+      ['--workers', '2', '--tile-size', '64'],
     ];
     runs.forEach((extra, i) => {
       const r = runCli(['plate', ...SMALL, '--depth', '16', '--out', path.join(dir, `p${i}.png`), '--data', path.join(dir, `d${i}`), ...extra]);
@@ -120,7 +120,7 @@ describe('quadatlas plate, bad input', () => {
     ['output type', ['--out', 'x.jpg'], /output\.file/],
     ['arithmetic forced to an unknown mode', ['--arith', 'single'], /arithmetic/],
     // A strip holds at least one row of tiles: 1e6 pixels x 1024 rows x 24 bytes with data is ~24 GB.
-    ['plate too big for memory', ['--size', '1000000x10', '--tile', '1024', '--data', 'DATA'], /pixels\.width/],
+    ['plate too big for memory', ['--size', '1000000x10', '--tile-size', '1024', '--data', 'DATA'], /pixels\.width/],
     ['plate too big for disk', ['--size', '900000x900000', '--depth', '16'], /pixels/],
   ];
   for (const [name, args, field] of cases) {

@@ -72,11 +72,11 @@ afterAll(async () => {
 describe.skipIf(!haveRedis)('quadatlas pyramid --queue with quadatlas worker', () => {
   it('two workers share the tiles, a tile made to fail once is retried, two producers of one pyramid render each tile once, and the result equals the single run', async () => {
     const single = path.join(root, 'single');
-    expect(runWithEnv(['pyramid', ...COMMON, '--out', single]).status).toBe(0);
+    expect(runWithEnv(['pyramid', ...COMMON, '--out-dir', single]).status).toBe(0);
 
     const workers = [0, 1].map(() => start(['worker', '--queue', url, '--workers', '1', '--json'], { QUADATLAS_FAIL_ONCE: '2,5' }));
     const dir = path.join(root, 'queued');
-    const producers = [0, 1].map(() => start(['pyramid', ...COMMON, '--out', dir, '--queue', url, '--json']));
+    const producers = [0, 1].map(() => start(['pyramid', ...COMMON, '--out-dir', dir, '--queue', url, '--json']));
     const results = await Promise.all(producers.map((p) => p.done));
     for (const r of results) {
       expect(r.stderr).not.toMatch(/error|expected/i);
@@ -96,7 +96,7 @@ describe.skipIf(!haveRedis)('quadatlas pyramid --queue with quadatlas worker', (
     expect(treeDifferences(treeFiles(dir), treeFiles(single))).toEqual([]);
 
     // Run again on the finished folder: nothing to queue, the same files.
-    const again = runWithEnv(['pyramid', ...COMMON, '--out', dir, '--queue', url, '--json']);
+    const again = runWithEnv(['pyramid', ...COMMON, '--out-dir', dir, '--queue', url, '--json']);
     expect(again.status).toBe(0);
     expect(JSON.parse(again.stdout)).toMatchObject({ tiles: { share: 0, rendered: 0, skipped: TILE_COUNT } });
     expect(treeDifferences(treeFiles(dir), treeFiles(single))).toEqual([]);

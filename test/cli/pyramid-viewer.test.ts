@@ -24,7 +24,7 @@ let server: Server | undefined;
 beforeAll(async () => {
   root = tempDir('quadatlas-viewer-');
   dir = path.join(root, 'pyr');
-  const r = runWithEnv(['pyramid', ...ARGS, '--out', dir]);
+  const r = runWithEnv(['pyramid', ...ARGS, '--out-dir', dir]);
   expect(r.status).toBe(0);
   if (!haveChromium) return;
   const { chromium } = await import('playwright-core');

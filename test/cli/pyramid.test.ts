@@ -19,7 +19,7 @@ let singleTree: Map<string, Buffer>;
 beforeAll(() => {
   root = tempDir('quadatlas-pyramid-');
   single = path.join(root, 'single');
-  const r = runWithEnv(['pyramid', ...COMMON, '--out', single, '--json']);
+  const r = runWithEnv(['pyramid', ...COMMON, '--out-dir', single, '--json']);
   expect(r.stderr).toBe('');
   expect(r.status).toBe(0);
   singleTree = treeFiles(single);
@@ -30,7 +30,7 @@ afterAll(() => rmSync(root, { recursive: true, force: true }));
 describe('quadatlas pyramid', () => {
   it('pyramid --json reports every tile rendered, the levels, time and peak memory', () => {
     const dir = path.join(root, 'again');
-    const r = runWithEnv(['pyramid', ...COMMON, '--out', dir, '--json', '--workers', '1']);
+    const r = runWithEnv(['pyramid', ...COMMON, '--out-dir', dir, '--json', '--workers', '1']);
     expect(r.status).toBe(0);
     const s = JSON.parse(r.stdout) as { tiles: { total: number; rendered: number; skipped: number }; levels: number; finished: boolean; peakMemoryMiB: number; seconds: number };
     expect(s.tiles).toMatchObject({ total: TILE_COUNT, rendered: TILE_COUNT, skipped: 0 });
@@ -61,28 +61,28 @@ describe('quadatlas pyramid', () => {
 
   it('pyramid shards (flag, Slurm and Kubernetes variables) then --finish give the single run byte for byte', () => {
     const dir = path.join(root, 'shards');
-    const a = runWithEnv(['pyramid', ...COMMON, '--out', dir, '--shard', '0/3', '--json']);
+    const a = runWithEnv(['pyramid', ...COMMON, '--out-dir', dir, '--shard', '0/3', '--json']);
     expect(a.status).toBe(0);
     expect(JSON.parse(a.stdout)).toMatchObject({ mode: 'shard', shard: '0/3', finished: false, tiles: { share: 13, rendered: 13 } });
     // Too early: tiles of shards 1 and 2 are missing.
-    const early = runWithEnv(['pyramid', '--finish', '--out', dir]);
+    const early = runWithEnv(['pyramid', '--finish', '--out-dir', dir]);
     expect(early.status).toBe(2);
     expect(early.stderr.trim().split('\n')).toHaveLength(1);
     expect(early.stderr).toMatch(/26 of 39 tiles missing/);
     // Slurm --array=1-5:2 task 3 is shard (3 - 1) / 2 = 1 of 3.
     const slurm = { SLURM_ARRAY_TASK_ID: '3', SLURM_ARRAY_TASK_MIN: '1', SLURM_ARRAY_TASK_STEP: '2', SLURM_ARRAY_TASK_COUNT: '3' };
-    const b = runWithEnv(['pyramid', ...COMMON, '--out', dir, '--json'], slurm);
+    const b = runWithEnv(['pyramid', ...COMMON, '--out-dir', dir, '--json'], slurm);
     expect(JSON.parse(b.stdout)).toMatchObject({ shard: '1/3' });
-    const c = runWithEnv(['pyramid', ...COMMON, '--out', dir, '--shards', '3', '--json'], { JOB_COMPLETION_INDEX: '2' });
+    const c = runWithEnv(['pyramid', ...COMMON, '--out-dir', dir, '--shards', '3', '--json'], { JOB_COMPLETION_INDEX: '2' });
     expect(JSON.parse(c.stdout)).toMatchObject({ shard: '2/3' });
-    const f = runWithEnv(['pyramid', '--finish', '--out', dir, '--base-url', 'http://127.0.0.1:9/p', '--json']);
+    const f = runWithEnv(['pyramid', '--finish', '--out-dir', dir, '--base-url', 'http://127.0.0.1:9/p', '--json']);
     expect(f.status).toBe(0);
     expect(treeDifferences(treeFiles(dir), singleTree)).toEqual([]);
   });
 
   it('pyramid killed part-way leaves only whole tiles, and the rerun skips them and ends with the same bytes', async () => {
     const dir = path.join(root, 'killed');
-    const child = spawn(process.execPath, [CLI, 'pyramid', ...COMMON, '--out', dir, '--workers', '1'], { stdio: 'ignore' });
+    const child = spawn(process.execPath, [CLI, 'pyramid', ...COMMON, '--out-dir', dir, '--workers', '1'], { stdio: 'ignore' });
     const countTiles = (): number => {
       let n = 0;
       const walk = (d: string): void => {
@@ -108,7 +108,7 @@ describe('quadatlas pyramid', () => {
       expect(partial.get(k)!.equals(singleTree.get(k)!), k).toBe(true);
       expect(png.width).toBeGreaterThan(0);
     }
-    const r = runWithEnv(['pyramid', ...COMMON, '--out', dir, '--json']);
+    const r = runWithEnv(['pyramid', ...COMMON, '--out-dir', dir, '--json']);
     expect(r.status).toBe(0);
     const s = JSON.parse(r.stdout) as { tiles: { skipped: number; rendered: number } };
     expect(s.tiles.skipped).toBe(done.length);
@@ -118,7 +118,7 @@ describe('quadatlas pyramid', () => {
 
   it('pyramid --format jpg writes JPEG tiles of the promised sizes', async () => {
     const dir = path.join(root, 'jpeg');
-    const r = runWithEnv(['pyramid', '--center', '-0.75,0', '--span', '3', '--size', '150x100', '--iterations', '100', '--samples', '1', '--tile-size', '64', '--format', 'jpg', '--quality', '80', '--out', dir]);
+    const r = runWithEnv(['pyramid', '--center', '-0.75,0', '--span', '3', '--size', '150x100', '--iterations', '100', '--samples', '1', '--tile-size', '64', '--format', 'jpg', '--quality', '80', '--out-dir', dir]);
     expect(r.status).toBe(0);
     const info = JSON.parse(readFileSync(path.join(dir, 'tiles/info.json'), 'utf8')) as Parameters<typeof promisedTiles>[0];
     for (const t of promisedTiles(info, 'jpg')) {
@@ -138,7 +138,7 @@ describe('quadatlas pyramid: bad input', () => {
 
   it('pyramid into a folder holding another view fails with one line and exit 2, and touches nothing', () => {
     const before = treeFiles(single);
-    oneLine(runWithEnv(['pyramid', ...COMMON, '--span', '2.5', '--out', single]), /Expected an empty folder or one holding this same pyramid for --out but received .*different/);
+    oneLine(runWithEnv(['pyramid', ...COMMON, '--span', '2.5', '--out-dir', single]), /Expected an empty folder or one holding this same pyramid for --out-dir but received .*different/);
     expect(treeDifferences(treeFiles(single), before)).toEqual([]);
   });
 
@@ -146,21 +146,21 @@ describe('quadatlas pyramid: bad input', () => {
     const dir = path.join(root, 'busy');
     mkdirSync(dir, { recursive: true });
     writeFileSync(path.join(dir, 'notes.txt'), 'mine');
-    oneLine(runWithEnv(['pyramid', ...COMMON, '--out', dir]), /not empty and has no pyramid\.json/);
+    oneLine(runWithEnv(['pyramid', ...COMMON, '--out-dir', dir]), /not empty and has no pyramid\.json/);
   });
 
   it('pyramid refuses a bad --shard, --format, --tile-size and --queue URL with exit 2', () => {
     const dir = path.join(root, 'bad');
-    oneLine(runWithEnv(['pyramid', ...COMMON, '--out', dir, '--shard', '3/3']), /for --shard/);
-    oneLine(runWithEnv(['pyramid', ...COMMON, '--out', dir, '--format', 'gif']), /Expected png or jpg for --format/);
-    oneLine(runWithEnv(['pyramid', ...COMMON, '--out', dir, '--tile-size', '8']), /for --tile-size/);
-    oneLine(runWithEnv(['pyramid', ...COMMON, '--out', dir, '--queue', 'http://x']), /for --queue/);
-    oneLine(runWithEnv(['pyramid', '--finish', '--out', path.join(root, 'nothing-here')]), /pyramid folder/);
+    oneLine(runWithEnv(['pyramid', ...COMMON, '--out-dir', dir, '--shard', '3/3']), /for --shard/);
+    oneLine(runWithEnv(['pyramid', ...COMMON, '--out-dir', dir, '--format', 'gif']), /Expected png or jpg for --format/);
+    oneLine(runWithEnv(['pyramid', ...COMMON, '--out-dir', dir, '--tile-size', '8']), /for --tile-size/);
+    oneLine(runWithEnv(['pyramid', ...COMMON, '--out-dir', dir, '--queue', 'http://x']), /for --queue/);
+    oneLine(runWithEnv(['pyramid', '--finish', '--out-dir', path.join(root, 'nothing-here')]), /pyramid folder/);
   });
 
   it('pyramid --queue and worker --queue with nobody listening fail within seconds, exit 2', () => {
     for (const args of [
-      ['pyramid', ...COMMON, '--out', path.join(root, 'q'), '--queue', 'redis://127.0.0.1:1'],
+      ['pyramid', ...COMMON, '--out-dir', path.join(root, 'q'), '--queue', 'redis://127.0.0.1:1'],
       ['worker', '--queue', 'redis://127.0.0.1:1'],
     ]) {
       const t0 = Date.now();

@@ -1,5 +1,5 @@
 /**
- * `quadatlas describe RE,IM`: everything about one parameter c. Outside the
+ * `quadatlas probe RE,IM`: everything about one parameter c. Outside the
  * set: iteration count, smooth count, exterior distance estimate. Inside a
  * hyperbolic component: period of the attracting cycle, multiplier, internal
  * angle, interior distance estimate, and the component (nucleus, root,
@@ -25,9 +25,9 @@ const ESCAPE_RADIUS = 1e6;
 
 export function register(program: Command): void {
   program
-    .command('describe')
+    .command('probe')
     .description('everything known about one parameter c')
-    .argument('<re,im>', 'the parameter c as RE,IM (write `describe -- -1.76,0.01` when RE is negative, or give RE and IM apart)')
+    .argument('<re,im>', 'the parameter c as RE,IM (write `probe -- -1.76,0.01` when RE is negative, or give RE and IM apart)')
     .argument('[im]', 'IM, when RE and IM are given as two arguments')
     .option('--digits <D>', 'digits after the point', '20')
     .option('--iterations <N>', 'iteration limit', '100000')

@@ -3,7 +3,7 @@ import { runCli } from '../helpers/run-cli.js';
 
 describe('quadatlas describe, real c', () => {
   it('links c = -1.76 to the period-3 window whose onset is r = 1 + sqrt(8) (checks.md: period-3 window onset)', () => {
-    const r = runCli(['describe', '--json', '--', '-1.76,0']);
+    const r = runCli(['probe', '--json', '--', '-1.76,0']);
     expect(r.status, r.stderr).toBe(0);
     const out = JSON.parse(r.stdout) as { window: { period: number; word: string; onset_r: string } };
     expect(out.window.period).toBe(3);
