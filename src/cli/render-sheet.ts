@@ -6,6 +6,7 @@
  * renames only when all is done.
  */
 import { mkdir, stat } from 'node:fs/promises';
+import { gridRecord, pixelCentreRow, pixelOffsetRow } from '../view/pixel-coordinates.js';
 import os from 'node:os';
 import path from 'node:path';
 import { checkFreeSpace } from '../io/check-free-space.js';
@@ -24,7 +25,7 @@ import { renderRecord, resolveIterations, type Sheet } from '../view/sheet.js';
 import { deepPlan } from '../plane/deep-plan.js';
 import { referenceBits } from '../precise/reference-orbit.js';
 import { prepareDeepJob } from '../render/deep-job.js';
-import { doubleGrid, fitsDouble, pixelToC, type DoubleGrid } from '../view/view.js';
+import { doubleGrid, fitsDouble, pixelToC, type DoubleGrid, type View } from '../view/view.js';
 import { componentsInBox } from '../components/components-in-box.js';
 import type { Legend } from '../colour/legend.js';
 import { labelHeightPixels, layoutPeriodLabels } from '../colour/period-labels.js';
@@ -121,6 +122,25 @@ async function periodLabels(grid: DoubleGrid, maxPeriod: number, dpi: number, wo
   return layoutPeriodLabels(points, dpi, grid.width, grid.height);
 }
 
+/** The pixel-centre coordinates beside the data arrays (docs/data.md): re/im for double views, offsets for deep ones. */
+async function writeCoordinates(dataDir: string, view: View, grid: DoubleGrid, deep: boolean, opened: Array<RasterSink | DataSink>): Promise<string[]> {
+  const names = deep ? ['offset_re', 'offset_im'] : ['re', 'im'];
+  const shape: [number, number] = [view.height, view.width];
+  const a = await openNpySink(path.join(dataDir, `${names[0]}.npy`), '<f8', shape);
+  opened.push(a);
+  const b = await openNpySink(path.join(dataDir, `${names[1]}.npy`), '<f8', shape);
+  opened.push(b);
+  const rowRe = new Float64Array(view.width);
+  const rowIm = new Float64Array(view.width);
+  for (let j = 0; j < view.height; j++) {
+    if (deep) pixelOffsetRow(grid, j, rowRe, rowIm);
+    else pixelCentreRow(grid, j, rowRe, rowIm);
+    await a.writeRows(rowRe, 1);
+    await b.writeRows(rowIm, 1);
+  }
+  return names;
+}
+
 export async function renderSheet(sheet: Sheet, options: RenderSheetOptions = {}): Promise<PlateSummary> {
   const started = process.hrtime.bigint();
   const view = { centerRe: sheet.view.re, centerIm: sheet.view.im, span: sheet.view.span, width: sheet.width, height: sheet.height, rotation: sheet.view.rotation };
@@ -184,7 +204,7 @@ export async function renderSheet(sheet: Sheet, options: RenderSheetOptions = {}
   for (const f of [file, ...(sheet.output.sidecar ? [`${file}.json`] : [])]) await refuseDirectory(f, 'output.file');
   const dataDir = sheet.output.data === null ? null : path.resolve(sheet.output.data);
   if (dataDir !== null) await prepareDirectory(dataDir, 'output.data');
-  const dataBytes = dataDir === null ? 0 : sheet.width * sheet.height * 21 + 4 * 128;
+  const dataBytes = dataDir === null ? 0 : sheet.width * sheet.height * 37 + 6 * 128 + 4096;
   await checkFreeSpace(imageDir, (rawImage / 4) * (tiff ? 2 : 1) + (dataDir !== null && path.resolve(dataDir) === imageDir ? dataBytes : 0), 'pixels');
   if (dataDir !== null && dataDir !== imageDir) await checkFreeSpace(dataDir, dataBytes, 'output.data');
 
@@ -211,9 +231,17 @@ export async function renderSheet(sheet: Sheet, options: RenderSheetOptions = {}
     } finally {
       progress.end();
     }
-    for (const s of opened) await s.finish();
-    files.push(path.resolve(file));
-    if (dataDir !== null) for (const n of ['period', 'smooth', 'distance', 'interior']) files.push(path.join(dataDir, `${n}.npy`));
+    if (dataDir !== null) {
+      const written = await writeCoordinates(dataDir, view, grid, arithmetic === 'deep', opened);
+      for (const s of opened) await s.finish();
+      await writeFileAtomic(path.join(dataDir, 'grid.json'), `${JSON.stringify(gridRecord(view, grid, arithmetic === 'deep', arithmetic === 'deep' ? plan.unitExponent : 0), null, 2)}\n`);
+      files.push(path.resolve(file));
+      for (const n of ['period', 'smooth', 'distance', 'interior', ...written]) files.push(path.join(dataDir, `${n}.npy`));
+      files.push(path.join(dataDir, 'grid.json'));
+    } else {
+      for (const s of opened) await s.finish();
+      files.push(path.resolve(file));
+    }
     const seconds = Number(process.hrtime.bigint() - started) / 1e9;
     const pixelArea = grid.spacing * grid.spacing;
     const summary: PlateSummary = {
