@@ -32,10 +32,10 @@ export function register(program: Command): void {
     .option('--csv', 'CSV output')
     .action(async (o: Record<string, unknown>) => {
       const count = o['count'] === true;
-      const period = parseIntFlag(o['period'], 'period', 1, count ? MAX_CENSUS_PERIOD : MAX_LIST_PERIOD);
-      const digits = parseIntFlag(o['digits'], 'digits', 1, 2000);
-      const workers = o['workers'] === undefined ? availableParallelism() : parseIntFlag(o['workers'], 'workers', 0, 256);
-      const box = o['within'] === undefined ? null : parseBox(o['within'], 'within');
+      const period = parseIntFlag(o['period'], '--period', 1, count ? MAX_CENSUS_PERIOD : MAX_LIST_PERIOD);
+      const digits = parseIntFlag(o['digits'], '--digits', 1, 2000);
+      const workers = o['workers'] === undefined ? availableParallelism() : parseIntFlag(o['workers'], '--workers', 0, 256);
+      const box = o['within'] === undefined ? null : parseBox(o['within'], '--within');
       if (o['json'] === true && o['csv'] === true) throw new UserError('output format', 'one of --json or --csv', '--json --csv');
       const t0 = performance.now();
       const progress = process.stderr.isTTY

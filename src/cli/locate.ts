@@ -34,34 +34,34 @@ export function register(program: Command): void {
     .option('--digits <D>', 'digits after the point', '30')
     .option('--json', 'JSON output')
     .action(async (o: Record<string, unknown>) => {
-      const digits = parseIntFlag(o['digits'], 'digits', 1, 5000);
+      const digits = parseIntFlag(o['digits'], '--digits', 1, 5000);
       const given = ['near', 'angle', 'address'].filter((k) => o[k] !== undefined);
       if (given.length !== 1) throw new UserError('locate', 'exactly one of --near, --angle or --address', given.length === 0 ? 'none' : given.map((g) => `--${g}`).join(' '));
-      const period = o['period'] === undefined ? null : parseIntFlag(o['period'], 'period', 1, 100_000);
+      const period = o['period'] === undefined ? null : parseIntFlag(o['period'], '--period', 1, 100_000);
       let out: Record<string, unknown>;
       let lines: string[];
       if (o['near'] !== undefined) {
-        if (period === null) throw new UserError('period', 'an integer period with --near', 'nothing');
-        const near = parseDecimalPair(String(o['near']), 'near');
+        if (period === null) throw new UserError('--period', 'an integer period with --near', 'nothing');
+        const near = parseDecimalPair(String(o['near']), '--near');
         const found = findNucleus(period, { re: near.re.text, im: near.im.text }, digits);
         const info = await componentInfo(period, found.nucleus, digits);
         out = { ...componentJson(info), newtonSteps: found.steps };
-        lines = componentLines(info);
+        lines = componentLines(info, digits);
       } else if (o['angle'] !== undefined) {
-        const angle = parseAngle(String(o['angle']), 'angle');
+        const angle = parseAngle(String(o['angle']), '--angle');
         const orbit = angleOrbit(angle);
         if (orbit.preperiod + orbit.period > MAX_ANGLE_PERIOD) {
-          throw new UserError('angle', `an angle with preperiod + period at most ${MAX_ANGLE_PERIOD}`, angleText(angle));
+          throw new UserError('--angle', `an angle with preperiod + period at most ${MAX_ANGLE_PERIOD}`, angleText(angle));
         }
         if (orbit.preperiod === 0) {
-          if (period !== null && period !== orbit.period) throw new UserError('period', `the period of angle ${angleText(angle)} (${orbit.period})`, period);
+          if (period !== null && period !== orbit.period) throw new UserError('--period', `the period of angle ${angleText(angle)} (${orbit.period})`, period);
           const info = await landAngle(angle, orbit.period, digits);
           out = componentJson(info);
-          lines = componentLines(info);
+          lines = componentLines(info, digits);
         } else {
           const p = orbit.period;
           const end = traceRayDD(angle.num, angle.den, 2 * (orbit.preperiod + p) + 8, 8);
-          if (!end.ok) throw new UserError('angle', 'an angle whose ray can be traced in double-double precision', angleText(angle));
+          if (!end.ok) throw new UserError('--angle', 'an angle whose ray can be traced in double-double precision', angleText(angle));
           const point = findMisiurewicz(orbit.preperiod, p, end, digits);
           out = { misiurewicz: point, preperiod: orbit.preperiod, period: p, externalAngle: angleText(angle) };
           lines = [`Misiurewicz point ${point.re}, ${point.im}`, `preperiod         ${orbit.preperiod}`, `period            ${p}`, `external angle    ${angleText(angle)}`];
@@ -69,17 +69,17 @@ export function register(program: Command): void {
       } else {
         const address = parseAddress(String(o['address']));
         const p = address[address.length - 1]!;
-        if (period !== null && period !== p) throw new UserError('period', `the last entry of the address (${p})`, period);
+        if (period !== null && period !== p) throw new UserError('--period', `the last entry of the address (${p})`, period);
         const den = 2 ** p - 1;
         const want = addressText(address);
         const matches = Array.from(periodicNumerators(p, false)).filter((n) => {
           const a = toAngle(n, den);
           return p === 1 ? want === '1' : addressText(addressOfAngle(a, p)) === want;
         });
-        if (matches.length === 0) throw new UserError('address', 'an internal address that some component has', want);
+        if (matches.length === 0) throw new UserError('--address', 'an internal address that some component has', want);
         const info = await landAngle(toAngle(matches[0]!, den), p, digits);
         out = { ...componentJson(info), componentsWithThisAddress: Math.max(1, Math.round(matches.length / (p === 1 ? 1 : 2))) };
-        lines = [...componentLines(info), `components with this address  ${String(out['componentsWithThisAddress'])} (the one with the lowest angle is shown)`];
+        lines = [...componentLines(info, digits), `components with this address  ${String(out['componentsWithThisAddress'])} (the one with the lowest angle is shown)`];
       }
       process.stdout.write(o['json'] === true ? `${JSON.stringify(out, null, 2)}\n` : `${lines.join('\n')}\n`);
     });
@@ -102,7 +102,7 @@ async function landAngle(angle: Angle, period: number, digits: number) {
   if (period === 1) return componentInfo(1, { re: '0', im: '0' }, digits, [{ num: 0n, den: 1n }]);
   const end = traceRayDD(angle.num, angle.den, 2 * period, 4);
   const nu = end.ok ? nucleusDD(period, end) : null;
-  if (nu === null || !nu.ok) throw new UserError('angle', 'an angle whose ray lands in double-double precision', angleText(angle));
+  if (nu === null || !nu.ok) throw new UserError('--angle', 'an angle whose ray lands in double-double precision', angleText(angle));
   const guess = { re: (nu.reHi + nu.reLo).toPrecision(17), im: (nu.imHi + nu.imLo).toPrecision(17) };
   const real = Math.abs(nu.imHi) <= 1e-3 * nu.size;
   const found = findNucleus(period, real ? { re: guess.re, im: '0' } : guess, digits);
@@ -114,7 +114,7 @@ function parseAddress(text: string): number[] {
   const parts = text.split(/->|-|→/).map((s) => s.trim());
   const nums = parts.map((s) => (/^\d+$/.test(s) ? Number(s) : Number.NaN));
   const ok = nums.length >= 1 && nums[0] === 1 && nums.every((n, i) => Number.isInteger(n) && (i === 0 || n > nums[i - 1]!));
-  if (!ok) throw new UserError('address', 'an internal address such as 1-2-4 (starting at 1, strictly increasing)', text);
-  if (nums[nums.length - 1]! > MAX_ADDRESS_PERIOD) throw new UserError('address', `an internal address ending at a period of at most ${MAX_ADDRESS_PERIOD}`, text);
+  if (!ok) throw new UserError('--address', 'an internal address such as 1-2-4 (starting at 1, strictly increasing)', text);
+  if (nums[nums.length - 1]! > MAX_ADDRESS_PERIOD) throw new UserError('--address', `an internal address ending at a period of at most ${MAX_ADDRESS_PERIOD}`, text);
   return nums;
 }

@@ -19,7 +19,7 @@ const WINDOW_PERIODS = 10;
 import { componentInfo } from '../components/component-info.js';
 import { findNucleus } from '../components/nucleus.js';
 import { decimalToNumber, parseDecimalPair } from '../precise/decimal-string.js';
-import { componentJson, componentLines, parseIntFlag } from './component-report.js';
+import { componentJson, componentLines, parseIntFlag, significant } from './component-report.js';
 
 const ESCAPE_RADIUS = 1e6;
 
@@ -35,9 +35,9 @@ export function register(program: Command): void {
     .option('--json', 'JSON output')
     .action(async (first: string, second: string | undefined, o: Record<string, unknown>) => {
       const c = parseDecimalPair(second === undefined ? first : `${first},${second}`, 'c');
-      const digits = parseIntFlag(o['digits'], 'digits', 1, 2000);
-      const iterations = parseIntFlag(o['iterations'], 'iterations', 1, 100_000_000);
-      const maxPeriod = parseIntFlag(o['maxPeriod'], 'max-period', 1, 100_000);
+      const digits = parseIntFlag(o['digits'], '--digits', 1, 2000);
+      const iterations = parseIntFlag(o['iterations'], '--iterations', 1, 100_000_000);
+      const maxPeriod = parseIntFlag(o['maxPeriod'], '--max-period', 1, 100_000);
       const cr = decimalToNumber(c.re);
       const ci = decimalToNumber(c.im);
       const out: Record<string, unknown> = { c: { re: c.re.text, im: c.im.text } };
@@ -56,7 +56,7 @@ export function register(program: Command): void {
         const mu = smoothCount(n, zr, zi, Math.log(ESCAPE_RADIUS));
         const de = exteriorDistance(cr, ci, n, zr, zi);
         Object.assign(out, { escapes: true, iterations: n, smoothCount: mu, exteriorDistance: de });
-        lines.push(`escapes           yes, after ${n} iterations (radius 1e6)`, `smooth count      ${mu.toFixed(6)}`, `distance estimate ${de.toPrecision(6)} (the distance to the set lies between a quarter of this and this)`);
+        lines.push(`escapes           yes, after ${n} iterations (radius 1e6)`, `smooth count      ${mu.toFixed(Math.min(digits, 12))}`, `distance estimate ${significant(de, digits)} (the distance to the set lies between a quarter of this and this)`);
       } else {
         // attracting cycle: try periods in order from the settled orbit (A5)
         const cyc = createCycleResult();
@@ -89,11 +89,11 @@ export function register(program: Command): void {
           });
           lines.push(
             `period            ${period}`,
-            `multiplier        ${cyc.mulRe.toPrecision(10)} ${cyc.mulIm < 0 ? '-' : '+'} ${Math.abs(cyc.mulIm).toPrecision(10)} i  (modulus ${mulAbs.toPrecision(6)})`,
-            `internal angle    ${(angle < 0 ? angle + 1 : angle).toFixed(8)} turns`,
-            `interior distance ${ide.toPrecision(6)}`,
+            `multiplier        ${significant(cyc.mulRe, digits)} ${cyc.mulIm < 0 ? '-' : '+'} ${significant(Math.abs(cyc.mulIm), digits)} i  (modulus ${significant(mulAbs, digits)})`,
+            `internal angle    ${(angle < 0 ? angle + 1 : angle).toFixed(Math.min(digits, 16))} turns`,
+            `interior distance ${significant(ide, digits)}`,
             `-- component --`,
-            ...componentLines(info),
+            ...componentLines(info, digits),
           );
         }
       }
@@ -107,7 +107,7 @@ export function register(program: Command): void {
           lines.push(`window            none of period <= ${WINDOW_PERIODS}`);
         } else {
           const at = (d: { toSignificantDigits(n: number): { toString(): string } }): string => d.toSignificantDigits(15).toString();
-          out['window'] = { period: w.period, word: w.word, onset_r: at(w.onset), superstable_r: at(w.superstable), doubling_r: at(w.doubling), end_r: at(w.end) };
+          out['window'] = { period: w.period, word: w.word, onsetR: at(w.onset), superstableR: at(w.superstable), doublingR: at(w.doubling), endR: at(w.end) };
           lines.push(
             `window            period ${w.period}, MSS word ${w.word}`,
             `  onset r         ${at(w.onset)}`,

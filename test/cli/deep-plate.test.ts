@@ -151,8 +151,8 @@ describe('deep plates, bad input', () => {
   const cases: Array<[string, string[], RegExp]> = [
     ['span of zero', ['--span', '0e-400'], /view\.span/],
     ['non-numeric digits', ['--center', '0.12x4,1'], /view\.re/],
-    ['iteration count beyond the machine for the deep arithmetic', ['--center', '0,1', '--span', '1e-40', '--iterations', '2000000000'], /for iterations/],
-    ['bad arithmetic', ['--arith', 'quad'], /for arithmetic/],
+    ['iteration count beyond the machine for the deep arithmetic', ['--center', '0,1', '--span', '1e-40', '--iterations', '2000000000'], /for --iterations \(sheet field iterations\)/],
+    ['bad arithmetic', ['--arith', 'quad'], /for --arith \(sheet field arithmetic\)/],
   ];
   for (const [name, args, field] of cases) {
     it(`rejects a ${name} with one line and exit code 2`, () => {

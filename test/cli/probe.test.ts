@@ -5,10 +5,10 @@ describe('quadatlas describe, real c', () => {
   it('links c = -1.76 to the period-3 window whose onset is r = 1 + sqrt(8) (checks.md: period-3 window onset)', () => {
     const r = runCli(['probe', '--json', '--', '-1.76,0']);
     expect(r.status, r.stderr).toBe(0);
-    const out = JSON.parse(r.stdout) as { window: { period: number; word: string; onset_r: string } };
+    const out = JSON.parse(r.stdout) as { window: { period: number; word: string; onsetR: string } };
     expect(out.window.period).toBe(3);
     // MSS word of the period-3 window: RL (Metropolis-Stein-Stein 1973; methods.md E5).
     expect(out.window.word).toBe('RL');
-    expect(Number(out.window.onset_r)).toBeCloseTo(1 + Math.sqrt(8), 13);
+    expect(Number(out.window.onsetR)).toBeCloseTo(1 + Math.sqrt(8), 13);
   });
 });
