@@ -22,14 +22,14 @@ export function register(program: Command): void {
   program
     .command('components')
     .description('list or count the hyperbolic components of exact period P')
-    .requiredOption('--period <P>', 'exact period')
-    .option('--real', 'only components on the real axis')
-    .option('--within <box>', 'only nuclei inside RE0,IM0,RE1,IM1')
-    .option('--digits <D>', 'digits after the point for nuclei and roots', '20')
-    .option('--count', 'print only the number of components (and the time taken, on stderr)')
+    .requiredOption('--period <P>', 'exact period, an integer from 1 (required)')
+    .option('--real', 'only components on the real axis (default: all)')
+    .option('--within <box>', 'only nuclei inside the box RE0,IM0,RE1,IM1 in c (default: the whole plane)')
+    .option('--digits <D>', 'digits after the decimal point for nuclei and roots; sizes to D significant digits (at most 17)', '20')
+    .option('--count', 'print only the number of components, with the time taken on stderr (default: list them)')
     .option('--workers <N>', 'worker threads for the census (default: all cores)')
-    .option('--json', 'JSON output')
-    .option('--csv', 'CSV output')
+    .option('--json', 'JSON output (default: aligned text)')
+    .option('--csv', 'CSV output with snake_case columns (default: aligned text)')
     .action(async (o: Record<string, unknown>) => {
       const count = o['count'] === true;
       const period = parseIntFlag(o['period'], '--period', 1, count ? MAX_CENSUS_PERIOD : MAX_LIST_PERIOD);

@@ -27,12 +27,12 @@ export function register(program: Command): void {
   program
     .command('locate')
     .description('Newton to one nucleus of period P from a guess, an external angle or an internal address')
-    .option('--period <P>', 'exact period (required with --near)')
-    .option('--near <re,im>', 'start point for Newton')
-    .option('--angle <a/b>', 'a rational external angle: land its ray')
-    .option('--address <1-2-4>', 'an internal address')
-    .option('--digits <D>', 'digits after the point', '30')
-    .option('--json', 'JSON output')
+    .option('--period <P>', 'exact period, an integer from 1 (required with --near; default: from the angle or address)')
+    .option('--near <re,im>', 'start point for Newton in c, RE,IM as decimals (default: none)')
+    .option('--angle <a/b>', 'a rational external angle in turns, 0 <= a < b: land its ray (default: none)')
+    .option('--address <1-2-4>', 'an internal address, increasing periods from 1 (default: none)')
+    .option('--digits <D>', 'digits after the decimal point; sizes to D significant digits (at most 17)', '30')
+    .option('--json', 'JSON output (default: aligned text)')
     .action(async (o: Record<string, unknown>) => {
       const digits = parseIntFlag(o['digits'], '--digits', 1, 5000);
       const given = ['near', 'angle', 'address'].filter((k) => o[k] !== undefined);
