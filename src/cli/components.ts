@@ -36,11 +36,11 @@ export function register(program: Command): void {
       const digits = parseIntFlag(o['digits'], '--digits', 1, 2000);
       const workers = o['workers'] === undefined ? availableParallelism() : parseIntFlag(o['workers'], '--workers', 0, 256);
       const box = o['within'] === undefined ? null : parseBox(o['within'], '--within');
-      if (o['json'] === true && o['csv'] === true) throw new UserError('output format', 'one of --json or --csv', '--json --csv');
+      if (o['json'] === true && o['csv'] === true) throw new UserError('--json, --csv', 'one of --json or --csv', '--json --csv');
       const t0 = performance.now();
       const progress = process.stderr.isTTY
         ? (done: number, total: number): void => {
-            process.stderr.write(`\rperiod ${period}: ${done}/${total} rays`);
+            process.stderr.write(`\rquadatlas: period ${period}: ${done}/${total} rays`);
           }
         : undefined;
       const result = await census(period, progress === undefined ? { workers } : { workers, onProgress: progress });
@@ -57,7 +57,7 @@ export function register(program: Command): void {
         if (o['json'] === true) {
           process.stdout.write(`${JSON.stringify({ period, real: o['real'] === true, count: n, seconds: Number(seconds.toFixed(2)), raysTraced: result.raysTraced, unpaired: result.unpaired })}\n`);
         } else process.stdout.write(`${n}\n`);
-        process.stderr.write(`period ${period}: ${n} components located in ${seconds.toFixed(2)} s (${result.raysTraced} rays, ${workers} workers)\n`);
+        process.stderr.write(`quadatlas: period ${period}: ${n} components located in ${seconds.toFixed(2)} s (${result.raysTraced} rays, ${workers} workers)\n`);
         return;
       }
       const rows: ComponentInfo[] = [];

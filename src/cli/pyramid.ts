@@ -30,6 +30,7 @@ import { applyPlateOptions, attributeName, PLATE_OPTIONS, type OptionSpec } from
 import { readSheetFile, sheetName } from './sheet-file.js';
 import { Received, UserError } from './user-error.js';
 import { toolVersion } from './version.js';
+import { reportWrote } from './wrote.js';
 
 /** Plate flags that mean the same for a pyramid. */
 const SHARED = ['--center', '--span', '--rotation', '--size', '--print', '--dpi', '--iterations', '--samples', '--title', '--workers', '--again'];
@@ -293,8 +294,8 @@ export function register(program: Command): void {
     const summary = await runPyramid(sheetFile, values);
     if (values['json'] === true) process.stdout.write(`${JSON.stringify(summary, null, 2)}\n`);
     else {
-      const what = summary.finished ? `wrote ${summary.viewer}` : `rendered shard ${summary.shard} (${summary.tiles.rendered} tiles, ${summary.tiles.skipped} already there)`;
-      process.stderr.write(`${what} (${summary.tiles.total} tiles in ${summary.levels} levels, ${summary.seconds} s)\n`);
+      if (summary.finished) reportWrote([summary.dir, ...(summary.viewer === undefined ? [] : [summary.viewer])], summary.seconds, `${summary.tiles.total} tiles in ${summary.levels} levels`);
+      else process.stderr.write(`quadatlas: rendered shard ${summary.shard} (${summary.tiles.rendered} tiles, ${summary.tiles.skipped} already there; ${summary.tiles.total} tiles in ${summary.levels} levels, ${summary.seconds.toFixed(1)} s)\n`);
     }
   });
 }
