@@ -7,6 +7,7 @@ import type { Command } from 'commander';
 import { readPlateMetadata } from '../io/plate-metadata.js';
 import { parseSheet, type Sheet } from '../view/sheet.js';
 import { applyPlateOptions, nameTheFlag, PLATE_OPTIONS } from './plate-options.js';
+import { quickSheet } from './quick.js';
 import { reportWrote } from './wrote.js';
 import { renderSheet } from './render-sheet.js';
 import { readSheetFile, sheetName } from './sheet-file.js';
@@ -69,7 +70,7 @@ export function register(program: Command): void {
     const tileSize = parseCount(values['tileSize'], '--tile-size', 8, 1024);
     let summary;
     try {
-      const sheet: Sheet = parseSheet(applyPlateOptions(raw, values), name);
+      const sheet: Sheet = quickSheet(parseSheet(applyPlateOptions(raw, values), name));
       summary = await renderSheet(sheet, { ...(workers === undefined ? {} : { workers }), ...(tileSize === undefined ? {} : { tileSize }) });
     } catch (err) {
       throw nameTheFlag(err, values);

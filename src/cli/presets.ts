@@ -10,6 +10,7 @@ import { presetsDir } from './presets-dir.js';
 import { renderSheet } from './render-sheet.js';
 import { readSheetFile, sheetName } from './sheet-file.js';
 import { UserError } from './user-error.js';
+import { quickSheet } from './quick.js';
 import { reportWrote } from './wrote.js';
 import { toolVersion } from './version.js';
 
@@ -97,7 +98,7 @@ export function register(program: Command): void {
       }
       const workers = parseCount(opts.workers, '--workers', 1, 256);
       for (const e of chosen) {
-        let sheet = await load(e);
+        let sheet = quickSheet(await load(e));
         if (opts.outDir !== undefined) {
           const outDir = opts.outDir;
           const rebase = (p: string): string => path.join(outDir, path.basename(p));

@@ -30,6 +30,7 @@ import { applyPlateOptions, attributeName, PLATE_OPTIONS, type OptionSpec } from
 import { readSheetFile, sheetName } from './sheet-file.js';
 import { Received, UserError } from './user-error.js';
 import { toolVersion } from './version.js';
+import { quickSheet } from './quick.js';
 import { reportWrote } from './wrote.js';
 
 /** Plate flags that mean the same for a pyramid. */
@@ -104,7 +105,7 @@ async function sheetFrom(sheetFile: string | undefined, values: Record<string, u
   delete raw['startup'];
   delete raw['output'];
   if (raw['depth'] !== undefined && raw['depth'] !== 8) throw new UserError('depth', '8 (pyramid tiles are 8-bit, as viewers show them)', raw['depth']);
-  return { sheet: parseSheet(applyPlateOptions(raw, plateValues), name), name };
+  return { sheet: quickSheet(parseSheet(applyPlateOptions(raw, plateValues), name)), name };
 }
 
 /** Checks every tile, writes tiles/info.json, tiles/info.js and the viewer. */
