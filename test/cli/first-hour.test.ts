@@ -159,3 +159,14 @@ describe('sheet FILE', () => {
     expect(JSON.parse(runCli(['sheet', path.join(dir, 'old.png')]).stdout).kind).toBe('plate');
   });
 });
+
+describe('citation and version', () => {
+  it('CITATION.cff names the version in package.json, which every sheet records', () => {
+    const version = (JSON.parse(readFileSync(path.join(ROOT, 'package.json'), 'utf8')) as { version: string }).version;
+    const cff = readFileSync(path.join(ROOT, 'CITATION.cff'), 'utf8');
+    expect(cff).toMatch(/^cff-version: 1\.2\.0$/m);
+    expect(cff).toMatch(new RegExp(`^version: ${version.replace(/\./g, '\\.')}$`, 'm'));
+    const shown = JSON.parse(runCli(['presets', 'show', 'edges-whole']).stdout) as { writtenBy: string };
+    expect(shown.writtenBy).toBe(`quadatlas ${version}`);
+  });
+});
