@@ -20,6 +20,8 @@ export { landmarks } from '../section/landmarks.js';
 
 export function register(program: Command): void {
   const section = program.command('section').description('the real slice: convert, cascade, windows, lyapunov, diagram, compare');
+  // commander's own errors (unknown flag, missing value) in the one message style: one line, prefixed.
+  section.configureOutput({ outputError: (text, write) => write(`${text.startsWith('quadatlas:') ? '' : 'quadatlas: '}${text.replace(/^error: /, '').trim().replace(/\s*\n\s*/g, ' ')}\n`) });
   registerConvert(section);
   registerCascade(section);
   registerWindows(section);

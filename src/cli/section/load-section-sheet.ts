@@ -24,7 +24,8 @@ function isObject(v: unknown): v is Json {
 function checkKind(raw: Json, expected: SheetKind, field: string, file: string, how: (file: string) => string): Json {
   const kind = migrateSheet(raw, field);
   if (kind !== expected) {
-    throw new UserError(field, `a ${expected} sheet`, new Received(`a ${kind} sheet in ${file}; use ${commandFor(kind)} ${how(file)}`));
+    // The command to use goes in the expected part, which is never shortened.
+    throw new UserError(field, `a ${expected} sheet (for this one use ${commandFor(kind)} ${how(file)})`, new Received(`a ${kind} sheet`));
   }
   return raw;
 }
