@@ -23,15 +23,15 @@ export const CONVERT_OPTIONS: readonly SectionOption[] = [
   CSV_OPTION,
 ];
 
-/** The decimal exponent of a nonzero value (0 for zero). */
+/** The size of the decimal exponent of a nonzero value (0 for zero): x = 1/2 - z/r grows as r shrinks. */
 function decimalOrder(s: string): number {
   const v = new Decimal(s);
-  return v.isZero() ? 0 : v.e;
+  return v.isZero() ? 0 : Math.abs(v.e);
 }
 
 export function convertTable(values: Values): SectionTable {
   const digits = parseInteger(values['digits'], '--digits', 0, 10000, DEFAULT_DIGITS);
-  // Significant digits that cover `digits` places: c grows like r^2 and z like r x, so add twice the inputs' decimal order, plus guards.
+  // Significant digits that cover `digits` places: c grows like r^2, z like r x and x like z / r, so add twice the inputs' decimal orders, plus guards.
   const order = Math.max(0, ...(['c', 'r', 'x', 'z'] as const).filter((k) => typeof values[k] === 'string').map((k) => decimalOrder(parseDecimal(values[k], `--${k}`))));
   const work = digits + 16 + 2 * order;
   const at = (s: string): string => toPlaces(s, digits);
