@@ -66,6 +66,11 @@ describe('section option parsing', () => {
     expect(convertTable({ r: '100000000000000000000.5', digits: '2' }).rows[0]![0]).toBe(`-${String(cents).slice(0, -2)}.${String(cents).slice(-2)}`);
   });
 
+  it('convertTable keeps --digits places for a tiny r, where x = 1/2 - z/r is huge', () => {
+    // Exact: r = 10^-30, z = 1 gives x = 1/2 - 10^30.
+    expect(convertTable({ r: '1e-30', z: '1', digits: '3' }).rows[0]![2]).toBe(`-${'9'.repeat(30)}.5`);
+  });
+
   it('every section help line states its default', () => {
     for (const table of [CONVERT_OPTIONS, CASCADE_OPTIONS, WINDOWS_OPTIONS, LYAPUNOV_OPTIONS, DIAGRAM_OPTIONS, COMPARE_OPTIONS]) {
       for (const o of table) expect(o.help, o.flags).toMatch(/\(default|default:/);
