@@ -1,0 +1,98 @@
+/**
+ * `quadatlas section cascade`: the period-doubling cascade of a family, its
+ * Feigenbaum ratios, their accelerated limits with trusted digits, and the
+ * accumulation point (methods.md E2, E3). Parameters are written to
+ * `--digits` places after the decimal point.
+ */
+import type { Command } from 'commander';
+import type { Decimal } from 'decimal.js';
+import { toPlaces } from '../../section/decimal-text.js';
+import { formatTable, integerCell, type Cell, type SectionTable } from '../../section/section-table.js';
+import { addOptions, clearProgress, CSV_OPTION, digitsOption, FAMILY_OPTION, guarded, JSON_OPTION, parseFamily, parseInteger, progressLine, tableFormat, type SectionOption, type Values, writeStdout } from './section-options.js';
+
+const DEFAULT_DIGITS = 24;
+
+export const CASCADE_OPTIONS: readonly SectionOption[] = [
+  FAMILY_OPTION,
+  { flags: '--levels <k>', help: 'cascade levels: periods 1, 2, 4, ..., 2^k, k from 2 to 22 (default 16 for logistic: delta to about 16 significant digits, alpha to 12; 9 otherwise)' },
+  digitsOption(DEFAULT_DIGITS, 'the parameters and ratios, from 8 to 500'),
+  JSON_OPTION,
+  CSV_OPTION,
+];
+
+/**
+ * A constant shown with only its trusted digits, and no more than `places`
+ * after the point; trailing zeros kept, since every digit shown is trusted.
+ */
+function trusted(value: Decimal, significant: number, places: number): string {
+  if (significant <= 0) return 'not trusted';
+  const placesTrusted = significant - (value.e + 1);
+  if (placesTrusted < 0) return value.toSignificantDigits(significant).toString();
+  return value.toFixed(Math.min(placesTrusted, places));
+}
+
+export async function cascadeTable(values: Values, progress: (s: string) => void): Promise<SectionTable> {
+  const family = parseFamily(values['family']);
+  // 16 logistic levels take about 10 s on 2 cores; decimal.js sin makes the sine family about 40 times slower per step than the BigInt logistic path.
+  const levels = parseInteger(values['levels'], '--levels', 2, 22, family.name === 'logistic' ? 16 : 9);
+  const digits = parseInteger(values['digits'], '--digits', 8, 500, DEFAULT_DIGITS);
+  const { computeCascade } = await import('../../section/cascade.js');
+  const { cascadeSolverFor } = await import('../../section/cascade-solver-for.js');
+  // Significant working digits: delta^-n shrinks the gaps by about 0.67 digits per level and two gaps meet in
+  // delta_n, so `digits` places of delta_n need that much more; the accelerated limits need 1.4 per level.
+  const work = Math.max(digits + 6 + Math.ceil(0.7 * levels), Math.ceil(1.4 * levels) + 24);
+  const solver = cascadeSolverFor(family, work);
+  const started = Date.now();
+  const cascade = computeCascade(solver.solver, levels, work, (l) => progress(`level ${l.level} (period ${l.period}) in ${((Date.now() - started) / 1000).toFixed(1)} s`));
+  const toC = solver.toC;
+  const p = family.parameter;
+  const columns = ['n', 'period', `doubling_${p}`, ...(toC ? ['doubling_c'] : []), `superstable_${p}`, ...(toC ? ['superstable_c'] : []), 'delta_n', 'alpha_n'];
+  const at = (v: Decimal | undefined): string => (v === undefined ? '' : toPlaces(v, digits));
+  const cOf = (v: Decimal | undefined): string => (v === undefined || toC === undefined ? '' : toPlaces(toC(v, work), digits));
+  const rows = cascade.levels.map((l) => {
+    const row: Cell[] = [integerCell(l.level), integerCell(l.period), at(l.doubling)];
+    if (toC) row.push(cOf(l.doubling));
+    row.push(at(l.superstable));
+    if (toC) row.push(cOf(l.superstable));
+    row.push(at(l.delta), at(l.alpha));
+    return row;
+  });
+  const acc = cascade.accumulation;
+  const summary = [
+    { name: 'delta', value: trusted(cascade.delta.value, cascade.delta.digits, digits), note: `${cascade.delta.digits} significant digits trusted, repeated Aitken x${cascade.delta.passes}` },
+    { name: 'alpha', value: trusted(cascade.alpha.value, cascade.alpha.digits, digits), note: `${cascade.alpha.digits} significant digits trusted, repeated Aitken x${cascade.alpha.passes}` },
+    { name: `${p}_inf`, value: trusted(acc.value, acc.digits, digits), note: `${acc.digits} significant digits trusted, accumulation point` },
+  ];
+  if (toC && acc.digits > 0) {
+    const { Decimal } = await import('decimal.js');
+    summary.push({ name: 'c_inf', value: trusted(new Decimal(toC(acc.value, work)), acc.digits, digits), note: `${acc.digits} significant digits, from ${p}_inf` });
+  }
+  return {
+    title: `period-doubling cascade of the ${family.name} family ${family.formula}`,
+    columns,
+    rows,
+    summary,
+    extra: {
+      family: family.name,
+      digits,
+      estimates: {
+        delta: { value: toPlaces(cascade.delta.value, digits), significantDigits: cascade.delta.digits },
+        alpha: { value: toPlaces(cascade.alpha.value, digits), significantDigits: cascade.alpha.digits },
+        accumulation: { value: toPlaces(acc.value, digits), significantDigits: acc.digits },
+      },
+    },
+  };
+}
+
+export function register(section: Command): void {
+  const cmd = section.command('cascade').description('period-doubling cascade, Feigenbaum delta and alpha, accumulation point');
+  addOptions(cmd, CASCADE_OPTIONS);
+  cmd.action(
+    guarded(async (values: Values) => {
+      const format = tableFormat(values);
+      const table = await cascadeTable(values, progressLine);
+      clearProgress();
+      writeStdout(formatTable(table, format));
+    }),
+  );
+}

@@ -1,0 +1,115 @@
+/**
+ * `quadatlas section diagram [SHEET]`: the bifurcation diagram as a density
+ * image (methods.md E7), a grey PNG of 8 or 16 bits carrying its sheet.
+ * Flags override the sheet; `--again FILE` takes the sheet from a diagram
+ * (or its sidecar) written before, and gives the same bytes.
+ */
+import type { Command } from 'commander';
+import { diagramRecord, parseDiagramSheet, type DiagramSheet } from '../../section/diagram-sheet.js';
+import { FAMILIES } from '../../section/families/index.js';
+import { reportWrote } from '../wrote.js';
+import { Received, UserError } from '../user-error.js';
+import { toolVersion } from '../version.js';
+import { againOutput, loadSectionSheet } from './load-section-sheet.js';
+import { prepareOutput, sectionMetadata, writeSidecar } from './section-output.js';
+import { addOptions, againOption, applySectionFlags, clearProgress, FAMILY_OPTION, guarded, integerText, NO_SIDECAR_OPTION, parseWorkers, progressLine, sizeText, WORKERS_OPTION, type SectionOption, type Values } from './section-options.js';
+
+
+export const DIAGRAM_OPTIONS: readonly SectionOption[] = [
+  FAMILY_OPTION,
+  { flags: '--r-from <r>', help: 'left edge of the parameter axis r (default 2.8 logistic, 0.7 sine, 0.6 quartic)', field: 'r.from' },
+  { flags: '--r-to <r>', help: 'right edge of the parameter axis r (default 4 logistic, 1 sine, 2^(1/3) quartic)', field: 'r.to' },
+  { flags: '--x-from <x>', help: 'bottom edge of the state axis x (default 0; quartic -1.26)', field: 'x.from' },
+  { flags: '--x-to <x>', help: 'top edge of the state axis x (default 1; quartic 1.26)', field: 'x.to' },
+  { flags: '--size <WxH>', help: 'image size in pixels, 1x1 to 65535x65535 (default 2000x1000)', field: 'pixels', value: sizeText('--size') },
+  { flags: '--samples <k>', help: 'jittered parameter samples per pixel column, 1 to 1024 (default 4)', field: 'samples', value: integerText },
+  { flags: '--transient <n>', help: 'iterations discarded per sample before plotting (default 1000)', field: 'transient', value: integerText },
+  { flags: '--iterations <n>', help: 'iterations plotted per sample (default 2 x height, at least 1000)', field: 'iterations', value: integerText },
+  { flags: '--depth <bits>', help: 'bits per channel of the PNG: 8 or 16 (default 16)', field: 'depth', value: integerText },
+  { flags: '--out <file>', help: 'output PNG file (default out/FAMILY-diagram.png)', field: 'output.file' },
+  NO_SIDECAR_OPTION,
+  againOption('section diagram'),
+  WORKERS_OPTION,
+];
+
+/** The sheet of a run: from the positional file or --again, with flags over it. */
+export async function diagramSheet(sheetFile: string | undefined, values: Values): Promise<DiagramSheet> {
+  const { raw, again } = await loadSectionSheet('section-diagram', sheetFile, values['again']);
+  if (again !== undefined && typeof values['out'] !== 'string') raw['output'] = { file: againOutput(again, ['.png']) };
+  return parseDiagramSheet(raw, applySectionFlags(raw, values, DIAGRAM_OPTIONS));
+}
+
+async function writeInkPng(file: string, ink: Uint16Array, width: number, height: number, depth: 8 | 16, metadata: string, field: string): Promise<void> {
+  const { openPngSink } = await import('../../io/png-sink.js');
+  let sink;
+  try {
+    sink = await openPngSink(file, { width, height, depth, channels: 3, metadata, software: `quadatlas ${toolVersion()}` });
+  } catch (err) {
+    throw new UserError(field, 'a writable file path', new Received(`${file} (${(err as NodeJS.ErrnoException).code ?? (err as Error).message})`));
+  }
+  try {
+    const band = 64;
+    for (let j0 = 0; j0 < height; j0 += band) {
+      const rows = Math.min(band, height - j0);
+      const px = depth === 16 ? new Uint16Array(rows * width * 3) : new Uint8Array(rows * width * 3);
+      for (let k = 0; k < rows * width; k++) {
+        const v = ink[j0 * width + k]!;
+        const q = depth === 16 ? v : Math.round(v / 257);
+        px[3 * k] = q;
+        px[3 * k + 1] = q;
+        px[3 * k + 2] = q;
+      }
+      await sink.writeRows(px, rows);
+    }
+    await sink.finish();
+  } catch (err) {
+    await sink.abort();
+    throw err;
+  }
+}
+
+export interface DiagramWritten {
+  readonly files: string[];
+  readonly seconds: number;
+}
+
+/** Renders a diagram sheet and writes the PNG (and its sidecar). */
+export async function diagramRun(sheet: DiagramSheet, workers: number, field: string, progress: (s: string) => void): Promise<DiagramWritten> {
+  const family = FAMILIES.get(sheet.family)!;
+  const file = sheet.output.file;
+  await prepareOutput(file, field);
+  const { renderDiagram } = await import('../../section/render-diagram.js');
+  const { drawTicks } = await import('../../section/diagram-ticks.js');
+  const { niceTicks } = await import('../../section/plot-svg.js');
+  const { width, height } = sheet.pixels;
+  const [from, to] = [Number(sheet.r.from), Number(sheet.r.to)];
+  const settings = { width, height, samples: sheet.samples, transient: sheet.transient, iterations: sheet.iterations, stateTop: Number(sheet.x.to), stateBottom: Number(sheet.x.from) };
+  const started = Date.now();
+  const ink = await renderDiagram(family, { kind: 'parameter', from, to }, settings, workers, (d, n) => progress(`diagram ${Math.round((100 * d) / n)} %`));
+  const ticks = niceTicks(from, to, 10);
+  drawTicks(ink, width, height, ticks.map((t) => (t - from) / (to - from)), Math.max(4, Math.round(height / 100)));
+  // The tick marks are drawn as pixels; their values travel in the metadata.
+  const metadata = sectionMetadata(diagramRecord(sheet), { formula: family.formula, ticks: { r: ticks } });
+  await writeInkPng(file, ink, width, height, sheet.depth, metadata, field);
+  const seconds = (Date.now() - started) / 1000;
+  const files = [file];
+  if (sheet.output.sidecar) files.push(await writeSidecar(file, metadata, { file, files: [file, `${file}.json`], seconds, pixels: { ...sheet.pixels } }, field));
+  return { files, seconds };
+}
+
+export function register(section: Command): void {
+  const cmd = section
+    .command('diagram')
+    .description('the bifurcation diagram as a density image, 8- or 16-bit grey PNG (flags override the sheet)')
+    .argument('[sheet]', 'a section-diagram sheet (JSON) holding the parameters');
+  addOptions(cmd, DIAGRAM_OPTIONS);
+  cmd.action(
+    guarded(async (sheetFile: string | undefined, values: Values) => {
+      const workers = parseWorkers(values['workers']);
+      const sheet = await diagramSheet(sheetFile, values);
+      const r = await diagramRun(sheet, workers, typeof values['out'] === 'string' ? '--out' : 'output.file', progressLine);
+      clearProgress();
+      reportWrote(r.files, r.seconds);
+    }),
+  );
+}
