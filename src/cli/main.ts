@@ -61,7 +61,11 @@ export async function main(argv: readonly string[]): Promise<number> {
     .description('Plates, components, the real slice and deep-zoom pyramids for z -> z^2 + c.')
     .version(toolVersion(), '-V, --version')
     .exitOverride()
-    .configureOutput({ writeErr: (s) => process.stderr.write(s) });
+    .configureOutput({
+      writeErr: (s) => process.stderr.write(s),
+      // commander's own errors (unknown flag, missing value) in the one message style: one line, prefixed.
+      outputError: (text, write) => write(`${text.startsWith('quadatlas:') ? '' : 'quadatlas: '}${text.replace(/^error: /, '').trim().replace(/\s*\n\s*/g, ' ')}\n`),
+    });
   const wanted = argv[0];
   for (const [name, summary, load] of COMMANDS) {
     if (name === wanted) (await load()).register(program);

@@ -33,3 +33,12 @@ export function quickSheet(sheet: Sheet): Sheet {
   process.stderr.write(`quadatlas: note: QUADATLAS_QUICK is set: rendering ${width}x${height} at ${samples} samples instead of ${sheet.width}x${sheet.height} at ${sheet.samples}\n`);
   return { ...sheet, width, height, samples, dpi };
 }
+
+/** The same for a section sheet's `pixels` (diagram, compare). */
+export function quickPixels<T extends { readonly pixels: { readonly width: number; readonly height: number } }>(sheet: T): T {
+  if (!quickMode()) return sheet;
+  const size = quickSize(sheet.pixels.width, sheet.pixels.height);
+  if (size === null) return sheet;
+  process.stderr.write(`quadatlas: note: QUADATLAS_QUICK is set: rendering ${size.width}x${size.height} instead of ${sheet.pixels.width}x${sheet.pixels.height}\n`);
+  return { ...sheet, pixels: size };
+}

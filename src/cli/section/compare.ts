@@ -5,6 +5,7 @@
  * Flags override the sheet; `--again FILE` takes the sheet from a plate (or
  * its sidecar) written before, and gives the same bytes.
  */
+import { quickPixels } from '../quick.js';
 import type { Command } from 'commander';
 import { compareHeights, compareRecord, parseCompareSheet, type CompareSheet } from '../../section/compare-sheet.js';
 import { reportWrote } from '../wrote.js';
@@ -32,7 +33,7 @@ export const COMPARE_OPTIONS: readonly SectionOption[] = [
 export async function compareSheet(sheetFile: string | undefined, values: Values): Promise<CompareSheet> {
   const { raw, again } = await loadSectionSheet('section-compare', sheetFile, values['again']);
   if (again !== undefined && typeof values['out'] !== 'string') raw['output'] = { file: againOutput(again, ['.svg', '.png']) };
-  return parseCompareSheet(raw, applySectionFlags(raw, values, COMPARE_OPTIONS));
+  return quickPixels(parseCompareSheet(raw, applySectionFlags(raw, values, COMPARE_OPTIONS)));
 }
 
 /** The plate as SVG (without metadata). */

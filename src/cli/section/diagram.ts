@@ -4,6 +4,7 @@
  * Flags override the sheet; `--again FILE` takes the sheet from a diagram
  * (or its sidecar) written before, and gives the same bytes.
  */
+import { quickPixels } from '../quick.js';
 import type { Command } from 'commander';
 import { diagramRecord, parseDiagramSheet, type DiagramSheet } from '../../section/diagram-sheet.js';
 import { FAMILIES } from '../../section/families/index.js';
@@ -36,7 +37,7 @@ export const DIAGRAM_OPTIONS: readonly SectionOption[] = [
 export async function diagramSheet(sheetFile: string | undefined, values: Values): Promise<DiagramSheet> {
   const { raw, again } = await loadSectionSheet('section-diagram', sheetFile, values['again']);
   if (again !== undefined && typeof values['out'] !== 'string') raw['output'] = { file: againOutput(again, ['.png']) };
-  return parseDiagramSheet(raw, applySectionFlags(raw, values, DIAGRAM_OPTIONS));
+  return quickPixels(parseDiagramSheet(raw, applySectionFlags(raw, values, DIAGRAM_OPTIONS)));
 }
 
 async function writeInkPng(file: string, ink: Uint16Array, width: number, height: number, depth: 8 | 16, metadata: string, field: string): Promise<void> {
