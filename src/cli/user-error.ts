@@ -44,7 +44,10 @@ export function showValue(value: unknown): string {
   }
   s = s.replace(/\s+/g, ' ');
   // Long values (paths, decimals of many digits) differ at their ends: keep both.
-  return s.length > 80 ? `${s.slice(0, 30)}...${s.slice(-47)}` : s;
+  // Descriptions (Received) are our own words and say what matters: they get more room.
+  const most = value instanceof Received ? 240 : 80;
+  const head = Math.floor(most / 3);
+  return s.length > most ? `${s.slice(0, head)}...${s.slice(-(most - head - 3))}` : s;
 }
 
 /** Throws a UserError naming the field unless the test holds. */
