@@ -3,6 +3,7 @@
  * --help are built from this table, and `applyPlateOptions` turns parsed flag
  * values into overrides of a sheet (pure, unit-tested without a process).
  */
+import { COLOUR_OPTIONS } from './colour-options.js';
 import { UserError } from './user-error.js';
 
 export interface OptionSpec {
@@ -83,7 +84,7 @@ export const PLATE_OPTIONS: readonly OptionSpec[] = [
   },
   { flags: '--samples <k>', description: 'samples per refined pixel: 1 (off) or a square, e.g. 4, 9, 16', apply: (s, v) => void (s['samples'] = integer(v, '--samples')) },
   { flags: '--depth <bits>', description: 'bits per channel: 8 or 16', apply: (s, v) => void (s['depth'] = integer(v, '--depth')) },
-  { flags: '--legend <where>', description: 'period legend: none, inset or beside', apply: (s, v) => void (sub(s, 'colour')['legend'] = v) },
+  ...COLOUR_OPTIONS,
   { flags: '--label-periods <n>', description: 'mark and label the nuclei of periods 1..n that are large enough (0: none)', apply: (s, v) => void (s['labels'] = integer(v, '--label-periods')) },
   { flags: '--title <text>', description: 'title recorded in the metadata', apply: (s, v) => void (s['title'] = v) },
   { flags: '--out <file>', description: 'output image (.png, .tif or .tiff)', apply: (s, v) => void (sub(s, 'output')['file'] = v) },
