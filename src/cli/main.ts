@@ -26,6 +26,7 @@ const COMMANDS: ReadonlyArray<readonly [string, string, () => Promise<CommandMod
   ['components', 'list or count the hyperbolic components of a period', () => import('./components.js')],
   ['locate', 'Newton to one nucleus from a guess, an external angle or an internal address', () => import('./locate.js')],
   ['describe', 'everything known about one parameter c', () => import('./describe.js')],
+  ['palettes', 'list and show the exterior gradients, interior styles and period colours', () => import('./palettes.js')],
 ];
 
 /** Commands whose positional arguments are numbers that may be negative (e.g. `describe -0.12,0.75`). */

@@ -7,6 +7,15 @@ import { PERIOD_PALETTE_SIZE } from './period-palette.js';
 export type InteriorStyle = 'period' | 'period-depth' | 'period-angle' | 'period-depth-angle' | 'solid';
 export const INTERIOR_STYLES: readonly InteriorStyle[] = ['period', 'period-depth', 'period-angle', 'period-depth-angle', 'solid'];
 
+/** One line about each interior style (see ColourSettings.interior), for `quadatlas palettes`. */
+export const INTERIOR_STYLE_NOTES: Readonly<Record<InteriorStyle, string>> = {
+  period: 'the flat period-palette colour',
+  'period-depth': 'the period colour, darker toward the centre of the cycle (0.4 + 0.6 |multiplier|)',
+  'period-angle': 'the period colour stepped by the internal angle arg(multiplier) / 2 pi (0.7 + 0.3 angle)',
+  'period-depth-angle': 'both factors',
+  solid: 'every interior sample takes colour.interiorColour',
+};
+
 /** Where the period legend goes. */
 export type LegendPlacement = 'none' | 'inset' | 'beside';
 export const LEGEND_PLACEMENTS: readonly LegendPlacement[] = ['none', 'inset', 'beside'];
