@@ -18,7 +18,7 @@ import { Received, UserError } from './user-error.js';
 
 const d = DEFAULT_COLOUR_SETTINGS;
 
-/** Marks a colour block whose exterior was set by --exterior on this command line (not JSON: a symbol key). */
+/** Marks a colour block whose exterior was set by --exterior on this command line (a hidden symbol key, never in JSON). */
 const EXTERIOR_FLAG = Symbol('exterior flag');
 
 function colourBlock(sheet: Record<string, unknown>): Record<string | symbol, unknown> {
@@ -56,7 +56,7 @@ export const COLOUR_OPTIONS: readonly OptionSpec[] = [
       const c = colourBlock(sheet);
       c['exterior'] = parseColourField('exterior', value.trim(), '--exterior (colour.exterior)');
       delete c['gradient'];
-      c[EXTERIOR_FLAG] = true;
+      Object.defineProperty(c, EXTERIOR_FLAG, { value: true, enumerable: false, configurable: true });
     },
   },
   {
