@@ -28,6 +28,7 @@ const COMMANDS: ReadonlyArray<readonly [string, string, () => Promise<CommandMod
   ['locate', 'Newton to one nucleus from a guess, an external angle or an internal address', () => import('./locate.js')],
   ['probe', 'everything known about one parameter c', () => import('./probe.js')],
   ['sheet', 'print the sheet stored in an image, plot or sidecar quadatlas wrote', () => import('./sheet.js')],
+  ['palettes', 'list and show the exterior gradients, interior styles and period colours', () => import('./palettes.js')],
 ];
 
 /** Commands whose positional arguments are numbers that may be negative (e.g. `probe -0.12,0.75`). */

@@ -3,6 +3,7 @@
  * --help are built from this table, and `applyPlateOptions` turns parsed flag
  * values into overrides of a sheet (pure, unit-tested without a process).
  */
+import { COLOUR_OPTIONS } from './colour-options.js';
 import { UserError } from './user-error.js';
 
 export interface OptionSpec {
@@ -83,7 +84,7 @@ export const PLATE_OPTIONS: readonly OptionSpec[] = [
   },
   { flags: '--samples <k>', description: 'samples per refined pixel: 1 (off) or a square such as 4, 9, 16 (default 9; sheet samples)', apply: (s, v) => void (s['samples'] = integer(v, '--samples')) },
   { flags: '--depth <bits>', description: 'bits per channel: 8 or 16 (default 8; sheet depth)', apply: (s, v) => void (s['depth'] = integer(v, '--depth')) },
-  { flags: '--legend <where>', description: 'period legend: none, inset or beside', apply: (s, v) => void (sub(s, 'colour')['legend'] = v) },
+  ...COLOUR_OPTIONS,
   { flags: '--label-periods <n>', description: 'mark and label the nuclei of periods 1..n that are large enough, n from 0 (none) to 14 (default 0; sheet labels)', apply: (s, v) => void (s['labels'] = integer(v, '--label-periods')) },
   { flags: '--title <text>', description: 'title recorded in the metadata (default none; sheet title)', apply: (s, v) => void (s['title'] = v) },
   { flags: '--out <file>', description: 'output image file ending in .png, .tif or .tiff (default out/<sheet>.png; sheet output.file)', apply: (s, v) => void (sub(s, 'output')['file'] = v) },

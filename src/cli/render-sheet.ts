@@ -16,7 +16,7 @@ import { openPngSink } from '../io/png-sink.js';
 import type { RasterSink, RasterSpec } from '../io/raster-sink.js';
 import { openTiffSink } from '../io/tiff-sink.js';
 import { writeFileAtomic } from '../io/write-file-atomic.js';
-import { legendSvg } from '../colour/legend.js';
+import { legendBounds, legendSvg, presentPeriods } from '../colour/legend.js';
 import { DEFAULT_ESCAPE_RADIUS } from '../plane/sample-parameters.js';
 import type { PlateJob, TileStats } from '../render/plate-job.js';
 import { createProgress } from '../render/progress.js';
@@ -165,7 +165,10 @@ export async function renderSheet(sheet: Sheet, options: RenderSheetOptions = {}
   const tileSize = options.tileSize ?? DEFAULT_TILE_SIZE;
   const file = sheet.output.file;
   const tiff = /\.tiff?$/i.test(file);
+  // Periods never exceed the iteration limit, which bounds the legend's number width.
+  const bounds = legendBounds(sheet.colour, sheet.width, sheet.height, sheet.dpi, String(iterations).length);
   let job: PlateJob = {
+    ...(bounds === null ? {} : { legendBounds: bounds }),
     grid,
     iterations,
     escapeRadius: DEFAULT_ESCAPE_RADIUS,
@@ -196,6 +199,15 @@ export async function renderSheet(sheet: Sheet, options: RenderSheetOptions = {}
   const minStrip = sheet.width * tileSize * bytesPerPixel(job);
   if (3 * minStrip > os.totalmem() / 4) {
     throw new UserError('pixels.width', `a width whose strips fit in memory (at most ${Math.floor(os.totalmem() / 12 / (tileSize * bytesPerPixel(job)))} pixels)`, sheet.width);
+  }
+  // An inset legend holds back the strips it may cover until every tile is done (render-plate.ts):
+  // with a top corner that is the whole plate, encoded, plus linear colours under the legend.
+  if (bounds !== null) {
+    const heldRows = bounds.y === 0 ? sheet.height : sheet.height - bounds.y + tileSize;
+    const held = sheet.width * heldRows * bytesPerPixel(job) + bounds.width * (bounds.height + 2 * tileSize) * 24;
+    if (held > os.totalmem() / 4) {
+      throw new UserError('colour.legendCorner', 'a bottom corner, or colour.legend "beside", for a plate this large (a top inset legend holds the whole plate in memory)', sheet.colour.legendCorner);
+    }
   }
   // Disk: the image (estimated at a quarter of its raw size, twice for TIFF's bands) plus the exact NPY sizes.
   const rawImage = sheet.width * sheet.height * 3 * (sheet.depth / 8);
@@ -268,7 +280,7 @@ export async function renderSheet(sheet: Sheet, options: RenderSheetOptions = {}
     };
     if (sheet.colour.legend === 'beside') {
       const legendFile = file.replace(/\.(png|tiff?)$/i, '-legend.svg');
-      await writeFileAtomic(legendFile, legendSvg(sheet.colour));
+      await writeFileAtomic(legendFile, legendSvg(presentPeriods(stats.periods, sheet.colour)));
       files.push(path.resolve(legendFile));
     }
     if (sheet.output.sidecar) {

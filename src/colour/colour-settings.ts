@@ -1,10 +1,20 @@
 import { UserError } from '../cli/user-error.js';
 import { EXTERIOR_GRADIENT_NAMES, type ExteriorGradientName } from './exterior-gradients.js';
+import { parseGradientStops, type GradientStop } from './gradient-stops.js';
 import { PERIOD_PALETTE_SIZE } from './period-palette.js';
 
 /** How interior (attracting-cycle) samples are coloured. */
 export type InteriorStyle = 'period' | 'period-depth' | 'period-angle' | 'period-depth-angle' | 'solid';
 export const INTERIOR_STYLES: readonly InteriorStyle[] = ['period', 'period-depth', 'period-angle', 'period-depth-angle', 'solid'];
+
+/** One line about each interior style (see ColourSettings.interior), for `quadatlas palettes`. */
+export const INTERIOR_STYLE_NOTES: Readonly<Record<InteriorStyle, string>> = {
+  period: 'the flat period-palette colour',
+  'period-depth': 'the period colour, darker toward the centre of the cycle (0.4 + 0.6 |multiplier|)',
+  'period-angle': 'the period colour stepped by the internal angle arg(multiplier) / 2 pi (0.7 + 0.3 angle)',
+  'period-depth-angle': 'both factors',
+  solid: 'every interior sample takes colour.interiorColour',
+};
 
 /** Where the period legend goes. */
 export type LegendPlacement = 'none' | 'inset' | 'beside';
@@ -19,8 +29,18 @@ export const LEGEND_CORNERS: readonly LegendCorner[] = ['top-left', 'top-right',
  * in a plate's metadata so the plate can be coloured again identically.
  */
 export interface ColourSettings {
-  /** Exterior gradient name (exterior-gradients.ts): tidepool, heather, brass, vellum. */
+  /**
+   * Exterior gradient name (exterior-gradients.ts): tidepool, heather, brass,
+   * vellum. Ignored when `gradient` is present.
+   */
   readonly exterior: ExteriorGradientName;
+  /**
+   * A custom exterior gradient: colour stops [{at, colour}] along one cycle
+   * (gradient-stops.ts). Absent unless given; when present it replaces the
+   * named `exterior` gradient. The stops themselves live in the sheet, never
+   * a path, so a plate renders again from its metadata alone.
+   */
+  readonly gradient?: readonly GradientStop[];
   /**
    * How the smooth count mu is mapped before the gradient repeats:
    * `log` uses u = ln(1 + mu), `linear` uses u = mu.
@@ -69,7 +89,12 @@ export interface ColourSettings {
   readonly legend: LegendPlacement;
   /** Which corner of the plate an inset legend sits in. */
   readonly legendCorner: LegendCorner;
-  /** The legend lists periods 1..legendPeriods (1..64). */
+  /**
+   * The most periods a legend lists (1..64). The legend lists the periods
+   * present in the view (legend.ts: at least LEGEND_MIN_PIXELS interior
+   * pixels); when more are present it keeps the legendPeriods periods with the
+   * most pixels, in increasing order of period.
+   */
   readonly legendPeriods: number;
 }
 
@@ -91,6 +116,7 @@ export const DEFAULT_COLOUR_SETTINGS: ColourSettings = {
 
 const KEYS = [
   'exterior',
+  'gradient',
   'countScale',
   'cycle',
   'offset',
@@ -139,6 +165,47 @@ function hexColour(v: unknown, field: string): string {
   throw new UserError(field, 'a colour "#rrggbb" (sRGB hex)', v);
 }
 
+/** A key of the colour block. */
+export type ColourKey = (typeof KEYS)[number];
+
+/**
+ * Validates one field of the colour block, naming `field` in any error (the
+ * sheet path 'colour.edge', or a flag and its field '--edge (colour.edge)').
+ * Returns the checked value (colours in lower case).
+ */
+export function parseColourField(key: ColourKey, v: unknown, field: string): unknown {
+  switch (key) {
+    case 'exterior':
+      return oneOf(v, EXTERIOR_GRADIENT_NAMES, field);
+    case 'gradient':
+      return parseGradientStops(v, field);
+    case 'countScale':
+      return oneOf(v, ['log', 'linear'] as const, field);
+    case 'cycle':
+      return numberIn(v, field, 0, 1e6, true, false);
+    case 'offset':
+      return numberIn(v, field, 0, 1, false, true);
+    case 'edge':
+    case 'interiorEdge':
+      return numberIn(v, field, 0, MAX_EDGE_PIXELS, false, false);
+    case 'edgeColour':
+    case 'interiorColour':
+    case 'undecidedColour':
+      return hexColour(v, field);
+    case 'interior':
+      return oneOf(v, INTERIOR_STYLES, field);
+    case 'legend':
+      return oneOf(v, LEGEND_PLACEMENTS, field);
+    case 'legendCorner':
+      return oneOf(v, LEGEND_CORNERS, field);
+    case 'legendPeriods':
+      if (typeof v !== 'number' || !Number.isInteger(v) || v < 1 || v > PERIOD_PALETTE_SIZE) {
+        throw new UserError(field, `an integer between 1 and ${PERIOD_PALETTE_SIZE}`, v);
+      }
+      return v;
+  }
+}
+
 /**
  * Validates the `colour` block of a sheet (plain JSON) and fills defaults for
  * missing keys. Undefined gives the defaults. Throws UserError naming the exact
@@ -148,28 +215,17 @@ export function parseColourSettings(value: unknown, field = 'colour'): ColourSet
   if (value === undefined) return DEFAULT_COLOUR_SETTINGS;
   if (!isPlainObject(value)) throw new UserError(field, 'an object of colour settings', value);
   rejectUnknownKeys(value, KEYS, field);
-  const d = DEFAULT_COLOUR_SETTINGS;
-  const get = (key: (typeof KEYS)[number]): unknown => value[key];
-  const f = (key: string): string => `${field}.${key}`;
-
-  const legendPeriods = get('legendPeriods') ?? d.legendPeriods;
-  if (typeof legendPeriods !== 'number' || !Number.isInteger(legendPeriods) || legendPeriods < 1 || legendPeriods > PERIOD_PALETTE_SIZE) {
-    throw new UserError(f('legendPeriods'), `an integer between 1 and ${PERIOD_PALETTE_SIZE}`, legendPeriods);
+  const d = DEFAULT_COLOUR_SETTINGS as unknown as Record<string, unknown>;
+  const out: Record<string, unknown> = {};
+  // legendPeriods is checked first, as it always was, so the first problem reported stays the same.
+  const order: ColourKey[] = ['legendPeriods', ...KEYS.filter((k) => k !== 'legendPeriods')];
+  for (const key of order) {
+    const given = value[key];
+    if (key === 'gradient' && given === undefined) continue;
+    out[key] = parseColourField(key, given ?? d[key], `${field}.${key}`);
   }
-
-  return {
-    exterior: oneOf(get('exterior') ?? d.exterior, EXTERIOR_GRADIENT_NAMES, f('exterior')),
-    countScale: oneOf(get('countScale') ?? d.countScale, ['log', 'linear'] as const, f('countScale')),
-    cycle: numberIn(get('cycle') ?? d.cycle, f('cycle'), 0, 1e6, true, false),
-    offset: numberIn(get('offset') ?? d.offset, f('offset'), 0, 1, false, true),
-    edge: numberIn(get('edge') ?? d.edge, f('edge'), 0, MAX_EDGE_PIXELS, false, false),
-    edgeColour: hexColour(get('edgeColour') ?? d.edgeColour, f('edgeColour')),
-    interior: oneOf(get('interior') ?? d.interior, INTERIOR_STYLES, f('interior')),
-    interiorColour: hexColour(get('interiorColour') ?? d.interiorColour, f('interiorColour')),
-    interiorEdge: numberIn(get('interiorEdge') ?? d.interiorEdge, f('interiorEdge'), 0, MAX_EDGE_PIXELS, false, false),
-    undecidedColour: hexColour(get('undecidedColour') ?? d.undecidedColour, f('undecidedColour')),
-    legend: oneOf(get('legend') ?? d.legend, LEGEND_PLACEMENTS, f('legend')),
-    legendCorner: oneOf(get('legendCorner') ?? d.legendCorner, LEGEND_CORNERS, f('legendCorner')),
-    legendPeriods,
-  };
+  // Key order as in DEFAULT_COLOUR_SETTINGS (the gradient after exterior), so a recorded sheet reads the same.
+  const ordered: Record<string, unknown> = {};
+  for (const key of KEYS) if (key in out) ordered[key] = out[key];
+  return ordered as unknown as ColourSettings;
 }

@@ -46,6 +46,14 @@ export const EXTERIOR_GRADIENTS = {
 } as const satisfies Record<string, ReadonlyArray<readonly [number, number, number]>>;
 
 export type ExteriorGradientName = keyof typeof EXTERIOR_GRADIENTS;
+
+/** One line about each gradient, for `quadatlas palettes` and --help. */
+export const EXTERIOR_GRADIENT_NOTES: Readonly<Record<ExteriorGradientName, string>> = {
+  tidepool: 'deep navy, slate teal, sea-glass, dusk blue',
+  heather: 'peat brown, heather purple, bracken gold, moss',
+  brass: 'ink, verdigris, brass, bronze',
+  vellum: 'monochrome for print: paper white with a faint grey ripple',
+};
 export const EXTERIOR_GRADIENT_NAMES = Object.keys(EXTERIOR_GRADIENTS) as ExteriorGradientName[];
 
 /** Stops converted once to OKLab, flat [L, a, b, L, a, b, ...] per gradient (never mutated). */

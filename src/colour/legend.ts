@@ -4,8 +4,8 @@ import { FONT_CHARACTERS, GLYPH_H, GLYPH_W, glyph, textCells } from './bitmap-fo
 import { periodHex, periodLinear } from './period-palette.js';
 
 /**
- * The period legend: one swatch per period 1..legendPeriods with its number,
- * under a title line, drawn with a small bitmap font of our own (5 x 7 cells
+ * The period legend: one swatch per period present in the view with its
+ * number, under a title line, drawn with a small bitmap font of our own (5 x 7 cells
  * per glyph, one blank column between glyphs). The font is scaled by an
  * integer factor chosen from the plate's dpi so the cap height is about
  * LEGEND_CAP_MM in print; integer scaling keeps every stroke a whole number of
@@ -17,6 +17,13 @@ import { periodHex, periodLinear } from './period-palette.js';
  * the "over" operator).
  */
 export const LEGEND_CAP_MM = 2.5;
+/**
+ * k: a period is present in the view, and listed, when at least this many
+ * pixels (their centre samples, as counted in a plate's `periods` histogram)
+ * are interior with that period. Four pixels are the smallest spot that reads
+ * as a patch of colour rather than a speck.
+ */
+export const LEGEND_MIN_PIXELS = 4;
 export const LEGEND_TITLE = 'INTERIOR PERIOD';
 
 /** Glyphs the font can draw. */
@@ -26,11 +33,12 @@ export const LEGEND_FONT_CHARACTERS = FONT_CHARACTERS;
 const PAD = 4;
 const SWATCH = 7;
 const SWATCH_GAP = 2;
-const NUMBER_W = 2 * (GLYPH_W + 1) - 1;
+/** Width in cells of a number of `digits` digits (at least two, so short legends keep their old look). */
+const numberW = (digits: number): number => Math.max(2, digits) * (GLYPH_W + 1) - 1;
 const COLUMN_GAP = 5;
 const ROW_H = GLYPH_H + 4;
 const TITLE_GAP = 5;
-const ENTRY_W = SWATCH + SWATCH_GAP + NUMBER_W;
+const entryW = (digits: number): number => SWATCH + SWATCH_GAP + numberW(digits);
 
 const PANEL_HEX = '#f3f0e8';
 const PANEL_ALPHA = 0.9;
@@ -63,10 +71,32 @@ function grid(n: number): { cols: number; rows: number } {
   return { cols, rows: Math.ceil(n / cols) };
 }
 
-/** Legend size in cells for n periods. */
-function sizeCells(n: number): { w: number; h: number } {
+/**
+ * The periods a legend lists, from a plate's histogram (period -> interior
+ * pixels): those with at least LEGEND_MIN_PIXELS pixels; when more than
+ * settings.legendPeriods qualify, the legendPeriods with the most pixels (ties
+ * to the lower period). Returned in increasing order of period.
+ */
+export function presentPeriods(histogram: Readonly<Record<number, number>>, settings: Pick<ColourSettings, 'legendPeriods'>): number[] {
+  const present = Object.entries(histogram)
+    .map(([p, n]) => [Number(p), n] as const)
+    .filter(([p, n]) => p > 0 && n >= LEGEND_MIN_PIXELS);
+  present.sort((a, b) => b[1] - a[1] || a[0] - b[0]);
+  return present
+    .slice(0, settings.legendPeriods)
+    .map(([p]) => p)
+    .sort((a, b) => a - b);
+}
+
+/** Periods 1..n, for a legend drawn without a histogram (the pyramid viewer page). */
+export function firstPeriods(n: number): number[] {
+  return Array.from({ length: n }, (_, i) => i + 1);
+}
+
+/** Legend size in cells for n periods whose longest number has `digits` digits. */
+function sizeCells(n: number, digits: number): { w: number; h: number } {
   const { cols, rows } = grid(n);
-  const entries = cols * ENTRY_W + (cols - 1) * COLUMN_GAP;
+  const entries = cols * entryW(digits) + (cols - 1) * COLUMN_GAP;
   return {
     w: 2 * PAD + Math.max(textCells(LEGEND_TITLE), entries),
     h: 2 * PAD + GLYPH_H + TITLE_GAP + rows * ROW_H - (ROW_H - GLYPH_H),
@@ -82,18 +112,58 @@ function corner(c: LegendCorner, pw: number, ph: number, w: number, h: number, m
   };
 }
 
+function marginPixels(plateWidth: number, plateHeight: number, dpi: number): number {
+  return Math.min(Math.round((MARGIN_MM / 25.4) * dpi), Math.floor(0.05 * Math.min(plateWidth, plateHeight)));
+}
+
+/** A rectangle in plate pixels. */
+export interface PixelRect {
+  readonly x: number;
+  readonly y: number;
+  readonly width: number;
+  readonly height: number;
+}
+
+/**
+ * The rectangle an inset legend can cover before the periods present are
+ * known: the corner-anchored box that holds the largest layout of 1 ..
+ * legendPeriods entries with numbers of up to `maxDigits` digits at the
+ * unreduced scale (layoutLegend only ever steps the scale down, and anchors
+ * the legend at the same corner and margin). Null unless the legend is inset.
+ */
+export function legendBounds(settings: ColourSettings, plateWidth: number, plateHeight: number, dpi: number, maxDigits: number): PixelRect | null {
+  if (settings.legend !== 'inset') return null;
+  const scale = legendScale(dpi);
+  const margin = marginPixels(plateWidth, plateHeight, dpi);
+  let w = 0;
+  let h = 0;
+  for (let n = 1; n <= settings.legendPeriods; n++) {
+    const c = sizeCells(n, Math.max(2, maxDigits));
+    w = Math.max(w, c.w * scale);
+    h = Math.max(h, c.h * scale);
+  }
+  const width = Math.min(plateWidth, w + margin);
+  const height = Math.min(plateHeight, h + margin);
+  const left = settings.legendCorner === 'top-left' || settings.legendCorner === 'bottom-left';
+  const top = settings.legendCorner === 'top-left' || settings.legendCorner === 'top-right';
+  return { x: left ? 0 : plateWidth - width, y: top ? 0 : plateHeight - height, width, height };
+}
+
 /**
  * Lays out and draws the inset legend for a plate of plateWidth x plateHeight
- * pixels printed at `dpi`. Returns null unless settings.legend is 'inset'.
+ * pixels printed at `dpi`, listing `periods` (presentPeriods of the plate's
+ * histogram). Returns null unless settings.legend is 'inset' and at least
+ * one period is listed.
  * The scale starts from legendScale(dpi) and steps down until the legend
  * fits inside the plate with its margin; at scale 1 a legend larger than the
  * plate is placed at the corner and clipped by paintLegendRows.
  */
-export function layoutLegend(settings: ColourSettings, plateWidth: number, plateHeight: number, dpi: number): Legend | null {
-  if (settings.legend !== 'inset') return null;
-  const n = settings.legendPeriods;
-  const cells = sizeCells(n);
-  const margin = Math.min(Math.round((MARGIN_MM / 25.4) * dpi), Math.floor(0.05 * Math.min(plateWidth, plateHeight)));
+export function layoutLegend(settings: ColourSettings, plateWidth: number, plateHeight: number, dpi: number, periods: readonly number[]): Legend | null {
+  if (settings.legend !== 'inset' || periods.length === 0) return null;
+  const n = periods.length;
+  const digits = Math.max(...periods.map((p) => String(p).length));
+  const cells = sizeCells(n, digits);
+  const margin = marginPixels(plateWidth, plateHeight, dpi);
   let scale = legendScale(dpi);
   while (scale > 1 && (cells.w * scale + 2 * margin > plateWidth || cells.h * scale + 2 * margin > plateHeight)) scale--;
   const width = cells.w * scale;
@@ -132,16 +202,19 @@ export function layoutLegend(settings: ColourSettings, plateWidth: number, plate
   text(LEGEND_TITLE, PAD, PAD);
   const { rows } = grid(n);
   const colour = [0, 0, 0];
-  for (let p = 1; p <= n; p++) {
-    const col = Math.floor((p - 1) / rows);
-    const row = (p - 1) % rows;
-    const cx = PAD + col * (ENTRY_W + COLUMN_GAP);
+  const ew = entryW(digits);
+  const nw = numberW(digits);
+  for (let e = 0; e < n; e++) {
+    const p = periods[e]!;
+    const col = Math.floor(e / rows);
+    const row = e % rows;
+    const cx = PAD + col * (ew + COLUMN_GAP);
     const cy = PAD + GLYPH_H + TITLE_GAP + row * ROW_H;
     // A one-pixel ink frame keeps pale swatches visible against the panel.
     fill(cx * scale, cy * scale, SWATCH * scale, SWATCH * scale, ink);
     fill(cx * scale + 1, cy * scale + 1, SWATCH * scale - 2, SWATCH * scale - 2, periodLinear(p, colour));
     const label = String(p);
-    text(label, cx + SWATCH + SWATCH_GAP + (NUMBER_W - textCells(label)), cy);
+    text(label, cx + SWATCH + SWATCH_GAP + (nw - textCells(label)), cy);
   }
   return { x, y, width, height, scale, rgba };
 }
@@ -162,23 +235,26 @@ function escapeXml(s: string): string {
 
 /**
  * The legend as a standalone SVG file (for the 'beside' placement): a title,
- * then one row per period 1..legendPeriods with its swatch, number and sRGB hex
- * colour. Deterministic text (fixed layout, no dates).
+ * then one row per listed period (presentPeriods of the plate's histogram)
+ * with its swatch, number and sRGB hex colour. Deterministic text (fixed
+ * layout, no dates).
  */
-export function legendSvg(settings: ColourSettings): string {
-  const n = settings.legendPeriods;
+export function legendSvg(periods: readonly number[]): string {
+  const n = periods.length;
   const rowH = 22;
   const top = 44;
   const width = 240;
-  const height = top + n * rowH + 12;
+  const height = top + Math.max(1, n) * rowH + 12;
   const lines: string[] = [
     '<?xml version="1.0" encoding="UTF-8"?>',
     `<svg xmlns="http://www.w3.org/2000/svg" width="${width}" height="${height}" viewBox="0 0 ${width} ${height}">`,
     `  <rect x="0" y="0" width="${width}" height="${height}" fill="${PANEL_HEX}"/>`,
     `  <text x="12" y="26" font-family="sans-serif" font-size="15" font-weight="bold" fill="${INK_HEX}">${escapeXml('Interior period')}</text>`,
   ];
-  for (let p = 1; p <= n; p++) {
-    const y = top + (p - 1) * rowH;
+  if (n === 0) lines.push(`  <text x="12" y="${top + 13}" font-family="sans-serif" font-size="13" fill="${INK_HEX}">no interior period in view</text>`);
+  for (let e = 0; e < n; e++) {
+    const p = periods[e]!;
+    const y = top + e * rowH;
     const hex = periodHex(p);
     lines.push(
       `  <g id="period-${p}">`,

@@ -1,6 +1,7 @@
 import type { SampleSet } from '../plane/sample-set.js';
 import type { ColourSettings } from './colour-settings.js';
 import { gradientLinear, gradientPosition } from './exterior-gradients.js';
+import { customGradientLinear, prepareGradient } from './gradient-stops.js';
 import { hexToLinear } from './oklab.js';
 import { periodLinear } from './period-palette.js';
 
@@ -23,7 +24,8 @@ export function edgeKeep(distance: number, pixelSpacing: number, k: number): num
  * Colours samples offset .. offset + count - 1 of a SampleSet into linear-light
  * sRGB, three values per sample at out[3 i .. 3 i + 2] for i in 0..count-1.
  *
- * - Escaped (period 0): the exterior gradient at gradientPosition(mu), then
+ * - Escaped (period 0): the exterior gradient (the custom `gradient` when the
+ *   settings carry one, else the named `exterior`) at gradientPosition(mu), then
  *   blended toward `edgeColour` near the boundary by edgeKeep(exterior
  *   distance) with width `edge`. Direction: with the default black ink, a
  *   smaller distance gives a darker sample.
@@ -50,6 +52,7 @@ export function shadeSamples(
   const solid = hexToLinear(settings.interiorColour, new Float64Array(3));
   const undecided = hexToLinear(settings.undecidedColour, new Float64Array(3));
   const c = new Float64Array(3);
+  const custom = settings.gradient === undefined ? null : prepareGradient(settings.gradient);
   const { exterior, countScale, cycle, edge, interiorEdge } = settings;
   const gradientOffset = settings.offset;
   const style = settings.interior;
@@ -62,7 +65,9 @@ export function shadeSamples(
     const p = period[k]!;
     let keep = 1;
     if (p === 0) {
-      gradientLinear(exterior, gradientPosition(smooth[k]!, countScale, cycle, gradientOffset), c);
+      const t = gradientPosition(smooth[k]!, countScale, cycle, gradientOffset);
+      if (custom === null) gradientLinear(exterior, t, c);
+      else customGradientLinear(custom, t, c);
       keep = edgeKeep(distance[k]!, pixelSpacing, edge);
     } else if (p > 0) {
       if (style === 'solid') c.set(solid);

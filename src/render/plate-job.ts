@@ -1,5 +1,5 @@
 import type { ColourSettings } from '../colour/colour-settings.js';
-import type { Legend } from '../colour/legend.js';
+import type { Legend, PixelRect } from '../colour/legend.js';
 import type { DeepJob } from './deep-job.js';
 import type { DoubleGrid } from '../view/view.js';
 
@@ -22,6 +22,12 @@ export interface PlateJob {
   readonly withData: boolean;
   /** Period labels (sprites in plate pixels), composited under the legend; empty for none. */
   readonly labels?: readonly Legend[];
+  /**
+   * Where an inset legend may fall (legendBounds), present only for an inset
+   * legend: tiles meeting it also return their linear-light colours, so the
+   * main thread can composite the legend once the histogram is complete.
+   */
+  readonly legendBounds?: PixelRect;
   /** Present when the plate uses the deep arithmetic (perturbation around a reference orbit). */
   readonly deep?: DeepJob;
 }

@@ -37,6 +37,8 @@ export const REFINE_COLOUR_STEP = 0.02;
 
 export interface TileResult {
   pixels: Uint8Array | Uint16Array;
+  /** Linear-light RGB before any legend, w * h * 3, only for tiles meeting job.legendBounds. */
+  linear?: Float64Array;
   period?: Int32Array;
   smooth?: Float64Array;
   distance?: Float64Array;
@@ -260,7 +262,8 @@ export function renderTile(job: PlateJob, tile: Tile, scratch: TileScratch, loop
     flush();
   }
 
-  // 4. Period labels and the inset legend, composited in linear light, then encode.
+  // 4. Period labels (and a legend given here; a plate's inset legend is
+  // composited by the main thread, see render-plate.ts), in linear light, then encode.
   for (const label of job.labels ?? []) paintLegendRect(label, x0, y0, w, h, linear);
   if (legend !== null) paintLegendRect(legend, x0, y0, w, h, linear);
   const pixels = job.depth === 16 ? new Uint16Array(pixelCount * 3) : new Uint8Array(pixelCount * 3);
@@ -270,6 +273,8 @@ export function renderTile(job: PlateJob, tile: Tile, scratch: TileScratch, loop
   stats.skipped = deepStats.skipped;
   stats.skips = deepStats.skips;
   const result: TileResult = { pixels, stats };
+  const b = job.legendBounds;
+  if (b !== undefined && x0 < b.x + b.width && x0 + w > b.x && y0 < b.y + b.height && y0 + h > b.y) result.linear = linear.slice(0, pixelCount * 3);
   if (job.withData) {
     const period = new Int32Array(pixelCount);
     const smooth = new Float64Array(pixelCount);

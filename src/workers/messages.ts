@@ -22,6 +22,8 @@ export interface TileDoneMessage {
   readonly type: 'tile-done';
   readonly tile: Tile;
   readonly pixels: Uint8Array | Uint16Array;
+  /** Linear-light colours of a tile under a possible inset legend (render-plate.ts composites the legend). */
+  readonly linear?: Float64Array;
   readonly period?: Int32Array;
   readonly smooth?: Float64Array;
   readonly distance?: Float64Array;

@@ -3,7 +3,11 @@ import { parseColourSettings } from '../../src/colour/colour-settings.js';
 import {
   LEGEND_FONT_CHARACTERS,
   LEGEND_TITLE,
+  firstPeriods,
+  LEGEND_MIN_PIXELS,
   layoutLegend,
+  legendBounds,
+  presentPeriods,
   legendScale,
   legendSvg,
   paintLegendRect,
@@ -28,13 +32,13 @@ describe('legendScale', () => {
 
 describe('layoutLegend', () => {
   it('returns null unless the legend is inset', () => {
-    expect(layoutLegend(parseColourSettings({ legend: 'none' }), 1000, 800, 300)).toBeNull();
-    expect(layoutLegend(parseColourSettings({ legend: 'beside' }), 1000, 800, 300)).toBeNull();
+    expect(layoutLegend(parseColourSettings({ legend: 'none' }), 1000, 800, 300, firstPeriods(12))).toBeNull();
+    expect(layoutLegend(parseColourSettings({ legend: 'beside' }), 1000, 800, 300, firstPeriods(12))).toBeNull();
   });
 
   it('places the legend inside the plate in the chosen corner', () => {
     for (const corner of ['top-left', 'top-right', 'bottom-left', 'bottom-right']) {
-      const L = layoutLegend(inset({ legendCorner: corner }), 3000, 2000, 300)!;
+      const L = layoutLegend(inset({ legendCorner: corner }), 3000, 2000, 300, firstPeriods(12))!;
       expect(L.scale).toBe(4);
       expect(L.x).toBeGreaterThanOrEqual(0);
       expect(L.y).toBeGreaterThanOrEqual(0);
@@ -46,14 +50,14 @@ describe('layoutLegend', () => {
   });
 
   it('steps the scale down to fit a small plate', () => {
-    const L = layoutLegend(inset({ legendPeriods: 64 }), 400, 300, 600)!;
+    const L = layoutLegend(inset({ legendPeriods: 64 }), 400, 300, 600, firstPeriods(64))!;
     expect(L.scale).toBeLessThan(legendScale(600));
     expect(L.x + L.width).toBeLessThanOrEqual(400);
     expect(L.y + L.height).toBeLessThanOrEqual(300);
   });
 
   it('draws each period swatch in its palette colour (some opaque pixel equals periodLinear(p))', () => {
-    const L = layoutLegend(inset({ legendPeriods: 16 }), 3000, 2000, 300)!;
+    const L = layoutLegend(inset({ legendPeriods: 16 }), 3000, 2000, 300, firstPeriods(16))!;
     for (let p = 1; p <= 16; p++) {
       const c = periodLinear(p, [0, 0, 0]);
       let found = false;
@@ -84,7 +88,7 @@ describe('paintLegendRows', () => {
   };
 
   it('paints only inside its rectangle, and changes it', () => {
-    const L = layoutLegend(inset({ legendCorner: 'bottom-left' }), W, H, 150)!;
+    const L = layoutLegend(inset({ legendCorner: 'bottom-left' }), W, H, 150, firstPeriods(12))!;
     const before = plate();
     const after = plate();
     paintLegendRows(L, 0, H, W, after);
@@ -106,7 +110,7 @@ describe('paintLegendRows', () => {
   });
 
   it('painting band by band (bands of 7 rows) equals painting at once', () => {
-    const L = layoutLegend(inset({ legendCorner: 'top-right', legendPeriods: 24 }), W, H, 150)!;
+    const L = layoutLegend(inset({ legendCorner: 'top-right', legendPeriods: 24 }), W, H, 150, firstPeriods(24))!;
     const once = plate();
     paintLegendRows(L, 0, H, W, once);
     const banded = plate();
@@ -121,7 +125,7 @@ describe('paintLegendRows', () => {
   });
 
   it('paintLegendRect over 64 x 48 tiles equals paintLegendRows over the whole plate', () => {
-    const L = layoutLegend(inset({ legendCorner: 'bottom-right', legendPeriods: 30 }), W, H, 150)!;
+    const L = layoutLegend(inset({ legendCorner: 'bottom-right', legendPeriods: 30 }), W, H, 150, firstPeriods(30))!;
     const once = plate();
     paintLegendRows(L, 0, H, W, once);
     const tiled = plate();
@@ -138,7 +142,7 @@ describe('paintLegendRows', () => {
   });
 
   it('over a white plate, an opaque swatch pixel shows the swatch and the panel blends 90/10 (Porter-Duff over)', () => {
-    const L = layoutLegend(inset({ legendCorner: 'top-left' }), W, H, 150)!;
+    const L = layoutLegend(inset({ legendCorner: 'top-left' }), W, H, 150, firstPeriods(12))!;
     const white = new Float64Array(W * H * 3).fill(1);
     paintLegendRows(L, 0, H, W, white);
     // The panel's top-left pixel: 0.9 * panel + 0.1 * 1.
@@ -148,9 +152,16 @@ describe('paintLegendRows', () => {
 });
 
 describe('legendSvg', () => {
+  it('lists the periods it is given, and says so when there are none', () => {
+    const svg = legendSvg([3, 6, 427]);
+    for (const p of [3, 6, 427]) expect(svg).toContain(`id="period-${p}"`);
+    expect(svg).not.toContain('id="period-1"');
+    expect(legendSvg([])).toContain('no interior period in view');
+  });
+
   it('lists every period with its swatch colour and number, deterministically', () => {
     const s = inset({ legendPeriods: 20 });
-    const svg = legendSvg(s);
+    const svg = legendSvg(firstPeriods(s.legendPeriods));
     expect(svg.startsWith('<?xml')).toBe(true);
     expect(svg).toContain('xmlns="http://www.w3.org/2000/svg"');
     for (let p = 1; p <= 20; p++) {
@@ -158,6 +169,52 @@ describe('legendSvg', () => {
       expect(svg).toContain(`fill="${periodHex(p)}"`);
     }
     expect(svg).not.toContain('id="period-21"');
-    expect(legendSvg(s)).toBe(svg);
+    expect(legendSvg(firstPeriods(s.legendPeriods))).toBe(svg);
+  });
+});
+
+describe('presentPeriods', () => {
+  it(`lists the periods with at least LEGEND_MIN_PIXELS (${LEGEND_MIN_PIXELS}) pixels, in increasing order`, () => {
+    const hist = { 3: 5000, 6: 40, 9: LEGEND_MIN_PIXELS, 12: LEGEND_MIN_PIXELS - 1, 7: 1 };
+    expect(presentPeriods(hist, { legendPeriods: 12 })).toEqual([3, 6, 9]);
+  });
+  it('keeps the legendPeriods periods with the most pixels when more are present (ties to the lower period)', () => {
+    const hist = { 1: 900, 2: 50, 3: 700, 4: 50, 5: 60, 30: 800 };
+    expect(presentPeriods(hist, { legendPeriods: 4 })).toEqual([1, 3, 5, 30]);
+    expect(presentPeriods(hist, { legendPeriods: 5 })).toEqual([1, 2, 3, 5, 30]);
+    expect(presentPeriods({}, { legendPeriods: 5 })).toEqual([]);
+  });
+});
+
+describe('layoutLegend of the periods present', () => {
+  it('draws nothing when no period is present', () => {
+    expect(layoutLegend(inset(), 800, 600, 150, [])).toBeNull();
+  });
+  it('draws exactly the listed periods: their colours appear, an unlisted one does not', () => {
+    const L = layoutLegend(inset(), 3000, 2000, 300, [3, 6, 79, 158])!;
+    const has = (p: number): boolean => {
+      const c = periodLinear(p, [0, 0, 0]);
+      for (let k = 0; k < L.width * L.height; k++) if (L.rgba[4 * k + 3] === 1 && [0, 1, 2].every((i) => L.rgba[4 * k + i] === c[i])) return true;
+      return false;
+    };
+    for (const p of [3, 6, 79, 158]) expect(has(p), String(p)).toBe(true);
+    expect(has(1)).toBe(false);
+  });
+  it('legendBounds holds every layout of 1..legendPeriods entries with numbers up to the stated digits, in every corner', () => {
+    for (const corner of ['top-left', 'top-right', 'bottom-left', 'bottom-right']) {
+      for (const [W, H, dpi] of [[3000, 2000, 300], [400, 300, 150], [120, 90, 600]] as const) {
+        const s = inset({ legendCorner: corner, legendPeriods: 20 });
+        const b = legendBounds(s, W, H, dpi, 4)!;
+        for (let n = 1; n <= 20; n++) {
+          for (const top of [9, 99, 999, 9999]) {
+            const periods = Array.from({ length: n }, (_, i) => top - i).filter((p) => p > 0).sort((a, c) => a - c);
+            const L = layoutLegend(s, W, H, dpi, periods)!;
+            const x1 = Math.min(W, L.x + L.width);
+            const y1 = Math.min(H, L.y + L.height);
+            expect(L.x >= b.x && x1 <= b.x + b.width && L.y >= b.y && y1 <= b.y + b.height, `${corner} ${W}x${H} n=${n} top=${top}`).toBe(true);
+          }
+        }
+      }
+    }
   });
 });
