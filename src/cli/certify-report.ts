@@ -8,6 +8,7 @@ import type { CensusResult } from '../components/census.js';
 import type { ComponentInfo } from '../components/component-info.js';
 import { certifyCensus } from '../components/certify/certify-census.js';
 import { certifyNucleusDecimal } from '../components/certify/certify-decimal.js';
+import { certifyRootDecimal } from '../components/certify/certify-root.js';
 import { UserError } from './user-error.js';
 
 /** Largest period of a certified census: every disk is kept in memory (about 400 bytes each). */
@@ -74,8 +75,24 @@ export function certifyLocated(info: ComponentInfo, digits: number): { json: Rec
     process.exitCode = 1;
     process.stderr.write(`quadatlas: period ${info.period}: nucleus ${info.nucleus.re}, ${info.nucleus.im} not certified: ${cert.reason}\n`);
   }
+  let root: { ok: boolean; radius: string | null; reason: string | null; satellite: boolean };
+  try {
+    root = certifyRootDecimal(info.period, info.nucleus, info.root, digits);
+  } catch (err) {
+    root = { ok: false, radius: null, reason: (err as Error).message, satellite: info.parent !== null };
+  }
+  if (!root.ok) {
+    process.exitCode = 1;
+    process.stderr.write(`quadatlas: period ${info.period}: root ${info.root.re}, ${info.root.im} could not be certified: ${root.reason}\n`);
+  }
+  const what = info.parent === null
+    ? `exactly one parameter within it where a cycle of exact period ${info.period} has multiplier 1`
+    : `exactly one parameter within it where the parent's ${info.parent.period}-cycle has multiplier e^(2 pi i ${info.parent.num}/${info.parent.den})`;
   return {
-    json: { certifiedRadius: cert.ok ? cert.radius : null },
-    lines: [`certified radius  ${cert.ok ? `${cert.radius} (exactly one zero of F_${info.period} within it, of exact period ${info.period})` : `none: ${cert.reason}`}`],
+    json: { certifiedRadius: cert.ok ? cert.radius : null, rootCertifiedRadius: root.ok ? root.radius : null },
+    lines: [
+      `certified radius  ${cert.ok ? `${cert.radius} (exactly one zero of F_${info.period} within it, of exact period ${info.period})` : `none: ${cert.reason}`}`,
+      `root certified    ${root.ok ? `${root.radius} (${what})` : `no: ${root.reason}`}`,
+    ],
   };
 }
