@@ -7,7 +7,8 @@ import { describe, expect, it } from 'vitest';
 import { Decimal } from 'decimal.js';
 import { census } from '../../src/components/census.js';
 import type { CensusComponent } from '../../src/components/census.js';
-import { haveMpmath, requireInCi, runMpmath } from '../oracles/mpmath.js';
+import { haveMpmath, runMpmath } from '../oracles/mpmath.js';
+import { requireInCi } from '../helpers/require-in-ci.js';
 
 const D = Decimal.clone({ precision: 60 });
 

@@ -15,9 +15,3 @@ export function runMpmath(program: string): string {
   if (r.status !== 0) throw new Error(`python3 failed: ${r.stderr}`);
   return r.stdout;
 }
-
-/** In CI a missing reference tool fails the run loudly instead of skipping. */
-export function requireInCi(have: boolean, what: string): boolean {
-  if (!have && process.env['CI'] === 'true') throw new Error(`${what} is missing; CI must install it (.ci/run)`);
-  return have;
-}

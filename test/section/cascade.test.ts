@@ -85,7 +85,7 @@ describe('computeCascade on other families', () => {
   });
 });
 
-describe.skipIf(process.env['QUADATLAS_SLOW'] === undefined)('computeCascade to 12 digits (QUADATLAS_SLOW=1)', () => {
+describe.skipIf(process.env['QUADATLAS_SLOW'] === undefined && process.env['CI'] !== 'true')('computeCascade to 12 digits (QUADATLAS_SLOW=1 or CI=true)', () => {
   it('computeCascade at 16 levels trusts and gets 12 digits of delta and alpha (OEIS A006890, A006891)', () => {
     const c = computeCascade(cascadeSolverFor(logistic, 50).solver, 16, 50);
     expect(c.delta.digits).toBeGreaterThanOrEqual(12);
