@@ -12,6 +12,7 @@ import { deepSection } from './deep-section.js';
 import { pyramidSection } from './pyramid-section.js';
 import { componentsSection } from './components-section.js';
 import { sliceSection } from './slice-section.js';
+import { certifySection } from './certify-section.js';
 
 /**
  * The section registry, run in this order.
@@ -24,6 +25,7 @@ export const SECTIONS: readonly BenchSection[] = [
   plateSection,
   deepSection,
   componentsSection,
+  certifySection,
   sliceSection,
   pyramidSection,
 ];

@@ -13,6 +13,7 @@ import { componentInfo, mersenneAngle } from '../components/component-info.js';
 import type { ComponentInfo } from '../components/component-info.js';
 import { findNucleus } from '../components/nucleus.js';
 import { parseBox, parseIntFlag, componentJson } from './component-report.js';
+import { certifyListing, MAX_CERTIFY_PERIOD, reportCensusCertificate } from './certify-report.js';
 import { UserError } from './user-error.js';
 
 /** Longest listing period (the listing refines every nucleus and root to D digits). */
@@ -28,11 +29,16 @@ export function register(program: Command): void {
     .option('--digits <D>', 'digits after the decimal point for nuclei and roots; sizes to D significant digits (at most 17)', '20')
     .option('--count', 'print only the number of components, with the time taken on stderr (default: list them)')
     .option('--workers <N>', 'worker threads for the census (default: all cores)')
+    .option('--certify', 'prove each nucleus (a disk holding exactly one, of exact period P) and the census complete (default: computed, not proved)')
     .option('--json', 'JSON output (default: aligned text)')
     .option('--csv', 'CSV output with snake_case columns (default: aligned text)')
     .action(async (o: Record<string, unknown>) => {
       const count = o['count'] === true;
+      const certify = o['certify'] === true;
       const period = parseIntFlag(o['period'], '--period', 1, count ? MAX_CENSUS_PERIOD : MAX_LIST_PERIOD);
+      if (certify && period > MAX_CERTIFY_PERIOD) {
+        throw new UserError('--period', `a period of at most ${MAX_CERTIFY_PERIOD} with --certify (every certified disk is kept in memory; period ${period} would need about ${Math.ceil((2 ** (period - 1) * 400) / 2 ** 30)} GB)`, period);
+      }
       const digits = parseIntFlag(o['digits'], '--digits', 1, 2000);
       const workers = o['workers'] === undefined ? availableParallelism() : parseIntFlag(o['workers'], '--workers', 0, 256);
       const box = o['within'] === undefined ? null : parseBox(o['within'], '--within');
@@ -52,10 +58,12 @@ export function register(program: Command): void {
       if (result.unpaired > 0 || result.raysLost > 0) {
         process.stderr.write(`quadatlas: warning: ${result.unpaired} angle pairs could not be given a nucleus of their own, ${result.raysLost} rays were lost\n`);
       }
+      const proof = certify ? await reportCensusCertificate(result, workers) : null;
       if (count) {
         const n = comps.length;
         if (o['json'] === true) {
-          process.stdout.write(`${JSON.stringify({ period, real: o['real'] === true, count: n, seconds: Number(seconds.toFixed(2)), raysTraced: result.raysTraced, unpaired: result.unpaired })}\n`);
+          const extra = proof === null ? {} : { certified: proof.ok, certifySeconds: proof.seconds };
+          process.stdout.write(`${JSON.stringify({ period, real: o['real'] === true, count: n, seconds: Number(seconds.toFixed(2)), raysTraced: result.raysTraced, unpaired: result.unpaired, ...extra })}\n`);
         } else process.stdout.write(`${n}\n`);
         process.stderr.write(`quadatlas: period ${period}: ${n} components located in ${seconds.toFixed(2)} s (${result.raysTraced} rays, ${workers} workers)\n`);
         return;
@@ -66,9 +74,10 @@ export function register(program: Command): void {
         const nucleus = c.real ? { ...findNucleus(period, { re: guess.re, im: '0' }, digits).nucleus, im: '0' } : findNucleus(period, guess, digits).nucleus;
         rows.push(await componentInfo(period, nucleus, digits, c.angles.map((n) => mersenneAngle(n, period))));
       }
-      if (o['json'] === true) process.stdout.write(`${JSON.stringify(rows.map(componentJson), null, 2)}\n`);
-      else if (o['csv'] === true) process.stdout.write(toCsv(rows));
-      else process.stdout.write(toTable(rows));
+      const radii = certify ? certifyListing(period, rows, digits) : null;
+      if (o['json'] === true) process.stdout.write(`${JSON.stringify(rows.map((r, i) => (radii === null ? componentJson(r) : { ...componentJson(r), certifiedRadius: radii[i] })), null, 2)}\n`);
+      else if (o['csv'] === true) process.stdout.write(toCsv(rows, radii));
+      else process.stdout.write(toTable(rows, radii));
     });
 }
 
@@ -100,12 +109,14 @@ function flat(r: ComponentInfo): string[] {
   ];
 }
 
-function toCsv(rows: ComponentInfo[]): string {
-  return [HEADER.join(','), ...rows.map((r) => flat(r).join(','))].join('\n') + '\n';
+function toCsv(rows: ComponentInfo[], radii: readonly string[] | null): string {
+  const head = radii === null ? HEADER : [...HEADER, 'certified_radius'];
+  return [head.join(','), ...rows.map((r, i) => (radii === null ? flat(r) : [...flat(r), radii[i]!]).join(','))].join('\n') + '\n';
 }
 
-function toTable(rows: ComponentInfo[]): string {
-  const cells = [HEADER, ...rows.map(flat)];
-  const widths = HEADER.map((_, i) => Math.max(...cells.map((r) => (r[i] ?? '').length)));
+function toTable(rows: ComponentInfo[], radii: readonly string[] | null): string {
+  const head = radii === null ? HEADER : [...HEADER, 'certified_radius'];
+  const cells = [head, ...rows.map((r, i) => (radii === null ? flat(r) : [...flat(r), radii[i]!]))];
+  const widths = head.map((_, i) => Math.max(...cells.map((r) => (r[i] ?? '').length)));
   return cells.map((r) => r.map((v, i) => v.padEnd(widths[i] ?? 0)).join('  ').trimEnd()).join('\n') + '\n';
 }

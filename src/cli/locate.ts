@@ -7,6 +7,7 @@
  */
 import type { Command } from 'commander';
 import { componentInfo } from '../components/component-info.js';
+import type { ComponentInfo } from '../components/component-info.js';
 import { angleOrbit, angleText, parseAngle } from '../components/external-angle.js';
 import type { Angle } from '../components/external-angle.js';
 import { addressOfAngle, addressText } from '../components/internal-address.js';
@@ -18,6 +19,7 @@ import { traceRayDD } from '../components/trace-ray.js';
 import { parseDecimalPair } from '../precise/decimal-string.js';
 import { componentJson, componentLines, parseIntFlag } from './component-report.js';
 import { UserError } from './user-error.js';
+import { certifyLocated } from './certify-report.js';
 
 /** Longest period for --angle (the ray is traced in double-double) and for --address (angles are enumerated). */
 export const MAX_ANGLE_PERIOD = 60;
@@ -32,6 +34,7 @@ export function register(program: Command): void {
     .option('--angle <a/b>', 'a rational external angle in turns, 0 <= a < b: land its ray (default: none)')
     .option('--address <1-2-4>', 'an internal address, increasing periods from 1 (default: none)')
     .option('--digits <D>', 'digits after the decimal point; sizes to D significant digits (at most 17)', '30')
+    .option('--certify', 'prove the nucleus and the root, disks holding exactly one solution each (default: computed, not proved)')
     .option('--json', 'JSON output (default: aligned text)')
     .action(async (o: Record<string, unknown>) => {
       const digits = parseIntFlag(o['digits'], '--digits', 1, 5000);
@@ -40,6 +43,7 @@ export function register(program: Command): void {
       const period = o['period'] === undefined ? null : parseIntFlag(o['period'], '--period', 1, 100_000);
       let out: Record<string, unknown>;
       let lines: string[];
+      let located: ComponentInfo | null = null;
       if (o['near'] !== undefined) {
         if (period === null) throw new UserError('--period', 'an integer period with --near', 'nothing');
         const near = parseDecimalPair(String(o['near']), '--near');
@@ -47,6 +51,7 @@ export function register(program: Command): void {
         const info = await componentInfo(period, found.nucleus, digits);
         out = { ...componentJson(info), newtonSteps: found.steps };
         lines = componentLines(info, digits);
+        located = info;
       } else if (o['angle'] !== undefined) {
         const angle = parseAngle(String(o['angle']), '--angle');
         const orbit = angleOrbit(angle);
@@ -58,6 +63,7 @@ export function register(program: Command): void {
           const info = await landAngle(angle, orbit.period, digits);
           out = componentJson(info);
           lines = componentLines(info, digits);
+          located = info;
         } else {
           const p = orbit.period;
           const end = traceRayDD(angle.num, angle.den, 2 * (orbit.preperiod + p) + 8, 8);
@@ -80,6 +86,18 @@ export function register(program: Command): void {
         const info = await landAngle(toAngle(matches[0]!, den), p, digits);
         out = { ...componentJson(info), componentsWithThisAddress: Math.max(1, Math.round(matches.length / (p === 1 ? 1 : 2))) };
         lines = [...componentLines(info, digits), `components with this address  ${String(out['componentsWithThisAddress'])} (the one with the lowest angle is shown)`];
+        located = info;
+      }
+      if (o['certify'] === true) {
+        if (located === null) {
+          out = { ...out, certified: false };
+          lines = [...lines, 'certified         no (Misiurewicz points are not certified)'];
+          process.exitCode = 1;
+        } else {
+          const proof = certifyLocated(located, digits);
+          out = { ...out, ...proof.json };
+          lines = [...lines, ...proof.lines];
+        }
       }
       process.stdout.write(o['json'] === true ? `${JSON.stringify(out, null, 2)}\n` : `${lines.join('\n')}\n`);
     });

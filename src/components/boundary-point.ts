@@ -72,6 +72,15 @@ export function componentRoot(period: number, nucleus: ComplexDecimal, digits: n
   return { root: r.result.point, parent: r.parent };
 }
 
+/**
+ * componentRoot with the fixed-point solution it came from: for a satellite,
+ * (w, b) solve the parent's system at multiplier e^{2 pi i num/den}
+ * (certify-root.ts proves them).
+ */
+export function componentRootFixed(period: number, nucleus: ComplexDecimal, digits: number): { result: BoundaryPointFixed; parent: Attachment | null } {
+  return componentPoint(period, nucleus, { re: 1, im: 0 }, digits);
+}
+
 /** A multiplier: a complex double, or exactly e^{2 pi i num/den}. */
 export type Multiplier = { re: number; im: number } | { num: number; den: number };
 

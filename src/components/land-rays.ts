@@ -34,8 +34,13 @@ import { traceRayDD, traceRayDouble } from './trace-ray.js';
 import { nucleusDD, nucleusDouble } from './fast-nucleus.js';
 import type { FastNucleus } from './fast-nucleus.js';
 
-/** Components smaller than this (absolute size estimate) are landed in double-double. */
-export const DD_SIZE = 1e-11;
+/**
+ * Components smaller than this (absolute size estimate) are landed in
+ * double-double. At 1e-5 every census nucleus is good to about 1e-10 of its
+ * component's size (a double nucleus near |c| = 2 is good to 4e-16); with the
+ * earlier 1e-11 a period-7 nucleus near -2 was only good to 2e-9 of its size.
+ */
+export const DD_SIZE = 1e-5;
 
 /**
  * Levels traced beyond the period in the double trace (at most 2p levels in

@@ -7,7 +7,7 @@ import { Decimal } from 'decimal.js';
 import { describe, expect, it } from 'vitest';
 import { runCli, tempDir } from '../helpers/run-cli.js';
 
-const PYTHON = process.env['QUADATLAS_PYTHON'] ?? 'python3';
+const PYTHON = process.env['QUADATLAS_PYTHON'] ?? '/usr/bin/python3';
 const numpy = spawnSync(PYTHON, ['-c', 'import numpy'], { stdio: 'ignore' }).status === 0;
 if (process.env['CI'] === 'true' && !numpy) throw new Error(`CI: numpy is missing for ${PYTHON} (install python3-numpy)`);
 

@@ -1,3 +1,4 @@
+import { requireInCi } from '../helpers/require-in-ci.js';
 import { spawn, type ChildProcess } from 'node:child_process';
 import { existsSync, rmSync } from 'node:fs';
 import { createServer } from 'node:net';
@@ -69,7 +70,7 @@ afterAll(async () => {
   rmSync(root, { recursive: true, force: true });
 });
 
-describe.skipIf(!haveRedis)('quadatlas pyramid --queue with quadatlas worker', () => {
+describe.skipIf(!requireInCi(haveRedis, 'redis-server'))('quadatlas pyramid --queue with quadatlas worker', () => {
   it('two workers share the tiles, a tile made to fail once is retried, two producers of one pyramid render each tile once, and the result equals the single run', async () => {
     const single = path.join(root, 'single');
     expect(runWithEnv(['pyramid', ...COMMON, '--out-dir', single]).status).toBe(0);

@@ -1,3 +1,4 @@
+import { requireInCi } from '../helpers/require-in-ci.js';
 import { existsSync, readFileSync, rmSync } from 'node:fs';
 import { createServer, type Server } from 'node:http';
 import path from 'node:path';
@@ -84,7 +85,7 @@ async function openAndZoom(url: string): Promise<{ page: Page; failures: number;
   return { page, failures, requests };
 }
 
-describe.skipIf(!haveChromium)('the pyramid viewer page in headless Chromium', () => {
+describe.skipIf(!requireInCi(haveChromium, 'chromium'))('the pyramid viewer page in headless Chromium', () => {
   it('index.html from file:// loads every tile it asks for, zoomed in three levels, and draws a non-blank canvas', async () => {
     const { page, failures, requests } = await openAndZoom(pathToFileURL(path.join(dir, 'index.html')).href);
     expect(failures).toBe(0);

@@ -1,13 +1,21 @@
+import { Decimal } from 'decimal.js';
 import { describe, expect, it } from 'vitest';
 import { componentRoot, findBoundaryPoint } from '../../src/components/boundary-point.js';
 import { findNucleus } from '../../src/components/nucleus.js';
 import { sizeEstimate } from '../../src/components/size-estimate.js';
 
 describe('findBoundaryPoint', () => {
-  it('period 3 real: multiplier 1 gives -7/4 exactly, -1 gives -1.7685291524676852 (methods.md C3 [checked]; checks.md window onset)', () => {
+  it('period 3 real: multiplier 1 gives -7/4 exactly (checks.md window onset), -1 gives -1.768529152467685015118... (mpmath)', () => {
     const n = { re: '-1.7548776662466927600', im: '0' };
     expect(findBoundaryPoint(3, n, { re: 1, im: 0 }, 25)).toEqual({ re: '-1.7500000000000000000000000', im: '0' });
-    expect(findBoundaryPoint(3, n, { re: -1, im: 0 }, 16).re).toBe('-1.7685291524676850');
+    // mpmath 1.2.1 findroot on (F^3(w,c) - w, D_z F^3 + 1) at 40 digits from (-0.1, -1.7685):
+    // -1.768529152467685015118134998577843403365; mpmath.findpoly gives it as the real root of
+    // 64c^3 + 128c^2 + 72c + 81, checked here in decimal.js.
+    const ref = '-1.768529152467685015118134998577843403365';
+    const got = findBoundaryPoint(3, n, { re: -1, im: 0 }, 36).re;
+    expect(got).toBe('-1.768529152467685015118134998577843403');
+    const c = new Decimal(ref);
+    expect(c.pow(3).times(64).plus(c.pow(2).times(128)).plus(c.times(72)).plus(81).abs().toNumber()).toBeLessThan(1e-36);
   });
   it('period 2: multiplier -1 gives -5/4 (checks.md first period doublings)', () => {
     expect(findBoundaryPoint(2, { re: '-1', im: '0' }, { re: -1, im: 0 }, 20).re).toBe('-1.25000000000000000000');

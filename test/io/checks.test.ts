@@ -1,3 +1,7 @@
+import { spawnSync } from 'node:child_process';
+import { mkdtempSync, rmSync } from 'node:fs';
+import { tmpdir } from 'node:os';
+import { pathToFileURL } from 'node:url';
 import { chmod, mkdir, readdir, readFile, statfs, writeFile } from 'node:fs/promises';
 import path from 'node:path';
 import { afterEach, beforeEach, describe, expect, it } from 'vitest';
@@ -39,6 +43,24 @@ describe('checkWritableDirectory', () => {
     await mkdir(ro);
     await chmod(ro, 0o555);
     await expect(checkWritableDirectory(ro, 'out')).rejects.toBeInstanceOf(UserError);
+  });
+
+  // As root, permission bits do not bind this process; the check is run in a child as an unprivileged user
+  // (uid 65534) on a directory with mode 0555, so the read-only case is tested under root too (built dist/).
+  it.skipIf(process.getuid?.() !== 0 || process.platform !== 'linux')('throws a UserError for a read-only directory when run as an unprivileged user under root', async () => {
+    const base = mkdtempSync(path.join(tmpdir(), 'quadatlas-ro-'));
+    try {
+      await chmod(base, 0o755);
+      const ro = path.join(base, 'ro');
+      await mkdir(ro);
+      await chmod(ro, 0o555);
+      const module = pathToFileURL(path.resolve('dist/src/io/check-writable-directory.js')).href;
+      const program = `import(${JSON.stringify(module)}).then((m) => m.checkWritableDirectory(${JSON.stringify(ro)}, 'out')).then(() => process.exit(0), (e) => process.exit(e.name === 'UserError' ? 3 : 1))`;
+      const r = spawnSync(process.execPath, ['--input-type=module', '-e', program], { uid: 65534, gid: 65534, encoding: 'utf8' });
+      expect(r.status, r.stderr).toBe(3);
+    } finally {
+      rmSync(base, { recursive: true, force: true });
+    }
   });
 
   // For root as well: Linux's /sys accepts no new files from anyone (sysfs), though access(2) says W_OK.

@@ -1,3 +1,4 @@
+import { requireInCi } from '../helpers/require-in-ci.js';
 import { spawnSync } from 'node:child_process';
 import { mkdir, readdir, readFile } from 'node:fs/promises';
 import path from 'node:path';
@@ -91,7 +92,7 @@ describe('openNpySink', () => {
 
   // NumPy itself as the reference reader, where python3 with numpy is installed (skipped otherwise).
   const numpy = spawnSync('python3', ['-c', 'import numpy'], { stdio: 'ignore' }).status === 0;
-  it.skipIf(!numpy)('writes files numpy.load reads with the same dtype, shape and values', async () => {
+  it.skipIf(!requireInCi(numpy, 'python3-numpy'))('writes files numpy.load reads with the same dtype, shape and values', async () => {
     const file = path.join(dir, 'n.npy');
     const sink = await openNpySink(file, '<f8', [3, 2]);
     await sink.writeRows(new Float64Array([0.1, -2.5, 1e300, 5e-324]), 2);

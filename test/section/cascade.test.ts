@@ -77,15 +77,15 @@ describe('computeCascade on other families', () => {
   });
 
   it('computeCascade on the quartic family gives a delta clearly different from 4.669', () => {
-    // methods.md E8 (from memory): a quartic maximum gives delta about 7.28.
+    // K. Briggs, Math. Comp. 57 (1991) 435-439, table of orders 2..12: delta = 7.2846862170733... for a
+    // quartic maximum. Nine levels give it to about 1e-2 (errors fall by about 1/delta per level).
     const c = computeCascade(familySolver(quartic, 20), 9, 20);
-    expect(c.delta.value.toNumber()).toBeGreaterThan(7.2);
-    expect(c.delta.value.toNumber()).toBeLessThan(7.35);
+    expect(c.delta.value.minus('7.2846862170733').abs().toNumber()).toBeLessThan(0.02);
     expect(c.delta.value.minus(DELTA).abs().toNumber()).toBeGreaterThan(2);
   });
 });
 
-describe.skipIf(process.env['QUADATLAS_SLOW'] === undefined)('computeCascade to 12 digits (QUADATLAS_SLOW=1)', () => {
+describe.skipIf(process.env['QUADATLAS_SLOW'] === undefined && process.env['CI'] !== 'true')('computeCascade to 12 digits (QUADATLAS_SLOW=1 or CI=true)', () => {
   it('computeCascade at 16 levels trusts and gets 12 digits of delta and alpha (OEIS A006890, A006891)', () => {
     const c = computeCascade(cascadeSolverFor(logistic, 50).solver, 16, 50);
     expect(c.delta.digits).toBeGreaterThanOrEqual(12);

@@ -30,8 +30,10 @@ describe('findWindows on the logistic family', () => {
   });
 
   it('findWindows puts the period-3 doubling and crisis at the methods.md E4 values', () => {
-    // methods.md C3/E4 [checked there by an independent computation]: -1.7685291524676852 and -1.7903274919993457.
-    expect(Number(rToC(period3.doubling.toString(), 20)) - -1.7685291524676852).toBeCloseTo(0, 14);
+    // Doubling: -1.768529152467685015118... (mpmath 1.2.1 findroot on the period-3 cycle-and-multiplier system at
+    // 40 digits; the real root of 64c^3 + 128c^2 + 72c + 81, test/components/boundary-point.test.ts). Crisis:
+    // methods.md E4, -1.7903274919993457 (re-checked below).
+    expect(new D(rToC(period3.doubling.toString(), 30)).minus('-1.768529152467685015118134998577843403365').abs().toNumber()).toBeLessThan(1e-14);
     expect(Number(rToC(period3.end.toString(), 20)) - -1.7903274919993457).toBeCloseTo(0, 14);
     // The crisis: f^(3p)(x_c) = f^(2p)(x_c) (methods.md E4), re-checked here in double precision.
     const r = period3.end.toNumber();
