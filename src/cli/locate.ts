@@ -29,11 +29,11 @@ export function register(program: Command): void {
   program
     .command('locate')
     .description('Newton to one nucleus of period P from a guess, an external angle or an internal address')
-    .option('--period <P>', 'exact period, an integer from 1 (required with --near; default: from the angle or address)')
+    .option('--period <period>', 'exact period, an integer from 1 (required with --near; default: from the angle or address)')
     .option('--near <re,im>', 'start point for Newton in c, RE,IM as decimals (default: none)')
     .option('--angle <a/b>', 'a rational external angle in turns, 0 <= a < b: land its ray (default: none)')
     .option('--address <1-2-4>', 'an internal address, increasing periods from 1 (default: none)')
-    .option('--digits <D>', 'digits after the decimal point; sizes to D significant digits (at most 17)', '30')
+    .option('--digits <digits>', 'digits after the decimal point; sizes to D significant digits (at most 17)', '30')
     .option('--certify', 'prove the nucleus and the root, disks holding exactly one solution each (default: computed, not proved)')
     .option('--json', 'JSON output (default: aligned text)')
     .action(async (o: Record<string, unknown>) => {

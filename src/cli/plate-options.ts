@@ -82,7 +82,7 @@ export const PLATE_OPTIONS: readonly OptionSpec[] = [
       s['reference'] = { re: parts[0]!.trim(), im: parts[1]!.trim(), period: integer(parts[2]!, '--reference') };
     },
   },
-  { flags: '--samples <k>', description: 'samples per refined pixel: 1 (off) or a square such as 4, 9, 16 (default 9; sheet samples)', apply: (s, v) => void (s['samples'] = integer(v, '--samples')) },
+  { flags: '--samples <n>', description: 'samples per refined pixel: 1 (off) or a square such as 4, 9, 16 (default 9; sheet samples)', apply: (s, v) => void (s['samples'] = integer(v, '--samples')) },
   { flags: '--depth <bits>', description: 'bits per channel: 8 or 16 (default 8; sheet depth)', apply: (s, v) => void (s['depth'] = integer(v, '--depth')) },
   ...COLOUR_OPTIONS,
   { flags: '--label-periods <n>', description: 'mark and label the nuclei of periods 1..n that are large enough, n from 0 (none) to 14 (default 0; sheet labels)', apply: (s, v) => void (s['labels'] = integer(v, '--label-periods')) },

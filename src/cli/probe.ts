@@ -29,9 +29,9 @@ export function register(program: Command): void {
     .description('everything known about one parameter c')
     .argument('<re,im>', 'the parameter c as RE,IM (write `probe -- -1.76,0.01` when RE is negative, or give RE and IM apart)')
     .argument('[im]', 'IM, when RE and IM are given as two arguments')
-    .option('--digits <D>', 'digits after the decimal point; multipliers, distances and sizes to D significant digits (at most 17)', '20')
-    .option('--iterations <N>', 'iteration limit of the escape test', '100000')
-    .option('--max-period <P>', 'longest attracting cycle looked for, in iterations', '1000')
+    .option('--digits <digits>', 'digits after the decimal point; multipliers, distances and sizes to D significant digits (at most 17)', '20')
+    .option('--iterations <n>', 'iteration limit of the escape test', '100000')
+    .option('--max-period <period>', 'longest attracting cycle looked for, in iterations', '1000')
     .option('--json', 'JSON output (default: aligned text)')
     .action(async (first: string, second: string | undefined, o: Record<string, unknown>) => {
       const c = parseDecimalPair(second === undefined ? first : `${first},${second}`, 'c');

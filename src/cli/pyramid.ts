@@ -26,6 +26,7 @@ import { resolveShard, type Shard } from '../render/pyramid-shard.js';
 import { parseSheet, type Sheet } from '../view/sheet.js';
 import { DOUBLE_MIN_RELATIVE_SPACING, fitsDouble } from '../view/view.js';
 import { parseCount, sheetFromPlate } from './plate.js';
+import { COLOUR_OPTIONS } from './colour-options.js';
 import { applyPlateOptions, attributeName, PLATE_OPTIONS, type OptionSpec } from './plate-options.js';
 import { readSheetFile, sheetName } from './sheet-file.js';
 import { Received, UserError } from './user-error.js';
@@ -34,20 +35,24 @@ import { quickSheet } from './quick.js';
 import { reportWrote } from './wrote.js';
 
 /** Plate flags that mean the same for a pyramid. */
-const SHARED = ['--center', '--span', '--rotation', '--size', '--print', '--dpi', '--iterations', '--samples', '--title', '--workers', '--again'];
+const SHARED = [
+  ...['--center', '--span', '--rotation', '--size', '--print', '--dpi', '--iterations', '--samples', '--title', '--workers', '--again'],
+  // Colour applies to the tiles; the legend does not (the viewer page shows its own).
+  ...COLOUR_OPTIONS.map((o) => o.flags.split(' ')[0]!).filter((f) => !f.startsWith('--legend')),
+];
 
 export const PYRAMID_OPTIONS: readonly OptionSpec[] = [
   ...PLATE_OPTIONS.filter((o) => SHARED.some((f) => o.flags.startsWith(`${f} `))),
   { flags: '--out-dir <dir>', description: 'output folder, empty or holding this same pyramid (default out/<sheet>-pyramid)' },
-  { flags: '--tile-size <pixels>', description: 'tile side in pixels, 16-4096 (default 256)' },
+  { flags: '--tile-size <pixels>', description: 'tile side in pixels, 16 to 4096 (default 256)' },
   { flags: '--format <png|jpg>', description: 'tile format (default png)' },
-  { flags: '--quality <q>', description: 'JPEG quality 1-100 (default 90)' },
+  { flags: '--quality <percent>', description: 'JPEG quality 1-100 (default 90)' },
   { flags: '--base-url <url>', description: 'URL the folder will be served from; info.json id = <url>/tiles (default: its file:// URL)' },
   { flags: '--shard <i/n>', description: 'render only tiles t with t mod n = i (default from SLURM_ARRAY_TASK_ID/_COUNT or JOB_COMPLETION_INDEX)' },
-  { flags: '--shards <n>', description: 'number of shards, with JOB_COMPLETION_INDEX (Kubernetes Indexed Job)' },
-  { flags: '--finish', description: 'check that every tile exists, then write info.json and the viewer page' },
-  { flags: '--queue <url>', description: 'put the tiles on a Redis queue (redis://HOST:PORT) for `quadatlas worker`, wait, then finish' },
-  { flags: '--json', description: 'print a JSON summary on stdout' },
+  { flags: '--shards <n>', description: 'number of shards, with JOB_COMPLETION_INDEX (Kubernetes Indexed Job) (default: no sharding)' },
+  { flags: '--finish', description: 'check that every tile exists, then write info.json and the viewer page (default: render, then finish when every tile is there)' },
+  { flags: '--queue <url>', description: 'put the tiles on a Redis queue redis://host:port for `quadatlas worker`, wait, then finish (default: render here)' },
+  { flags: '--json', description: 'print a JSON summary on stdout (default: a one-line report on stderr)' },
 ];
 
 export const DEFAULT_PYRAMID_TILE = 256;

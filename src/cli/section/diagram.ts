@@ -23,7 +23,7 @@ export const DIAGRAM_OPTIONS: readonly SectionOption[] = [
   { flags: '--x-from <x>', help: 'bottom edge of the state axis x (default 0; quartic -1.26)', field: 'x.from' },
   { flags: '--x-to <x>', help: 'top edge of the state axis x (default 1; quartic 1.26)', field: 'x.to' },
   { flags: '--size <WxH>', help: 'image size in pixels, 1x1 to 65535x65535 (default 2000x1000)', field: 'pixels', value: sizeText('--size') },
-  { flags: '--samples <k>', help: 'jittered parameter samples per pixel column, 1 to 1024 (default 4)', field: 'samples', value: integerText },
+  { flags: '--samples <n>', help: 'jittered parameter samples per pixel column, 1 to 1024 (default 4)', field: 'samples', value: integerText },
   { flags: '--transient <n>', help: 'iterations discarded per sample before plotting (default 1000)', field: 'transient', value: integerText },
   { flags: '--iterations <n>', help: 'iterations plotted per sample (default 2 x height, at least 1000)', field: 'iterations', value: integerText },
   { flags: '--depth <bits>', help: 'bits per channel of the PNG: 8 or 16 (default 16)', field: 'depth', value: integerText },

@@ -41,7 +41,7 @@ export const LYAPUNOV_OPTIONS: readonly SectionOption[] = [
   { flags: '--steps <n>', help: 'parameter values, evenly spaced, both ends included, 2 to 1000000 (default 1000)', field: 'steps', value: integerText },
   { flags: '--transient <n>', help: 'iterations discarded per start before measuring (default 1000)', field: 'transient', value: integerText },
   { flags: '--iterations <n>', help: 'iterations measured per start (default 10000)', field: 'iterations', value: integerText },
-  { flags: '--starts <k>', help: 'initial states averaged per parameter, 1 to 64; their spread is reported (default 3)', field: 'starts', value: integerText },
+  { flags: '--starts <n>', help: 'initial states averaged per parameter, 1 to 64; their spread is reported (default 3)', field: 'starts', value: integerText },
   digitsOption(DEFAULT_DIGITS, 'the exponent in text and CSV (JSON carries full doubles)'),
   { flags: '--out <file>', help: 'also write the plot to this file, .svg or .png (default: table only)', field: 'output.file' },
   NO_SIDECAR_OPTION,

@@ -100,7 +100,7 @@ export function againOption(kind: string): SectionOption {
   return { flags: '--again <file>', help: `render again from the sheet stored in a PNG, SVG or JSON sidecar that a ${kind} run wrote (default: none)` };
 }
 export function digitsOption(fallback: number, what: string): SectionOption {
-  return { flags: '--digits <D>', help: `digits after the decimal point of ${what}; values written with an exponent carry D significant digits (default ${fallback})` };
+  return { flags: '--digits <digits>', help: `digits after the decimal point of ${what}; values written with an exponent carry D significant digits (default ${fallback})` };
 }
 
 export function parseFamily(value: unknown): UnimodalFamily {
