@@ -23,7 +23,7 @@ export function register(program: Command): void {
   program
     .command('components')
     .description('list or count the hyperbolic components of exact period P')
-    .requiredOption('--period <period>', 'exact period, an integer from 1 (required)')
+    .requiredOption('--period <period>', 'exact period, an integer from 1 (required, no default)')
     .option('--real', 'only components on the real axis (default: all)')
     .option('--within <box>', 'only nuclei inside the box RE0,IM0,RE1,IM1 in c (default: the whole plane)')
     .option('--digits <digits>', 'digits after the decimal point for nuclei and roots; sizes to D significant digits (at most 17)', '20')

@@ -60,8 +60,8 @@ export function register(program: Command): void {
     .command('palettes')
     .description('list and show the exterior gradients, interior styles and period colours')
     .option('--out-dir <dir>', 'write a swatch PNG per gradient, per interior style and one of the period colours into DIR (default: none)')
-    .option('--gradient <file>', 'also show a custom gradient from colour stops (JSON or CSV at,colour, as plate --gradient reads)')
-    .option('--json', 'print the listing as JSON on stdout')
+    .option('--gradient <file>', 'also show a custom gradient from colour stops (JSON or CSV at,colour, as plate --gradient reads; default: none)')
+    .option('--json', 'print the listing as JSON on stdout (default: text)')
     .action(async (values: { outDir?: string; gradient?: string; json?: boolean }) => {
       let custom: GradientStop[] | null = null;
       if (values.gradient !== undefined) {

@@ -41,7 +41,7 @@ export function register(program: Command): void {
   presets
     .command('list')
     .description('one line per preset: name, size, title')
-    .option('--json', 'print the list as JSON')
+    .option('--json', 'print the list as JSON (default: aligned text)')
     .action(async (opts: { json?: boolean }) => {
       const rows = [];
       for (const e of await entries()) {
@@ -85,7 +85,7 @@ export function register(program: Command): void {
     .command('render [names...]')
     .description('render presets (default: those marked startup) into their output files')
     .option('--out-dir <dir>', 'write into this directory instead of the sheets\' own paths (default: each sheet\'s output.file)')
-    .option('--all', 'render every preset')
+    .option('--all', 'render every preset (default: only those marked startup)')
     .option('--workers <n>', 'worker threads, never changes the output (default: one per core)')
     .action(async (names: string[], opts: { outDir?: string; all?: boolean; workers?: string }) => {
       const all = await entries();

@@ -17,10 +17,10 @@ import type { OptionSpec } from './plate-options.js';
 import { UserError } from './user-error.js';
 
 export const WORKER_OPTIONS: readonly OptionSpec[] = [
-  { flags: '--queue <url>', description: 'the Redis queue to take tiles from (redis://HOST:PORT)' },
+  { flags: '--queue <url>', description: 'the Redis queue to take tiles from, redis://host:port (required, no default)' },
   { flags: '--workers <n>', description: 'tiles rendered at once, one thread each (default: all cores)' },
   { flags: '--idle-exit <seconds>', description: 'exit after this long with nothing to do (default: run until SIGTERM)' },
-  { flags: '--json', description: 'print a JSON summary on stdout when the worker stops' },
+  { flags: '--json', description: 'print a JSON summary on stdout when the worker stops (default: a line on stderr)' },
 ];
 
 /**

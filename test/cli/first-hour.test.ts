@@ -170,3 +170,34 @@ describe('citation and version', () => {
     expect(shown.writtenBy).toBe(`quadatlas ${version}`);
   });
 });
+
+describe('--help of every command', () => {
+  const commands = [
+    ['plate'], ['pyramid'], ['worker'], ['components'], ['locate'], ['probe'], ['palettes'],
+    ['presets', 'list'], ['presets', 'render'],
+    ['section', 'convert'], ['section', 'cascade'], ['section', 'windows'], ['section', 'lyapunov'], ['section', 'diagram'], ['section', 'compare'],
+  ];
+  it('states a default on every option line, and uses lowercase placeholders', () => {
+    const missing: string[] = [];
+    for (const c of commands) {
+      const r = runCli([...c, '--help']);
+      expect(r.status, c.join(' ')).toBe(0);
+      const options = r.stdout.split('Options:')[1] ?? '';
+      const entries = options.split(/\n(?= {2}-)/).map((e) => e.replace(/\s+/g, ' ').trim()).filter((e) => e.startsWith('-') && !e.startsWith('-h, --help'));
+      expect(entries.length, c.join(' ')).toBeGreaterThan(0);
+      for (const e of entries) {
+        if (!/default/i.test(e)) missing.push(`${c.join(' ')}: ${e}`);
+        // Placeholders: a lowercase word or a format sample (WxH, re,im, a/b, i/n).
+        const placeholder = /^--\S+ <([^>]+)>/.exec(e)?.[1];
+        if (placeholder !== undefined && !/^([a-z][a-z0-9,./|-]*|WxH|WxHmm|1-2-4)$/.test(placeholder)) missing.push(`${c.join(' ')}: placeholder <${placeholder}>`);
+      }
+    }
+    expect(missing).toEqual([]);
+  });
+
+  it('pyramid --help lists only what applies to pyramids', () => {
+    const help = runCli(['pyramid', '--help']).stdout;
+    for (const flag of ['--out <file>', '--data', '--legend', '--label-periods', '--depth', '--arith', '--no-sidecar']) expect(help, flag).not.toContain(flag);
+    for (const flag of ['--out-dir', '--tile-size', '--exterior', '--format']) expect(help, flag).toContain(flag);
+  });
+});
