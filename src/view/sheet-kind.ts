@@ -17,6 +17,15 @@ export const SHEET_SCHEMA = 1;
 export type SheetKind = 'plate' | 'julia' | 'section-diagram' | 'section-lyapunov' | 'section-compare';
 export const SHEET_KINDS: readonly SheetKind[] = ['plate', 'julia', 'section-diagram', 'section-lyapunov', 'section-compare'];
 
+/** The command that renders a sheet of each kind. */
+export const COMMAND_OF_KIND: Readonly<Record<SheetKind, string>> = {
+  plate: 'quadatlas plate',
+  julia: 'quadatlas julia',
+  'section-diagram': 'quadatlas section diagram',
+  'section-lyapunov': 'quadatlas section lyapunov',
+  'section-compare': 'quadatlas section compare',
+};
+
 /**
  * The kind of a raw sheet, after migrating it in place to SHEET_SCHEMA
  * (`kind` and `schema` are then set). `expected` restricts the kinds a
@@ -40,7 +49,7 @@ export function migrateSheet(raw: Record<string, unknown>, field = 'sheet', expe
     throw new UserError(`${field}.kind`, `one of ${SHEET_KINDS.join(', ')}`, kind);
   }
   if (!(expected as readonly string[]).includes(kind)) {
-    throw new UserError(`${field}.kind`, `a sheet of kind ${expected.join(' or ')}`, kind);
+    throw new UserError(`${field}.kind`, `a sheet of kind ${expected.join(' or ')} (render this one with ${COMMAND_OF_KIND[kind as SheetKind]})`, kind);
   }
   raw['schema'] = SHEET_SCHEMA;
   return kind as SheetKind;
