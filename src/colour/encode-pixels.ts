@@ -33,6 +33,39 @@ export function ditherAt(x: number, y: number, ch: number): number {
 }
 
 /**
+ * The sRGB transfer curve by table, for encoding: g(t) = 1.055 t^(5/6) - 0.055
+ * sampled at TABLE_SIZE + 1 points of t = sqrt(v) in [0, 1] and interpolated
+ * linearly. In t the curve is gentle where it is steep in v (near the start of
+ * the power segment at v = 0.0031308, |g''| <= 4.3), so linear interpolation
+ * is within h^2/8 max|g''| = 3.2e-8 of the curve (h = 1/4096);
+ * TABLE_ERROR allows five times that. The table only decides which integer a
+ * channel rounds to when that is certain: when the interval
+ * [estimate - TABLE_ERROR, estimate + TABLE_ERROR] (scaled) rounds to one
+ * integer, that is the integer the exact curve gives; otherwise (about 2% of
+ * 16-bit channels, a few in 10^4 of 8-bit ones) the exact curve decides. So
+ * the bytes are those of the exact curve, at a fraction of the cost of
+ * Math.pow per channel (which took four times as long as the escape loop on
+ * a whole-set plate). A polynomial in v was tried and dropped: near the
+ * segment join it needs degree 9 for the same accuracy.
+ */
+const TABLE_SIZE = 4096;
+export const TABLE_ERROR = 1.6e-7;
+const POWER_FROM = 0.0031308;
+const TABLE = (() => {
+  const t = new Float64Array(TABLE_SIZE + 2);
+  for (let k = 0; k <= TABLE_SIZE + 1; k++) t[k] = 1.055 * Math.pow(k / TABLE_SIZE, 5 / 6) - 0.055;
+  return t;
+})();
+
+/** The table's estimate of linearToSrgb(v) for POWER_FROM < v < 1 (within TABLE_ERROR). */
+export function srgbEstimate(v: number): number {
+  const x = Math.sqrt(v) * TABLE_SIZE;
+  const k = x | 0;
+  const a = TABLE[k]!;
+  return a + (x - k) * (TABLE[k + 1]! - a);
+}
+
+/**
  * Encodes linear-light RGB (3 doubles per pixel, `rows` rows of `width`
  * pixels, row-major) to sRGB integers in `out` (3 per pixel): clip to [0, 1],
  * apply the IEC 61966-2-1 transfer curve, then
@@ -40,7 +73,8 @@ export function ditherAt(x: number, y: number, ch: number): number {
  *   coordinate (x0 + i, y0 + j), round, clip to 0..255; exact 0 and 1 are
  *   not dithered;
  * - depth 16: round to nearest, no dither (one step is below visibility).
- * NaN input encodes as 0.
+ * NaN input encodes as 0. The result equals encoding with the exact curve
+ * (linearToSrgb) channel for channel; the table above only saves time.
  */
 export function encodePixels(
   linear: Float64Array,
@@ -52,6 +86,7 @@ export function encodePixels(
   out: Uint8Array | Uint16Array,
 ): void {
   const max = depth === 16 ? 65535 : 255;
+  const slack = TABLE_ERROR * max;
   for (let j = 0; j < rows; j++) {
     const y = y0 + j;
     for (let i = 0; i < width; i++) {
@@ -59,10 +94,19 @@ export function encodePixels(
       const p = 3 * (j * width + i);
       for (let ch = 0; ch < 3; ch++) {
         const v = linear[p + ch]!;
-        // v >= 1 maps to max exactly (1.055 - 0.055 rounds just below 1 in doubles).
-        const e = v >= 1 ? max : v > 0 ? linearToSrgb(v) * max : 0;
-        // Exact black and white stay exact (no dither), so print blacks are clean.
-        let q = depth === 16 || e <= 0 || e >= max ? Math.round(e) : Math.round(e + ditherAt(x, y, ch));
+        let q: number;
+        if (v > POWER_FROM && v < 0.999) {
+          // The power segment, away from white: the table decides unless the rounding is in doubt.
+          const shift = depth === 16 ? 0 : ditherAt(x, y, ch);
+          const e = srgbEstimate(v) * max + shift;
+          const lo = Math.round(e - slack);
+          q = lo === Math.round(e + slack) ? lo : Math.round(linearToSrgb(v) * max + shift);
+        } else {
+          // v >= 1 maps to max exactly (1.055 - 0.055 rounds just below 1 in doubles).
+          const e = v >= 1 ? max : v > 0 ? linearToSrgb(v) * max : 0;
+          // Exact black and white stay exact (no dither), so print blacks are clean.
+          q = depth === 16 || e <= 0 || e >= max ? Math.round(e) : Math.round(e + ditherAt(x, y, ch));
+        }
         if (q < 0) q = 0;
         else if (q > max) q = max;
         out[p + ch] = q;

@@ -1,6 +1,6 @@
 import { describe, expect, it } from 'vitest';
-import { ditherAt, encodePixels, mix32 } from '../../src/colour/encode-pixels.js';
-import { srgbToLinear } from '../../src/colour/oklab.js';
+import { ditherAt, encodePixels, mix32, srgbEstimate, TABLE_ERROR } from '../../src/colour/encode-pixels.js';
+import { linearToSrgb, srgbToLinear } from '../../src/colour/oklab.js';
 
 describe('encodePixels', () => {
   it('16-bit: encodes known linear values exactly (IEC 61966-2-1, hand-evaluated)', () => {
@@ -111,4 +111,64 @@ describe('ditherAt', () => {
     expect(Math.abs(flips / trials - 16)).toBeLessThan(0.3);
     expect(mix32(2 ** 32 + 1)).toBe(mix32(1));
   });
+});
+
+describe('encodePixels by table', () => {
+  // The reference: the IEC 61966-2-1 curve evaluated with Math.pow for every channel, as encodePixels did
+  // before the table (the bytes must not change).
+  function reference(linear: Float64Array, width: number, rows: number, x0: number, y0: number, depth: 8 | 16): number[] {
+    const max = depth === 16 ? 65535 : 255;
+    const out: number[] = [];
+    for (let j = 0; j < rows; j++) {
+      for (let i = 0; i < width; i++) {
+        for (let ch = 0; ch < 3; ch++) {
+          const v = linear[3 * (j * width + i) + ch]!;
+          const f = v <= 0.0031308 ? 12.92 * v : 1.055 * Math.pow(v, 1 / 2.4) - 0.055;
+          const e = v >= 1 ? max : v > 0 ? f * max : 0;
+          let q = depth === 16 || e <= 0 || e >= max ? Math.round(e) : Math.round(e + ditherAt(x0 + i, y0 + j, ch));
+          q = Math.min(max, Math.max(0, q));
+          out.push(q);
+        }
+      }
+    }
+    return out;
+  }
+
+  it('srgbEstimate stays within a quarter of TABLE_ERROR of the exact curve over the power segment', () => {
+    let worst = 0;
+    for (let k = 0; k <= 2_000_000; k++) {
+      const v = 0.0031309 + (k / 2_000_000) * (0.999 - 0.0031309);
+      worst = Math.max(worst, Math.abs(srgbEstimate(v) - linearToSrgb(v)));
+    }
+    expect(worst).toBeLessThan(TABLE_ERROR / 4);
+  });
+
+  for (const depth of [8, 16] as const) {
+    it(`${depth}-bit: gives the bytes of the exact curve, also for values that encode next to a rounding boundary`, () => {
+      const width = 256;
+      const rows = 64;
+      const linear = new Float64Array(width * rows * 3);
+      let h = 12345;
+      const max = depth === 16 ? 65535 : 255;
+      for (let k = 0; k < linear.length; k++) {
+        h = mix32(h + k);
+        const u = h / 4294967296;
+        if (k % 3 === 0) {
+          // Exactly on a half-way point of the encoded scale, decoded back to linear light (IEC 61966-2-1 inverse).
+          const code = (Math.floor(u * (max - 1)) + 0.5) / max;
+          linear[k] = code <= 0.04045 ? code / 12.92 : Math.pow((code + 0.055) / 1.055, 2.4);
+        } else if (k % 3 === 1) linear[k] = u;
+        else linear[k] = u * u * u; // dense near black, where the curve is steep
+      }
+      linear[0] = 0;
+      linear[1] = 1;
+      linear[2] = Number.NaN;
+      linear[3] = 0.0031308;
+      linear[4] = 0.999;
+      linear[5] = 1.5;
+      const out = depth === 16 ? new Uint16Array(linear.length) : new Uint8Array(linear.length);
+      encodePixels(linear, width, rows, 7, 11, depth, out);
+      expect(Array.from(out)).toEqual(reference(linear, width, rows, 7, 11, depth));
+    });
+  }
 });

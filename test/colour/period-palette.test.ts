@@ -68,3 +68,13 @@ describe('period palette', () => {
     expect(new Set(before).size).toBe(PERIOD_PALETTE_SIZE);
   });
 });
+
+describe('the period palette table', () => {
+  it('holds exactly the colours the palette rule builds (scripts/period-palette-table.mjs wrote it)', async () => {
+    const { buildPeriodPalette } = await import('../../src/colour/build-period-palette.js');
+    const { PERIOD_PALETTE_LAB, PERIOD_PALETTE_LINEAR } = await import('../../src/colour/period-palette-table.js');
+    const built = buildPeriodPalette();
+    expect(Array.from(PERIOD_PALETTE_LAB)).toEqual(Array.from(built.lab));
+    expect(Array.from(PERIOD_PALETTE_LINEAR)).toEqual(Array.from(built.linear));
+  });
+});
