@@ -23,7 +23,10 @@
 import { encodePixels } from '../colour/encode-pixels.js';
 import { paintLegendRect, type Legend } from '../colour/legend.js';
 import { shadeSamples } from '../colour/shade-samples.js';
-import { createSampleSet, PERIOD_UNDECIDED, type SampleSet } from '../plane/sample-set.js';
+import { PERIOD_UNDECIDED } from '../plane/sample-set.js';
+import { paintStrokes } from '../colour/paint-strokes.js';
+import { shadeJuliaSamples } from '../colour/shade-julia.js';
+import { createJuliaSampleSet, sampleJulia, type JuliaSampleSet } from '../dynamic/sample-julia.js';
 import { createSampleScratch, sampleParameters, type SampleScratch } from '../plane/sample-parameters.js';
 import type { EscapeLoop } from '../plane/escape-loop.js';
 import { sampleDeep, type DeepStats } from '../plane/deep-sample.js';
@@ -53,11 +56,12 @@ export interface TileScratch {
   /** Parameters (double path) or offsets from the reference (deep path) of a batch. */
   readonly cr: Float64Array;
   readonly ci: Float64Array;
-  readonly centre: SampleSet;
+  /** Centre samples; `basin` is written by the Julia kernel only (the c-plane path leaves it 0). */
+  readonly centre: JuliaSampleSet;
   readonly centreLinear: Float64Array;
   readonly refineXs: Float64Array;
   readonly refineYs: Float64Array;
-  readonly refined: SampleSet;
+  readonly refined: JuliaSampleSet;
   readonly refinedLinear: Float64Array;
   readonly linear: Float64Array;
   readonly flags: Uint8Array;
@@ -75,11 +79,11 @@ export function createTileScratch(maxTile: number): TileScratch {
     ys: new Float64Array(apron),
     cr: new Float64Array(Math.max(apron, REFINE_BATCH)),
     ci: new Float64Array(Math.max(apron, REFINE_BATCH)),
-    centre: createSampleSet(apron),
+    centre: createJuliaSampleSet(apron),
     centreLinear: new Float64Array(apron * 3),
     refineXs: new Float64Array(REFINE_BATCH),
     refineYs: new Float64Array(REFINE_BATCH),
-    refined: createSampleSet(REFINE_BATCH),
+    refined: createJuliaSampleSet(REFINE_BATCH),
     refinedLinear: new Float64Array(REFINE_BATCH * 3),
     linear: new Float64Array(maxTile * maxTile * 3),
     flags: new Uint8Array(maxTile * maxTile),
@@ -105,7 +109,7 @@ export function jitter(x: number, y: number, k: number, axis: number): number {
  * + (y - 1/2) stepY in units of 2^U, the same formula as fillDeepOffsets
  * (src/plane/deep-offsets.ts), so every pixel gets the same bits in any tile.
  */
-function evaluate(job: PlateJob, xs: Float64Array, ys: Float64Array, n: number, scratch: TileScratch, out: SampleSet, deepStats: DeepStats, loop?: EscapeLoop): void {
+function evaluate(job: PlateJob, xs: Float64Array, ys: Float64Array, n: number, scratch: TileScratch, out: JuliaSampleSet, deepStats: DeepStats, loop?: EscapeLoop): void {
   const { cr, ci } = scratch;
   const deep = job.deep;
   if (deep !== undefined) {
@@ -127,8 +131,19 @@ function evaluate(job: PlateJob, xs: Float64Array, ys: Float64Array, n: number, 
     cr[k] = grid.centerRe + (u * grid.cos - v * grid.sin);
     ci[k] = grid.centerIm + (u * grid.sin + v * grid.cos);
   }
+  if (job.julia !== undefined) {
+    const { cRe, cIm, trap } = job.julia;
+    sampleJulia(cr, ci, n, { cRe, cIm, maxIterations: job.iterations, escapeRadius: job.escapeRadius }, trap, out);
+    return;
+  }
   const settings = { maxIterations: job.iterations, escapeRadius: job.escapeRadius, periodTolerance: job.periodTolerance };
   sampleParameters(cr, ci, n, settings, out, loop, scratch.kernel);
+}
+
+/** Colours n samples of a batch: the c-plane shading, or the Julia one (basin classes) for a Julia plate. */
+function shade(job: PlateJob, samples: JuliaSampleSet, n: number, spacing: number, out: Float64Array): void {
+  if (job.julia !== undefined) shadeJuliaSamples(samples, 0, n, spacing, job.colour, job.julia.basin, job.julia.trap.basinPeriod, out);
+  else shadeSamples(samples, 0, n, spacing, job.colour, out);
 }
 
 function kindOf(period: number): number {
@@ -161,7 +176,7 @@ export function renderTile(job: PlateJob, tile: Tile, scratch: TileScratch, loop
     }
   }
   evaluate(job, xs, ys, n, scratch, centre, deepStats, loop);
-  shadeSamples(centre, 0, n, spacing, job.colour, centreLinear);
+  shade(job, centre, n, spacing, centreLinear);
 
   stats.samples += n;
   const pixelCount = w * h;
@@ -192,7 +207,7 @@ export function renderTile(job: PlateJob, tile: Tile, scratch: TileScratch, loop
           for (let di = -1; di <= 1; di++) {
             const q = k + dj * aw + di;
             const pq = centre.period[q]!;
-            if (pq !== period || kindOf(pq) !== kind) {
+            if (pq !== period || kindOf(pq) !== kind || centre.basin[q] !== centre.basin[k]) {
               flag = 1;
               break;
             }
@@ -224,7 +239,7 @@ export function renderTile(job: PlateJob, tile: Tile, scratch: TileScratch, loop
       const m = owners.length * K;
       if (m === 0) return;
       evaluate(job, refineXs, refineYs, m, scratch, refined, deepStats, loop);
-      shadeSamples(refined, 0, m, spacing, job.colour, refinedLinear);
+      shade(job, refined, m, spacing, refinedLinear);
       stats.samples += m;
       for (let o = 0; o < owners.length; o++) {
         const p = owners[o]!;
@@ -260,7 +275,8 @@ export function renderTile(job: PlateJob, tile: Tile, scratch: TileScratch, loop
     flush();
   }
 
-  // 4. Period labels and the inset legend, composited in linear light, then encode.
+  // 4. Marks (Julia plates), period labels and the inset legend, composited in linear light, then encode.
+  if (job.julia !== undefined && job.julia.strokes.length > 0) paintStrokes(job.julia.strokes, x0, y0, w, h, linear);
   for (const label of job.labels ?? []) paintLegendRect(label, x0, y0, w, h, linear);
   if (legend !== null) paintLegendRect(legend, x0, y0, w, h, linear);
   const pixels = job.depth === 16 ? new Uint16Array(pixelCount * 3) : new Uint8Array(pixelCount * 3);

@@ -1,0 +1,97 @@
+/**
+ * Renders a checked Julia sheet to its files through the plate pipeline
+ * (writePlate: same sinks, sidecar and same-sheet-same-bytes rule): finds the
+ * cycle once from the critical orbit, builds the trap and the marks, and
+ * hands the job to the workers with its `julia` part set.
+ */
+import os from 'node:os';
+import { findJuliaCycle, type JuliaCycle } from '../dynamic/julia-cycle.js';
+import { fixedPoints } from '../dynamic/fixed-points.js';
+import { juliaTrap } from '../dynamic/julia-trap.js';
+import { DEFAULT_ESCAPE_RADIUS } from '../plane/sample-parameters.js';
+import { juliaMarks } from '../render/julia-marks.js';
+import type { PlateJob } from '../render/plate-job.js';
+import { DEFAULT_TILE_SIZE } from '../render/render-plate.js';
+import { cardioidPoint, juliaRenderRecord, type JuliaSheet } from '../view/julia-sheet.js';
+import { resolveIterations } from '../view/sheet.js';
+import { doubleGrid, fitsDouble } from '../view/view.js';
+import { writePlate, type PlateSummary, type RenderSheetOptions } from './render-sheet.js';
+import { Received, UserError } from './user-error.js';
+import { toolVersion } from './version.js';
+
+/** The metadata JSON stored in a Julia plate: tool, version and the sheet that fixes its pixels. */
+export function juliaMetadata(sheet: JuliaSheet, iterations: number): string {
+  return JSON.stringify({ tool: 'quadatlas', version: toolVersion(), kind: 'julia', arithmetic: 'double', referenceBits: 53, iterations, sheet: juliaRenderRecord(sheet) });
+}
+
+/** The cycle of a sheet's c: known exactly for a cardioid angle, else found from the critical orbit. */
+export function sheetCycle(sheet: JuliaSheet): JuliaCycle {
+  const cRe = Number(sheet.c.re), cIm = Number(sheet.c.im);
+  if (sheet.cardioidAngle !== null) {
+    const [s, q] = sheet.cardioidAngle.split('/').map(Number) as [number, number];
+    const p = cardioidPoint(s, q);
+    return findJuliaCycle(cRe, cIm, { parabolic: { wRe: p.mRe / 2, wIm: p.mIm / 2, s, q } });
+  }
+  return findJuliaCycle(cRe, cIm);
+}
+
+/** The cycle as reported in --json and the sidecar. */
+export function cycleRecord(cycle: JuliaCycle): Record<string, unknown> {
+  return {
+    kind: cycle.kind,
+    period: cycle.period,
+    classes: cycle.basinPeriod,
+    points: cycle.pointsRe.map((re, j) => ({ re, im: cycle.pointsIm[j]! })),
+    multiplier: { re: cycle.multiplierRe, im: cycle.multiplierIm, abs: Math.hypot(cycle.multiplierRe, cycle.multiplierIm) },
+    ...(cycle.rotation === null ? {} : { rotation: `${cycle.rotation.s}/${cycle.rotation.q}` }),
+    ...(cycle.kind === 'attracting' ? { trapRadius: cycle.trapRadius } : {}),
+    ...(cycle.petals === null ? {} : { petals: { count: cycle.basinPeriod, fatouRadius: cycle.petals.fatouRadius, leading: { re: cycle.petals.aRe, im: cycle.petals.aIm } } }),
+    note: cycle.note,
+  };
+}
+
+export async function renderJuliaSheet(sheet: JuliaSheet, options: RenderSheetOptions = {}): Promise<PlateSummary> {
+  const started = process.hrtime.bigint();
+  const view = { centerRe: sheet.view.re, centerIm: sheet.view.im, span: sheet.view.span, width: sheet.width, height: sheet.height, rotation: sheet.view.rotation };
+  const grid = doubleGrid(view);
+  if (!fitsDouble(grid) && sheet.arithmetic !== 'double') {
+    throw new UserError('view.span', 'a Julia view that doubles resolve (deep Julia views are not available yet)', new Received(`${sheet.view.span} at ${sheet.width} pixels`));
+  }
+  const iterations = resolveIterations(sheet);
+  const cRe = Number(sheet.c.re), cIm = Number(sheet.c.im);
+  const cycle = sheetCycle(sheet);
+  const trap = juliaTrap(cycle, cRe, cIm, DEFAULT_ESCAPE_RADIUS);
+  const marks = juliaMarks(sheet.marks, grid, sheet.dpi, cRe, cIm, cycle);
+  const job: PlateJob = {
+    grid,
+    iterations,
+    escapeRadius: DEFAULT_ESCAPE_RADIUS,
+    periodTolerance: 0,
+    samples: sheet.samples,
+    depth: sheet.depth,
+    colour: sheet.colour,
+    dpi: sheet.dpi,
+    withData: sheet.output.data !== null,
+    labels: [],
+    julia: { cRe, cIm, trap, basin: sheet.basin, strokes: marks.strokes },
+  };
+  const f = fixedPoints(cRe, cIm);
+  const julia = {
+    c: { ...sheet.c },
+    ...(sheet.cardioidAngle === null ? {} : { cardioidAngle: sheet.cardioidAngle }),
+    cycle: cycleRecord(cycle),
+    fixedPoints: { alpha: { re: f.alphaRe, im: f.alphaIm }, beta: { re: f.betaRe, im: f.betaIm } },
+    marks: marks.record,
+  };
+  return writePlate(sheet, job, {
+    started,
+    workers: options.workers ?? os.availableParallelism(),
+    tileSize: options.tileSize ?? DEFAULT_TILE_SIZE,
+    metadata: juliaMetadata(sheet, iterations),
+    arithmetic: 'double',
+    precision: { referenceBits: 53 },
+    iterations,
+    julia,
+    ...(options.label === undefined ? {} : { label: options.label }),
+  });
+}
