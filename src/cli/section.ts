@@ -9,6 +9,7 @@ import { cToR, rToC, xToZ, zToX } from '../section/conjugacy.js';
 import { FAMILIES } from '../section/families/index.js';
 import { formatTable, type SectionTable, type TableFormat } from '../section/section-table.js';
 import type { UnimodalFamily } from '../section/unimodal-family.js';
+import { registerOrbitCommands } from './section-orbit.js';
 import { Received, UserError } from './user-error.js';
 
 const FAMILY_NAMES = [...FAMILIES.keys()];
@@ -462,7 +463,8 @@ function progressLine(s: string): void {
 }
 
 export function register(program: Command): void {
-  const section = program.command('section').description('the real slice: convert, cascade, windows, lyapunov, diagram, compare');
+  const section = program.command('section').description('the real slice: convert, cascade, windows, lyapunov, diagram, compare, orbit, cobweb');
+  registerOrbitCommands(section);
 
   const convert = section
     .command('convert')
