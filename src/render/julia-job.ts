@@ -1,6 +1,7 @@
 import type { Stroke } from '../colour/paint-strokes.js';
 import type { BasinStyle } from '../colour/shade-julia.js';
 import type { JuliaTrap } from '../dynamic/sample-julia.js';
+import type { JuliaReferences } from '../dynamic/sample-julia-deep.js';
 
 /**
  * What a tile worker needs, beyond the plate job, to render the dynamical
@@ -14,4 +15,6 @@ export interface JuliaJob {
   readonly basin: BasinStyle;
   /** Marks (orbit, cycle, fixed points, rays) in plate pixels, painted over the plate. */
   readonly strokes: readonly Stroke[];
+  /** Deep views: the reference orbits of the centre and of the critical point; samples are then offsets from the centre. */
+  readonly deep?: JuliaReferences;
 }

@@ -27,6 +27,7 @@ import { PERIOD_UNDECIDED } from '../plane/sample-set.js';
 import { paintStrokes } from '../colour/paint-strokes.js';
 import { shadeJuliaSamples } from '../colour/shade-julia.js';
 import { createJuliaSampleSet, sampleJulia, type JuliaSampleSet } from '../dynamic/sample-julia.js';
+import { sampleJuliaDeep } from '../dynamic/sample-julia-deep.js';
 import { createSampleScratch, sampleParameters, type SampleScratch } from '../plane/sample-parameters.js';
 import type { EscapeLoop } from '../plane/escape-loop.js';
 import { sampleDeep, type DeepStats } from '../plane/deep-sample.js';
@@ -125,6 +126,18 @@ function evaluate(job: PlateJob, xs: Float64Array, ys: Float64Array, n: number, 
   }
   const grid = job.grid;
   const spacing = grid.spacing;
+  if (job.julia?.deep !== undefined) {
+    // Offsets from the view centre (the reference), in z units.
+    for (let k = 0; k < n; k++) {
+      const u = (xs[k]! - grid.width / 2) * spacing;
+      const v = (grid.height / 2 - ys[k]!) * spacing;
+      cr[k] = u * grid.cos - v * grid.sin;
+      ci[k] = u * grid.sin + v * grid.cos;
+    }
+    const { cRe, cIm, trap } = job.julia;
+    sampleJuliaDeep(cr, ci, n, { cRe, cIm, maxIterations: job.iterations, escapeRadius: job.escapeRadius }, trap, job.julia.deep, out);
+    return;
+  }
   for (let k = 0; k < n; k++) {
     const u = (xs[k]! - grid.width / 2) * spacing;
     const v = (grid.height / 2 - ys[k]!) * spacing;

@@ -105,7 +105,6 @@ export function parseJuliaSheet(value: unknown, name = 'julia'): JuliaSheet {
       throw new UserError(field, `no ${field} on a Julia plate (${field === 'labels' ? 'period labels belong to the c-plane' : 'the deep reference is a parameter-plane nucleus'})`, value[field]);
     }
   }
-  if (value['arithmetic'] === 'deep') throw new UserError('arithmetic', 'auto or double on a Julia plate (deep Julia views are not available yet)', value['arithmetic']);
   const rest: Json = {};
   for (const [k, v] of Object.entries(value)) if (!(JULIA_KEYS as readonly string[]).includes(k)) rest[k] = v;
   const viewIn = rest['view'] ?? {};
