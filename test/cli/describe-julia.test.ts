@@ -1,0 +1,21 @@
+import path from 'node:path';
+import { describe, expect, it } from 'vitest';
+import { runCli, tempDir } from '../helpers/run-cli.js';
+
+describe('quadatlas describe: the matching julia command', () => {
+  it('prints a julia command line that runs and finds the same period as describe (two independent cycle searches)', () => {
+    const dir = tempDir();
+    for (const c of ['-0.12256116687665,0.74486176661974', '-1,0', '-1.7548776662466927,0']) {
+      const d = runCli(['describe', c, '--json', '--orbit', '4', '--digits', '12']);
+      expect(d.status, d.stderr).toBe(0);
+      const info = JSON.parse(d.stdout) as { period: number; juliaCommand: string; criticalOrbit: { points: unknown[]; cycle: { period: number } } };
+      expect(info.juliaCommand).toBe(`quadatlas julia --c ${c}`);
+      expect(info.criticalOrbit.points).toHaveLength(4);
+      expect(info.criticalOrbit.cycle.period).toBe(info.period);
+      const args = info.juliaCommand.split(' ').slice(1);
+      const j = runCli([...args, '--size', '80x60', '--samples', '1', '--json', '--out', path.join(dir, 'j.png')]);
+      expect(j.status, j.stderr).toBe(0);
+      expect((JSON.parse(j.stdout) as { julia: { cycle: { period: number } } }).julia.cycle.period).toBe(info.period);
+    }
+  });
+});
