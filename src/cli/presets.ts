@@ -8,6 +8,9 @@ import { parseSheet, type Sheet } from '../view/sheet.js';
 import { parseCount } from './plate.js';
 import { presetsDir } from './presets-dir.js';
 import { renderSheet } from './render-sheet.js';
+import { parseJuliaSheet, type JuliaSheet } from '../view/julia-sheet.js';
+import { renderJuliaSheet } from './render-julia.js';
+import { isFigureKind, parseFigureSheet, renderFigureSheet, type FigureSheet } from './figure-sheet.js';
 import { readSheetFile, sheetName } from './sheet-file.js';
 import { UserError } from './user-error.js';
 
@@ -29,8 +32,11 @@ async function find(name: string): Promise<Entry> {
   return hit;
 }
 
-async function load(e: Entry): Promise<Sheet> {
-  return parseSheet(await readSheetFile(e.file), e.name);
+async function load(e: Entry): Promise<Sheet | JuliaSheet | FigureSheet> {
+  const raw = await readSheetFile(e.file);
+  if (raw['kind'] === 'julia') return parseJuliaSheet(raw, e.name);
+  if (isFigureKind(raw['kind'])) return parseFigureSheet(raw, e.name);
+  return parseSheet(raw, e.name);
 }
 
 export function register(program: Command): void {
@@ -98,9 +104,16 @@ export function register(program: Command): void {
         let sheet = await load(e);
         if (opts.out !== undefined) {
           const rebase = (p: string): string => path.join(opts.out!, path.basename(p));
-          sheet = { ...sheet, output: { ...sheet.output, file: rebase(sheet.output.file), data: sheet.output.data === null ? null : rebase(sheet.output.data) } };
+          const moved = <T extends { readonly output: { readonly file: string; readonly data: string | null } }>(s: T): T => ({ ...s, output: { ...s.output, file: rebase(s.output.file), data: s.output.data === null ? null : rebase(s.output.data) } }) as T;
+          sheet = moved(sheet);
         }
-        const summary = await renderSheet(sheet, { label: e.name, ...(workers === undefined ? {} : { workers }) });
+        if ('values' in sheet) {
+          const files = await renderFigureSheet(sheet);
+          process.stderr.write(`${e.name}: wrote ${files.join(', ')}\n`);
+          continue;
+        }
+        const options = { label: e.name, ...(workers === undefined ? {} : { workers }) };
+        const summary = 'kind' in sheet ? await renderJuliaSheet(sheet, options) : await renderSheet(sheet, options);
         process.stderr.write(`${e.name}: wrote ${summary.files.map((f) => path.relative(process.cwd(), f)).join(', ')} (${summary.seconds} s)\n`);
       }
     });

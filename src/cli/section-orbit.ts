@@ -206,16 +206,8 @@ export function registerOrbitCommands(section: Command): void {
     .option('--csv', 'write the table as CSV to stdout');
   out(orbitCmd).action(async (values: Values) => {
     const format = tableFormat(values);
-    const file = values['out'] === undefined ? null : parseOut(values['out'], '');
-    const run = await orbitRun(values);
+    const run = await orbitFigure(values);
     const { formatTable } = await import('../section/section-table.js');
-    if (file !== null) {
-      const { orbitPlotSvg } = await import('../section/orbit-figures.js');
-      const p = run.family.parameter;
-      await writeFigure(file, (lettering) =>
-        orbitPlotSvg({ title: `Orbits of ${run.family.formula} from x_0 = ${run.x0}`, series: run.series.map((s) => ({ label: `${p} = ${s.r}`, values: s.values })), yRange: run.family.stateRange, first: run.first }, lettering),
-      );
-    }
     process.stdout.write(formatTable(run.table, format));
   });
   const cobweb = section
@@ -230,10 +222,30 @@ export function registerOrbitCommands(section: Command): void {
     .option('--csv', 'write the orbit as CSV to stdout');
   out(cobweb).action(async (values: Values) => {
     const format = tableFormat(values);
-    const file = parseOut(values['out'], 'out/cobweb.svg');
-    const run = await cobwebRun(values);
-    await writeFigure(file, run.svg);
+    const run = await cobwebFigure(values);
     const { formatTable } = await import('../section/section-table.js');
     process.stdout.write(formatTable(run.table, format));
   });
+}
+
+/** `section orbit` without printing: computes the orbits and writes the figure when values.out is set. */
+export async function orbitFigure(values: Values): Promise<OrbitRun> {
+  const file = values['out'] === undefined ? null : parseOut(values['out'], '');
+  const run = await orbitRun(values);
+  if (file !== null) {
+    const { orbitPlotSvg } = await import('../section/orbit-figures.js');
+    const p = run.family.parameter;
+    await writeFigure(file, (lettering) =>
+      orbitPlotSvg({ title: `Orbits of ${run.family.formula} from x_0 = ${run.x0}`, series: run.series.map((s) => ({ label: `${p} = ${s.r}`, values: s.values })), yRange: run.family.stateRange, first: run.first }, lettering),
+    );
+  }
+  return run;
+}
+
+/** `section cobweb` without printing: computes the staircase and writes the figure (default out/cobweb.svg). */
+export async function cobwebFigure(values: Values): Promise<{ table: SectionTable }> {
+  const file = parseOut(values['out'], 'out/cobweb.svg');
+  const run = await cobwebRun(values);
+  await writeFigure(file, run.svg);
+  return run;
 }
