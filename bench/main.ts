@@ -12,6 +12,7 @@ import { deepSection } from './deep-section.js';
 import { pyramidSection } from './pyramid-section.js';
 import { componentsSection } from './components-section.js';
 import { sliceSection } from './slice-section.js';
+import { juliaSection } from './julia-section.js';
 
 /**
  * The section registry, run in this order.
@@ -22,6 +23,7 @@ import { sliceSection } from './slice-section.js';
 export const SECTIONS: readonly BenchSection[] = [
   kernelSection,
   plateSection,
+  juliaSection,
   deepSection,
   componentsSection,
   sliceSection,
