@@ -17,6 +17,7 @@ import { periodicNumerators } from '../components/census.js';
 import { traceRayDD } from '../components/trace-ray.js';
 import { parseDecimalPair } from '../precise/decimal-string.js';
 import { componentJson, componentLines, parseIntFlag } from './component-report.js';
+import { juliaCommandLine } from './julia-command.js';
 import { UserError } from './user-error.js';
 
 /** Longest period for --angle (the ray is traced in double-double) and for --address (angles are enumerated). */
@@ -80,6 +81,11 @@ export function register(program: Command): void {
         const info = await landAngle(toAngle(matches[0]!, den), p, digits);
         out = { ...componentJson(info), componentsWithThisAddress: Math.max(1, Math.round(matches.length / (p === 1 ? 1 : 2))) };
         lines = [...componentLines(info), `components with this address  ${String(out['componentsWithThisAddress'])} (the one with the lowest angle is shown)`];
+      }
+      const found = (out['nucleus'] ?? out['misiurewicz']) as { re: string; im: string } | undefined;
+      if (found !== undefined) {
+        out['juliaCommand'] = juliaCommandLine(found.re, found.im);
+        lines.push(`julia command     ${String(out['juliaCommand'])}`);
       }
       process.stdout.write(o['json'] === true ? `${JSON.stringify(out, null, 2)}\n` : `${lines.join('\n')}\n`);
     });

@@ -18,4 +18,20 @@ describe('quadatlas describe: the matching julia command', () => {
       expect((JSON.parse(j.stdout) as { julia: { cycle: { period: number } } }).julia.cycle.period).toBe(info.period);
     }
   });
+
+  it('locate prints the julia command of the nucleus it lands on (1/7: the rabbit, period 3) and of a Misiurewicz point (1/6: c = i)', () => {
+    const dir = tempDir();
+    const r = runCli(['locate', '--angle', '1/7', '--digits', '20', '--json']);
+    expect(r.status, r.stderr).toBe(0);
+    const cmd = (JSON.parse(r.stdout) as { juliaCommand: string }).juliaCommand;
+    expect(cmd).toMatch(/^quadatlas julia --c -0\.1225611668766536\d*,0\.7448617666197442\d*$/);
+    const j = runCli([...cmd.split(' ').slice(1), '--size', '80x60', '--samples', '1', '--json', '--out', path.join(dir, 'r.png')]);
+    expect((JSON.parse(j.stdout) as { julia: { cycle: { period: number } } }).julia.cycle.period).toBe(3);
+    const m = runCli(['locate', '--angle', '1/6', '--digits', '20', '--json']);
+    const mcmd = (JSON.parse(m.stdout) as { juliaCommand: string }).juliaCommand;
+    const jm = runCli([...mcmd.split(' ').slice(1), '--size', '80x60', '--samples', '1', '--json', '--out', path.join(dir, 'm.png')]);
+    const s = JSON.parse(jm.stdout) as { pixels: { interior: number }; julia: { cycle: { kind: string } } };
+    expect(s.julia.cycle.kind).toBe('none');
+    expect(s.pixels.interior).toBe(0);
+  });
 });
