@@ -203,7 +203,7 @@ export async function writePlate(sheet: Sheet, job: PlateJob, run: PlateRun): Pr
   await prepareDirectory(imageDir, 'output.file');
   const dataDir = sheet.output.data === null ? null : path.resolve(sheet.output.data);
   if (dataDir !== null) await prepareDirectory(dataDir, 'output.data');
-  const dataBytes = dataDir === null ? 0 : sheet.width * sheet.height * 21 + 4 * 128;
+  const dataBytes = dataDir === null ? 0 : sheet.width * sheet.height * (21 + (job.julia !== undefined ? 4 : 0)) + 5 * 128;
   await checkFreeSpace(imageDir, (rawImage / 4) * (tiff ? 2 : 1) + (dataDir !== null && path.resolve(dataDir) === imageDir ? dataBytes : 0), 'pixels');
   if (dataDir !== null && dataDir !== imageDir) await checkFreeSpace(dataDir, dataBytes, 'output.data');
 
@@ -221,6 +221,10 @@ export async function writePlate(sheet: Sheet, job: PlateJob, run: PlateRun): Pr
       sinks.distance = await openNpySink(path.join(dataDir, 'distance.npy'), '<f8', shape);
       sinks.interior = await openNpySink(path.join(dataDir, 'interior.npy'), '|u1', shape);
       opened.push(sinks.period, sinks.smooth, sinks.distance, sinks.interior);
+      if (job.julia !== undefined) {
+        sinks.basin = await openNpySink(path.join(dataDir, 'basin.npy'), '<i4', shape);
+        opened.push(sinks.basin);
+      }
     }
     const progress = createProgress(run.label ?? path.basename(file));
     let stats: TileStats;
@@ -231,7 +235,7 @@ export async function writePlate(sheet: Sheet, job: PlateJob, run: PlateRun): Pr
     }
     for (const s of opened) await s.finish();
     files.push(path.resolve(file));
-    if (dataDir !== null) for (const n of ['period', 'smooth', 'distance', 'interior']) files.push(path.join(dataDir, `${n}.npy`));
+    if (dataDir !== null) for (const n of ['period', 'smooth', 'distance', 'interior', ...(job.julia !== undefined ? ['basin'] : [])]) files.push(path.join(dataDir, `${n}.npy`));
     const seconds = Number(process.hrtime.bigint() - started) / 1e9;
     const pixelArea = grid.spacing * grid.spacing;
     const summary: PlateSummary = {

@@ -45,6 +45,8 @@ export interface TileResult {
   smooth?: Float64Array;
   distance?: Float64Array;
   interior?: Uint8Array;
+  /** Julia plates with data: the interior class of each pixel (-1 outside). */
+  basin?: Int32Array;
   stats: TileStats;
 }
 
@@ -304,6 +306,7 @@ export function renderTile(job: PlateJob, tile: Tile, scratch: TileScratch, loop
     const smooth = new Float64Array(pixelCount);
     const distance = new Float64Array(pixelCount);
     const interior = new Uint8Array(pixelCount);
+    const basin = job.julia !== undefined ? new Int32Array(pixelCount) : undefined;
     for (let j = 0; j < h; j++) {
       for (let i = 0; i < w; i++) {
         const k = (j + 1) * aw + (i + 1);
@@ -313,9 +316,10 @@ export function renderTile(job: PlateJob, tile: Tile, scratch: TileScratch, loop
         smooth[p] = centre.smooth[k]!;
         distance[p] = centre.distance[k]!;
         interior[p] = kindOf(per);
+        if (basin !== undefined) basin[p] = centre.basin[k]!;
       }
     }
-    Object.assign(result, { period, smooth, distance, interior });
+    Object.assign(result, { period, smooth, distance, interior, ...(basin === undefined ? {} : { basin }) });
   }
   return result;
 }

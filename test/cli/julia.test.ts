@@ -53,6 +53,27 @@ describe('quadatlas julia', () => {
     }
   });
 
+  it('--data writes the interior class of every pixel as basin.npy: 0 at z = 0, 1 at z = -1 for the basilica, -1 outside; same bytes for any tiling', () => {
+    const dir = tempDir();
+    // 201 x 101 pixels over [-2, 2] x [-1, 1]: pixel centres fall exactly on z = 0 (i = 100, j = 50) and z = -1 (i = 50, j = 50).
+    const base = ['julia', '--c', '-1,0', '--span', '4.02', '--size', '201x101', '--samples', '1'];
+    for (const [i, extra] of [['a', ['--workers', '1', '--tile', '64']], ['b', ['--workers', '2', '--tile', '16']]] as const) {
+      const r = runCli([...base, ...extra, '--out', path.join(dir, `${i}.png`), '--data', path.join(dir, i)]);
+      expect(r.status, r.stderr).toBe(0);
+    }
+    const body = (f: string): Buffer => {
+      const b = readFileSync(f);
+      return b.subarray(10 + b.readUInt16LE(8));
+    };
+    const basin = body(path.join(dir, 'a', 'basin.npy'));
+    expect(basin.equals(body(path.join(dir, 'b', 'basin.npy')))).toBe(true);
+    const interior = body(path.join(dir, 'a', 'interior.npy'));
+    const cls = (i: number, j: number): number => basin.readInt32LE(4 * (j * 201 + i));
+    expect(cls(100, 50)).toBe(0);
+    expect(cls(50, 50)).toBe(1);
+    for (let k = 0; k < 201 * 101; k++) expect(basin.readInt32LE(4 * k) >= 0).toBe(interior[k] === 1);
+  });
+
   it('refuses bad input in one line naming the field, exit 2', () => {
     const cases: Array<[string[], RegExp]> = [
       [['julia', '--c', 'abc,0'], /c\.re/],
