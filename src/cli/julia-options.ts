@@ -29,7 +29,7 @@ export const JULIA_OPTIONS: readonly OptionSpec[] = [
       delete s['cardioidAngle'];
     },
   },
-  { flags: '--cardioid-angle <theta>', description: 'c on the main cardioid at internal angle theta (s/q or a decimal): c = m/2 - m^2/4, m = e^(2 pi i theta), parabolic', apply: (s, v) => void (s['cardioidAngle'] = v.trim()) },
+  { flags: '--cardioid-angle <theta>', description: 'c on the main cardioid at internal angle theta: c = m/2 - m^2/4, m = e^(2 pi i theta); s/q or a decimal gives a parabolic c, golden the golden-mean Siegel disk', apply: (s, v) => void (s['cardioidAngle'] = v.trim()) },
   { flags: '--basin <style>', description: 'interior colouring: point (the cycle point attracting it), time (attraction time) or point-time (default)', apply: (s, v) => void (s['basin'] = v.trim()) },
   { flags: '--orbit <n>', description: 'mark the first n points of the critical orbit', apply: (s, v) => void (sub(s, 'marks')['orbit'] = /^\s*\d+\s*$/.test(v) ? Number(v) : v) },
   { flags: '--cycle', description: 'mark the attracting (or parabolic) cycle' },

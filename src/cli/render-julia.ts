@@ -41,6 +41,10 @@ export function juliaReferences(sheet: JuliaSheet, bits: number, iterations: num
 /** The cycle of a sheet's c: known exactly for a cardioid angle, else found from the critical orbit. */
 export function sheetCycle(sheet: JuliaSheet): JuliaCycle {
   const cRe = Number(sheet.c.re), cIm = Number(sheet.c.im);
+  if (sheet.cardioidAngle === 'golden') {
+    const p = cardioidPoint(0, 0);
+    return findJuliaCycle(cRe, cIm, { siegel: { wRe: p.mRe / 2, wIm: p.mIm / 2, name: 'golden mean (sqrt 5 - 1)/2' } });
+  }
   if (sheet.cardioidAngle !== null) {
     const [s, q] = sheet.cardioidAngle.split('/').map(Number) as [number, number];
     const p = cardioidPoint(s, q);

@@ -9,6 +9,11 @@ import { parabolicPetals, type ParabolicPetals } from './parabolic-petals.js';
  *   entering it converges to the cycle;
  * - `parabolic`: a cycle of period k whose multiplier is e^{2 pi i s/q}; its
  *   basin is reached through the k q attracting petals (parabolic-petals.ts);
+ * - `siegel`: the fixed point alpha has multiplier e^{2 pi i theta} for a
+ *   stated Brjuno number theta (the golden mean): f is conjugate to the
+ *   rotation by theta near alpha on the Siegel disk (Siegel 1942; Brjuno;
+ *   Milnor section 11), orbits there neither converge nor escape, and the
+ *   kernel renders the disk by its orbits' recurrence;
  * - `none`: the critical orbit escapes (c outside the set: the Julia set is a
  *   Cantor set, no interior), or lands on a repelling cycle (Misiurewicz c,
  *   such as i or -2: a dendrite, no interior), or sits on an indifferent cycle
@@ -21,7 +26,7 @@ import { parabolicPetals, type ParabolicPetals } from './parabolic-petals.js';
  * f^{kp}(0) -> w_0, so the critical point lies in class 0.
  */
 export interface JuliaCycle {
-  readonly kind: 'attracting' | 'parabolic' | 'none';
+  readonly kind: 'attracting' | 'parabolic' | 'siegel' | 'none';
   /** Period of the cycle (0 when there is none). */
   readonly period: number;
   /** Classes of the interior: p for an attracting cycle, k q for a parabolic one, 0 for none. */
@@ -48,6 +53,8 @@ export interface FindCycleOptions {
   readonly maxPeriod?: number;
   /** A known parabolic case (from --cardioid-angle): the cycle's period is 1 and its point is given exactly. */
   readonly parabolic?: { readonly wRe: number; readonly wIm: number; readonly s: number; readonly q: number };
+  /** A known Siegel case (from --cardioid-angle golden): alpha and the name of its rotation number. */
+  readonly siegel?: { readonly wRe: number; readonly wIm: number; readonly name: string };
 }
 
 /** |multiplier| within this of 1 counts as indifferent: the double-root Newton of a parabolic cycle only reaches about sqrt(ulp). */
@@ -190,6 +197,10 @@ export function findJuliaCycle(cr: number, ci: number, options: FindCycleOptions
     const petals = parabolicPetals(cr, ci, [wRe], [wIm], q, s);
     const mRe = 2 * wRe, mIm = 2 * wIm;
     return { kind: 'parabolic', period: 1, basinPeriod: q, pointsRe: [wRe], pointsIm: [wIm], multiplierRe: mRe, multiplierIm: mIm, trapRadius: 0, trapContraction: 0, rotation: { s, q }, petals, note: `parabolic fixed point alpha with multiplier e^(2 pi i ${s}/${q}) (given by the cardioid angle)` };
+  }
+  if (options.siegel !== undefined) {
+    const { wRe, wIm, name } = options.siegel;
+    return { kind: 'siegel', period: 1, basinPeriod: 1, pointsRe: [wRe], pointsIm: [wIm], multiplierRe: 2 * wRe, multiplierIm: 2 * wIm, trapRadius: 0, trapContraction: 0, rotation: null, petals: null, note: `Siegel disk about alpha: multiplier e^(2 pi i theta), theta the ${name} (a Brjuno number), rendered by its orbits' recurrence` };
   }
   const transient = options.transient ?? 200_000;
   let zr = 0, zi = 0;

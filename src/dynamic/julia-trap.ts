@@ -20,7 +20,7 @@ export function juliaTrap(cycle: JuliaCycle, cRe: number, cIm: number, escapeRad
     petals: cycle.petals,
     classOffset: 0,
   };
-  if (cycle.kind === 'none') return base;
+  if (cycle.kind === 'none' || cycle.kind === 'siegel') return base;
   const out = createJuliaSampleSet(1);
   sampleJulia(new Float64Array([0]), new Float64Array([0]), 1, { cRe, cIm, maxIterations: CRITICAL_ITERATIONS, escapeRadius }, base, out);
   const cls = out.basin[0]!;

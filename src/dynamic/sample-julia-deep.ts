@@ -83,7 +83,15 @@ export function sampleJuliaDeep(dr: Float64Array, di: Float64Array, count: numbe
           break;
         }
       }
-      if (n === maxIterations) break;
+      if (n === maxIterations) {
+        if (trap.kind === 'siegel') {
+          // Deep views of a Siegel disk: interior by non-escape (no recurrence rings at this depth).
+          state = 1;
+          cls = 0;
+          time = 0;
+        }
+        break;
+      }
       if (w2 < x * x + y * y || m === last) {
         // Rebase onto the critical orbit: C_0 = 0, so the new offset is the full value.
         refRe = refs.criticalRe;

@@ -7,7 +7,7 @@ import { fatouReal, sectorOf, type ParabolicPetals } from './parabolic-petals.js
  * built once from a JuliaCycle (julia-cycle.ts) and sent to the workers.
  */
 export interface JuliaTrap {
-  readonly kind: 'attracting' | 'parabolic' | 'none';
+  readonly kind: 'attracting' | 'parabolic' | 'siegel' | 'none';
   /** Number of interior classes (p, or k q for a parabolic cycle). */
   readonly basinPeriod: number;
   readonly w0Re: number;
@@ -33,6 +33,9 @@ export interface JuliaSampleSet extends SampleSet {
   readonly basin: Int32Array;
 }
 
+/** Attraction-time units per unit of mean distance to alpha on a Siegel disk (sets the spacing of its rings). */
+export const SIEGEL_SCALE = 60;
+
 export interface JuliaSettings {
   readonly cRe: number;
   readonly cIm: number;
@@ -57,6 +60,12 @@ export interface JuliaSettings {
  *   attracting trap n - p ln(r / |u|) / ln(1 / kappa) clamped to [n - p, n]
  *   (kappa the contraction on the trap circle), for a petal
  *   n - kq (Re W - R) clamped likewise (W advances by about 1 per return).
+ * - Siegel (`trap.kind` 'siegel'): a sample that has not escaped by
+ *   maxIterations is interior (class 0), and its time is SIEGEL_SCALE times
+ *   the mean of |z_n - w_0| over the second half of its orbit: on the disk
+ *   the orbit runs round one invariant curve of the rotation, so this mean
+ *   is constant on each curve and the shading draws them as rings; orbits
+ *   of preimages of the disk end on such a curve too.
  * - Neither by maxIterations: undecided (period -1, smooth = maxIterations).
  *
  * Pure: a sample's result depends on its z, c, the trap and the settings only.
@@ -74,12 +83,15 @@ export function sampleJulia(zr: Float64Array, zi: Float64Array, count: number, s
   const petal2 = petals !== null ? petals.petalRadius * petals.petalRadius : 0;
   const q = petals !== null ? petals.q : 1;
   const returnSteps = petals !== null ? P : 1;
+  const siegel = trap.kind === 'siegel';
+  const half = Math.floor(maxIterations / 2);
   for (let k = 0; k < count; k++) {
     let x = zr[k]!, y = zi[k]!, dx = 1, dy = 0;
     let n = 0;
     let state = PERIOD_UNDECIDED;
     let cls = -1;
     let time = maxIterations;
+    let recurrence = 0;
     for (;;) {
       const x2 = x * x, y2 = y * y;
       if (x2 + y2 > R2) {
@@ -106,7 +118,15 @@ export function sampleJulia(zr: Float64Array, zi: Float64Array, count: number, s
           break;
         }
       }
-      if (n === maxIterations) break;
+      if (siegel && n >= half) recurrence += Math.sqrt(u2);
+      if (n === maxIterations) {
+        if (siegel) {
+          state = 1;
+          cls = 0;
+          time = (SIEGEL_SCALE * recurrence) / (maxIterations - half + 1);
+        }
+        break;
+      }
       const t = 2 * (x * dx - y * dy);
       dy = 2 * (x * dy + y * dx);
       dx = t;

@@ -46,6 +46,9 @@ export const MAX_CARDIOID_DENOMINATOR = 128;
 
 type Json = Record<string, unknown>;
 
+/** The golden mean (sqrt 5 - 1) / 2, the rotation number of the classical Siegel disk (a Brjuno number: bounded type). */
+export const GOLDEN_MEAN = (Math.sqrt(5) - 1) / 2;
+
 function isObject(v: unknown): v is Json {
   return typeof v === 'object' && v !== null && !Array.isArray(v);
 }
@@ -53,7 +56,8 @@ function isObject(v: unknown): v is Json {
 /** A cardioid angle "s/q" or a decimal in [0, 1), as [s, q] in lowest terms. */
 export function parseCardioidAngle(value: unknown, field: string): [number, number] {
   const angle = typeof value === 'string' ? rayAngle(value) : null;
-  if (angle === null) throw new UserError(field, 'a rational angle in [0, 1) written s/q or as a decimal (e.g. 1/3 or 0.25)', value);
+  if (value === 'golden') return [0, 0];
+  if (angle === null) throw new UserError(field, 'a rational angle in [0, 1) written s/q or as a decimal (e.g. 1/3 or 0.25), or golden (the golden mean, a Siegel disk)', value);
   if (angle[1] > MAX_CARDIOID_DENOMINATOR) throw new UserError(field, `an angle s/q with q at most ${MAX_CARDIOID_DENOMINATOR}`, value);
   return angle;
 }
@@ -65,7 +69,9 @@ export function parseCardioidAngle(value: unknown, field: string): [number, numb
  */
 export function cardioidPoint(s: number, q: number): { cRe: number; cIm: number; mRe: number; mIm: number } {
   const exact: Record<string, [number, number]> = { '0/1': [1, 0], '1/2': [-1, 0], '1/4': [0, 1], '3/4': [0, -1] };
-  const [mRe, mIm] = exact[`${s}/${q}`] ?? [Math.cos((2 * Math.PI * s) / q), Math.sin((2 * Math.PI * s) / q)];
+  // q = 0 stands for the golden mean theta = (sqrt 5 - 1) / 2.
+  const turn = q === 0 ? 2 * Math.PI * GOLDEN_MEAN : (2 * Math.PI * s) / q;
+  const [mRe, mIm] = exact[`${s}/${q}`] ?? [Math.cos(turn), Math.sin(turn)];
   const m2Re = mRe * mRe - mIm * mIm, m2Im = 2 * mRe * mIm;
   return { cRe: mRe / 2 - m2Re / 4, cIm: mIm / 2 - m2Im / 4, mRe, mIm };
 }
@@ -115,7 +121,7 @@ export function parseJuliaSheet(value: unknown, name = 'julia'): JuliaSheet {
   let cardioidAngle: string | null = null;
   if (value['cardioidAngle'] !== undefined && value['cardioidAngle'] !== null) {
     const [s, q] = parseCardioidAngle(value['cardioidAngle'], 'cardioidAngle');
-    cardioidAngle = `${s}/${q}`;
+    cardioidAngle = q === 0 ? 'golden' : `${s}/${q}`;
     const p = cardioidPoint(s, q);
     c = { re: String(p.cRe), im: String(p.cIm) };
   } else {

@@ -4,7 +4,7 @@ import { juliaTrap } from '../../src/dynamic/julia-trap.js';
 import { createJuliaSampleSet, sampleJulia, type JuliaSampleSet } from '../../src/dynamic/sample-julia.js';
 import { fixedPoints } from '../../src/dynamic/fixed-points.js';
 import { dynamicRay } from '../../src/dynamic/dynamic-ray.js';
-import { cardioidPoint } from '../../src/view/julia-sheet.js';
+import { cardioidPoint, GOLDEN_MEAN } from '../../src/view/julia-sheet.js';
 
 const R = 65536;
 /** The rabbit: the period-3 nucleus with positive imaginary part, a root of c^3 + 2c^2 + c + 1 (docs/checks "period-3 nuclei"; OEIS A060006). */
@@ -201,5 +201,44 @@ describe('sampleJulia: interiors against exact facts', () => {
     expect(findJuliaCycle(0.3, 0).kind).toBe('none');
     const { set } = grid(0.3, 0, -1.6, 1.6, 100, 2000);
     expect(count(set, (p) => p > 0)).toBe(0);
+  });
+
+  it('golden-mean Siegel disk: alpha = m/2 is fixed with multiplier m, |m| = 1 (exact algebra); orbits near alpha recur; the disk renders as interior rings', () => {
+    const p = cardioidPoint(0, 0);
+    expect(Math.hypot(p.mRe, p.mIm)).toBeCloseTo(1, 15);
+    expect(Math.atan2(p.mIm, p.mRe) / (2 * Math.PI) + 1).toBeCloseTo(GOLDEN_MEAN, 14);
+    // c = -0.390541 - 0.586788 i for the golden mean (from memory; the usual quoted value).
+    expect(p.cRe).toBeCloseTo(-0.390541, 6);
+    expect(p.cIm).toBeCloseTo(-0.586788, 6);
+    const aRe = p.mRe / 2, aIm = p.mIm / 2;
+    expect(aRe * aRe - aIm * aIm + p.cRe).toBeCloseTo(aRe, 15);
+    expect(2 * aRe * aIm + p.cIm).toBeCloseTo(aIm, 15);
+    const cycle = findJuliaCycle(p.cRe, p.cIm, { siegel: { wRe: aRe, wIm: aIm, name: 'golden mean' } });
+    expect(cycle.kind).toBe('siegel');
+    // Along a ray from alpha the orbit's mean distance grows with the start's distance: nested invariant curves.
+    const n = 12;
+    const xs = new Float64Array(n), ys = new Float64Array(n);
+    for (let k = 0; k < n; k++) {
+      xs[k] = aRe + 0.01 * (k + 1);
+      ys[k] = aIm;
+    }
+    const s = sample(p.cRe, p.cIm, xs, ys, 20000, cycle);
+    for (let k = 0; k < n; k++) {
+      expect(s.period[k]).toBe(1);
+      expect(s.basin[k]).toBe(0);
+      if (k > 0) expect(s.smooth[k]!).toBeGreaterThan(s.smooth[k - 1]!);
+    }
+    // Recurrence: from |u| = 0.02 the orbit neither converges to alpha nor leaves (Siegel: conjugate to a rotation).
+    let x = aRe + 0.02, y = aIm, lo = Infinity, hi = 0;
+    for (let k = 0; k < 100000; k++) {
+      const u = x * x - y * y + p.cRe;
+      y = 2 * x * y + p.cIm;
+      x = u;
+      const d = Math.hypot(x - aRe, y - aIm);
+      lo = Math.min(lo, d);
+      hi = Math.max(hi, d);
+    }
+    expect(lo).toBeGreaterThan(0.005);
+    expect(hi).toBeLessThan(0.08);
   });
 });
