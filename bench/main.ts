@@ -13,6 +13,7 @@ import { pyramidSection } from './pyramid-section.js';
 import { componentsSection } from './components-section.js';
 import { sliceSection } from './slice-section.js';
 import { certifySection } from './certify-section.js';
+import { juliaSection } from './julia-section.js';
 
 /**
  * The section registry, run in this order.
@@ -23,6 +24,7 @@ import { certifySection } from './certify-section.js';
 export const SECTIONS: readonly BenchSection[] = [
   kernelSection,
   plateSection,
+  juliaSection,
   deepSection,
   componentsSection,
   certifySection,

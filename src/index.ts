@@ -55,3 +55,17 @@ export { buildBlaTable, type BlaTable } from './plane/bla-table.js';
 export { sampleDeep, type DeepSettings } from './plane/deep-sample.js';
 export { deepPlan } from './plane/deep-plan.js';
 export { prepareDeepJob, type DeepJob } from './render/deep-job.js';
+
+// The dynamical plane of one c, and orbits of the real slice.
+export { findJuliaCycle, type JuliaCycle } from './dynamic/julia-cycle.js';
+export { juliaTrap } from './dynamic/julia-trap.js';
+export { sampleJulia, createJuliaSampleSet, type JuliaSampleSet, type JuliaTrap, type JuliaSettings } from './dynamic/sample-julia.js';
+export { sampleJuliaDeep, type JuliaReferences } from './dynamic/sample-julia-deep.js';
+export { dynamicRay } from './dynamic/dynamic-ray.js';
+export { fixedPoints } from './dynamic/fixed-points.js';
+export { parabolicPetals, type ParabolicPetals } from './dynamic/parabolic-petals.js';
+export { computeJuliaReference } from './precise/julia-reference-orbit.js';
+export { parseJuliaSheet, type JuliaSheet } from './view/julia-sheet.js';
+export { orbit, classifyOrbit, type OrbitClass } from './section/orbit.js';
+export { preciseOrbit, type PreciseOrbit } from './section/precise-orbit.js';
+export { orbitPlotSvg, cobwebSvg } from './section/orbit-figures.js';

@@ -18,6 +18,7 @@ import { periodicNumerators } from '../components/census.js';
 import { traceRayDD } from '../components/trace-ray.js';
 import { parseDecimalPair } from '../precise/decimal-string.js';
 import { componentJson, componentLines, parseIntFlag } from './component-report.js';
+import { juliaCommandLine } from './julia-command.js';
 import { UserError } from './user-error.js';
 import { certifyLocated } from './certify-report.js';
 
@@ -98,6 +99,11 @@ export function register(program: Command): void {
           out = { ...out, ...proof.json };
           lines = [...lines, ...proof.lines];
         }
+      }
+      const found = (out['nucleus'] ?? out['misiurewicz']) as { re: string; im: string } | undefined;
+      if (found !== undefined) {
+        out['juliaCommand'] = juliaCommandLine(found.re, found.im);
+        lines.push(`julia command     ${String(out['juliaCommand'])}`);
       }
       process.stdout.write(o['json'] === true ? `${JSON.stringify(out, null, 2)}\n` : `${lines.join('\n')}\n`);
     });

@@ -20,8 +20,9 @@ export interface CommandModule {
 /** name, one-line summary, loader: the summary is shown in --help without loading the module. */
 const COMMANDS: ReadonlyArray<readonly [string, string, () => Promise<CommandModule>]> = [
   ['plate', 'render one image of a view of the c-plane', () => import('./plate.js')],
+  ['julia', 'render one image of the dynamical plane of one c', () => import('./julia.js')],
   ['presets', 'list, show, check and render the sheets in presets/', () => import('./presets.js')],
-  ['section', 'the real slice: convert, cascade, windows, lyapunov, diagram, compare', () => import('./section.js')],
+  ['section', 'the real slice: convert, cascade, windows, lyapunov, diagram, compare, orbit, cobweb', () => import('./section.js')],
   ['pyramid', 'write a deep-zoom tile pyramid of a view, with an offline viewer page', () => import('./pyramid.js')],
   ['worker', 'take tile jobs from a shared queue (cluster mode)', () => import('./worker.js')],
   ['components', 'list or count the hyperbolic components of a period', () => import('./components.js')],

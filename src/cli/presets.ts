@@ -5,14 +5,18 @@ import { readdir } from 'node:fs/promises';
 import path from 'node:path';
 import type { Command } from 'commander';
 import { parseSheet, sheetRecord, type Sheet } from '../view/sheet.js';
+import { juliaSheetRecord } from '../view/julia-sheet.js';
 import { parseCount } from './plate.js';
 import { presetsDir } from './presets-dir.js';
 import { renderSheet } from './render-sheet.js';
+import { parseJuliaSheet, type JuliaSheet } from '../view/julia-sheet.js';
+import { renderJuliaSheet } from './render-julia.js';
+import { figureSheetRecord, isFigureKind, parseFigureSheet, renderFigureSheet, type FigureSheet } from './figure-sheet.js';
 import { readSheetFile, sheetName } from './sheet-file.js';
 import { UserError } from './user-error.js';
 import { quickSheet } from './quick.js';
-import { reportWrote } from './wrote.js';
 import { toolVersion } from './version.js';
+import { reportWrote } from './wrote.js';
 
 interface Entry {
   name: string;
@@ -32,8 +36,11 @@ async function find(name: string): Promise<Entry> {
   return hit;
 }
 
-async function load(e: Entry): Promise<Sheet> {
-  return parseSheet(await readSheetFile(e.file), e.name);
+async function load(e: Entry): Promise<Sheet | JuliaSheet | FigureSheet> {
+  const raw = await readSheetFile(e.file);
+  if (raw['kind'] === 'julia') return parseJuliaSheet(raw, e.name);
+  if (isFigureKind(raw['kind'])) return parseFigureSheet(raw, e.name);
+  return parseSheet(raw, e.name);
 }
 
 export function register(program: Command): void {
@@ -46,7 +53,7 @@ export function register(program: Command): void {
       const rows = [];
       for (const e of await entries()) {
         const s = await load(e);
-        rows.push({ name: e.name, kind: 'plate', width: s.width, height: s.height, startup: s.startup, title: s.title });
+        rows.push({ name: e.name, kind: 'kind' in s ? s.kind : 'plate', width: s.width, height: s.height, startup: s.startup, title: s.title });
       }
       if (opts.json) {
         process.stdout.write(`${JSON.stringify(rows, null, 2)}\n`);
@@ -58,10 +65,11 @@ export function register(program: Command): void {
     });
   presets
     .command('show <name>')
-    .description('print a preset as a complete sheet, every default filled in (plate renders it to the same bytes)')
+    .description('print a preset as a complete sheet, every default filled in (it renders to the same bytes)')
     .action(async (name: string) => {
       const s = await load(await find(name));
-      process.stdout.write(`${JSON.stringify(sheetRecord(s, toolVersion()), null, 2)}\n`);
+      const record = 'values' in s ? figureSheetRecord(s, toolVersion()) : 'c' in s ? juliaSheetRecord(s, toolVersion()) : sheetRecord(s, toolVersion());
+      process.stdout.write(`${JSON.stringify(record, null, 2)}\n`);
     });
   presets
     .command('check [files...]')
@@ -98,13 +106,21 @@ export function register(program: Command): void {
       }
       const workers = parseCount(opts.workers, '--workers', 1, 256);
       for (const e of chosen) {
-        let sheet = quickSheet(await load(e));
+        let sheet = await load(e);
+        if (!('values' in sheet)) sheet = quickSheet(sheet);
         if (opts.outDir !== undefined) {
           const outDir = opts.outDir;
           const rebase = (p: string): string => path.join(outDir, path.basename(p));
-          sheet = { ...sheet, output: { ...sheet.output, file: rebase(sheet.output.file), data: sheet.output.data === null ? null : rebase(sheet.output.data) } };
+          const moved = <T extends { readonly output: { readonly file: string; readonly data: string | null } }>(s: T): T => ({ ...s, output: { ...s.output, file: rebase(s.output.file), data: s.output.data === null ? null : rebase(s.output.data) } }) as T;
+          sheet = moved(sheet);
         }
-        const summary = await renderSheet(sheet, { label: e.name, ...(workers === undefined ? {} : { workers }) });
+        if ('values' in sheet) {
+          const files = await renderFigureSheet(sheet);
+          reportWrote(files);
+          continue;
+        }
+        const options = { label: e.name, ...(workers === undefined ? {} : { workers }) };
+        const summary = 'kind' in sheet ? await renderJuliaSheet(sheet, options) : await renderSheet(sheet, options);
         reportWrote(summary.files, summary.seconds);
       }
     });

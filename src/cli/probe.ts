@@ -20,6 +20,9 @@ import { componentInfo } from '../components/component-info.js';
 import { findNucleus } from '../components/nucleus.js';
 import { decimalToNumber, parseDecimalPair } from '../precise/decimal-string.js';
 import { componentJson, componentLines, parseIntFlag, significant } from './component-report.js';
+import { juliaCommandLine } from './julia-command.js';
+import { criticalOrbit } from '../dynamic/critical-orbit.js';
+import { findJuliaCycle } from '../dynamic/julia-cycle.js';
 
 const ESCAPE_RADIUS = 1e6;
 
@@ -32,6 +35,7 @@ export function register(program: Command): void {
     .option('--digits <digits>', 'digits after the decimal point; multipliers, distances and sizes to D significant digits (at most 17)', '20')
     .option('--iterations <n>', 'iteration limit of the escape test', '100000')
     .option('--max-period <period>', 'longest attracting cycle looked for, in iterations', '1000')
+    .option('--orbit <n>', 'also list the first n points of the critical orbit and the cycle it settles on (default: none)')
     .option('--json', 'JSON output (default: aligned text)')
     .action(async (first: string, second: string | undefined, o: Record<string, unknown>) => {
       const c = parseDecimalPair(second === undefined ? first : `${first},${second}`, 'c');
@@ -117,6 +121,18 @@ export function register(program: Command): void {
           );
         }
       }
+      if (o['orbit'] !== undefined) {
+        const count = parseIntFlag(o['orbit'], 'orbit', 1, 100_000);
+        const zs = criticalOrbit(cr, ci, count);
+        const points = [];
+        for (let k = 0; k + 1 < zs.length; k += 2) points.push({ re: zs[k]!, im: zs[k + 1]! });
+        const cycle = findJuliaCycle(cr, ci);
+        out['criticalOrbit'] = { points, cycle: { kind: cycle.kind, period: cycle.period, points: cycle.pointsRe.map((re, j) => ({ re, im: cycle.pointsIm[j]! })), note: cycle.note } };
+        lines.push(`-- critical orbit --`, ...points.map((p, k) => `z_${String(k).padEnd(14)} ${p.re.toPrecision(15)} ${p.im < 0 ? '-' : '+'} ${Math.abs(p.im).toPrecision(15)} i`), `settles on        ${cycle.note}`);
+      }
+      const julia = juliaCommandLine(c.re.text, c.im.text);
+      out['juliaCommand'] = julia;
+      lines.push(`-- dynamical plane --`, `julia command     ${julia}`);
       process.stdout.write(o['json'] === true ? `${JSON.stringify(out, null, 2)}\n` : `${lines.join('\n')}\n`);
     });
 }

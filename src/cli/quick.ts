@@ -23,7 +23,7 @@ export function quickSize(width: number, height: number): { width: number; heigh
 }
 
 /** The sheet a quick run renders (the sheet itself when QUADATLAS_QUICK is not set), with the note printed. */
-export function quickSheet(sheet: Sheet): Sheet {
+export function quickSheet<T extends Sheet>(sheet: T): T {
   if (!quickMode()) return sheet;
   const size = quickSize(sheet.width, sheet.height);
   const samples = Math.min(sheet.samples, 4);

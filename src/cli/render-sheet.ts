@@ -57,6 +57,8 @@ export interface PlateSummary {
   readonly peakMemoryMiB: number;
   readonly periods: Record<string, number>;
   readonly area: { interior: number; undecided: number; pixelArea: number; note: string };
+  /** Julia plates: c, the cycle found (kind, period, points, multiplier) and the marks drawn. */
+  readonly julia?: Record<string, unknown>;
 }
 
 /**
@@ -163,8 +165,6 @@ export async function renderSheet(sheet: Sheet, options: RenderSheetOptions = {}
   }
   const workers = options.workers ?? os.availableParallelism();
   const tileSize = options.tileSize ?? DEFAULT_TILE_SIZE;
-  const file = sheet.output.file;
-  const tiff = /\.tiff?$/i.test(file);
   // Periods never exceed the iteration limit, which bounds the legend's number width.
   const bounds = legendBounds(sheet.colour, sheet.width, sheet.height, sheet.dpi, String(iterations).length);
   let job: PlateJob = {
@@ -195,6 +195,39 @@ export async function renderSheet(sheet: Sheet, options: RenderSheetOptions = {}
     deepTimes = { reference: prepared.referenceSeconds, table: prepared.tableSeconds };
   }
 
+  const metadata = plateMetadata(sheet, { arithmetic, bits, iterations });
+  const precision = arithmetic === 'deep' ? { referenceBits: bits, unitExponent: plan.unitExponent, reference: sheet.reference ?? { re: sheet.view.re, im: sheet.view.im, period: 0 }, referenceSeconds: round3(deepTimes.reference), tableSeconds: round3(deepTimes.table) } : { referenceBits: 53 };
+  return writePlate(sheet, job, { started, workers, tileSize, metadata, arithmetic, precision, iterations, ...(options.label === undefined ? {} : { label: options.label }) });
+}
+
+/** How a plate job is run and recorded: everything writePlate needs beyond the sheet and the job. */
+export interface PlateRun {
+  readonly started: bigint;
+  readonly workers: number;
+  readonly tileSize: number;
+  /** The metadata JSON stored in the image and the sidecar. */
+  readonly metadata: string;
+  readonly arithmetic: 'double' | 'deep';
+  readonly precision: Record<string, unknown>;
+  readonly iterations: number;
+  readonly label?: string;
+  /** Julia plates: recorded in the summary as `julia`. */
+  readonly julia?: Record<string, unknown>;
+}
+
+/**
+ * Runs a prepared plate job (of the c-plane or, with job.julia, of the
+ * dynamical plane) into the sheet's files: checks memory and disk, opens the
+ * sinks under temporary names, renders, writes the sidecar, and returns the
+ * summary. Any failure aborts every sink.
+ */
+export async function writePlate(sheet: Sheet, job: PlateJob, run: PlateRun): Promise<PlateSummary> {
+  const { started, workers, tileSize, metadata, arithmetic, iterations } = run;
+  const grid = job.grid;
+  const view: View = { centerRe: sheet.view.re, centerIm: sheet.view.im, span: sheet.view.span, width: sheet.width, height: sheet.height, rotation: sheet.view.rotation };
+  const bounds = job.legendBounds ?? null;
+  const file = sheet.output.file;
+  const tiff = /\.tiff?$/i.test(file);
   // Memory: three strips of at least one tile row each must fit comfortably.
   const minStrip = sheet.width * tileSize * bytesPerPixel(job);
   if (3 * minStrip > os.totalmem() / 4) {
@@ -216,11 +249,10 @@ export async function renderSheet(sheet: Sheet, options: RenderSheetOptions = {}
   for (const f of [file, ...(sheet.output.sidecar ? [`${file}.json`] : [])]) await refuseDirectory(f, 'output.file');
   const dataDir = sheet.output.data === null ? null : path.resolve(sheet.output.data);
   if (dataDir !== null) await prepareDirectory(dataDir, 'output.data');
-  const dataBytes = dataDir === null ? 0 : sheet.width * sheet.height * 37 + 6 * 128 + 4096;
+  const dataBytes = dataDir === null ? 0 : sheet.width * sheet.height * (37 + (job.julia !== undefined ? 4 : 0)) + 7 * 128 + 4096;
   await checkFreeSpace(imageDir, (rawImage / 4) * (tiff ? 2 : 1) + (dataDir !== null && path.resolve(dataDir) === imageDir ? dataBytes : 0), 'pixels');
   if (dataDir !== null && dataDir !== imageDir) await checkFreeSpace(dataDir, dataBytes, 'output.data');
 
-  const metadata = plateMetadata(sheet, { arithmetic, bits, iterations });
   const spec: RasterSpec = { width: sheet.width, height: sheet.height, depth: sheet.depth, channels: 3, dpi: sheet.dpi, metadata, software: `quadatlas ${toolVersion()}` };
   const opened: Array<RasterSink | DataSink> = [];
   const files: string[] = [];
@@ -235,8 +267,12 @@ export async function renderSheet(sheet: Sheet, options: RenderSheetOptions = {}
       sinks.distance = await openNpySink(path.join(dataDir, 'distance.npy'), '<f8', shape);
       sinks.interior = await openNpySink(path.join(dataDir, 'interior.npy'), '|u1', shape);
       opened.push(sinks.period, sinks.smooth, sinks.distance, sinks.interior);
+      if (job.julia !== undefined) {
+        sinks.basin = await openNpySink(path.join(dataDir, 'basin.npy'), '<i4', shape);
+        opened.push(sinks.basin);
+      }
     }
-    const progress = createProgress(options.label ?? path.basename(file));
+    const progress = createProgress(run.label ?? path.basename(file));
     let stats: TileStats;
     try {
       stats = await renderPlate(job, sinks, { workers, tileSize, stripBudget: DEFAULT_STRIP_BUDGET, onProgress: (d, t) => progress.update(d, t) });
@@ -246,9 +282,9 @@ export async function renderSheet(sheet: Sheet, options: RenderSheetOptions = {}
     if (dataDir !== null) {
       const written = await writeCoordinates(dataDir, view, grid, arithmetic === 'deep', opened);
       for (const s of opened) await s.finish();
-      await writeFileAtomic(path.join(dataDir, 'grid.json'), `${JSON.stringify(gridRecord(view, grid, arithmetic === 'deep', arithmetic === 'deep' ? plan.unitExponent : 0), null, 2)}\n`);
+      await writeFileAtomic(path.join(dataDir, 'grid.json'), `${JSON.stringify(gridRecord(view, grid, arithmetic === 'deep', job.deep?.unitExponent ?? 0), null, 2)}\n`);
       files.push(path.resolve(file));
-      for (const n of ['period', 'smooth', 'distance', 'interior', ...written]) files.push(path.join(dataDir, `${n}.npy`));
+      for (const n of ['period', 'smooth', 'distance', 'interior', ...(job.julia !== undefined ? ['basin'] : []), ...written]) files.push(path.join(dataDir, `${n}.npy`));
       files.push(path.join(dataDir, 'grid.json'));
     } else {
       for (const s of opened) await s.finish();
@@ -261,7 +297,7 @@ export async function renderSheet(sheet: Sheet, options: RenderSheetOptions = {}
       files,
       view: { ...sheet.view, width: sheet.width, height: sheet.height, pixelSpacing: grid.spacing },
       arithmetic,
-      precision: arithmetic === 'deep' ? { referenceBits: bits, unitExponent: plan.unitExponent, reference: sheet.reference ?? { re: sheet.view.re, im: sheet.view.im, period: 0 }, referenceSeconds: round3(deepTimes.reference), tableSeconds: round3(deepTimes.table) } : { referenceBits: 53 },
+      precision: run.precision,
       iterations,
       iterationsRule: sheet.iterations === 'auto' ? 'auto' : 'given',
       deepIterations: arithmetic === 'deep' ? { stepped: stats.stepped, skipped: stats.skipped, skips: stats.skips, skippedFraction: stats.stepped + stats.skipped > 0 ? stats.skipped / (stats.stepped + stats.skipped) : 0 } : null,
@@ -277,6 +313,7 @@ export async function renderSheet(sheet: Sheet, options: RenderSheetOptions = {}
         pixelArea,
         note: 'interior area = interior pixel centres x pixel area; undecided pixels bound its uncertainty',
       },
+      ...(run.julia === undefined ? {} : { julia: run.julia }),
     };
     if (sheet.colour.legend === 'beside') {
       const legendFile = file.replace(/\.(png|tiff?)$/i, '-legend.svg');

@@ -2,6 +2,7 @@ import type { ColourSettings } from '../colour/colour-settings.js';
 import type { Legend, PixelRect } from '../colour/legend.js';
 import type { DeepJob } from './deep-job.js';
 import type { DoubleGrid } from '../view/view.js';
+import type { JuliaJob } from './julia-job.js';
 
 /**
  * Everything a worker needs to render any tile of a plate: plain data only
@@ -30,6 +31,8 @@ export interface PlateJob {
   readonly legendBounds?: PixelRect;
   /** Present when the plate uses the deep arithmetic (perturbation around a reference orbit). */
   readonly deep?: DeepJob;
+  /** Present for a plate of the dynamical plane of one c (`quadatlas julia`): the grid is then in z. */
+  readonly julia?: JuliaJob;
 }
 
 /** Per-tile counts, summed over tiles by the main thread (order-independent). */

@@ -40,6 +40,8 @@ export interface PlateSinks {
   readonly smooth?: DataSink;
   readonly distance?: DataSink;
   readonly interior?: DataSink;
+  /** Julia plates: the interior class of each pixel (-1 outside). */
+  readonly basin?: DataSink;
 }
 
 export interface RenderOptions {
@@ -57,9 +59,9 @@ const AHEAD = 2;
 const MAX_TILE_ROWS_PER_STRIP = 4;
 export const DEFAULT_STRIP_BUDGET = 96 * 1024 * 1024;
 
-/** Bytes a strip holds per pixel: encoded RGB plus, with data, int32 + 2 x float64 + uint8. */
+/** Bytes a strip holds per pixel: encoded RGB plus, with data, int32 + 2 x float64 + uint8 (and an int32 class on Julia plates). */
 export function bytesPerPixel(job: PlateJob): number {
-  return 3 * (job.depth / 8) + (job.withData ? 21 : 0);
+  return 3 * (job.depth / 8) + (job.withData ? 21 + (job.julia !== undefined ? 4 : 0) : 0);
 }
 
 /** Strip height in rows for a width and budget (a whole number of tiles, at least one). */
@@ -74,6 +76,7 @@ interface StripBuffers {
   smooth?: Float64Array;
   distance?: Float64Array;
   interior?: Uint8Array;
+  basin?: Int32Array;
 }
 
 function allocate(job: PlateJob, width: number, rows: number): StripBuffers {
@@ -84,6 +87,7 @@ function allocate(job: PlateJob, width: number, rows: number): StripBuffers {
     b.smooth = new Float64Array(n);
     b.distance = new Float64Array(n);
     b.interior = new Uint8Array(n);
+    if (job.julia !== undefined) b.basin = new Int32Array(n);
   }
   return b;
 }
@@ -103,6 +107,7 @@ function place(b: StripBuffers, strip: Strip, width: number, t: TileDoneMessage)
     if (b.smooth && t.smooth) b.smooth.set(t.smooth.subarray(j * w, (j + 1) * w), row);
     if (b.distance && t.distance) b.distance.set(t.distance.subarray(j * w, (j + 1) * w), row);
     if (b.interior && t.interior) b.interior.set(t.interior.subarray(j * w, (j + 1) * w), row);
+    if (b.basin && t.basin) b.basin.set(t.basin.subarray(j * w, (j + 1) * w), row);
   }
 }
 
@@ -112,6 +117,7 @@ async function writeStrip(sinks: PlateSinks, b: StripBuffers, rows: number): Pro
   if (sinks.smooth && b.smooth) await sinks.smooth.writeRows(b.smooth, rows);
   if (sinks.distance && b.distance) await sinks.distance.writeRows(b.distance, rows);
   if (sinks.interior && b.interior) await sinks.interior.writeRows(b.interior, rows);
+  if (sinks.basin && b.basin) await sinks.basin.writeRows(b.basin, rows);
 }
 
 /** Whether a strip meets the rows an inset legend may cover (so it waits for the histogram). */

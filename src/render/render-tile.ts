@@ -23,7 +23,11 @@
 import { encodePixels } from '../colour/encode-pixels.js';
 import { paintLegendRect, type Legend } from '../colour/legend.js';
 import { shadeSamples } from '../colour/shade-samples.js';
-import { createSampleSet, PERIOD_UNDECIDED, type SampleSet } from '../plane/sample-set.js';
+import { PERIOD_UNDECIDED } from '../plane/sample-set.js';
+import { paintStrokes } from '../colour/paint-strokes.js';
+import { shadeJuliaSamples } from '../colour/shade-julia.js';
+import { createJuliaSampleSet, sampleJulia, type JuliaSampleSet } from '../dynamic/sample-julia.js';
+import { sampleJuliaDeep } from '../dynamic/sample-julia-deep.js';
 import { createSampleScratch, sampleParameters, type SampleScratch } from '../plane/sample-parameters.js';
 import type { EscapeLoop } from '../plane/escape-loop.js';
 import { sampleDeep, type DeepStats } from '../plane/deep-sample.js';
@@ -43,6 +47,8 @@ export interface TileResult {
   smooth?: Float64Array;
   distance?: Float64Array;
   interior?: Uint8Array;
+  /** Julia plates with data: the interior class of each pixel (-1 outside). */
+  basin?: Int32Array;
   stats: TileStats;
 }
 
@@ -55,11 +61,12 @@ export interface TileScratch {
   /** Parameters (double path) or offsets from the reference (deep path) of a batch. */
   readonly cr: Float64Array;
   readonly ci: Float64Array;
-  readonly centre: SampleSet;
+  /** Centre samples; `basin` is written by the Julia kernel only (the c-plane path leaves it 0). */
+  readonly centre: JuliaSampleSet;
   readonly centreLinear: Float64Array;
   readonly refineXs: Float64Array;
   readonly refineYs: Float64Array;
-  readonly refined: SampleSet;
+  readonly refined: JuliaSampleSet;
   readonly refinedLinear: Float64Array;
   readonly linear: Float64Array;
   readonly flags: Uint8Array;
@@ -77,11 +84,11 @@ export function createTileScratch(maxTile: number): TileScratch {
     ys: new Float64Array(apron),
     cr: new Float64Array(Math.max(apron, REFINE_BATCH)),
     ci: new Float64Array(Math.max(apron, REFINE_BATCH)),
-    centre: createSampleSet(apron),
+    centre: createJuliaSampleSet(apron),
     centreLinear: new Float64Array(apron * 3),
     refineXs: new Float64Array(REFINE_BATCH),
     refineYs: new Float64Array(REFINE_BATCH),
-    refined: createSampleSet(REFINE_BATCH),
+    refined: createJuliaSampleSet(REFINE_BATCH),
     refinedLinear: new Float64Array(REFINE_BATCH * 3),
     linear: new Float64Array(maxTile * maxTile * 3),
     flags: new Uint8Array(maxTile * maxTile),
@@ -107,7 +114,7 @@ export function jitter(x: number, y: number, k: number, axis: number): number {
  * + (y - 1/2) stepY in units of 2^U, the same formula as fillDeepOffsets
  * (src/plane/deep-offsets.ts), so every pixel gets the same bits in any tile.
  */
-function evaluate(job: PlateJob, xs: Float64Array, ys: Float64Array, n: number, scratch: TileScratch, out: SampleSet, deepStats: DeepStats, loop?: EscapeLoop): void {
+function evaluate(job: PlateJob, xs: Float64Array, ys: Float64Array, n: number, scratch: TileScratch, out: JuliaSampleSet, deepStats: DeepStats, loop?: EscapeLoop): void {
   const { cr, ci } = scratch;
   const deep = job.deep;
   if (deep !== undefined) {
@@ -123,14 +130,37 @@ function evaluate(job: PlateJob, xs: Float64Array, ys: Float64Array, n: number, 
   }
   const grid = job.grid;
   const spacing = grid.spacing;
+  if (job.julia?.deep !== undefined) {
+    // Offsets from the view centre (the reference), in z units.
+    for (let k = 0; k < n; k++) {
+      const u = (xs[k]! - grid.width / 2) * spacing;
+      const v = (grid.height / 2 - ys[k]!) * spacing;
+      cr[k] = u * grid.cos - v * grid.sin;
+      ci[k] = u * grid.sin + v * grid.cos;
+    }
+    const { cRe, cIm, trap } = job.julia;
+    sampleJuliaDeep(cr, ci, n, { cRe, cIm, maxIterations: job.iterations, escapeRadius: job.escapeRadius }, trap, job.julia.deep, out);
+    return;
+  }
   for (let k = 0; k < n; k++) {
     const u = (xs[k]! - grid.width / 2) * spacing;
     const v = (grid.height / 2 - ys[k]!) * spacing;
     cr[k] = grid.centerRe + (u * grid.cos - v * grid.sin);
     ci[k] = grid.centerIm + (u * grid.sin + v * grid.cos);
   }
+  if (job.julia !== undefined) {
+    const { cRe, cIm, trap } = job.julia;
+    sampleJulia(cr, ci, n, { cRe, cIm, maxIterations: job.iterations, escapeRadius: job.escapeRadius }, trap, out);
+    return;
+  }
   const settings = { maxIterations: job.iterations, escapeRadius: job.escapeRadius, periodTolerance: job.periodTolerance };
   sampleParameters(cr, ci, n, settings, out, loop, scratch.kernel);
+}
+
+/** Colours n samples of a batch: the c-plane shading, or the Julia one (basin classes) for a Julia plate. */
+function shade(job: PlateJob, samples: JuliaSampleSet, n: number, spacing: number, out: Float64Array): void {
+  if (job.julia !== undefined) shadeJuliaSamples(samples, 0, n, spacing, job.colour, job.julia.basin, job.julia.trap.basinPeriod, out);
+  else shadeSamples(samples, 0, n, spacing, job.colour, out);
 }
 
 function kindOf(period: number): number {
@@ -163,7 +193,7 @@ export function renderTile(job: PlateJob, tile: Tile, scratch: TileScratch, loop
     }
   }
   evaluate(job, xs, ys, n, scratch, centre, deepStats, loop);
-  shadeSamples(centre, 0, n, spacing, job.colour, centreLinear);
+  shade(job, centre, n, spacing, centreLinear);
 
   stats.samples += n;
   const pixelCount = w * h;
@@ -194,7 +224,7 @@ export function renderTile(job: PlateJob, tile: Tile, scratch: TileScratch, loop
           for (let di = -1; di <= 1; di++) {
             const q = k + dj * aw + di;
             const pq = centre.period[q]!;
-            if (pq !== period || kindOf(pq) !== kind) {
+            if (pq !== period || kindOf(pq) !== kind || centre.basin[q] !== centre.basin[k]) {
               flag = 1;
               break;
             }
@@ -226,7 +256,7 @@ export function renderTile(job: PlateJob, tile: Tile, scratch: TileScratch, loop
       const m = owners.length * K;
       if (m === 0) return;
       evaluate(job, refineXs, refineYs, m, scratch, refined, deepStats, loop);
-      shadeSamples(refined, 0, m, spacing, job.colour, refinedLinear);
+      shade(job, refined, m, spacing, refinedLinear);
       stats.samples += m;
       for (let o = 0; o < owners.length; o++) {
         const p = owners[o]!;
@@ -262,8 +292,9 @@ export function renderTile(job: PlateJob, tile: Tile, scratch: TileScratch, loop
     flush();
   }
 
-  // 4. Period labels (and a legend given here; a plate's inset legend is
+  // 4. Marks (Julia plates) and period labels (and a legend given here; a plate's inset legend is
   // composited by the main thread, see render-plate.ts), in linear light, then encode.
+  if (job.julia !== undefined && job.julia.strokes.length > 0) paintStrokes(job.julia.strokes, x0, y0, w, h, linear);
   for (const label of job.labels ?? []) paintLegendRect(label, x0, y0, w, h, linear);
   if (legend !== null) paintLegendRect(legend, x0, y0, w, h, linear);
   const pixels = job.depth === 16 ? new Uint16Array(pixelCount * 3) : new Uint8Array(pixelCount * 3);
@@ -280,6 +311,7 @@ export function renderTile(job: PlateJob, tile: Tile, scratch: TileScratch, loop
     const smooth = new Float64Array(pixelCount);
     const distance = new Float64Array(pixelCount);
     const interior = new Uint8Array(pixelCount);
+    const basin = job.julia !== undefined ? new Int32Array(pixelCount) : undefined;
     for (let j = 0; j < h; j++) {
       for (let i = 0; i < w; i++) {
         const k = (j + 1) * aw + (i + 1);
@@ -289,9 +321,10 @@ export function renderTile(job: PlateJob, tile: Tile, scratch: TileScratch, loop
         smooth[p] = centre.smooth[k]!;
         distance[p] = centre.distance[k]!;
         interior[p] = kindOf(per);
+        if (basin !== undefined) basin[p] = centre.basin[k]!;
       }
     }
-    Object.assign(result, { period, smooth, distance, interior });
+    Object.assign(result, { period, smooth, distance, interior, ...(basin === undefined ? {} : { basin }) });
   }
   return result;
 }

@@ -14,8 +14,8 @@ import { Received, UserError } from '../cli/user-error.js';
 
 export const SHEET_SCHEMA = 1;
 
-export type SheetKind = 'plate' | 'julia' | 'section-diagram' | 'section-lyapunov' | 'section-compare';
-export const SHEET_KINDS: readonly SheetKind[] = ['plate', 'julia', 'section-diagram', 'section-lyapunov', 'section-compare'];
+export type SheetKind = 'plate' | 'julia' | 'section-diagram' | 'section-lyapunov' | 'section-compare' | 'section-orbit' | 'section-cobweb';
+export const SHEET_KINDS: readonly SheetKind[] = ['plate', 'julia', 'section-diagram', 'section-lyapunov', 'section-compare', 'section-orbit', 'section-cobweb'];
 
 /** The command that renders a sheet of each kind. */
 export const COMMAND_OF_KIND: Readonly<Record<SheetKind, string>> = {
@@ -24,6 +24,8 @@ export const COMMAND_OF_KIND: Readonly<Record<SheetKind, string>> = {
   'section-diagram': 'quadatlas section diagram',
   'section-lyapunov': 'quadatlas section lyapunov',
   'section-compare': 'quadatlas section compare',
+  'section-orbit': 'quadatlas section orbit',
+  'section-cobweb': 'quadatlas section cobweb',
 };
 
 /**

@@ -28,6 +28,7 @@ export interface TileDoneMessage {
   readonly smooth?: Float64Array;
   readonly distance?: Float64Array;
   readonly interior?: Uint8Array;
+  readonly basin?: Int32Array;
   readonly stats: TileStats;
 }
 

@@ -30,7 +30,7 @@ port.on('message', (message: ToWorker) => {
     const r = renderTile(job, tile, scratch, loop, null);
     const reply: FromWorker = { type: 'tile-done', tile, ...r };
     const transfer: ArrayBuffer[] = [r.pixels.buffer as ArrayBuffer];
-    for (const a of [r.linear, r.period, r.smooth, r.distance, r.interior]) if (a !== undefined) transfer.push(a.buffer as ArrayBuffer);
+    for (const a of [r.linear, r.period, r.smooth, r.distance, r.interior, r.basin]) if (a !== undefined) transfer.push(a.buffer as ArrayBuffer);
     port.postMessage(reply, transfer);
   } catch (err) {
     const reply: FromWorker = { type: 'failed', message: err instanceof Error ? (err.stack ?? err.message) : String(err) };

@@ -1,0 +1,60 @@
+/**
+ * The options of `quadatlas julia`, declared once: the view, size, colour and
+ * output flags of `plate` (same meaning, read in z) plus the parameter, the
+ * interior colouring and the marks. Options of plates that mean nothing in
+ * the dynamical plane are declared so they can be refused in one line.
+ */
+import { attributeName, PLATE_OPTIONS, type OptionSpec } from './plate-options.js';
+import { UserError } from './user-error.js';
+
+/** Plate flags that have no meaning on a Julia plate. */
+const REFUSED = new Set(['--label-periods <n>', '--reference <re,im,period>', '--no-skip']);
+
+function sub(sheet: Record<string, unknown>, key: string): Record<string, unknown> {
+  const v = sheet[key];
+  if (typeof v === 'object' && v !== null && !Array.isArray(v)) return v as Record<string, unknown>;
+  const fresh: Record<string, unknown> = {};
+  sheet[key] = fresh;
+  return fresh;
+}
+
+export const JULIA_OPTIONS: readonly OptionSpec[] = [
+  {
+    flags: '--c <re,im>',
+    description: 'the parameter c as two decimal numbers, e.g. -0.12256116687665,0.74486176661974 (kept as written)',
+    apply: (s, v) => {
+      const parts = v.split(',');
+      if (parts.length !== 2) throw new UserError('--c', 'two decimal numbers RE,IM (e.g. -1,0)', v);
+      s['c'] = { re: parts[0]!.trim(), im: parts[1]!.trim() };
+      delete s['cardioidAngle'];
+    },
+  },
+  { flags: '--cardioid-angle <theta>', description: 'c on the main cardioid at internal angle theta: c = m/2 - m^2/4, m = e^(2 pi i theta); s/q or a decimal gives a parabolic c, golden the golden-mean Siegel disk', apply: (s, v) => void (s['cardioidAngle'] = v.trim()) },
+  { flags: '--basin <style>', description: 'interior colouring: point (the cycle point attracting it), time (attraction time) or point-time (default)', apply: (s, v) => void (s['basin'] = v.trim()) },
+  { flags: '--orbit <n>', description: 'mark the first n points of the critical orbit', apply: (s, v) => void (sub(s, 'marks')['orbit'] = /^\s*\d+\s*$/.test(v) ? Number(v) : v) },
+  { flags: '--cycle', description: 'mark the attracting (or parabolic) cycle' },
+  { flags: '--fixed-points', description: 'mark the fixed points alpha (red) and beta (blue)' },
+  { flags: '--rays <angles>', description: 'draw the dynamic rays of these angles, e.g. 1/7,2/7,4/7', apply: (s, v) => void (sub(s, 'marks')['rays'] = v.split(',').map((a) => a.trim())) },
+  ...PLATE_OPTIONS.filter((o) => !REFUSED.has(o.flags)).map((o) =>
+    o.flags.startsWith('--center') ? { ...o, description: 'centre of the view in z as two decimal numbers (default 0,0)' } : o.flags.startsWith('--span') ? { ...o, description: 'width of the view in z units (default 4)' } : o,
+  ),
+  ...[...REFUSED].map((flags) => ({ flags, description: 'not on Julia plates (refused)' })),
+];
+
+/** Applies flag values to a raw Julia sheet object, refusing plate-only flags. */
+export function applyJuliaOptions(sheet: Record<string, unknown>, values: Record<string, unknown>): Record<string, unknown> {
+  for (const flags of REFUSED) {
+    const key = attributeName(flags);
+    const given = flags.startsWith('--no-') ? values[key] === false : values[key] !== undefined;
+    if (given) throw new UserError(flags.split(' ')[0]!, 'an option that means something on a Julia plate (this one belongs to c-plane plates)', flags.split(' ')[0]!);
+  }
+  for (const spec of JULIA_OPTIONS) {
+    if (!spec.apply) continue;
+    const v = values[attributeName(spec.flags)];
+    if (typeof v === 'string') spec.apply(sheet, v);
+  }
+  if (values['cycle'] === true) sub(sheet, 'marks')['cycle'] = true;
+  if (values['fixedPoints'] === true) sub(sheet, 'marks')['fixedPoints'] = true;
+  if (values['sidecar'] === false) sub(sheet, 'output')['sidecar'] = false;
+  return sheet;
+}

@@ -1,0 +1,49 @@
+/**
+ * `quadatlas julia [SHEET.json] [flags]`: render one image of the dynamical
+ * plane of one c. Flags override the sheet; `--again FILE` takes the sheet
+ * from the metadata stored in an earlier Julia plate.
+ */
+import type { Command } from 'commander';
+import { parseJuliaSheet } from '../view/julia-sheet.js';
+import { applyJuliaOptions, JULIA_OPTIONS } from './julia-options.js';
+import { parseCount, sheetFromPlate } from './plate.js';
+import { renderJuliaSheet } from './render-julia.js';
+import { readSheetFile, sheetName } from './sheet-file.js';
+import { UserError } from './user-error.js';
+
+export function register(program: Command): void {
+  const cmd = program
+    .command('julia')
+    .description('render one image of the dynamical plane of one c (flags override the sheet)')
+    .argument('[sheet]', 'a Julia sheet (JSON) holding c, the view, colouring and output');
+  for (const o of JULIA_OPTIONS) cmd.option(o.flags, o.description);
+  cmd.action(async (sheetFile: string | undefined, values: Record<string, unknown>) => {
+    let raw: Record<string, unknown>;
+    let name = 'julia';
+    if (typeof values['again'] === 'string') {
+      if (sheetFile !== undefined) throw new UserError('--again', 'either a sheet or --again, not both', sheetFile);
+      raw = await sheetFromPlate(values['again']);
+      if (raw['kind'] !== 'julia') throw new UserError('--again', 'a Julia plate (use `quadatlas plate --again` for a c-plane plate)', values['again']);
+      name = `${sheetName(values['again']).replace(/\.(png|tiff?)$/i, '')}-again`;
+      if (typeof values['out'] !== 'string') {
+        const ext = /\.tiff?$/i.test(values['again']) ? 'tif' : 'png';
+        raw['output'] = { file: values['again'].replace(/\.(png|tiff?)$/i, `-again.${ext}`) };
+      }
+    } else if (sheetFile !== undefined) {
+      raw = await readSheetFile(sheetFile);
+      name = sheetName(sheetFile);
+    } else {
+      raw = {};
+    }
+    delete raw['startup'];
+    if (raw['c'] === undefined && raw['cardioidAngle'] === undefined && values['c'] === undefined && values['cardioidAngle'] === undefined) {
+      throw new UserError('--c', 'a parameter --c RE,IM (or --cardioid-angle THETA, or a sheet holding c)', values['c']);
+    }
+    const sheet = parseJuliaSheet(applyJuliaOptions(raw, values), name);
+    const workers = parseCount(values['workers'], '--workers', 1, 256);
+    const tileSize = parseCount(values['tile'], '--tile', 8, 1024);
+    const summary = await renderJuliaSheet(sheet, { ...(workers === undefined ? {} : { workers }), ...(tileSize === undefined ? {} : { tileSize }) });
+    if (values['json'] === true) process.stdout.write(`${JSON.stringify(summary, null, 2)}\n`);
+    else process.stderr.write(`wrote ${summary.files.join(', ')} (${summary.seconds} s)\n`);
+  });
+}
