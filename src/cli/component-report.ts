@@ -1,5 +1,5 @@
 /**
- * Shared parsing and printing for `components`, `locate` and `describe`:
+ * Shared parsing and printing for `components`, `locate` and `probe`:
  * integer flags, boxes, and one component as key-value lines or JSON.
  */
 import { UserError } from './user-error.js';

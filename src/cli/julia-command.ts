@@ -1,6 +1,6 @@
 /**
  * The `quadatlas julia` command line for a parameter c, printed by the
- * commands that report one c (describe / probe), so the dynamical plane of
+ * commands that report one c (probe), so the dynamical plane of
  * a c found in the parameter plane is one copy-paste away. The decimal
  * strings are passed as written.
  */
