@@ -75,7 +75,7 @@ export const COLOUR_OPTIONS: readonly OptionSpec[] = [
     },
   },
   field('--count-scale', 'countScale', 'scale', `how the smooth count mu feeds the gradient: log (u = ln(1 + mu)) or linear (u = mu) (default ${d.countScale})`),
-  field('--cycle', 'cycle', 'u', `length of one pass through the gradient, in units of u (> 0, default ${d.cycle})`, numeric),
+  field('--gradient-cycle', 'cycle', 'u', `length of one pass through the gradient, in units of u (> 0, default ${d.cycle})`, numeric),
   field('--offset', 'offset', 'fraction', `shift of the gradient, as a fraction of a cycle in [0, 1) (default ${d.offset})`, numeric),
   field('--edge', 'edge', 'pixels', `exterior edge width in pixels, from the distance estimate (0 turns it off; default ${d.edge})`, numeric),
   field('--edge-colour', 'edgeColour', 'hex', `ink the edges fade to, sRGB #rrggbb (default ${d.edgeColour})`),

@@ -4,8 +4,7 @@
  * For p = 2, 3, ... in order: list the exact-period-p angles ascending; pair
  * the smallest unpaired angle a with the smallest unpaired b > a whose chord
  * crosses no chord drawn earlier (all periods); repeat.
- * Sources: P. Lavaurs, C. R. Acad. Sci. Paris 303 (1986) 143-146; the
- * Frame-Mandelbrot-Neger notes (Yale), "Lavaurs algorithm".
+ * Source: P. Lavaurs, C. R. Acad. Sci. Paris 303 (1986) 143-146 (docs/methods.md D2).
  * Quadratic in the number of angles: meant for periods up to about 12.
  */
 import { periodicNumerators } from './census.js';

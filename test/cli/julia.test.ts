@@ -9,9 +9,9 @@ describe('quadatlas julia', () => {
   it('writes the same bytes for --workers 1 and 2, tile sizes 16 and 64, and --again (PNG 16-bit and TIFF)', () => {
     const dir = tempDir();
     const runs = [
-      ['--workers', '1', '--tile', '64'],
-      ['--workers', '2', '--tile', '16'],
-      ['--workers', '2', '--tile', '64'],
+      ['--workers', '1', '--tile-size', '64'],
+      ['--workers', '2', '--tile-size', '16'],
+      ['--workers', '2', '--tile-size', '64'],
     ];
     runs.forEach((extra, i) => {
       const r = runCli(['julia', ...RABBIT, '--rays', '1/7,2/7,4/7', '--cycle', '--fixed-points', '--orbit', '6', '--depth', '16', '--out', path.join(dir, `j${i}.png`), ...extra]);
@@ -19,7 +19,7 @@ describe('quadatlas julia', () => {
     });
     const first = readFileSync(path.join(dir, 'j0.png'));
     for (const i of [1, 2]) expect(readFileSync(path.join(dir, `j${i}.png`)).equals(first)).toBe(true);
-    const again = runCli(['julia', '--again', path.join(dir, 'j0.png'), '--out', path.join(dir, 'again.png'), '--workers', '2', '--tile', '32']);
+    const again = runCli(['julia', '--again', path.join(dir, 'j0.png'), '--out', path.join(dir, 'again.png'), '--workers', '2', '--tile-size', '32']);
     expect(again.status, again.stderr).toBe(0);
     expect(readFileSync(path.join(dir, 'again.png')).equals(first)).toBe(true);
     const tif = runCli(['julia', ...RABBIT, '--out', path.join(dir, 't.tif')]);
@@ -57,7 +57,7 @@ describe('quadatlas julia', () => {
     const dir = tempDir();
     // 201 x 101 pixels over [-2, 2] x [-1, 1]: pixel centres fall exactly on z = 0 (i = 100, j = 50) and z = -1 (i = 50, j = 50).
     const base = ['julia', '--c', '-1,0', '--span', '4.02', '--size', '201x101', '--samples', '1'];
-    for (const [i, extra] of [['a', ['--workers', '1', '--tile', '64']], ['b', ['--workers', '2', '--tile', '16']]] as const) {
+    for (const [i, extra] of [['a', ['--workers', '1', '--tile-size', '64']], ['b', ['--workers', '2', '--tile-size', '16']]] as const) {
       const r = runCli([...base, ...extra, '--out', path.join(dir, `${i}.png`), '--data', path.join(dir, i)]);
       expect(r.status, r.stderr).toBe(0);
     }

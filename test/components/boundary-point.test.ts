@@ -33,7 +33,7 @@ describe('componentRoot', () => {
     for (const [p, q] of [[1, 2], [1, 3], [1, 4], [2, 5], [1, 6], [3, 7]] as const) {
       const a = (2 * Math.PI * p) / q;
       const want = { re: Math.cos(a) / 2 - Math.cos(2 * a) / 4, im: Math.sin(a) / 2 - Math.sin(2 * a) / 4 };
-      const rad = Math.sin((Math.PI * p) / q) / q ** 2; // Guckenheimer & McGehee, via Frame-Mandelbrot-Neger (checks.md)
+      const rad = Math.sin((Math.PI * p) / q) / q ** 2; // Guckenheimer & McGehee (1984), docs/checks.md "p/q bulb radius"
       const guess = { re: String(want.re * (1 + rad)), im: String(want.im * (1 + rad)) };
       const nucleus = findNucleus(q, guess, 30).nucleus;
       const { root, parent } = componentRoot(q, nucleus, 30);
