@@ -41,7 +41,7 @@ export function register(program: Command): void {
     }
     const sheet = parseJuliaSheet(applyJuliaOptions(raw, values), name);
     const workers = parseCount(values['workers'], '--workers', 1, 256);
-    const tileSize = parseCount(values['tile'], '--tile-size', 8, 1024);
+    const tileSize = parseCount(values['tileSize'], '--tile-size', 8, 1024);
     const summary = await renderJuliaSheet(sheet, { ...(workers === undefined ? {} : { workers }), ...(tileSize === undefined ? {} : { tileSize }) });
     if (values['json'] === true) process.stdout.write(`${JSON.stringify(summary, null, 2)}\n`);
     else process.stderr.write(`wrote ${summary.files.join(', ')} (${summary.seconds} s)\n`);
