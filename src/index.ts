@@ -1,7 +1,7 @@
 /**
  * quadatlas as a library: the public API (re-exports only).
  */
-export { UserError } from './cli/user-error.js';
+export { UserError } from './check/user-error.js';
 export { renderSheet, plateMetadata, type PlateSummary, type RenderSheetOptions } from './cli/render-sheet.js';
 export { parseSheet, renderRecord, type Sheet } from './view/sheet.js';
 export { doubleGrid, fitsDouble, pixelToC, type DoubleGrid, type View } from './view/view.js';

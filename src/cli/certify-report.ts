@@ -9,7 +9,7 @@ import type { ComponentInfo } from '../components/component-info.js';
 import { certifyCensus } from '../components/certify/certify-census.js';
 import { certifyNucleusDecimal } from '../components/certify/certify-decimal.js';
 import { certifyRootDecimal } from '../components/certify/certify-root.js';
-import { UserError } from './user-error.js';
+import { UserError } from '../check/user-error.js';
 
 /** Largest period of a certified census: every disk is kept in memory (about 400 bytes each). */
 export const MAX_CERTIFY_PERIOD = 22;

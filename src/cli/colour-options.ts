@@ -14,7 +14,7 @@ import { EXTERIOR_GRADIENT_NAMES } from '../colour/exterior-gradients.js';
 import { gradientStopsFromText } from '../colour/gradient-stops.js';
 import { LEGEND_MIN_PIXELS } from '../colour/legend.js';
 import type { OptionSpec } from './plate-options.js';
-import { Received, UserError } from './user-error.js';
+import { Received, UserError } from '../check/user-error.js';
 
 const d = DEFAULT_COLOUR_SETTINGS;
 

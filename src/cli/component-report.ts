@@ -2,7 +2,7 @@
  * Shared parsing and printing for `components`, `locate` and `probe`:
  * integer flags, boxes, and one component as key-value lines or JSON.
  */
-import { UserError } from './user-error.js';
+import { UserError } from '../check/user-error.js';
 import type { ComponentInfo } from '../components/component-info.js';
 import { angleText } from '../components/external-angle.js';
 import { addressText } from '../components/internal-address.js';

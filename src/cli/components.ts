@@ -14,7 +14,7 @@ import type { ComponentInfo } from '../components/component-info.js';
 import { findNucleus } from '../components/nucleus.js';
 import { parseBox, parseIntFlag, componentJson } from './component-report.js';
 import { certifyListing, MAX_CERTIFY_PERIOD, reportCensusCertificate } from './certify-report.js';
-import { UserError } from './user-error.js';
+import { UserError } from '../check/user-error.js';
 
 /** Longest listing period (the listing refines every nucleus and root to D digits). */
 export const MAX_LIST_PERIOD = 16;

@@ -13,7 +13,7 @@
  * check them again exactly as on the command line.
  */
 import { migrateSheet, SHEET_SCHEMA } from '../view/sheet-kind.js';
-import { Received, UserError } from './user-error.js';
+import { Received, UserError } from '../check/user-error.js';
 
 export interface FigureSheet {
   readonly kind: 'section-orbit' | 'section-cobweb';

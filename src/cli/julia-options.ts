@@ -5,7 +5,7 @@
  * the dynamical plane are declared so they can be refused in one line.
  */
 import { attributeName, PLATE_OPTIONS, type OptionSpec } from './plate-options.js';
-import { UserError } from './user-error.js';
+import { UserError } from '../check/user-error.js';
 
 /** Plate flags that have no meaning on a Julia plate. */
 const REFUSED = new Set(['--label-periods <n>', '--reference <re,im,period>', '--no-skip']);

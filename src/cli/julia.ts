@@ -9,7 +9,7 @@ import { applyJuliaOptions, JULIA_OPTIONS } from './julia-options.js';
 import { parseCount, sheetFromPlate } from './plate.js';
 import { renderJuliaSheet } from './render-julia.js';
 import { readSheetFile, sheetName } from './sheet-file.js';
-import { UserError } from './user-error.js';
+import { UserError } from '../check/user-error.js';
 
 export function register(program: Command): void {
   const cmd = program

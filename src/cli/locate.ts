@@ -19,7 +19,7 @@ import { traceRayDD } from '../components/trace-ray.js';
 import { parseDecimalPair } from '../precise/decimal-string.js';
 import { componentJson, componentLines, parseIntFlag } from './component-report.js';
 import { juliaCommandLine } from './julia-command.js';
-import { UserError } from './user-error.js';
+import { UserError } from '../check/user-error.js';
 import { certifyLocated } from './certify-report.js';
 
 /** Longest period for --angle (the ray is traced in double-double) and for --address (angles are enumerated). */

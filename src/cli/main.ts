@@ -9,7 +9,7 @@ import { realpathSync } from 'node:fs';
 import { fileURLToPath } from 'node:url';
 import { Command, CommanderError } from 'commander';
 import { removeLiveTemps } from '../io/temp-path.js';
-import { UserError } from './user-error.js';
+import { UserError } from '../check/user-error.js';
 import { toolVersion } from './version.js';
 
 /** A command module registers itself on the program. */

@@ -17,7 +17,7 @@ import { PERIOD_GREYSCALE_DISTINCT, periodHex } from '../colour/period-palette.j
 import { gradientSwatch, interiorSwatch, periodSwatch, type Swatch } from '../colour/swatches.js';
 import { checkWritableDirectory } from '../io/check-writable-directory.js';
 import { writeFileAtomic } from '../io/write-file-atomic.js';
-import { Received, UserError } from './user-error.js';
+import { Received, UserError } from '../check/user-error.js';
 
 /** Periods listed and drawn in the period swatch. */
 export const PALETTE_PERIODS = 24;

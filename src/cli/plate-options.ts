@@ -4,7 +4,7 @@
  * values into overrides of a sheet (pure, unit-tested without a process).
  */
 import { COLOUR_OPTIONS } from './colour-options.js';
-import { UserError } from './user-error.js';
+import { UserError } from '../check/user-error.js';
 
 export interface OptionSpec {
   readonly flags: string;

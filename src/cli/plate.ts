@@ -11,7 +11,7 @@ import { quickSheet } from './quick.js';
 import { reportWrote } from './wrote.js';
 import { renderSheet } from './render-sheet.js';
 import { readSheetFile, sheetName } from './sheet-file.js';
-import { Received, UserError } from './user-error.js';
+import { Received, UserError } from '../check/user-error.js';
 import { toolVersion } from './version.js';
 
 /**

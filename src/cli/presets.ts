@@ -13,7 +13,7 @@ import { parseJuliaSheet, type JuliaSheet } from '../view/julia-sheet.js';
 import { renderJuliaSheet } from './render-julia.js';
 import { figureSheetRecord, isFigureKind, parseFigureSheet, renderFigureSheet, type FigureSheet } from './figure-sheet.js';
 import { readSheetFile, sheetName } from './sheet-file.js';
-import { UserError } from './user-error.js';
+import { UserError } from '../check/user-error.js';
 import { quickSheet } from './quick.js';
 import { toolVersion } from './version.js';
 import { reportWrote } from './wrote.js';

@@ -29,7 +29,7 @@ import { parseCount, sheetFromPlate } from './plate.js';
 import { COLOUR_OPTIONS } from './colour-options.js';
 import { applyPlateOptions, attributeName, PLATE_OPTIONS, type OptionSpec } from './plate-options.js';
 import { readSheetFile, sheetName } from './sheet-file.js';
-import { Received, UserError } from './user-error.js';
+import { Received, UserError } from '../check/user-error.js';
 import { toolVersion } from './version.js';
 import { quickSheet } from './quick.js';
 import { reportWrote } from './wrote.js';

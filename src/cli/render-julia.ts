@@ -20,7 +20,7 @@ import { computeJuliaReference } from '../precise/julia-reference-orbit.js';
 import { referenceBits } from '../precise/reference-orbit.js';
 import type { JuliaReferences } from '../dynamic/sample-julia-deep.js';
 import { writePlate, type PlateSummary, type RenderSheetOptions } from './render-sheet.js';
-import { UserError } from './user-error.js';
+import { UserError } from '../check/user-error.js';
 import { toolVersion } from './version.js';
 
 /** The metadata JSON stored in a Julia plate: tool, version and the sheet that fixes its pixels. */

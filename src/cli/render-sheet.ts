@@ -29,7 +29,7 @@ import { doubleGrid, fitsDouble, pixelToC, type DoubleGrid, type View } from '..
 import { componentsInBox } from '../components/components-in-box.js';
 import type { Legend } from '../colour/legend.js';
 import { labelHeightPixels, layoutPeriodLabels } from '../colour/period-labels.js';
-import { Received, UserError } from './user-error.js';
+import { Received, UserError } from '../check/user-error.js';
 import { toolVersion } from './version.js';
 
 export interface RenderSheetOptions {

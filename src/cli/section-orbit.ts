@@ -7,7 +7,7 @@ import type { Command } from 'commander';
 import { classifyOrbit, DEFAULT_CLASSIFY, orbit, type OrbitClass } from '../section/orbit.js';
 import type { SectionTable } from '../section/section-table.js';
 import type { UnimodalFamily } from '../section/unimodal-family.js';
-import { Received, UserError } from './user-error.js';
+import { Received, UserError } from '../check/user-error.js';
 import { parseDecimal, parseFamily, parseInteger, tableFormat } from './section.js';
 
 type Values = Record<string, unknown>;

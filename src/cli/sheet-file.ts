@@ -1,6 +1,6 @@
 import { readFile } from 'node:fs/promises';
 import path from 'node:path';
-import { Received, UserError } from './user-error.js';
+import { Received, UserError } from '../check/user-error.js';
 
 /** Reads a sheet file as raw JSON (validation is parseSheet's job). */
 export async function readSheetFile(file: string): Promise<Record<string, unknown>> {

@@ -14,7 +14,7 @@ import { PyramidPool } from '../render/pyramid-pool.js';
 import { checkRedis, connectionOptions, parseRedisUrl, QUEUE_NAME, type TileJob, type TileJobResult } from '../render/pyramid-queue.js';
 import { parseCount } from './plate.js';
 import type { OptionSpec } from './plate-options.js';
-import { UserError } from './user-error.js';
+import { UserError } from '../check/user-error.js';
 
 export const WORKER_OPTIONS: readonly OptionSpec[] = [
   { flags: '--queue <url>', description: 'the Redis queue to take tiles from, redis://host:port (required, no default)' },

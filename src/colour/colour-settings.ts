@@ -1,4 +1,4 @@
-import { UserError } from '../cli/user-error.js';
+import { UserError } from '../check/user-error.js';
 import { EXTERIOR_GRADIENT_NAMES, type ExteriorGradientName } from './exterior-gradients.js';
 import { parseGradientStops, type GradientStop } from './gradient-stops.js';
 import { PERIOD_PALETTE_SIZE } from './period-palette.js';

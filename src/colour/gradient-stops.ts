@@ -1,4 +1,4 @@
-import { Received, UserError } from '../cli/user-error.js';
+import { Received, UserError } from '../check/user-error.js';
 import { hexToLinear, linearToOklab, oklabToLinear, type Vec3 } from './oklab.js';
 
 /**

@@ -2,7 +2,7 @@
  * Rational external angles: parsing, period and preperiod under doubling,
  * as exact BigInt fractions (methods.md D1).
  */
-import { UserError } from '../cli/user-error.js';
+import { UserError } from '../check/user-error.js';
 
 /** An angle num/den in [0, 1), reduced. */
 export interface Angle {

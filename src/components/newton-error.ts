@@ -3,7 +3,7 @@
  * outside the basin, a period that is not the exact period of the result).
  * It is a UserError, so the command line prints it as one line and exits 2.
  */
-import { UserError } from '../cli/user-error.js';
+import { UserError } from '../check/user-error.js';
 
 export class NewtonError extends UserError {
   readonly detail: string;

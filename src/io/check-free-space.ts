@@ -1,5 +1,5 @@
 import { statfs } from 'node:fs/promises';
-import { UserError } from '../cli/user-error.js';
+import { UserError } from '../check/user-error.js';
 
 /**
  * Throws a UserError naming `field` when the file system holding `dir` has

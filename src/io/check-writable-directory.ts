@@ -1,6 +1,6 @@
 import { stat, open, rm } from 'node:fs/promises';
 import path from 'node:path';
-import { UserError } from '../cli/user-error.js';
+import { UserError } from '../check/user-error.js';
 import { releaseTemp, tempPathFor } from './temp-path.js';
 
 /**

@@ -8,7 +8,7 @@ import { addTempRoot, removeStaleTempsUnder } from './temp-path.js';
 import { createHash } from 'node:crypto';
 import { mkdir, readdir, readFile } from 'node:fs/promises';
 import path from 'node:path';
-import { Received, UserError } from '../cli/user-error.js';
+import { Received, UserError } from '../check/user-error.js';
 import { sameSpec, type PyramidSpec } from '../render/pyramid-job.js';
 import { writeFileAtomic } from './write-file-atomic.js';
 

@@ -8,7 +8,7 @@
  * The exponent is limited to |e| <= MAX_EXPONENT so that a typo cannot ask
  * for a billion-digit number.
  */
-import { UserError } from '../cli/user-error.js';
+import { UserError } from '../check/user-error.js';
 
 /** An exact decimal value: sign * mantissa * 10^exponent. */
 export interface DecimalNumber {

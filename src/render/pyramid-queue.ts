@@ -9,7 +9,7 @@
  * A failed job is retried with exponential back-off (BullMQ `attempts`).
  */
 import type { Job } from 'bullmq';
-import { Received, UserError } from '../cli/user-error.js';
+import { Received, UserError } from '../check/user-error.js';
 
 export const QUEUE_NAME = 'quadatlas-tiles';
 /** Attempts per tile before its failure is reported. */

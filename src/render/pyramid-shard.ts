@@ -11,7 +11,7 @@
  *   is the shard; the number of completions is not in the environment, so it
  *   comes from `--shards N`.
  */
-import { UserError } from '../cli/user-error.js';
+import { UserError } from '../check/user-error.js';
 
 export interface Shard {
   readonly index: number;

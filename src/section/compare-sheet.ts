@@ -6,7 +6,7 @@
  * plane strip's iteration limit and the largest period of the windows
  * marked. `output` is not part of the record embedded in the plate.
  */
-import { UserError } from '../cli/user-error.js';
+import { UserError } from '../check/user-error.js';
 import { SHEET_SCHEMA } from '../view/sheet-kind.js';
 import { type FieldOrigin, type Json, readInterval, SheetFields } from './sheet-fields.js';
 

@@ -9,7 +9,7 @@
  * decimal strings as given. `output` says where to write and is not part of
  * the record: the same record written to another file gives the same image.
  */
-import { UserError } from '../cli/user-error.js';
+import { UserError } from '../check/user-error.js';
 import { SHEET_SCHEMA } from '../view/sheet-kind.js';
 import { FAMILIES } from './families/index.js';
 import { type FieldOrigin, type Json, readInterval, SheetFields } from './sheet-fields.js';

@@ -5,7 +5,7 @@
  * from these alone; `output.file` (optional: without it only the table is
  * printed) is not part of the record embedded in the plot.
  */
-import { UserError } from '../cli/user-error.js';
+import { UserError } from '../check/user-error.js';
 import { SHEET_SCHEMA } from '../view/sheet-kind.js';
 import { defaultParameterRange, parameterBounds, readFamily } from './diagram-sheet.js';
 import { type FieldOrigin, type Json, readInterval, SheetFields } from './sheet-fields.js';

@@ -6,7 +6,7 @@
  * error always names what the user typed; `origin` maps field paths to the
  * flags that set them.
  */
-import { Received, UserError } from '../cli/user-error.js';
+import { Received, UserError } from '../check/user-error.js';
 
 export type Json = Record<string, unknown>;
 

@@ -16,7 +16,7 @@
  * fields of plate sheets mean nothing here and are refused.
  */
 import { migrateSheet, SHEET_SCHEMA } from './sheet-kind.js';
-import { Received, UserError } from '../cli/user-error.js';
+import { Received, UserError } from '../check/user-error.js';
 import { BASIN_STYLES, type BasinStyle } from '../colour/shade-julia.js';
 import { rayAngle } from '../dynamic/dynamic-ray.js';
 import { parseDecimalString, parseInteger, parseSheet, renderRecord, type Sheet } from './sheet.js';

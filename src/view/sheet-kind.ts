@@ -10,7 +10,7 @@
  *      they were all plates). Migrated by adding `kind: "plate"`.
  * - 1: `kind` and `schema` at the top level.
  */
-import { Received, UserError } from '../cli/user-error.js';
+import { Received, UserError } from '../check/user-error.js';
 
 export const SHEET_SCHEMA = 1;
 

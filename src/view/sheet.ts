@@ -28,7 +28,7 @@
  * digit is lost to a double before the precision of the view is known.
  */
 import { Decimal } from 'decimal.js';
-import { Received, UserError } from '../cli/user-error.js';
+import { Received, UserError } from '../check/user-error.js';
 import { parseColourSettings, type ColourSettings } from '../colour/colour-settings.js';
 import { migrateSheet, SHEET_SCHEMA } from './sheet-kind.js';
 

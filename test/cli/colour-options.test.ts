@@ -4,7 +4,7 @@ import { PNG } from 'pngjs';
 import { describe, expect, it } from 'vitest';
 import { COLOUR_OPTIONS } from '../../src/cli/colour-options.js';
 import { applyPlateOptions, attributeName, PLATE_OPTIONS } from '../../src/cli/plate-options.js';
-import { UserError } from '../../src/cli/user-error.js';
+import { UserError } from '../../src/check/user-error.js';
 import { DEFAULT_COLOUR_SETTINGS, parseColourSettings } from '../../src/colour/colour-settings.js';
 import { layoutLegend, LEGEND_MIN_PIXELS, presentPeriods } from '../../src/colour/legend.js';
 import { runCli, tempDir } from '../helpers/run-cli.js';

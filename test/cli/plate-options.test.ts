@@ -1,6 +1,6 @@
 import { describe, expect, it } from 'vitest';
 import { applyPlateOptions, attributeName, parsePair } from '../../src/cli/plate-options.js';
-import { UserError } from '../../src/cli/user-error.js';
+import { UserError } from '../../src/check/user-error.js';
 
 describe('applyPlateOptions', () => {
   it('overrides sheet fields from flags, keeping decimals as strings', () => {

@@ -8,7 +8,7 @@ import { CONVERT_OPTIONS } from '../../src/cli/section/convert.js';
 import { DIAGRAM_OPTIONS } from '../../src/cli/section/diagram.js';
 import { LYAPUNOV_OPTIONS } from '../../src/cli/section/lyapunov.js';
 import { WINDOWS_OPTIONS } from '../../src/cli/section/windows.js';
-import { UserError } from '../../src/cli/user-error.js';
+import { UserError } from '../../src/check/user-error.js';
 import { runCli } from '../helpers/run-cli.js';
 
 /** A decimal string as the BigInt n with value n / 10^p. */

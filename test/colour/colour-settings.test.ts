@@ -1,6 +1,6 @@
 import { describe, expect, it } from 'vitest';
 import { DEFAULT_COLOUR_SETTINGS, parseColourSettings } from '../../src/colour/colour-settings.js';
-import { UserError } from '../../src/cli/user-error.js';
+import { UserError } from '../../src/check/user-error.js';
 
 function errorOf(fn: () => unknown): UserError {
   try {

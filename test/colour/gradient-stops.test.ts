@@ -5,7 +5,7 @@ import { customGradientOklab, gradientStopsFromText, parseGradientStops, prepare
 import { hexToLinear, linearToOklab, oklabDistance, oklchToOklab } from '../../src/colour/oklab.js';
 import { shadeSamples } from '../../src/colour/shade-samples.js';
 import { createSampleSet } from '../../src/plane/sample-set.js';
-import { UserError } from '../../src/cli/user-error.js';
+import { UserError } from '../../src/check/user-error.js';
 
 function message(fn: () => unknown): string {
   try {

@@ -5,7 +5,7 @@ import { pathToFileURL } from 'node:url';
 import { chmod, mkdir, readdir, readFile, statfs, writeFile } from 'node:fs/promises';
 import path from 'node:path';
 import { afterEach, beforeEach, describe, expect, it } from 'vitest';
-import { UserError } from '../../src/cli/user-error.js';
+import { UserError } from '../../src/check/user-error.js';
 import { checkFreeSpace, formatBytes } from '../../src/io/check-free-space.js';
 import { checkWritableDirectory } from '../../src/io/check-writable-directory.js';
 import { writeFileAtomic } from '../../src/io/write-file-atomic.js';

@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { UserError } from '../../src/cli/user-error.js';
+import { UserError } from '../../src/check/user-error.js';
 import { decimalToNumber, isDecimal, parseDecimal, parseDecimalPair } from '../../src/precise/decimal-string.js';
 
 describe('parseDecimal', () => {

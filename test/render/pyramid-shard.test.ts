@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { UserError } from '../../src/cli/user-error.js';
+import { UserError } from '../../src/check/user-error.js';
 import { shareSize } from '../../src/render/pyramid-run.js';
 import { parseShard, resolveShard } from '../../src/render/pyramid-shard.js';
 

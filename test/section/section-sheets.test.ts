@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { UserError } from '../../src/cli/user-error.js';
+import { UserError } from '../../src/check/user-error.js';
 import { compareRecord, parseCompareSheet } from '../../src/section/compare-sheet.js';
 import { diagramRecord, parseDiagramSheet } from '../../src/section/diagram-sheet.js';
 import { lyapunovRecord, parseLyapunovSheet } from '../../src/section/lyapunov-sheet.js';

@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { UserError } from '../../src/cli/user-error.js';
+import { UserError } from '../../src/check/user-error.js';
 import { parseSheet, printPixels } from '../../src/view/sheet.js';
 
 function errorOf(value: unknown): string {

@@ -8,7 +8,7 @@ import { Decimal } from 'decimal.js';
 import { cToR, rToC, xToZ, zToX } from '../../section/conjugacy.js';
 import { toPlaces } from '../../section/decimal-text.js';
 import { formatTable, type SectionTable } from '../../section/section-table.js';
-import { Received, UserError } from '../user-error.js';
+import { Received, UserError } from '../../check/user-error.js';
 import { addOptions, CSV_OPTION, digitsOption, guarded, JSON_OPTION, parseDecimal, parseInteger, tableFormat, type SectionOption, type Values, writeStdout } from './section-options.js';
 
 const DEFAULT_DIGITS = 30;

@@ -9,7 +9,7 @@ import type { Command } from 'commander';
 import { diagramRecord, parseDiagramSheet, type DiagramSheet } from '../../section/diagram-sheet.js';
 import { FAMILIES } from '../../section/families/index.js';
 import { reportWrote } from '../wrote.js';
-import { Received, UserError } from '../user-error.js';
+import { Received, UserError } from '../../check/user-error.js';
 import { toolVersion } from '../version.js';
 import { againOutput, loadSectionSheet } from './load-section-sheet.js';
 import { prepareOutput, sectionMetadata, writeSidecar } from './section-output.js';

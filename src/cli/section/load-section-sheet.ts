@@ -9,7 +9,7 @@ import { readPlateMetadata } from '../../io/plate-metadata.js';
 import type { Json } from '../../section/sheet-fields.js';
 import { migrateSheet, SHEET_SCHEMA, type SheetKind } from '../../view/sheet-kind.js';
 import { readSheetFile } from '../sheet-file.js';
-import { Received, UserError } from '../user-error.js';
+import { Received, UserError } from '../../check/user-error.js';
 import { toolVersion } from '../version.js';
 
 /** The command that renders a sheet of `kind`. */

@@ -11,7 +11,7 @@ import { FAMILIES } from '../../section/families/index.js';
 import type { FieldOrigin, Json } from '../../section/sheet-fields.js';
 import type { TableFormat } from '../../section/section-table.js';
 import type { UnimodalFamily } from '../../section/unimodal-family.js';
-import { Received, UserError } from '../user-error.js';
+import { Received, UserError } from '../../check/user-error.js';
 
 export type Values = Record<string, unknown>;
 

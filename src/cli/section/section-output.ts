@@ -8,7 +8,7 @@ import { mkdir, stat } from 'node:fs/promises';
 import path from 'node:path';
 import { writeFileAtomic } from '../../io/write-file-atomic.js';
 import type { Json } from '../../section/sheet-fields.js';
-import { Received, UserError } from '../user-error.js';
+import { Received, UserError } from '../../check/user-error.js';
 import { toolVersion } from '../version.js';
 
 /** The metadata JSON text: tool, version, derived values (for the reader), then the sheet. */

@@ -10,7 +10,7 @@ import type { Command } from 'commander';
 import { Decimal } from 'decimal.js';
 import { toExponent, toPlaces } from '../../section/decimal-text.js';
 import { formatTable, integerCell, numberCell, type Cell, type SectionTable } from '../../section/section-table.js';
-import { UserError } from '../user-error.js';
+import { UserError } from '../../check/user-error.js';
 import { addOptions, CSV_OPTION, digitsOption, FAMILY_OPTION, guarded, JSON_OPTION, parseFamily, parseInteger, tableFormat, type SectionOption, type Values, writeStdout } from './section-options.js';
 
 const DEFAULT_DIGITS = 15;
