@@ -20,9 +20,10 @@
  * The result never depends on worker count or chunk order: records are
  * written by pair index and grouped after sorting.
  */
-import { mapOnWorkers } from '../render/map-on-workers.js';
+import { mapOnWorkers } from '../threads/map-on-workers.js';
 import { landRays, RAY_RECORD } from './land-rays.js';
 import { lavaursSweep } from './lavaurs-sweep.js';
+import { builtWorkerUrl } from '../threads/built-worker.js';
 
 /** One component found by the census; c = nucleus, angles are numerators over 2^p - 1 (lower first). */
 export interface CensusComponent {
@@ -266,7 +267,7 @@ async function landAll(period: number, nums: Float64Array, careful: boolean, opt
     return out;
   }
   await mapOnWorkers<{ period: number; nums: Float64Array; careful: boolean }, { records: Float64Array }>(
-    censusWorkerUrl(),
+    builtWorkerUrl('census-worker'),
     chunks.length,
     (i) => ({ message: { period, nums: nums.slice(chunks[i]![0], chunks[i]![1]), careful } }),
     workers,
@@ -280,8 +281,3 @@ async function landAll(period: number, nums: Float64Array, careful: boolean, opt
   return out;
 }
 
-/** The built worker script: beside this file in dist/, or in dist/ when running from src/ (tests). */
-export function censusWorkerUrl(): URL {
-  const here = import.meta.url;
-  return here.endsWith('.ts') ? new URL('../../dist/src/components/census-worker.js', here) : new URL('./census-worker.js', here);
-}

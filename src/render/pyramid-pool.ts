@@ -6,14 +6,10 @@
  * replaced.
  */
 import { Worker } from 'node:worker_threads';
-import type { FromPyramidWorker, PyramidTileDoneMessage, PyramidTileMessage } from '../workers/pyramid-messages.js';
+import type { FromPyramidWorker, PyramidTileDoneMessage, PyramidTileMessage } from './pyramid-messages.js';
 import type { PyramidSpec } from './pyramid-job.js';
+import { builtWorkerUrl } from '../threads/built-worker.js';
 
-/** The built worker script: next to this file in dist/, or in dist/ when running from src/ (tests). */
-export function pyramidWorkerUrl(): URL {
-  const here = import.meta.url;
-  return here.endsWith('.ts') ? new URL('../../dist/src/workers/pyramid-worker.js', here) : new URL('../workers/pyramid-worker.js', here);
-}
 
 interface Pending {
   readonly message: PyramidTileMessage;
@@ -54,7 +50,7 @@ export class PyramidPool {
   }
 
   private spawn(): void {
-    const w = new Worker(pyramidWorkerUrl());
+    const w = new Worker(builtWorkerUrl('pyramid-worker'));
     this.all.add(w);
     w.on('message', (m: FromPyramidWorker) => this.onMessage(w, m));
     w.on('error', (e) => this.lost(w, e));

@@ -23,7 +23,7 @@ import { encodePixels } from '../colour/encode-pixels.js';
 import { layoutLegend, paintLegendRect, presentPeriods } from '../colour/legend.js';
 import type { RasterSink } from '../io/raster-sink.js';
 import { planStrips, type Strip } from '../view/tile-plan.js';
-import type { TileDoneMessage } from '../workers/messages.js';
+import type { TileDoneMessage } from './tile-messages.js';
 import { addStats, emptyStats, type PlateJob, type TileStats } from './plate-job.js';
 import { WorkerPool } from './worker-pool.js';
 

@@ -6,14 +6,10 @@
  */
 import { Worker } from 'node:worker_threads';
 import type { Tile } from '../view/tile-plan.js';
-import type { FromWorker, TileDoneMessage, ToWorker } from '../workers/messages.js';
+import type { FromWorker, TileDoneMessage, ToWorker } from './tile-messages.js';
 import type { PlateJob } from './plate-job.js';
+import { builtWorkerUrl } from '../threads/built-worker.js';
 
-/** The built worker script: next to this file in dist/, or in dist/ when running from src/ (tests). */
-export function workerScriptUrl(): URL {
-  const here = import.meta.url;
-  return here.endsWith('.ts') ? new URL('../../dist/src/workers/tile-worker.js', here) : new URL('../workers/tile-worker.js', here);
-}
 
 interface Pending {
   tile: Tile;
@@ -29,7 +25,7 @@ export class WorkerPool {
   private failure: Error | undefined;
 
   constructor(size: number, job: PlateJob) {
-    const url = workerScriptUrl();
+    const url = builtWorkerUrl('tile-worker');
     for (let i = 0; i < size; i++) {
       const w = new Worker(url);
       w.on('message', (m: FromWorker) => this.onMessage(w, m));

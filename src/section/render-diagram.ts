@@ -4,10 +4,19 @@
  * Block order and worker count never change the result (see
  * density-diagram.ts).
  */
-import { mapOnWorkers } from '../render/map-on-workers.js';
+import { mapOnWorkers } from '../threads/map-on-workers.js';
 import { diagramColumns, type DiagramSettings, type ParameterAxis } from './density-diagram.js';
-import type { DiagramJob } from './diagram-worker.js';
+import { builtWorkerUrl } from '../threads/built-worker.js';
 import type { UnimodalFamily } from './unimodal-family.js';
+
+/** One block of diagram columns, as sent to a diagram worker (src/workers/diagram-worker.ts). */
+export interface DiagramJob {
+  family: string;
+  axis: ParameterAxis;
+  settings: DiagramSettings;
+  col0: number;
+  col1: number;
+}
 
 const BLOCK = 32;
 
@@ -37,7 +46,7 @@ export async function renderDiagram(
     return image;
   }
   await mapOnWorkers<DiagramJob, { col0: number; out: Uint16Array }>(
-    new URL('./diagram-worker.js', import.meta.url),
+    builtWorkerUrl('diagram-worker'),
     blocks.length,
     (i) => ({ message: { family: family.name, axis, settings, col0: blocks[i]![0], col1: blocks[i]![1] } }),
     workers,

@@ -13,7 +13,7 @@ import { pickEscapeLoop } from '../render/pick-escape-loop.js';
 import { levelJob, pyramidSetup, type PyramidSetup } from '../render/pyramid-job.js';
 import { pyramidTileAt } from '../render/pyramid-plan.js';
 import { createTileScratch, renderTile, type TileScratch } from '../render/render-tile.js';
-import type { FromPyramidWorker, PyramidTileMessage } from './pyramid-messages.js';
+import type { FromPyramidWorker, PyramidTileMessage } from '../render/pyramid-messages.js';
 
 const port = parentPort;
 if (port === null) throw new Error('pyramid-worker must run in a worker thread');

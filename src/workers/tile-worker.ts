@@ -6,7 +6,7 @@ import { parentPort } from 'node:worker_threads';
 import { createTileScratch, renderTile, type TileScratch } from '../render/render-tile.js';
 import type { PlateJob } from '../render/plate-job.js';
 import { pickEscapeLoop } from '../render/pick-escape-loop.js';
-import type { FromWorker, ToWorker } from './messages.js';
+import type { FromWorker, ToWorker } from '../render/tile-messages.js';
 
 const port = parentPort;
 if (port === null) throw new Error('tile-worker must run in a worker thread');

@@ -19,12 +19,13 @@
  * outcome does not depend on worker count or order.
  */
 import type { CensusResult } from '../census.js';
-import { mapOnWorkers } from '../../render/map-on-workers.js';
+import { mapOnWorkers } from '../../threads/map-on-workers.js';
 import { centreOf, certifyChunk, CENTRE_RECORD } from './certify-chunk.js';
 import type { ChunkCertificates } from './certify-chunk.js';
 import { firstOverlap } from './disjoint-disks.js';
 import type { IntDisk } from './disjoint-disks.js';
 import { exactPeriodCount } from './exact-period-count.js';
+import { builtWorkerUrl } from '../../threads/built-worker.js';
 
 export interface CensusCertificate {
   readonly period: number;
@@ -118,7 +119,7 @@ async function certifyAll(period: number, centres: Float64Array, bits: number, o
     for (const s of starts) place(s, certifyChunk(period, centres.subarray(s * CENTRE_RECORD, Math.min(n, s + chunk) * CENTRE_RECORD), bits));
   } else {
     await mapOnWorkers<{ period: number; centres: Float64Array; bits: number }, ChunkCertificates>(
-      certifyWorkerUrl(),
+      builtWorkerUrl('certify-worker'),
       starts.length,
       (i) => ({ message: { period, centres: centres.slice(starts[i]! * CENTRE_RECORD, Math.min(n, starts[i]! + chunk) * CENTRE_RECORD), bits } }),
       workers,
@@ -128,8 +129,3 @@ async function certifyAll(period: number, centres: Float64Array, bits: number, o
   return { radii, reasons };
 }
 
-/** The built worker script: beside this file in dist/, or in dist/ when running from src/ (tests). */
-export function certifyWorkerUrl(): URL {
-  const here = import.meta.url;
-  return here.endsWith('.ts') ? new URL('../../../dist/src/components/certify/certify-worker.js', here) : new URL('./certify-worker.js', here);
-}

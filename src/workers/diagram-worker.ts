@@ -3,16 +3,9 @@
  * data, computes it with diagramColumns, and posts the ink back (transferred).
  */
 import { parentPort } from 'node:worker_threads';
-import { diagramColumns, type DiagramSettings, type ParameterAxis } from './density-diagram.js';
-import { FAMILIES } from './families/index.js';
-
-export interface DiagramJob {
-  family: string;
-  axis: ParameterAxis;
-  settings: DiagramSettings;
-  col0: number;
-  col1: number;
-}
+import { diagramColumns, type DiagramSettings, type ParameterAxis } from '../section/density-diagram.js';
+import { FAMILIES } from '../section/families/index.js';
+import type { DiagramJob } from '../section/render-diagram.js';
 
 parentPort?.on('message', (job: DiagramJob) => {
   const family = FAMILIES.get(job.family)!;

@@ -3,7 +3,7 @@
  * lands those rays (land-rays.ts) and posts back { records } (transferred).
  */
 import { parentPort } from 'node:worker_threads';
-import { landRays, RAY_RECORD } from './land-rays.js';
+import { landRays, RAY_RECORD } from '../components/land-rays.js';
 
 interface CensusChunk {
   period: number;

@@ -4,8 +4,8 @@
  * renders, encodes and writes the tile itself, so only small records cross
  * the thread boundary.
  */
-import type { TileStats } from '../render/plate-job.js';
-import type { PyramidSpec } from '../render/pyramid-job.js';
+import type { TileStats } from './plate-job.js';
+import type { PyramidSpec } from './pyramid-job.js';
 
 export interface PyramidTileMessage {
   readonly type: 'tile';

@@ -3,7 +3,7 @@
  * (src/workers/) exchange. Pixel and data arrays travel in transfer lists,
  * never by structured clone.
  */
-import type { PlateJob, TileStats } from '../render/plate-job.js';
+import type { PlateJob, TileStats } from './plate-job.js';
 import type { Tile } from '../view/tile-plan.js';
 
 export interface InitMessage {

@@ -3,7 +3,7 @@
  * { period, centres, bits } and posts back certify-chunk.ts's result.
  */
 import { parentPort } from 'node:worker_threads';
-import { certifyChunk } from './certify-chunk.js';
+import { certifyChunk } from '../components/certify/certify-chunk.js';
 
 interface CertifyJob {
   period: number;
