@@ -2,7 +2,7 @@
  * quadatlas as a library: the public API (re-exports only).
  */
 export { UserError } from './check/user-error.js';
-export { renderSheet, plateMetadata, type PlateSummary, type RenderSheetOptions } from './cli/render-sheet.js';
+export { renderSheet, plateMetadata, type PlateSummary, type RenderSheetOptions } from './render/render-sheet.js';
 export { parseSheet, renderRecord, type Sheet } from './view/sheet.js';
 export { doubleGrid, fitsDouble, pixelToC, type DoubleGrid, type View } from './view/view.js';
 export { planStrips, type Strip, type Tile } from './view/tile-plan.js';

@@ -2,7 +2,7 @@
 // layer, nothing but cli/ imports cli/, and no two files import each other,
 // directly or around a loop. Imports are read from the sources as text
 // (static `import ... from` and `export ... from`, and dynamic `import()`).
-import { readdirSync, readFileSync } from 'node:fs';
+import { existsSync, readdirSync, readFileSync } from 'node:fs';
 import path from 'node:path';
 import { describe, expect, it } from 'vitest';
 import { ROOT } from './helpers/run-cli.js';
@@ -75,6 +75,12 @@ describe('docs/architecture.md layer order', () => {
       }
     }
     expect(upward).toEqual([]);
+  });
+
+  it('every relative import names a file that exists', () => {
+    const missing: string[] = [];
+    for (const file of files) for (const { target } of importsOf(file)) if (!existsSync(target)) missing.push(`${path.relative(ROOT, file)} -> ${path.relative(ROOT, target)}`);
+    expect(missing).toEqual([]);
   });
 
   it('no import cycle between files (static imports; lazy import() excluded)', () => {

@@ -13,7 +13,7 @@ import { DEFAULT_COLOUR_SETTINGS, INTERIOR_STYLES, LEGEND_CORNERS, LEGEND_PLACEM
 import { EXTERIOR_GRADIENT_NAMES } from '../colour/exterior-gradients.js';
 import { gradientStopsFromText } from '../colour/gradient-stops.js';
 import { LEGEND_MIN_PIXELS } from '../colour/legend.js';
-import type { OptionSpec } from './plate-options.js';
+import type { OptionSpec } from './option-spec.js';
 import { Received, UserError } from '../check/user-error.js';
 
 const d = DEFAULT_COLOUR_SETTINGS;

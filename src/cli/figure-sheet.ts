@@ -78,7 +78,7 @@ export function parseFigureSheet(input: Record<string, unknown>, name: string): 
 
 /** Renders a figure sheet by running its command with the sheet's values; returns the files written. */
 export async function renderFigureSheet(sheet: FigureSheet): Promise<string[]> {
-  const { orbitFigure, cobwebFigure } = await import('./section-orbit.js');
+  const { orbitFigure, cobwebFigure } = await import('./section/orbit.js');
   const values = { ...sheet.values, out: sheet.output.file };
   if (sheet.kind === 'section-orbit') await orbitFigure(values);
   else await cobwebFigure(values);

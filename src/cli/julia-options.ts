@@ -4,7 +4,8 @@
  * interior colouring and the marks. Options of plates that mean nothing in
  * the dynamical plane are declared so they can be refused in one line.
  */
-import { attributeName, PLATE_OPTIONS, type OptionSpec } from './plate-options.js';
+import { attributeName, PLATE_OPTIONS } from './plate-options.js';
+import type { OptionSpec } from './option-spec.js';
 import { UserError } from '../check/user-error.js';
 
 /** Plate flags that have no meaning on a Julia plate. */

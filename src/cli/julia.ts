@@ -7,7 +7,7 @@ import type { Command } from 'commander';
 import { parseJuliaSheet } from '../view/julia-sheet.js';
 import { applyJuliaOptions, JULIA_OPTIONS } from './julia-options.js';
 import { parseCount, sheetFromPlate } from './plate.js';
-import { renderJuliaSheet } from './render-julia.js';
+import { renderJuliaSheet } from '../render/render-julia.js';
 import { readSheetFile, sheetName } from './sheet-file.js';
 import { UserError } from '../check/user-error.js';
 

@@ -14,7 +14,7 @@ import { addressOfAngle, addressText } from '../components/internal-address.js';
 import { nucleusDD } from '../components/fast-nucleus.js';
 import { findMisiurewicz } from '../components/misiurewicz.js';
 import { findNucleus } from '../components/nucleus.js';
-import { periodicNumerators } from '../components/census.js';
+import { periodicNumerators } from '../components/periodic-angles.js';
 import { traceRayDD } from '../components/trace-ray.js';
 import { parseDecimalPair } from '../precise/decimal-string.js';
 import { componentJson, componentLines, parseIntFlag } from './component-report.js';

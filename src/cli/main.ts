@@ -10,7 +10,7 @@ import { fileURLToPath } from 'node:url';
 import { Command, CommanderError } from 'commander';
 import { removeLiveTemps } from '../io/temp-path.js';
 import { UserError } from '../check/user-error.js';
-import { toolVersion } from './version.js';
+import { toolVersion } from '../io/tool-version.js';
 
 /** A command module registers itself on the program. */
 export interface CommandModule {

@@ -5,13 +5,7 @@
  */
 import { COLOUR_OPTIONS } from './colour-options.js';
 import { UserError } from '../check/user-error.js';
-
-export interface OptionSpec {
-  readonly flags: string;
-  readonly description: string;
-  /** Writes the flag's value into the raw sheet object (before validation). */
-  readonly apply?: (sheet: Record<string, unknown>, value: string) => void;
-}
+import type { OptionSpec } from './option-spec.js';
 
 function sub(sheet: Record<string, unknown>, key: string): Record<string, unknown> {
   const v = sheet[key];

@@ -9,10 +9,10 @@ import { parseSheet, type Sheet } from '../view/sheet.js';
 import { applyPlateOptions, nameTheFlag, PLATE_OPTIONS } from './plate-options.js';
 import { quickSheet } from './quick.js';
 import { reportWrote } from './wrote.js';
-import { renderSheet } from './render-sheet.js';
+import { renderSheet } from '../render/render-sheet.js';
 import { readSheetFile, sheetName } from './sheet-file.js';
 import { Received, UserError } from '../check/user-error.js';
-import { toolVersion } from './version.js';
+import { toolVersion } from '../io/tool-version.js';
 
 /**
  * The sheet recorded in a file quadatlas wrote (PNG, TIFF, SVG or JSON

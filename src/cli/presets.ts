@@ -8,14 +8,14 @@ import { parseSheet, sheetRecord, type Sheet } from '../view/sheet.js';
 import { juliaSheetRecord } from '../view/julia-sheet.js';
 import { parseCount } from './plate.js';
 import { presetsDir } from './presets-dir.js';
-import { renderSheet } from './render-sheet.js';
+import { renderSheet } from '../render/render-sheet.js';
 import { parseJuliaSheet, type JuliaSheet } from '../view/julia-sheet.js';
-import { renderJuliaSheet } from './render-julia.js';
+import { renderJuliaSheet } from '../render/render-julia.js';
 import { figureSheetRecord, isFigureKind, parseFigureSheet, renderFigureSheet, type FigureSheet } from './figure-sheet.js';
 import { readSheetFile, sheetName } from './sheet-file.js';
 import { UserError } from '../check/user-error.js';
 import { quickSheet } from './quick.js';
-import { toolVersion } from './version.js';
+import { toolVersion } from '../io/tool-version.js';
 import { reportWrote } from './wrote.js';
 
 interface Entry {

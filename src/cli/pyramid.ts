@@ -12,14 +12,15 @@ import os from 'node:os';
 import path from 'node:path';
 import { pathToFileURL } from 'node:url';
 import { checkFreeSpace } from '../io/check-free-space.js';
-import { iiifInfo, iiifTilePath, type TileFormat } from '../io/iiif-info.js';
+import { iiifInfo, iiifTilePath } from '../io/iiif-info.js';
 import { preparePyramidDir, pyramidKey, readPyramidSpec, MANIFEST_NAME } from '../io/iiif-manifest.js';
 import { tileFileSize } from '../io/iiif-tile-file.js';
 import { checkTileTree, TILES_FOLDER, writeIiifInfo } from '../io/iiif-tree.js';
 import { writeViewer } from '../io/viewer-page.js';
 import { createProgress } from '../render/progress.js';
-import { pyramidSetup, pyramidSpec, sameSpec, type PyramidSetup, type PyramidSpec } from '../render/pyramid-job.js';
-import { pyramidTileAt } from '../render/pyramid-plan.js';
+import { pyramidSetup, type PyramidSetup } from '../render/pyramid-job.js';
+import { pyramidSpec, sameSpec, type PyramidSpec, type TileFormat } from '../view/pyramid-spec.js';
+import { pyramidTileAt } from '../view/pyramid-plan.js';
 import { PyramidPool } from '../render/pyramid-pool.js';
 import { renderPyramidShare, shareSize } from '../render/pyramid-run.js';
 import { resolveShard, type Shard } from '../render/pyramid-shard.js';
@@ -27,10 +28,11 @@ import { parseSheet, type Sheet } from '../view/sheet.js';
 import { DOUBLE_MIN_RELATIVE_SPACING, fitsDouble } from '../view/view.js';
 import { parseCount, sheetFromPlate } from './plate.js';
 import { COLOUR_OPTIONS } from './colour-options.js';
-import { applyPlateOptions, attributeName, PLATE_OPTIONS, type OptionSpec } from './plate-options.js';
+import { applyPlateOptions, attributeName, PLATE_OPTIONS } from './plate-options.js';
+import type { OptionSpec } from './option-spec.js';
 import { readSheetFile, sheetName } from './sheet-file.js';
 import { Received, UserError } from '../check/user-error.js';
-import { toolVersion } from './version.js';
+import { toolVersion } from '../io/tool-version.js';
 import { quickSheet } from './quick.js';
 import { reportWrote } from './wrote.js';
 
@@ -84,7 +86,7 @@ function parseFormat(v: unknown): TileFormat {
 }
 
 function checkDouble(s: PyramidSetup): void {
-  if (s.arithmetic === 'double' && !fitsDouble(s.baseGrid)) {
+  if (s.arithmetic.arithmetic === 'double' && !fitsDouble(s.baseGrid)) {
     const g = s.baseGrid;
     const reach = Math.max(1, Math.abs(g.centerRe), Math.abs(g.centerIm));
     const minSpan = s.sheet.width * DOUBLE_MIN_RELATIVE_SPACING * reach;

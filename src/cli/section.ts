@@ -1,8 +1,7 @@
 /**
  * `quadatlas section ...`: the real slice. Each subcommand lives in its own
  * file under ./section/ and registers itself here; the mathematics lives in
- * src/section/. The shared flag parsers are re-exported for callers that
- * used them from here.
+ * src/section/.
  */
 import type { Command } from 'commander';
 import { register as registerCascade } from './section/cascade.js';
@@ -11,13 +10,8 @@ import { register as registerConvert } from './section/convert.js';
 import { register as registerDiagram } from './section/diagram.js';
 import { register as registerLyapunov } from './section/lyapunov.js';
 import { register as registerWindows } from './section/windows.js';
-import { registerOrbitCommands } from './section-orbit.js';
+import { registerOrbitCommands } from './section/orbit.js';
 
-export { convertTable } from './section/convert.js';
-export { cascadeTable } from './section/cascade.js';
-export { windowsTable } from './section/windows.js';
-export { parseDecimal, parseFamily, parseInteger, tableFormat } from './section/section-options.js';
-export { landmarks } from '../section/landmarks.js';
 
 export function register(program: Command): void {
   const section = program.command('section').description('the real slice: convert, cascade, windows, lyapunov, diagram, compare, orbit, cobweb');

@@ -9,11 +9,11 @@
 import type { Command } from 'commander';
 import os from 'node:os';
 import { pyramidKey, readPyramidSpec } from '../io/iiif-manifest.js';
-import type { PyramidSpec } from '../render/pyramid-job.js';
+import type { PyramidSpec } from '../view/pyramid-spec.js';
 import { PyramidPool } from '../render/pyramid-pool.js';
 import { checkRedis, connectionOptions, parseRedisUrl, QUEUE_NAME, type TileJob, type TileJobResult } from '../render/pyramid-queue.js';
 import { parseCount } from './plate.js';
-import type { OptionSpec } from './plate-options.js';
+import type { OptionSpec } from './option-spec.js';
 import { UserError } from '../check/user-error.js';
 
 export const WORKER_OPTIONS: readonly OptionSpec[] = [

@@ -13,7 +13,7 @@
  * One sweep per period with a stack of open chords finds the gaps; the tests
  * check the result against lavaursPairs for small periods.
  */
-import { periodicNumerators } from './census.js';
+import { periodicNumerators } from './periodic-angles.js';
 
 /** The period-p pairs as numerators over 2^p - 1: lo[i] < hi[i], ascending in lo. */
 export interface LavaursSweep {

@@ -7,7 +7,7 @@
  * Source: P. Lavaurs, C. R. Acad. Sci. Paris 303 (1986) 143-146 (docs/methods.md D2).
  * Quadratic in the number of angles: meant for periods up to about 12.
  */
-import { periodicNumerators } from './census.js';
+import { periodicNumerators } from './periodic-angles.js';
 
 /** A pair of angles as numerators over 2^p - 1. */
 export interface AnglePair {

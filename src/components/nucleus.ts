@@ -21,7 +21,7 @@
 import { bitLength, bitsForDigits, fixedScale, fromDecimal, fromNumber, toDecimal, toNumber } from '../precise/fixed.js';
 import type { FixedScale } from '../precise/fixed.js';
 import { NewtonError } from './newton-error.js';
-import { properDivisors } from './census.js';
+import { properDivisors } from './periodic-angles.js';
 
 /** A complex number as two decimal strings. */
 export interface ComplexDecimal {

@@ -9,9 +9,8 @@
  * else `w,h`; rotation `0`; quality `default`. These are the URLs
  * OpenSeadragon 6's IIIFTileSource builds for a version 3 level-0 service.
  */
-import type { PyramidPlan, PyramidTile } from '../render/pyramid-plan.js';
-
-export type TileFormat = 'png' | 'jpg';
+import type { PyramidPlan, PyramidTile } from '../view/pyramid-plan.js';
+import type { TileFormat } from '../view/pyramid-spec.js';
 
 export const IIIF_CONTEXT = 'http://iiif.io/api/image/3/context.json';
 export const IIIF_PROTOCOL = 'http://iiif.io/api/image';

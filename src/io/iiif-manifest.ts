@@ -9,7 +9,7 @@ import { createHash } from 'node:crypto';
 import { mkdir, readdir, readFile } from 'node:fs/promises';
 import path from 'node:path';
 import { Received, UserError } from '../check/user-error.js';
-import { sameSpec, type PyramidSpec } from '../render/pyramid-job.js';
+import { sameSpec, type PyramidSpec } from '../view/pyramid-spec.js';
 import { writeFileAtomic } from './write-file-atomic.js';
 
 export const MANIFEST_NAME = 'pyramid.json';

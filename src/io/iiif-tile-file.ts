@@ -14,7 +14,7 @@ import { deflateSync } from 'node:zlib';
 import { ihdrChunk, PNG_SIGNATURE, pngChunk, srgbChunks } from './png-chunk.js';
 import { filterScanline } from './png-filter.js';
 import { releaseTemp, tempPathFor } from './temp-path.js';
-import type { TileFormat } from './iiif-info.js';
+import type { TileFormat } from '../view/pyramid-spec.js';
 
 /**
  * An 8-bit RGB PNG of the tile (PNG spec, W3C 2nd ed.): IHDR, sRGB with gAMA

@@ -5,10 +5,11 @@
  * may not fetch JSON).
  */
 import path from 'node:path';
-import { iiifTilePath, type IiifInfo, type TileFormat } from './iiif-info.js';
+import { iiifTilePath, type IiifInfo } from './iiif-info.js';
+import type { TileFormat } from '../view/pyramid-spec.js';
 import { tileFileSize } from './iiif-tile-file.js';
 import { writeFileAtomic } from './write-file-atomic.js';
-import { pyramidTileAt, type PyramidPlan } from '../render/pyramid-plan.js';
+import { pyramidTileAt, type PyramidPlan } from '../view/pyramid-plan.js';
 
 export const TILES_FOLDER = 'tiles';
 /** The global name info.js assigns (read by the viewer page). */

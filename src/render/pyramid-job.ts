@@ -19,39 +19,12 @@
  * base's pixels) but makes each coarse tile wait for four finished finer
  * tiles and read them back; see docs/pyramids.md for the measured difference.
  */
-import { periodTolerance } from '../cli/render-sheet.js';
-import { DEFAULT_ESCAPE_RADIUS } from '../plane/sample-parameters.js';
-import type { TileFormat } from '../io/iiif-info.js';
-import { resolveIterations, parseSheet, renderRecord, type Sheet } from '../view/sheet.js';
+import { resolveIterations, parseSheet, type Sheet } from '../view/sheet.js';
+import type { PyramidSpec } from '../view/pyramid-spec.js';
 import { doubleGrid, type DoubleGrid } from '../view/view.js';
 import type { PlateJob } from './plate-job.js';
-import { deepPlan, type DeepPlan } from '../plane/deep-plan.js';
-import { prepareDeepJob } from './deep-job.js';
-import { referenceBits } from '../precise/reference-orbit.js';
-import { planPyramid, type PyramidPlan } from './pyramid-plan.js';
-
-export interface PyramidSpec {
-  readonly tool: 'quadatlas';
-  readonly kind: 'pyramid';
-  /** The quadatlas version that started the pyramid (a different version may give different bytes). */
-  readonly version: string;
-  /** renderRecord of the sheet: everything that fixes the pixels. */
-  readonly sheet: Record<string, unknown>;
-  readonly tileSize: number;
-  readonly format: TileFormat;
-  /** JPEG quality (recorded for PNG too, where it has no effect). */
-  readonly quality: number;
-}
-
-export function pyramidSpec(sheet: Sheet, tileSize: number, format: TileFormat, quality: number, version: string): PyramidSpec {
-  return { tool: 'quadatlas', kind: 'pyramid', version, sheet: renderRecord(sheet, version), tileSize, format, quality };
-}
-
-/** The parts of two specs that decide the pixels and paths (everything but the version). */
-export function sameSpec(a: PyramidSpec, b: PyramidSpec): boolean {
-  const key = (s: PyramidSpec): string => JSON.stringify([s.sheet, s.tileSize, s.format, s.format === 'jpg' ? s.quality : 0]);
-  return key(a) === key(b);
-}
+import { sheetArithmetic, sheetJob, type SheetArithmetic } from './sheet-job.js';
+import { planPyramid, type PyramidPlan } from '../view/pyramid-plan.js';
 
 /** Everything a renderer needs, derived once from a spec. */
 export interface PyramidSetup {
@@ -60,16 +33,13 @@ export interface PyramidSetup {
   readonly plan: PyramidPlan;
   readonly baseGrid: DoubleGrid;
   /** Arithmetic for every level, decided at the base (the finest level); deep levels share its precision. */
-  readonly arithmetic: 'double' | 'deep';
-  readonly deepPlan: DeepPlan;
+  readonly arithmetic: SheetArithmetic;
 }
 
 export function pyramidSetup(spec: PyramidSpec): PyramidSetup {
   const sheet = parseSheet(spec.sheet, 'pyramid');
   const view = { centerRe: sheet.view.re, centerIm: sheet.view.im, span: sheet.view.span, width: sheet.width, height: sheet.height, rotation: sheet.view.rotation };
-  const deep = deepPlan({ re: sheet.view.re, im: sheet.view.im }, sheet.view.span, sheet.width);
-  const arithmetic = sheet.arithmetic === 'auto' ? deep.arithmetic : sheet.arithmetic;
-  return { spec, sheet, plan: planPyramid(sheet.width, sheet.height, spec.tileSize), baseGrid: doubleGrid(view), arithmetic, deepPlan: deep };
+  return { spec, sheet, plan: planPyramid(sheet.width, sheet.height, spec.tileSize), baseGrid: doubleGrid(view), arithmetic: sheetArithmetic(sheet) };
 }
 
 /**
@@ -82,30 +52,6 @@ export function pyramidSetup(spec: PyramidSpec): PyramidSetup {
 export function levelJob(setup: PyramidSetup, scale: number): PlateJob {
   const { sheet, baseGrid } = setup;
   const grid: DoubleGrid = { ...baseGrid, spacing: baseGrid.spacing * scale, width: baseGrid.width / scale, height: baseGrid.height / scale };
-  const iterations = resolveIterations(sheet);
   // Deep levels: the same reference and precision as the base, the level's own pixel geometry.
-  const deep =
-    setup.arithmetic === 'deep'
-      ? prepareDeepJob(
-          { re: sheet.view.re, im: sheet.view.im, span: sheet.view.span, rotation: sheet.view.rotation, width: grid.width, height: grid.height },
-          setup.deepPlan.bits > 0 ? setup.deepPlan.bits : referenceBits(sheet.view.span, sheet.width),
-          setup.deepPlan.unitExponent,
-          iterations,
-          DEFAULT_ESCAPE_RADIUS,
-          sheet.skip,
-          sheet.reference ?? undefined,
-        ).job
-      : undefined;
-  return {
-    ...(deep === undefined ? {} : { deep }),
-    grid,
-    iterations,
-    escapeRadius: DEFAULT_ESCAPE_RADIUS,
-    periodTolerance: periodTolerance(grid.spacing),
-    samples: sheet.samples,
-    depth: 8,
-    colour: sheet.colour,
-    dpi: sheet.dpi,
-    withData: false,
-  };
+  return sheetJob(sheet, grid, resolveIterations(sheet), setup.arithmetic, { depth: 8, withData: false }).job;
 }

@@ -5,7 +5,7 @@
  * the thread boundary.
  */
 import type { TileStats } from './plate-job.js';
-import type { PyramidSpec } from './pyramid-job.js';
+import type { PyramidSpec } from '../view/pyramid-spec.js';
 
 export interface PyramidTileMessage {
   readonly type: 'tile';

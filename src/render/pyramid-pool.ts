@@ -7,7 +7,7 @@
  */
 import { Worker } from 'node:worker_threads';
 import type { FromPyramidWorker, PyramidTileDoneMessage, PyramidTileMessage } from './pyramid-messages.js';
-import type { PyramidSpec } from './pyramid-job.js';
+import type { PyramidSpec } from '../view/pyramid-spec.js';
 import { builtWorkerUrl } from '../threads/built-worker.js';
 
 

@@ -5,7 +5,7 @@
  * workers, which is what makes an interrupted run resumable.
  */
 import { addStats, emptyStats, type TileStats } from './plate-job.js';
-import type { PyramidSpec } from './pyramid-job.js';
+import type { PyramidSpec } from '../view/pyramid-spec.js';
 import type { PyramidPool } from './pyramid-pool.js';
 import type { Shard } from './pyramid-shard.js';
 

@@ -11,7 +11,7 @@ import { encodeTile, tileFileSize, writeTileFile } from '../io/iiif-tile-file.js
 import { emptyStats, type PlateJob } from '../render/plate-job.js';
 import { pickEscapeLoop } from '../render/pick-escape-loop.js';
 import { levelJob, pyramidSetup, type PyramidSetup } from '../render/pyramid-job.js';
-import { pyramidTileAt } from '../render/pyramid-plan.js';
+import { pyramidTileAt } from '../view/pyramid-plan.js';
 import { createTileScratch, renderTile, type TileScratch } from '../render/render-tile.js';
 import type { FromPyramidWorker, PyramidTileMessage } from '../render/pyramid-messages.js';
 

@@ -1,7 +1,8 @@
 import { existsSync } from 'node:fs';
 import path from 'node:path';
 import { describe, expect, it } from 'vitest';
-import { convertTable, parseFamily, parseInteger, tableFormat } from '../../src/cli/section.js';
+import { convertTable } from '../../src/cli/section/convert.js';
+import { parseFamily, parseInteger, tableFormat } from '../../src/cli/section/section-options.js';
 import { CASCADE_OPTIONS } from '../../src/cli/section/cascade.js';
 import { COMPARE_OPTIONS } from '../../src/cli/section/compare.js';
 import { CONVERT_OPTIONS } from '../../src/cli/section/convert.js';

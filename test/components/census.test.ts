@@ -1,5 +1,6 @@
 import { describe, expect, it } from 'vitest';
-import { census, distinctNuclei, periodicNumerators } from '../../src/components/census.js';
+import { census, distinctNuclei } from '../../src/components/census.js';
+import { periodicNumerators } from '../../src/components/periodic-angles.js';
 import { landRays, RAY_RECORD } from '../../src/components/land-rays.js';
 import { lavaursSweep } from '../../src/components/lavaurs-sweep.js';
 

@@ -2,7 +2,7 @@ import { PNG } from 'pngjs';
 import { describe, expect, it } from 'vitest';
 import { iiifInfo, iiifTilePath } from '../../src/io/iiif-info.js';
 import { encodePngTile } from '../../src/io/iiif-tile-file.js';
-import { planPyramid, pyramidTileAt } from '../../src/render/pyramid-plan.js';
+import { planPyramid, pyramidTileAt } from '../../src/view/pyramid-plan.js';
 
 describe('iiifTilePath', () => {
   it('iiifTilePath writes {region}/{size}/0/default.{format} with region x,y,w,h and size w,h', () => {

@@ -1,6 +1,7 @@
 import { describe, expect, it } from 'vitest';
 import type { PlateJob } from '../../src/render/plate-job.js';
-import { levelJob, pyramidSetup, pyramidSpec } from '../../src/render/pyramid-job.js';
+import { levelJob, pyramidSetup } from '../../src/render/pyramid-job.js';
+import { pyramidSpec } from '../../src/view/pyramid-spec.js';
 import { createTileScratch, renderTile } from '../../src/render/render-tile.js';
 import { parseSheet } from '../../src/view/sheet.js';
 import { pixelToC } from '../../src/view/view.js';

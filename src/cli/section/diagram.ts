@@ -10,7 +10,7 @@ import { diagramRecord, parseDiagramSheet, type DiagramSheet } from '../../secti
 import { FAMILIES } from '../../section/families/index.js';
 import { reportWrote } from '../wrote.js';
 import { Received, UserError } from '../../check/user-error.js';
-import { toolVersion } from '../version.js';
+import { toolVersion } from '../../io/tool-version.js';
 import { againOutput, loadSectionSheet } from './load-section-sheet.js';
 import { prepareOutput, sectionMetadata, writeSidecar } from './section-output.js';
 import { addOptions, againOption, applySectionFlags, clearProgress, FAMILY_OPTION, guarded, integerText, NO_SIDECAR_OPTION, parseWorkers, progressLine, sizeText, WORKERS_OPTION, type SectionOption, type Values } from './section-options.js';

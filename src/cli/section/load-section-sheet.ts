@@ -10,7 +10,7 @@ import type { Json } from '../../section/sheet-fields.js';
 import { migrateSheet, SHEET_SCHEMA, type SheetKind } from '../../view/sheet-kind.js';
 import { readSheetFile } from '../sheet-file.js';
 import { Received, UserError } from '../../check/user-error.js';
-import { toolVersion } from '../version.js';
+import { toolVersion } from '../../io/tool-version.js';
 
 /** The command that renders a sheet of `kind`. */
 export function commandFor(kind: SheetKind): string {

@@ -9,7 +9,7 @@ import path from 'node:path';
 import { writeFileAtomic } from '../../io/write-file-atomic.js';
 import type { Json } from '../../section/sheet-fields.js';
 import { Received, UserError } from '../../check/user-error.js';
-import { toolVersion } from '../version.js';
+import { toolVersion } from '../../io/tool-version.js';
 
 /** The metadata JSON text: tool, version, derived values (for the reader), then the sheet. */
 export function sectionMetadata(record: Json, derived: Json = {}): string {

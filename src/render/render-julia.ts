@@ -9,9 +9,9 @@ import { findJuliaCycle, type JuliaCycle } from '../dynamic/julia-cycle.js';
 import { fixedPoints } from '../dynamic/fixed-points.js';
 import { juliaTrap } from '../dynamic/julia-trap.js';
 import { DEFAULT_ESCAPE_RADIUS } from '../plane/sample-parameters.js';
-import { juliaMarks } from '../render/julia-marks.js';
-import type { PlateJob } from '../render/plate-job.js';
-import { DEFAULT_TILE_SIZE } from '../render/render-plate.js';
+import { juliaMarks } from './julia-marks.js';
+import type { PlateJob } from './plate-job.js';
+import { DEFAULT_TILE_SIZE } from './render-plate.js';
 import { cardioidPoint, juliaRenderRecord, type JuliaSheet } from '../view/julia-sheet.js';
 import { resolveIterations } from '../view/sheet.js';
 import { doubleGrid, fitsDouble } from '../view/view.js';
@@ -21,7 +21,7 @@ import { referenceBits } from '../precise/reference-orbit.js';
 import type { JuliaReferences } from '../dynamic/sample-julia-deep.js';
 import { writePlate, type PlateSummary, type RenderSheetOptions } from './render-sheet.js';
 import { UserError } from '../check/user-error.js';
-import { toolVersion } from './version.js';
+import { toolVersion } from '../io/tool-version.js';
 
 /** The metadata JSON stored in a Julia plate: tool, version and the sheet that fixes its pixels. */
 export function juliaMetadata(sheet: JuliaSheet, iterations: number, arithmetic: 'double' | 'deep' = 'double', bits = 53): string {

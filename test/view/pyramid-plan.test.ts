@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { planPyramid, pyramidTileAt } from '../../src/render/pyramid-plan.js';
+import { planPyramid, pyramidTileAt } from '../../src/view/pyramid-plan.js';
 
 describe('planPyramid', () => {
   it('planPyramid(1000, 700, 256) has levels 250x175, 500x350, 1000x700 with 1 + 4 + 12 tiles', () => {

@@ -18,19 +18,17 @@ import { openTiffSink } from '../io/tiff-sink.js';
 import { writeFileAtomic } from '../io/write-file-atomic.js';
 import { legendBounds, legendSvg, presentPeriods } from '../colour/legend.js';
 import { DEFAULT_ESCAPE_RADIUS } from '../plane/sample-parameters.js';
-import type { PlateJob, TileStats } from '../render/plate-job.js';
-import { createProgress } from '../render/progress.js';
-import { bytesPerPixel, DEFAULT_STRIP_BUDGET, DEFAULT_TILE_SIZE, renderPlate, type DataSink, type PlateSinks } from '../render/render-plate.js';
+import type { PlateJob, TileStats } from './plate-job.js';
+import { createProgress } from './progress.js';
+import { bytesPerPixel, DEFAULT_STRIP_BUDGET, DEFAULT_TILE_SIZE, renderPlate, type DataSink, type PlateSinks } from './render-plate.js';
 import { renderRecord, resolveIterations, type Sheet } from '../view/sheet.js';
-import { deepPlan } from '../plane/deep-plan.js';
-import { referenceBits } from '../precise/reference-orbit.js';
-import { prepareDeepJob } from '../render/deep-job.js';
+import { sheetArithmetic, sheetJob } from './sheet-job.js';
 import { doubleGrid, fitsDouble, pixelToC, type DoubleGrid, type View } from '../view/view.js';
 import { componentsInBox } from '../components/components-in-box.js';
 import type { Legend } from '../colour/legend.js';
 import { labelHeightPixels, layoutPeriodLabels } from '../colour/period-labels.js';
 import { Received, UserError } from '../check/user-error.js';
-import { toolVersion } from './version.js';
+import { toolVersion } from '../io/tool-version.js';
 
 export interface RenderSheetOptions {
   readonly workers?: number;
@@ -72,11 +70,6 @@ export function plateMetadata(sheet: Sheet, derived: { arithmetic: 'double' | 'd
 
 function round3(x: number): number {
   return Math.round(x * 1000) / 1000;
-}
-
-/** Periodicity tolerance in z units from the pixel spacing (methods.md A4: tie it to the spacing). */
-export function periodTolerance(spacing: number): number {
-  return Math.min(1e-6, Math.max(spacing * 1e-3, 1e-15));
 }
 
 /** An output name that is an existing directory is refused before any work (it would fail at the final rename). */
@@ -148,12 +141,11 @@ export async function renderSheet(sheet: Sheet, options: RenderSheetOptions = {}
   const view = { centerRe: sheet.view.re, centerIm: sheet.view.im, span: sheet.view.span, width: sheet.width, height: sheet.height, rotation: sheet.view.rotation };
   const grid = doubleGrid(view);
   const iterations = resolveIterations(sheet);
-  const plan = deepPlan({ re: sheet.view.re, im: sheet.view.im }, sheet.view.span, sheet.width);
-  const arithmetic = sheet.arithmetic === 'auto' ? plan.arithmetic : sheet.arithmetic;
+  const arith = sheetArithmetic(sheet);
+  const { arithmetic, plan, bits } = arith;
   if (arithmetic === 'double' && !fitsDouble(grid)) {
     process.stderr.write('quadatlas: note: doubles cannot resolve this view; the plate is forced to double arithmetic and will be wrong\n');
   }
-  const bits = arithmetic === 'deep' ? (plan.bits > 0 ? plan.bits : referenceBits(sheet.view.span, sheet.width)) : 0;
   if (arithmetic === 'deep') {
     // Reference orbit (16 bytes an iteration) and table (about 170 bytes an iteration) live in memory.
     const perIteration = 16 + (sheet.skip ? 170 : 0);
@@ -167,33 +159,13 @@ export async function renderSheet(sheet: Sheet, options: RenderSheetOptions = {}
   const tileSize = options.tileSize ?? DEFAULT_TILE_SIZE;
   // Periods never exceed the iteration limit, which bounds the legend's number width.
   const bounds = legendBounds(sheet.colour, sheet.width, sheet.height, sheet.dpi, String(iterations).length);
-  let job: PlateJob = {
+  const { job, referenceSeconds, tableSeconds } = sheetJob(sheet, grid, iterations, arith, {
     ...(bounds === null ? {} : { legendBounds: bounds }),
-    grid,
-    iterations,
-    escapeRadius: DEFAULT_ESCAPE_RADIUS,
-    periodTolerance: periodTolerance(grid.spacing),
-    samples: sheet.samples,
     depth: sheet.depth,
-    colour: sheet.colour,
-    dpi: sheet.dpi,
     withData: sheet.output.data !== null,
     labels: sheet.labels > 0 ? await periodLabels(grid, sheet.labels, sheet.dpi, workers) : [],
-  };
-  let deepTimes = { reference: 0, table: 0 };
-  if (arithmetic === 'deep') {
-    const prepared = prepareDeepJob(
-      { re: sheet.view.re, im: sheet.view.im, span: sheet.view.span, rotation: sheet.view.rotation, width: sheet.width, height: sheet.height },
-      bits,
-      plan.unitExponent,
-      iterations,
-      DEFAULT_ESCAPE_RADIUS,
-      sheet.skip,
-      sheet.reference ?? undefined,
-    );
-    job = { ...job, deep: prepared.job };
-    deepTimes = { reference: prepared.referenceSeconds, table: prepared.tableSeconds };
-  }
+  });
+  const deepTimes = { reference: referenceSeconds, table: tableSeconds };
 
   const metadata = plateMetadata(sheet, { arithmetic, bits, iterations });
   const precision = arithmetic === 'deep' ? { referenceBits: bits, unitExponent: plan.unitExponent, reference: sheet.reference ?? { re: sheet.view.re, im: sheet.view.im, period: 0 }, referenceSeconds: round3(deepTimes.reference), tableSeconds: round3(deepTimes.table) } : { referenceBits: 53 };

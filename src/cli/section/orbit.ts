@@ -4,11 +4,11 @@
  * orbit-figures.ts, writes the table and the figure.
  */
 import type { Command } from 'commander';
-import { classifyOrbit, DEFAULT_CLASSIFY, orbit, type OrbitClass } from '../section/orbit.js';
-import type { SectionTable } from '../section/section-table.js';
-import type { UnimodalFamily } from '../section/unimodal-family.js';
-import { Received, UserError } from '../check/user-error.js';
-import { parseDecimal, parseFamily, parseInteger, tableFormat } from './section.js';
+import { classifyOrbit, DEFAULT_CLASSIFY, orbit, type OrbitClass } from '../../section/orbit.js';
+import type { SectionTable } from '../../section/section-table.js';
+import type { UnimodalFamily } from '../../section/unimodal-family.js';
+import { Received, UserError } from '../../check/user-error.js';
+import { parseDecimal, parseFamily, parseInteger, tableFormat } from './section-options.js';
 
 type Values = Record<string, unknown>;
 
@@ -93,7 +93,7 @@ export async function orbitRun(values: Values): Promise<OrbitRun> {
   const summary: Array<{ name: string; value: string; note?: string }> = [];
   const orbits: Record<string, unknown>[] = [];
   const series: Array<{ r: string; values: Float64Array }> = [];
-  const { preciseOrbit } = precise ? await import('../section/precise-orbit.js') : { preciseOrbit: undefined };
+  const { preciseOrbit } = precise ? await import('../../section/precise-orbit.js') : { preciseOrbit: undefined };
   for (const r of rs) {
     const cls = classifyOrbit(family, Number(r), Number(x0));
     const all = orbit(family, Number(r), Number(x0), transient + iterations);
@@ -134,11 +134,11 @@ function parseOut(value: unknown, fallback: string): string {
   return file;
 }
 
-async function writeFigure(file: string, svg: (lettering?: import('../section/orbit-figures.js').Lettering) => string): Promise<void> {
-  const { writeFileAtomic } = await import('../io/write-file-atomic.js');
+async function writeFigure(file: string, svg: (lettering?: import('../../section/orbit-figures.js').Lettering) => string): Promise<void> {
+  const { writeFileAtomic } = await import('../../io/write-file-atomic.js');
   let body: string | Uint8Array;
   if (/\.png$/i.test(file)) {
-    const { BITMAP_LETTERING } = await import('../section/bitmap-lettering.js');
+    const { BITMAP_LETTERING } = await import('../../section/bitmap-lettering.js');
     const sharp = (await import('sharp')).default;
     body = await sharp(Buffer.from(svg(BITMAP_LETTERING)), { density: 144 }).png().toBuffer();
   } else body = svg();
@@ -149,7 +149,7 @@ async function writeFigure(file: string, svg: (lettering?: import('../section/or
   }
 }
 
-export async function cobwebRun(values: Values): Promise<{ table: SectionTable; svg: (l?: import('../section/orbit-figures.js').Lettering) => string }> {
+export async function cobwebRun(values: Values): Promise<{ table: SectionTable; svg: (l?: import('../../section/orbit-figures.js').Lettering) => string }> {
   const family = parseFamily(values['family']);
   if (typeof values['r'] !== 'string' || values['r'].includes(',')) throw new UserError('--r', 'one parameter R', values['r']);
   const r = parseParameter(values['r'], family);
@@ -167,10 +167,10 @@ export async function cobwebRun(values: Values): Promise<{ table: SectionTable; 
   const cls = classifyOrbit(family, rv, Number(x0));
   // Points of the attracting cycle are fixed points of f^K exactly when the period divides K.
   const marks = cls.kind === 'cycle' && cls.stability === 'attracting' ? [...cls.cycle] : [];
-  const { cobwebSvg } = await import('../section/orbit-figures.js');
+  const { cobwebSvg } = await import('../../section/orbit-figures.js');
   const p = family.parameter;
   const label = K === 1 ? 'f(x)' : `f^${K}(x)`;
-  const svg = (lettering?: import('../section/orbit-figures.js').Lettering): string =>
+  const svg = (lettering?: import('../../section/orbit-figures.js').Lettering): string =>
     cobwebSvg(
       {
         title: `Cobweb of ${family.formula.replace('x -> ', 'f(x) = ')}${K > 1 ? `, iterate ${K}` : ''}, ${p} = ${r}, x_0 = ${x0}`,
@@ -207,7 +207,7 @@ export function registerOrbitCommands(section: Command): void {
   out(orbitCmd).action(async (values: Values) => {
     const format = tableFormat(values);
     const run = await orbitFigure(values);
-    const { formatTable } = await import('../section/section-table.js');
+    const { formatTable } = await import('../../section/section-table.js');
     process.stdout.write(formatTable(run.table, format));
   });
   const cobweb = section
@@ -223,7 +223,7 @@ export function registerOrbitCommands(section: Command): void {
   out(cobweb).action(async (values: Values) => {
     const format = tableFormat(values);
     const run = await cobwebFigure(values);
-    const { formatTable } = await import('../section/section-table.js');
+    const { formatTable } = await import('../../section/section-table.js');
     process.stdout.write(formatTable(run.table, format));
   });
 }
@@ -233,7 +233,7 @@ export async function orbitFigure(values: Values): Promise<OrbitRun> {
   const file = values['out'] === undefined ? null : parseOut(values['out'], '');
   const run = await orbitRun(values);
   if (file !== null) {
-    const { orbitPlotSvg } = await import('../section/orbit-figures.js');
+    const { orbitPlotSvg } = await import('../../section/orbit-figures.js');
     const p = run.family.parameter;
     await writeFigure(file, (lettering) =>
       orbitPlotSvg({ title: `Orbits of ${run.family.formula} from x_0 = ${run.x0}`, series: run.series.map((s) => ({ label: `${p} = ${s.r}`, values: s.values })), yRange: run.family.stateRange, first: run.first }, lettering),
