@@ -7,14 +7,6 @@ import type { ComponentInfo } from '../components/component-info.js';
 import { angleText } from '../components/external-angle.js';
 import { addressText } from '../components/internal-address.js';
 
-/** Parses an integer flag in [min, max]. */
-export function parseIntFlag(value: unknown, field: string, min: number, max: number): number {
-  const t = typeof value === 'string' ? value.trim() : value;
-  const n = typeof t === 'string' && /^[+-]?\d+$/.test(t) ? Number(t) : typeof t === 'number' ? t : Number.NaN;
-  if (!Number.isInteger(n) || n < min || n > max) throw new UserError(field, `an integer between ${min} and ${max}`, value);
-  return n;
-}
-
 /** Parses "RE0,IM0,RE1,IM1" into a box with re0 < re1, im0 < im1. */
 export function parseBox(value: unknown, field: string): { re0: number; im0: number; re1: number; im1: number } {
   const parts = typeof value === 'string' ? value.split(',').map((s) => s.trim()) : [];

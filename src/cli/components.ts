@@ -12,9 +12,10 @@ import type { CensusComponent } from '../components/census.js';
 import { componentInfo, mersenneAngle } from '../components/component-info.js';
 import type { ComponentInfo } from '../components/component-info.js';
 import { findNucleus } from '../components/nucleus.js';
-import { parseBox, parseIntFlag, componentJson } from './component-report.js';
+import { parseBox, componentJson } from './component-report.js';
 import { certifyListing, MAX_CERTIFY_PERIOD, reportCensusCertificate } from './certify-report.js';
 import { UserError } from '../check/user-error.js';
+import { parseInteger } from '../check/fields.js';
 
 /** Longest listing period (the listing refines every nucleus and root to D digits). */
 export const MAX_LIST_PERIOD = 16;
@@ -35,12 +36,12 @@ export function register(program: Command): void {
     .action(async (o: Record<string, unknown>) => {
       const count = o['count'] === true;
       const certify = o['certify'] === true;
-      const period = parseIntFlag(o['period'], '--period', 1, count ? MAX_CENSUS_PERIOD : MAX_LIST_PERIOD);
+      const period = parseInteger(o['period'], '--period', 1, count ? MAX_CENSUS_PERIOD : MAX_LIST_PERIOD);
       if (certify && period > MAX_CERTIFY_PERIOD) {
         throw new UserError('--period', `a period of at most ${MAX_CERTIFY_PERIOD} with --certify (every certified disk is kept in memory; period ${period} would need about ${Math.ceil((2 ** (period - 1) * 400) / 2 ** 30)} GB)`, period);
       }
-      const digits = parseIntFlag(o['digits'], '--digits', 1, 2000);
-      const workers = o['workers'] === undefined ? availableParallelism() : parseIntFlag(o['workers'], '--workers', 0, 256);
+      const digits = parseInteger(o['digits'], '--digits', 1, 2000);
+      const workers = o['workers'] === undefined ? availableParallelism() : parseInteger(o['workers'], '--workers', 0, 256);
       const box = o['within'] === undefined ? null : parseBox(o['within'], '--within');
       if (o['json'] === true && o['csv'] === true) throw new UserError('--json, --csv', 'one of --json or --csv', '--json --csv');
       const t0 = performance.now();

@@ -6,10 +6,11 @@
 import type { Command } from 'commander';
 import { parseJuliaSheet } from '../view/julia-sheet.js';
 import { applyJuliaOptions, JULIA_OPTIONS } from './julia-options.js';
-import { parseCount, sheetFromPlate } from './plate.js';
+import { sheetFromPlate } from './plate.js';
 import { renderJuliaSheet } from '../render/render-julia.js';
 import { readSheetFile, sheetName } from './sheet-file.js';
 import { UserError } from '../check/user-error.js';
+import { optionalInteger } from '../check/fields.js';
 
 export function register(program: Command): void {
   const cmd = program
@@ -40,8 +41,8 @@ export function register(program: Command): void {
       throw new UserError('--c', 'a parameter --c RE,IM (or --cardioid-angle THETA, or a sheet holding c)', values['c']);
     }
     const sheet = parseJuliaSheet(applyJuliaOptions(raw, values), name);
-    const workers = parseCount(values['workers'], '--workers', 1, 256);
-    const tileSize = parseCount(values['tileSize'], '--tile-size', 8, 1024);
+    const workers = optionalInteger(values['workers'], '--workers', 1, 256);
+    const tileSize = optionalInteger(values['tileSize'], '--tile-size', 8, 1024);
     const summary = await renderJuliaSheet(sheet, { ...(workers === undefined ? {} : { workers }), ...(tileSize === undefined ? {} : { tileSize }) });
     if (values['json'] === true) process.stdout.write(`${JSON.stringify(summary, null, 2)}\n`);
     else process.stderr.write(`wrote ${summary.files.join(', ')} (${summary.seconds} s)\n`);

@@ -17,10 +17,11 @@ import { findNucleus } from '../components/nucleus.js';
 import { periodicNumerators } from '../components/periodic-angles.js';
 import { traceRayDD } from '../components/trace-ray.js';
 import { parseDecimalPair } from '../precise/decimal-string.js';
-import { componentJson, componentLines, parseIntFlag } from './component-report.js';
+import { componentJson, componentLines } from './component-report.js';
 import { juliaCommandLine } from './julia-command.js';
 import { UserError } from '../check/user-error.js';
 import { certifyLocated } from './certify-report.js';
+import { parseInteger } from '../check/fields.js';
 
 /** Longest period for --angle (the ray is traced in double-double) and for --address (angles are enumerated). */
 export const MAX_ANGLE_PERIOD = 60;
@@ -38,10 +39,10 @@ export function register(program: Command): void {
     .option('--certify', 'prove the nucleus and the root, disks holding exactly one solution each (default: computed, not proved)')
     .option('--json', 'JSON output (default: aligned text)')
     .action(async (o: Record<string, unknown>) => {
-      const digits = parseIntFlag(o['digits'], '--digits', 1, 5000);
+      const digits = parseInteger(o['digits'], '--digits', 1, 5000);
       const given = ['near', 'angle', 'address'].filter((k) => o[k] !== undefined);
       if (given.length !== 1) throw new UserError('locate', 'exactly one of --near, --angle or --address', given.length === 0 ? 'none' : given.map((g) => `--${g}`).join(' '));
-      const period = o['period'] === undefined ? null : parseIntFlag(o['period'], '--period', 1, 100_000);
+      const period = o['period'] === undefined ? null : parseInteger(o['period'], '--period', 1, 100_000);
       let out: Record<string, unknown>;
       let lines: string[];
       let located: ComponentInfo | null = null;

@@ -113,12 +113,26 @@ const OWN_SIGNAL_HANDLING = new Set(['worker']);
  * (nothing half-written stays behind; a later run also removes those of a
  * killed process) and exits with 128 + the signal number.
  */
+/** Sweeps of the temporary files after a signal, 20 ms apart, before the process exits. */
+const SIGNAL_SWEEPS = 5;
+let stopping = false;
+
 function removeTempsOnSignal(): void {
   for (const [signal, code] of [['SIGINT', 130], ['SIGTERM', 143]] as const) {
     process.on(signal, () => {
+      if (stopping) return;
+      stopping = true;
       removeLiveTemps();
       process.stderr.write(`\nquadatlas: stopped by ${signal}; partial files removed\n`);
-      process.exit(code);
+      // Opens already in flight may still create a registered file: sweep a few more times, then exit.
+      let sweeps = 0;
+      const timer = setInterval(() => {
+        removeLiveTemps();
+        if (++sweeps === SIGNAL_SWEEPS) {
+          clearInterval(timer);
+          process.exit(code);
+        }
+      }, 20);
     });
   }
 }

@@ -6,6 +6,7 @@
 import { COLOUR_OPTIONS } from './colour-options.js';
 import { UserError } from '../check/user-error.js';
 import type { OptionSpec } from './option-spec.js';
+import { parseSize } from '../check/fields.js';
 
 function sub(sheet: Record<string, unknown>, key: string): Record<string, unknown> {
   const v = sheet[key];
@@ -22,13 +23,6 @@ function integer(value: string, field: string): number | string {
 function number(value: string): number | string {
   const n = Number(value);
   return value.trim() !== '' && Number.isFinite(n) ? n : value;
-}
-
-/** "WxH" with optional unit suffix, e.g. "1600x1200" or "420x297mm". */
-export function parsePair(value: string, field: string, unit = ''): [number, number] {
-  const m = new RegExp(`^\\s*(\\d+(?:\\.\\d+)?)\\s*[xX]\\s*(\\d+(?:\\.\\d+)?)\\s*${unit}\\s*$`).exec(value);
-  if (!m) throw new UserError(field, `a size written WxH${unit} (e.g. ${unit === 'mm' ? '420x297mm' : '1600x1200'})`, value);
-  return [Number(m[1]), Number(m[2])];
 }
 
 export const PLATE_OPTIONS: readonly OptionSpec[] = [
@@ -49,7 +43,7 @@ export const PLATE_OPTIONS: readonly OptionSpec[] = [
     flags: '--size <WxH>',
     description: 'image size in pixels WxH, e.g. 1600x1200 (default 1200x900; sheet pixels)',
     apply: (s, v) => {
-      const [w, h] = parsePair(v, '--size');
+      const [w, h] = parseSize(v, '--size');
       delete s['print'];
       s['pixels'] = { width: w, height: h };
     },
@@ -58,7 +52,7 @@ export const PLATE_OPTIONS: readonly OptionSpec[] = [
     flags: '--print <WxHmm>',
     description: 'print size in millimetres WxHmm, e.g. 420x297mm; pixels follow from --dpi (default: use --size; sheet print)',
     apply: (s, v) => {
-      const [w, h] = parsePair(v, '--print', 'mm');
+      const [w, h] = parseSize(v, '--print', 'mm');
       delete s['pixels'];
       s['print'] = { width_mm: w, height_mm: h };
     },

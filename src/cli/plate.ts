@@ -13,6 +13,7 @@ import { renderSheet } from '../render/render-sheet.js';
 import { readSheetFile, sheetName } from './sheet-file.js';
 import { Received, UserError } from '../check/user-error.js';
 import { toolVersion } from '../io/tool-version.js';
+import { optionalInteger } from '../check/fields.js';
 
 /**
  * The sheet recorded in a file quadatlas wrote (PNG, TIFF, SVG or JSON
@@ -32,13 +33,6 @@ export async function sheetFromPlate(file: string, field = '--again'): Promise<R
     process.stderr.write(`quadatlas: note: ${file} was written by quadatlas ${meta.version ?? '?'}; this is ${toolVersion()}, so bytes may differ\n`);
   }
   return meta.sheet;
-}
-
-export function parseCount(value: unknown, field: string, min: number, max: number): number | undefined {
-  if (value === undefined) return undefined;
-  const n = typeof value === 'string' && /^\d+$/.test(value.trim()) ? Number(value) : NaN;
-  if (!Number.isInteger(n) || n < min || n > max) throw new UserError(field, `an integer between ${min} and ${max}`, value);
-  return n;
 }
 
 export function register(program: Command): void {
@@ -66,8 +60,8 @@ export function register(program: Command): void {
       raw = {};
     }
     delete raw['startup'];
-    const workers = parseCount(values['workers'], '--workers', 1, 256);
-    const tileSize = parseCount(values['tileSize'], '--tile-size', 8, 1024);
+    const workers = optionalInteger(values['workers'], '--workers', 1, 256);
+    const tileSize = optionalInteger(values['tileSize'], '--tile-size', 8, 1024);
     let summary;
     try {
       const sheet: Sheet = quickSheet(parseSheet(applyPlateOptions(raw, values), name));

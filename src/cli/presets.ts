@@ -6,7 +6,6 @@ import path from 'node:path';
 import type { Command } from 'commander';
 import { parseSheet, sheetRecord, type Sheet } from '../view/sheet.js';
 import { juliaSheetRecord } from '../view/julia-sheet.js';
-import { parseCount } from './plate.js';
 import { presetsDir } from './presets-dir.js';
 import { renderSheet } from '../render/render-sheet.js';
 import { parseJuliaSheet, type JuliaSheet } from '../view/julia-sheet.js';
@@ -17,6 +16,7 @@ import { UserError } from '../check/user-error.js';
 import { quickSheet } from './quick.js';
 import { toolVersion } from '../io/tool-version.js';
 import { reportWrote } from './wrote.js';
+import { optionalInteger } from '../check/fields.js';
 
 interface Entry {
   name: string;
@@ -104,7 +104,7 @@ export function register(program: Command): void {
         chosen = [];
         for (const e of all) if ((await load(e)).startup) chosen.push(e);
       }
-      const workers = parseCount(opts.workers, '--workers', 1, 256);
+      const workers = optionalInteger(opts.workers, '--workers', 1, 256);
       for (const e of chosen) {
         let sheet = await load(e);
         if (!('values' in sheet)) sheet = quickSheet(sheet);

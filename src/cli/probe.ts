@@ -19,10 +19,11 @@ const WINDOW_PERIODS = 10;
 import { componentInfo } from '../components/component-info.js';
 import { findNucleus } from '../components/nucleus.js';
 import { decimalToNumber, parseDecimalPair } from '../precise/decimal-string.js';
-import { componentJson, componentLines, parseIntFlag, significant } from './component-report.js';
+import { componentJson, componentLines, significant } from './component-report.js';
 import { juliaCommandLine } from './julia-command.js';
 import { criticalOrbit } from '../dynamic/critical-orbit.js';
 import { findJuliaCycle } from '../dynamic/julia-cycle.js';
+import { parseInteger } from '../check/fields.js';
 
 const ESCAPE_RADIUS = 1e6;
 
@@ -39,9 +40,9 @@ export function register(program: Command): void {
     .option('--json', 'JSON output (default: aligned text)')
     .action(async (first: string, second: string | undefined, o: Record<string, unknown>) => {
       const c = parseDecimalPair(second === undefined ? first : `${first},${second}`, 'c');
-      const digits = parseIntFlag(o['digits'], '--digits', 1, 2000);
-      const iterations = parseIntFlag(o['iterations'], '--iterations', 1, 100_000_000);
-      const maxPeriod = parseIntFlag(o['maxPeriod'], '--max-period', 1, 100_000);
+      const digits = parseInteger(o['digits'], '--digits', 1, 2000);
+      const iterations = parseInteger(o['iterations'], '--iterations', 1, 100_000_000);
+      const maxPeriod = parseInteger(o['maxPeriod'], '--max-period', 1, 100_000);
       const cr = decimalToNumber(c.re);
       const ci = decimalToNumber(c.im);
       const out: Record<string, unknown> = { c: { re: c.re.text, im: c.im.text } };
@@ -122,7 +123,7 @@ export function register(program: Command): void {
         }
       }
       if (o['orbit'] !== undefined) {
-        const count = parseIntFlag(o['orbit'], 'orbit', 1, 100_000);
+        const count = parseInteger(o['orbit'], 'orbit', 1, 100_000);
         const zs = criticalOrbit(cr, ci, count);
         const points = [];
         for (let k = 0; k + 1 < zs.length; k += 2) points.push({ re: zs[k]!, im: zs[k + 1]! });

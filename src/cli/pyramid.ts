@@ -26,7 +26,7 @@ import { renderPyramidShare, shareSize } from '../render/pyramid-run.js';
 import { resolveShard, type Shard } from '../render/pyramid-shard.js';
 import { parseSheet, type Sheet } from '../view/sheet.js';
 import { DOUBLE_MIN_RELATIVE_SPACING, fitsDouble } from '../view/view.js';
-import { parseCount, sheetFromPlate } from './plate.js';
+import { sheetFromPlate } from './plate.js';
 import { COLOUR_OPTIONS } from './colour-options.js';
 import { applyPlateOptions, attributeName, PLATE_OPTIONS } from './plate-options.js';
 import type { OptionSpec } from './option-spec.js';
@@ -35,6 +35,7 @@ import { Received, UserError } from '../check/user-error.js';
 import { toolVersion } from '../io/tool-version.js';
 import { quickSheet } from './quick.js';
 import { reportWrote } from './wrote.js';
+import { optionalInteger } from '../check/fields.js';
 
 /** Plate flags that mean the same for a pyramid. */
 const SHARED = [
@@ -160,10 +161,10 @@ export async function runPyramid(sheetFile: string | undefined, values: Record<s
   const given = await sheetFrom(sheetFile, values);
   const dir = path.resolve(typeof values['outDir'] === 'string' ? values['outDir'] : `out/${given?.name ?? 'pyramid'}-pyramid`);
   const baseUrl = parseBaseUrl(values['baseUrl']);
-  const workers = parseCount(values['workers'], '--workers', 1, 256) ?? os.availableParallelism();
-  const tileSize = parseCount(values['tileSize'], '--tile-size', 16, 4096) ?? DEFAULT_PYRAMID_TILE;
+  const workers = optionalInteger(values['workers'], '--workers', 1, 256) ?? os.availableParallelism();
+  const tileSize = optionalInteger(values['tileSize'], '--tile-size', 16, 4096) ?? DEFAULT_PYRAMID_TILE;
   const format = parseFormat(values['format']);
-  const quality = parseCount(values['quality'], '--quality', 1, 100) ?? 90;
+  const quality = optionalInteger(values['quality'], '--quality', 1, 100) ?? 90;
   const queueUrl = typeof values['queue'] === 'string' ? values['queue'] : undefined;
   const isFinish = values['finish'] === true;
 

@@ -12,9 +12,9 @@ import { pyramidKey, readPyramidSpec } from '../io/iiif-manifest.js';
 import type { PyramidSpec } from '../view/pyramid-spec.js';
 import { PyramidPool } from '../render/pyramid-pool.js';
 import { checkRedis, connectionOptions, parseRedisUrl, QUEUE_NAME, type TileJob, type TileJobResult } from '../render/pyramid-queue.js';
-import { parseCount } from './plate.js';
 import type { OptionSpec } from './option-spec.js';
 import { UserError } from '../check/user-error.js';
+import { optionalInteger } from '../check/fields.js';
 
 export const WORKER_OPTIONS: readonly OptionSpec[] = [
   { flags: '--queue <url>', description: 'the Redis queue to take tiles from, redis://host:port (required, no default)' },
@@ -35,8 +35,8 @@ function failOnce(): Set<number> {
 export async function runWorker(values: Record<string, unknown>): Promise<Record<string, unknown>> {
   if (typeof values['queue'] !== 'string') throw new UserError('--queue', 'a Redis URL redis://HOST:PORT', values['queue']);
   const target = parseRedisUrl(values['queue']);
-  const threads = parseCount(values['workers'], '--workers', 1, 256) ?? os.availableParallelism();
-  const idleExit = parseCount(values['idleExit'], '--idle-exit', 1, 7 * 24 * 3600);
+  const threads = optionalInteger(values['workers'], '--workers', 1, 256) ?? os.availableParallelism();
+  const idleExit = optionalInteger(values['idleExit'], '--idle-exit', 1, 7 * 24 * 3600);
   await checkRedis(target);
   const started = Date.now();
   const name = `${os.hostname()}:${process.pid}`;

@@ -95,10 +95,14 @@ function removeOwnUnder(dir: string): void {
   }
 }
 
-/** Removes every temporary file this process still holds (synchronously: for signal handlers). */
+/**
+ * Removes every temporary file this process still holds (synchronously: for
+ * signal handlers). The names stay registered: a name handed out just before
+ * the signal may have its file created a moment later by an open still in
+ * flight, so the handler calls this again before it exits.
+ */
 export function removeLiveTemps(): void {
   for (const tmp of live) rmSync(tmp, { recursive: true, force: true });
-  live.clear();
   for (const dir of roots) removeOwnUnder(dir);
 }
 

@@ -12,6 +12,7 @@ import { Decimal } from 'decimal.js';
 import { buildBlaTable, shareBlaTable, type BlaTable } from '../plane/bla-table.js';
 import type { DeepGeometry } from '../plane/deep-offsets.js';
 import { computeReferenceOrbit, referenceOffset, shareReferenceOrbit, type ReferenceOrbit } from '../precise/reference-orbit.js';
+import { rotationCosSin } from '../view/view.js';
 
 export interface DeepJob {
   readonly reference: ReferenceOrbit;
@@ -69,11 +70,7 @@ export function prepareDeepJob(
   // Offset of the view centre from the reference (exact, 0 when the reference is the centre).
   const centreOffset = referenceOffset(orbit, { re: view.re, im: view.im }, unitExponent);
   const spacing = scaled(new D(view.span).div(view.width), unitExponent);
-  const turn = (view.rotation * Math.PI) / 180;
-  const q = (((view.rotation / 90) % 4) + 4) % 4;
-  const quarter = view.rotation % 90 === 0;
-  const cos = quarter ? [1, 0, -1, 0][q]! : Math.cos(turn);
-  const sin = quarter ? [0, 1, 0, -1][q]! : Math.sin(turn);
+  const { cos, sin } = rotationCosSin(view.rotation);
   // Pixel (0, 0) centre relative to the view centre: u = (0.5 - W/2) s, v = (H/2 - 0.5) s.
   const u0 = (0.5 - view.width / 2) * spacing;
   const v0 = (view.height / 2 - 0.5) * spacing;

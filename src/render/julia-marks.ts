@@ -5,7 +5,7 @@ import { dynamicRay, rayAngle, DEFAULT_RAY_OPTIONS } from '../dynamic/dynamic-ra
 import { fixedPoints } from '../dynamic/fixed-points.js';
 import type { JuliaCycle } from '../dynamic/julia-cycle.js';
 import type { JuliaMarks } from '../view/julia-sheet.js';
-import type { DoubleGrid } from '../view/view.js';
+import { cToPixel, type DoubleGrid } from '../view/view.js';
 
 /** Levels a drawn ray is traced to (potential 2^-48 ln R: well below a pixel at any double-precision view). */
 export const RAY_DEPTH = 48;
@@ -22,16 +22,9 @@ function colour(hex: string): [number, number, number] {
   return [c[0]!, c[1]!, c[2]!];
 }
 
-/** Plate pixel coordinates of z (the inverse of pixelToC, continuous coordinates). */
-export function zToPixel(grid: DoubleGrid, re: number, im: number): [number, number] {
-  const u = re - grid.centerRe;
-  const v = im - grid.centerIm;
-  return [grid.width / 2 + (u * grid.cos + v * grid.sin) / grid.spacing, grid.height / 2 - (-u * grid.sin + v * grid.cos) / grid.spacing];
-}
-
 function toPixels(grid: DoubleGrid, zs: readonly number[]): number[] {
   const out: number[] = [];
-  for (let i = 0; i + 1 < zs.length; i += 2) out.push(...zToPixel(grid, zs[i]!, zs[i + 1]!));
+  for (let i = 0; i + 1 < zs.length; i += 2) out.push(...cToPixel(grid, zs[i]!, zs[i + 1]!));
   return out;
 }
 
@@ -54,7 +47,7 @@ export function juliaMarks(marks: JuliaMarks, grid: DoubleGrid, dpi: number, cRe
   const record: Record<string, unknown> = {};
   const ink = colour(INK);
   const ringed = (re: number, im: number, radiusMm: number, fill: string): void => {
-    const [x, y] = zToPixel(grid, re, im);
+    const [x, y] = cToPixel(grid, re, im);
     strokes.push({ shape: 'disc', points: [x, y], size: radiusMm * mm + 0.18 * mm, colour: ink, alpha: 1 });
     strokes.push({ shape: 'disc', points: [x, y], size: radiusMm * mm, colour: colour(fill), alpha: 1 });
   };
@@ -79,7 +72,7 @@ export function juliaMarks(marks: JuliaMarks, grid: DoubleGrid, dpi: number, cRe
   }
   if (marks.cycle && cycle.pointsRe.length > 0) {
     for (let j = 0; j < cycle.pointsRe.length; j++) {
-      const [x, y] = zToPixel(grid, cycle.pointsRe[j]!, cycle.pointsIm[j]!);
+      const [x, y] = cToPixel(grid, cycle.pointsRe[j]!, cycle.pointsIm[j]!);
       strokes.push({ shape: 'ring', points: [x, y, 1.1 * mm], size: 0.55 * mm, colour: ink, alpha: 1 });
       strokes.push({ shape: 'ring', points: [x, y, 1.1 * mm], size: 0.28 * mm, colour: colour(CYCLE), alpha: 1 });
     }

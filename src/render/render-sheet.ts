@@ -23,7 +23,7 @@ import { createProgress } from './progress.js';
 import { bytesPerPixel, DEFAULT_STRIP_BUDGET, DEFAULT_TILE_SIZE, renderPlate, type DataSink, type PlateSinks } from './render-plate.js';
 import { renderRecord, resolveIterations, type Sheet } from '../view/sheet.js';
 import { sheetArithmetic, sheetJob } from './sheet-job.js';
-import { doubleGrid, fitsDouble, pixelToC, type DoubleGrid, type View } from '../view/view.js';
+import { cToPixel, doubleGrid, fitsDouble, pixelToC, type DoubleGrid, type View } from '../view/view.js';
 import { componentsInBox } from '../components/components-in-box.js';
 import type { Legend } from '../colour/legend.js';
 import { labelHeightPixels, layoutPeriodLabels } from '../colour/period-labels.js';
@@ -110,9 +110,8 @@ async function periodLabels(grid: DoubleGrid, maxPeriod: number, dpi: number, wo
   const minSize = 2 * labelHeightPixels(dpi) * grid.spacing;
   const nuclei = await componentsInBox({ min: 1, max: maxPeriod }, box, minSize, { workers });
   const points = nuclei.map((n) => {
-    const u = n.re - grid.centerRe;
-    const v = n.im - grid.centerIm;
-    return { period: n.period, x: grid.width / 2 + (u * grid.cos + v * grid.sin) / grid.spacing, y: grid.height / 2 - (-u * grid.sin + v * grid.cos) / grid.spacing };
+    const [x, y] = cToPixel(grid, n.re, n.im);
+    return { period: n.period, x, y };
   });
   return layoutPeriodLabels(points, dpi, grid.width, grid.height);
 }

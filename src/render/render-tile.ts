@@ -33,6 +33,7 @@ import type { EscapeLoop } from '../plane/escape-loop.js';
 import { sampleDeep, type DeepStats } from '../plane/deep-sample.js';
 import type { Tile } from '../view/tile-plan.js';
 import { emptyStats, type PlateJob, type TileStats } from './plate-job.js';
+import { pixelsToC } from '../view/view.js';
 
 /** Refine where the distance estimate is below this many pixels (methods.md F1: "DE < ~2 px"). */
 export const REFINE_DISTANCE_PIXELS = 2;
@@ -132,22 +133,12 @@ function evaluate(job: PlateJob, xs: Float64Array, ys: Float64Array, n: number, 
   const spacing = grid.spacing;
   if (job.julia?.deep !== undefined) {
     // Offsets from the view centre (the reference), in z units.
-    for (let k = 0; k < n; k++) {
-      const u = (xs[k]! - grid.width / 2) * spacing;
-      const v = (grid.height / 2 - ys[k]!) * spacing;
-      cr[k] = u * grid.cos - v * grid.sin;
-      ci[k] = u * grid.sin + v * grid.cos;
-    }
+    pixelsToC(grid, xs, ys, n, cr, ci, true);
     const { cRe, cIm, trap } = job.julia;
     sampleJuliaDeep(cr, ci, n, { cRe, cIm, maxIterations: job.iterations, escapeRadius: job.escapeRadius }, trap, job.julia.deep, out);
     return;
   }
-  for (let k = 0; k < n; k++) {
-    const u = (xs[k]! - grid.width / 2) * spacing;
-    const v = (grid.height / 2 - ys[k]!) * spacing;
-    cr[k] = grid.centerRe + (u * grid.cos - v * grid.sin);
-    ci[k] = grid.centerIm + (u * grid.sin + v * grid.cos);
-  }
+  pixelsToC(grid, xs, ys, n, cr, ci);
   if (job.julia !== undefined) {
     const { cRe, cIm, trap } = job.julia;
     sampleJulia(cr, ci, n, { cRe, cIm, maxIterations: job.iterations, escapeRadius: job.escapeRadius }, trap, out);

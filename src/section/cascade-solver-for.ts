@@ -11,8 +11,9 @@
 import type { Decimal } from 'decimal.js';
 import { findBoundaryPoint } from '../components/boundary-point.js';
 import { findNucleus } from '../components/nucleus.js';
-import { familySolver, NoConvergenceError, type CascadeSolver } from './cascade-solver.js';
+import { familySolver, type CascadeSolver } from './cascade-solver.js';
 import type { UnimodalFamily } from './unimodal-family.js';
+import { ConvergenceError } from '../check/fields.js';
 
 export interface ChosenSolver {
   solver: CascadeSolver;
@@ -34,7 +35,7 @@ export function cascadeSolverFor(family: UnimodalFamily, digits: number): Chosen
       try {
         found = findNucleus(period, { re: toC(guess.toString(), digits + 8), im: '0' }, digits + 8);
       } catch (err) {
-        throw new NoConvergenceError(`nucleus of period ${period} near r = ${guess.toString()}: ${(err as Error).message}`);
+        throw new ConvergenceError(`nucleus of period ${period} near r = ${guess.toString()}: ${(err as Error).message}`);
       }
       return { value: new D(fromC(found.nucleus.re, digits + 8)), steps: found.steps };
     },
@@ -43,7 +44,7 @@ export function cascadeSolverFor(family: UnimodalFamily, digits: number): Chosen
       try {
         point = findBoundaryPoint(period, { re: toC(nucleus.toString(), digits + 8), im: '0' }, { re: -1, im: 0 }, digits + 8);
       } catch (err) {
-        throw new NoConvergenceError(`doubling point of period ${period} near r = ${guess.toString()}: ${(err as Error).message}`);
+        throw new ConvergenceError(`doubling point of period ${period} near r = ${guess.toString()}: ${(err as Error).message}`);
       }
       return { value: new D(fromC(point.re, digits + 8)), steps: 0 };
     },

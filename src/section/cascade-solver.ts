@@ -6,6 +6,7 @@
 import type { Decimal } from 'decimal.js';
 import { iterateFamily, multiplierParameter, superstableParameter, workingDecimal } from './real-newton.js';
 import type { DecimalCtor, UnimodalFamily } from './unimodal-family.js';
+import { ConvergenceError } from '../check/fields.js';
 
 export interface SolvedParameter {
   value: Decimal;
@@ -26,11 +27,6 @@ export interface CascadeSolver {
   gap(half: number, p: Decimal): Decimal;
 }
 
-/** Thrown when Newton does not settle; the CLI reports it as a failed computation. */
-export class NoConvergenceError extends Error {
-  override readonly name = 'NoConvergenceError';
-}
-
 /** The generic solver for any family, in the family's own parameter. */
 export function familySolver(family: UnimodalFamily, digits: number): CascadeSolver {
   const D = workingDecimal(digits);
@@ -40,7 +36,7 @@ export function familySolver(family: UnimodalFamily, digits: number): CascadeSol
     deltaGuess: family.deltaGuess,
     superstable(period, guess) {
       const res = superstableParameter(family, period, guess.toString(), digits);
-      if (!res.converged) throw new NoConvergenceError(`superstable parameter of period ${period} did not converge from ${guess.toString()}`);
+      if (!res.converged) throw new ConvergenceError(`superstable parameter of period ${period} did not converge from ${guess.toString()}`);
       return { value: new D(res.r), steps: res.steps };
     },
     doubling(period, guess) {
@@ -48,7 +44,7 @@ export function familySolver(family: UnimodalFamily, digits: number): CascadeSol
       // critical point itself, where the Jacobian of a flat maximum (x^4) vanishes.
       const x0 = iterateFamily(family, new D(family.critical), guess, period, D);
       const res = multiplierParameter(family, period, -1, guess.toString(), x0.toString(), digits);
-      if (!res.converged) throw new NoConvergenceError(`period doubling of period ${period} did not converge from ${guess.toString()}`);
+      if (!res.converged) throw new ConvergenceError(`period doubling of period ${period} did not converge from ${guess.toString()}`);
       return { value: new D(res.r), steps: res.steps };
     },
     gap(half, p) {

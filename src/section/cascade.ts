@@ -14,8 +14,9 @@
  */
 import type { Decimal } from 'decimal.js';
 import { accelerate, type Accelerated } from './accelerate.js';
-import { NoConvergenceError, type CascadeSolver } from './cascade-solver.js';
+import type { CascadeSolver } from './cascade-solver.js';
 import type { DecimalCtor } from './unimodal-family.js';
+import { ConvergenceError } from '../check/fields.js';
 
 export interface CascadeLevel {
   /** Level n: the cycle of period 2^n. */
@@ -70,7 +71,7 @@ export function computeCascade(solver: CascadeSolver, maxLevel: number, digits: 
       const s2 = levels[n - 2]!.superstable;
       const ratio = sup.value.minus(s1).div(s1.minus(s2));
       if (!(ratio.gt(0.01) && ratio.lt(0.9))) {
-        throw new NoConvergenceError(`superstable parameter of period ${period} fell outside the cascade (at ${sup.value.toSignificantDigits(20).toString()})`);
+        throw new ConvergenceError(`superstable parameter of period ${period} fell outside the cascade (at ${sup.value.toSignificantDigits(20).toString()})`);
       }
     }
     const level: CascadeLevel = { level: n, period, superstable: sup.value, steps: sup.steps };

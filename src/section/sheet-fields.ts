@@ -7,13 +7,12 @@
  * flags that set them.
  */
 import { Received, UserError } from '../check/user-error.js';
+import { isDecimalText } from '../check/fields.js';
 
 export type Json = Record<string, unknown>;
 
 /** Field path ("r.from", "pixels") -> the flag that set it ("--r-from", "--size"). */
 export type FieldOrigin = Readonly<Record<string, string>>;
-
-const DECIMAL = /^[+-]?(\d+\.?\d*|\.\d+)([eE][+-]?\d+)?$/;
 
 export function isObject(v: unknown): v is Json {
   return typeof v === 'object' && v !== null && !Array.isArray(v);
@@ -57,7 +56,7 @@ export class SheetFields {
   decimal(path: string, fallback: string): string {
     const v = this.get(path);
     if (v === undefined) return fallback;
-    if (typeof v !== 'string' || !DECIMAL.test(v.trim())) throw new UserError(this.name(path), 'a decimal number written as a string (e.g. "2.8")', v);
+    if (typeof v !== 'string' || !isDecimalText(v)) throw new UserError(this.name(path), 'a decimal number written as a string (e.g. "2.8")', v);
     return v.trim();
   }
 

@@ -18,10 +18,10 @@
  * renormalise to v -> v^m + C, with other landmarks.
  */
 import type { Decimal } from 'decimal.js';
-import { NoConvergenceError } from './cascade-solver.js';
 import { compareItineraries, mssWords, satelliteParent } from './kneading.js';
 import { localRenormalisation, multiplierParameter, orbitCoincidence, superstableParameter, workingDecimal } from './real-newton.js';
 import type { DecimalCtor, UnimodalFamily } from './unimodal-family.js';
+import { ConvergenceError } from '../check/fields.js';
 
 export interface PeriodicWindow {
   period: number;
@@ -102,11 +102,11 @@ function bracketEnd(family: UnimodalFamily, p: number, doubling: number, scale: 
     a = b;
     ha = hb;
   }
-  throw new NoConvergenceError(`no window end found for period ${p}`);
+  throw new ConvergenceError(`no window end found for period ${p}`);
 }
 
 function must(ok: boolean, what: string): void {
-  if (!ok) throw new NoConvergenceError(what);
+  if (!ok) throw new ConvergenceError(what);
 }
 
 /** Every window of period 1..maxPeriod, in increasing order of the parameter. */

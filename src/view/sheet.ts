@@ -31,6 +31,7 @@ import { Decimal } from 'decimal.js';
 import { Received, UserError } from '../check/user-error.js';
 import { parseColourSettings, type ColourSettings } from '../colour/colour-settings.js';
 import { migrateSheet, SHEET_SCHEMA } from './sheet-kind.js';
+import { parseDecimalText, parseInteger as parseIntegerField } from '../check/fields.js';
 
 export interface Sheet {
   readonly title: string;
@@ -65,7 +66,6 @@ export const DEFAULT_DPI = 300;
 /** Labels need every component of each period located (the census); beyond 14 that takes too long for a plate. */
 export const MAX_LABEL_PERIOD = 14;
 
-const DECIMAL = /^[+-]?(\d+\.?\d*|\.\d+)([eE][+-]?\d+)?$/;
 const TOP_KEYS = ['kind', 'schema', 'writtenBy', 'title', 'note', 'view', 'pixels', 'print', 'dpi', 'iterations', 'samples', 'depth', 'colour', 'labels', 'arithmetic', 'skip', 'reference', 'output', 'startup'];
 
 type Json = Record<string, unknown>;
@@ -85,17 +85,12 @@ function noUnknownKeys(obj: Json, allowed: readonly string[], field: string): vo
 
 /** A decimal string, validated; kept as written (trailing zeros and all). */
 export function parseDecimalString(value: unknown, field: string): string {
-  if (typeof value !== 'string' || !DECIMAL.test(value.trim())) {
-    throw new UserError(field, 'a decimal number written as a string (e.g. "-0.75")', value);
-  }
-  return value.trim();
+  return parseDecimalText(value, field);
 }
 
+/** A sheet's integer field: a JSON number only ("3000" is refused, not read). */
 export function parseInteger(value: unknown, field: string, min: number, max: number): number {
-  if (typeof value !== 'number' || !Number.isInteger(value) || value < min || value > max) {
-    throw new UserError(field, `an integer between ${min} and ${max}`, value);
-  }
-  return value;
+  return parseIntegerField(value, field, min, max, 'number');
 }
 
 export function parseNumber(value: unknown, field: string, min: number, max: number): number {

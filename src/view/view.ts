@@ -41,13 +41,18 @@ export interface DoubleGrid {
  */
 export const DOUBLE_MIN_RELATIVE_SPACING = 2 ** -42;
 
+/** cos and sin of a rotation in degrees; exact quarter turns keep exact axes (no 6e-17 from cos(pi/2)). */
+export function rotationCosSin(degrees: number): { cos: number; sin: number } {
+  if (degrees % 90 === 0) {
+    const q = (((degrees / 90) % 4) + 4) % 4;
+    return { cos: [1, 0, -1, 0][q]!, sin: [0, 1, 0, -1][q]! };
+  }
+  const turn = (degrees * Math.PI) / 180;
+  return { cos: Math.cos(turn), sin: Math.sin(turn) };
+}
+
 export function doubleGrid(view: View): DoubleGrid {
-  const turn = (view.rotation * Math.PI) / 180;
-  // Exact quarter turns keep exact axes (no 6e-17 from cos(pi/2)).
-  const quarter = view.rotation % 90 === 0;
-  const q = (((view.rotation / 90) % 4) + 4) % 4;
-  const cos = quarter ? [1, 0, -1, 0][q]! : Math.cos(turn);
-  const sin = quarter ? [0, 1, 0, -1][q]! : Math.sin(turn);
+  const { cos, sin } = rotationCosSin(view.rotation);
   return {
     centerRe: Number(view.centerRe),
     centerIm: Number(view.centerIm),
@@ -75,4 +80,26 @@ export function pixelToC(grid: DoubleGrid, x: number, y: number, out: Float64Arr
   out[0] = grid.centerRe + (u * grid.cos - v * grid.sin);
   out[1] = grid.centerIm + (u * grid.sin + v * grid.cos);
   return out;
+}
+
+/**
+ * pixelToC over n samples at (xs[k], ys[k]), the same arithmetic; with
+ * `offsets`, c minus the view centre (deep views, where c is no double).
+ */
+export function pixelsToC(grid: DoubleGrid, xs: ArrayLike<number>, ys: ArrayLike<number>, n: number, outRe: Float64Array, outIm: Float64Array, offsets = false): void {
+  const re0 = offsets ? 0 : grid.centerRe;
+  const im0 = offsets ? 0 : grid.centerIm;
+  for (let k = 0; k < n; k++) {
+    const u = (xs[k]! - grid.width / 2) * grid.spacing;
+    const v = (grid.height / 2 - ys[k]!) * grid.spacing;
+    outRe[k] = offsets ? u * grid.cos - v * grid.sin : re0 + (u * grid.cos - v * grid.sin);
+    outIm[k] = offsets ? u * grid.sin + v * grid.cos : im0 + (u * grid.sin + v * grid.cos);
+  }
+}
+
+/** The continuous pixel coordinates of c (the inverse of pixelToC). */
+export function cToPixel(grid: DoubleGrid, re: number, im: number): [number, number] {
+  const u = re - grid.centerRe;
+  const v = im - grid.centerIm;
+  return [grid.width / 2 + (u * grid.cos + v * grid.sin) / grid.spacing, grid.height / 2 - (-u * grid.sin + v * grid.cos) / grid.spacing];
 }

@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { applyPlateOptions, attributeName, parsePair } from '../../src/cli/plate-options.js';
+import { applyPlateOptions, attributeName } from '../../src/cli/plate-options.js';
 import { UserError } from '../../src/check/user-error.js';
 
 describe('applyPlateOptions', () => {
@@ -23,12 +23,7 @@ describe('applyPlateOptions', () => {
   });
 });
 
-describe('parsePair and attributeName', () => {
-  it('reads WxH and WxHmm', () => {
-    expect(parsePair('1600x1200', '--size')).toEqual([1600, 1200]);
-    expect(parsePair('420x297mm', '--print', 'mm')).toEqual([420, 297]);
-    expect(() => parsePair('big', '--size')).toThrow(/for --size but received "big"/);
-  });
+describe('attributeName', () => {
   it('matches commander attribute names', () => {
     expect(attributeName('--no-sidecar')).toBe('sidecar');
     expect(attributeName('--span <width>')).toBe('span');

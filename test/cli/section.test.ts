@@ -2,7 +2,7 @@ import { existsSync } from 'node:fs';
 import path from 'node:path';
 import { describe, expect, it } from 'vitest';
 import { convertTable } from '../../src/cli/section/convert.js';
-import { parseFamily, parseInteger, tableFormat } from '../../src/cli/section/section-options.js';
+import { parseFamily, tableFormat } from '../../src/cli/section/section-options.js';
 import { CASCADE_OPTIONS } from '../../src/cli/section/cascade.js';
 import { COMPARE_OPTIONS } from '../../src/cli/section/compare.js';
 import { CONVERT_OPTIONS } from '../../src/cli/section/convert.js';
@@ -35,11 +35,6 @@ describe('section option parsing', () => {
     expect(() => parseFamily('tent')).toThrow('Expected one of logistic, sine, quartic for --family but received "tent"');
   });
 
-  it('parseInteger rejects levels outside its range', () => {
-    expect(parseInteger('12', '--levels', 2, 22, 5)).toBe(12);
-    expect(() => parseInteger('40', '--levels', 2, 22, 5)).toThrow('Expected an integer between 2 and 22 for --levels but received "40"');
-    expect(() => parseInteger('1.5', '--levels', 2, 22, 5)).toThrow(UserError);
-  });
 
   it('tableFormat refuses --json together with --csv', () => {
     expect(() => tableFormat({ json: true, csv: true })).toThrow(UserError);

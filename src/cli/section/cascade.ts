@@ -8,7 +8,8 @@ import type { Command } from 'commander';
 import type { Decimal } from 'decimal.js';
 import { toPlaces } from '../../section/decimal-text.js';
 import { formatTable, integerCell, type Cell, type SectionTable } from '../../section/section-table.js';
-import { addOptions, clearProgress, CSV_OPTION, digitsOption, FAMILY_OPTION, guarded, JSON_OPTION, parseFamily, parseInteger, progressLine, tableFormat, type SectionOption, type Values, writeStdout } from './section-options.js';
+import { addOptions, clearProgress, CSV_OPTION, digitsOption, FAMILY_OPTION, guarded, JSON_OPTION, parseFamily, progressLine, tableFormat, type SectionOption, type Values, writeStdout } from './section-options.js';
+import { optionalInteger } from '../../check/fields.js';
 
 const DEFAULT_DIGITS = 24;
 
@@ -34,8 +35,8 @@ function trusted(value: Decimal, significant: number, places: number): string {
 export async function cascadeTable(values: Values, progress: (s: string) => void): Promise<SectionTable> {
   const family = parseFamily(values['family']);
   // 16 logistic levels take about 10 s on 2 cores; decimal.js sin makes the sine family about 40 times slower per step than the BigInt logistic path.
-  const levels = parseInteger(values['levels'], '--levels', 2, 22, family.name === 'logistic' ? 16 : 9);
-  const digits = parseInteger(values['digits'], '--digits', 8, 500, DEFAULT_DIGITS);
+  const levels = optionalInteger(values['levels'], '--levels', 2, 22) ?? (family.name === 'logistic' ? 16 : 9);
+  const digits = optionalInteger(values['digits'], '--digits', 8, 500) ?? DEFAULT_DIGITS;
   const { computeCascade } = await import('../../section/cascade.js');
   const { cascadeSolverFor } = await import('../../section/cascade-solver-for.js');
   // Significant working digits: delta^-n shrinks the gaps by about 0.67 digits per level and two gaps meet in

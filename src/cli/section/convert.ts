@@ -9,7 +9,8 @@ import { cToR, rToC, xToZ, zToX } from '../../section/conjugacy.js';
 import { toPlaces } from '../../section/decimal-text.js';
 import { formatTable, type SectionTable } from '../../section/section-table.js';
 import { Received, UserError } from '../../check/user-error.js';
-import { addOptions, CSV_OPTION, digitsOption, guarded, JSON_OPTION, parseDecimal, parseInteger, tableFormat, type SectionOption, type Values, writeStdout } from './section-options.js';
+import { addOptions, CSV_OPTION, digitsOption, guarded, JSON_OPTION, parseDecimal, tableFormat, type SectionOption, type Values, writeStdout } from './section-options.js';
+import { optionalInteger } from '../../check/fields.js';
 
 const DEFAULT_DIGITS = 30;
 
@@ -30,7 +31,7 @@ function decimalOrder(s: string): number {
 }
 
 export function convertTable(values: Values): SectionTable {
-  const digits = parseInteger(values['digits'], '--digits', 0, 10000, DEFAULT_DIGITS);
+  const digits = optionalInteger(values['digits'], '--digits', 0, 10000) ?? DEFAULT_DIGITS;
   // Significant digits that cover `digits` places: c grows like r^2, z like r x and x like z / r, so add twice the inputs' decimal orders, plus guards.
   const order = Math.max(0, ...(['c', 'r', 'x', 'z'] as const).filter((k) => typeof values[k] === 'string').map((k) => decimalOrder(parseDecimal(values[k], `--${k}`))));
   const work = digits + 16 + 2 * order;

@@ -25,12 +25,13 @@ import {
   integerText,
   JSON_OPTION,
   NO_SIDECAR_OPTION,
-  parseInteger,
+  
   tableFormat,
   type SectionOption,
   type Values,
   writeStdout,
 } from './section-options.js';
+import { optionalInteger } from '../../check/fields.js';
 
 const DEFAULT_DIGITS = 6;
 
@@ -131,7 +132,7 @@ export function register(section: Command): void {
   cmd.action(
     guarded(async (sheetFile: string | undefined, values: Values) => {
       const format = tableFormat(values);
-      const digits = parseInteger(values['digits'], '--digits', 0, 17, DEFAULT_DIGITS);
+      const digits = optionalInteger(values['digits'], '--digits', 0, 17) ?? DEFAULT_DIGITS;
       const sheet = await lyapunovSheet(sheetFile, values);
       const file = sheet.output.file;
       const field = typeof values['out'] === 'string' ? '--out' : 'output.file';

@@ -8,7 +8,8 @@ import { classifyOrbit, DEFAULT_CLASSIFY, orbit, type OrbitClass } from '../../s
 import type { SectionTable } from '../../section/section-table.js';
 import type { UnimodalFamily } from '../../section/unimodal-family.js';
 import { Received, UserError } from '../../check/user-error.js';
-import { parseDecimal, parseFamily, parseInteger, tableFormat } from './section-options.js';
+import { parseDecimal, parseFamily, tableFormat } from './section-options.js';
+import { optionalInteger } from '../../check/fields.js';
 
 type Values = Record<string, unknown>;
 
@@ -84,9 +85,9 @@ export async function orbitRun(values: Values): Promise<OrbitRun> {
   if (rs.length > MAX_PARAMETERS) throw new UserError('--r', `at most ${MAX_PARAMETERS} parameters`, values['r']);
   const x0 = parseStart(values['x0'], family);
   const precise = values['digits'] !== undefined;
-  const digits = parseInteger(values['digits'], '--digits', 1, MAX_ORBIT_DIGITS, 0);
-  const iterations = parseInteger(values['iterations'], '--iterations', 1, precise ? MAX_PRECISE_STEPS : MAX_ORBIT_STEPS, 60);
-  const transient = parseInteger(values['transient'], '--transient', 0, MAX_ORBIT_STEPS, 0);
+  const digits = optionalInteger(values['digits'], '--digits', 1, MAX_ORBIT_DIGITS) ?? 0;
+  const iterations = optionalInteger(values['iterations'], '--iterations', 1, precise ? MAX_PRECISE_STEPS : MAX_ORBIT_STEPS) ?? 60;
+  const transient = optionalInteger(values['transient'], '--transient', 0, MAX_ORBIT_STEPS) ?? 0;
   if (transient + iterations > (precise ? MAX_PRECISE_STEPS : MAX_ORBIT_STEPS)) throw new UserError('--iterations', `transient + iterations at most ${precise ? MAX_PRECISE_STEPS : MAX_ORBIT_STEPS}`, transient + iterations);
   const p = family.parameter;
   const rows: string[][] = [];
@@ -154,8 +155,8 @@ export async function cobwebRun(values: Values): Promise<{ table: SectionTable; 
   if (typeof values['r'] !== 'string' || values['r'].includes(',')) throw new UserError('--r', 'one parameter R', values['r']);
   const r = parseParameter(values['r'], family);
   const x0 = parseStart(values['x0'], family);
-  const K = parseInteger(values['iterate'], '--iterate', 1, 64, 1);
-  const steps = parseInteger(values['iterations'], '--iterations', 1, 10_000, 80);
+  const K = optionalInteger(values['iterate'], '--iterate', 1, 64) ?? 1;
+  const steps = optionalInteger(values['iterations'], '--iterations', 1, 10_000) ?? 80;
   const rv = Number(r);
   const fK = (x: number): number => {
     for (let k = 0; k < K; k++) x = family.f(x, rv);

@@ -12,6 +12,7 @@ import type { FieldOrigin, Json } from '../../section/sheet-fields.js';
 import type { TableFormat } from '../../section/section-table.js';
 import type { UnimodalFamily } from '../../section/unimodal-family.js';
 import { Received, UserError } from '../../check/user-error.js';
+import { ConvergenceError, isIntegerText, optionalInteger, parseDecimalText, parseSize } from '../../check/fields.js';
 
 export type Values = Record<string, unknown>;
 
@@ -28,15 +29,14 @@ export const FAMILY_NAMES = [...FAMILIES.keys()];
 
 /** An integer as a number; anything else stays text, for the checker to refuse by name. */
 export function integerText(text: string): unknown {
-  return /^\s*\d+\s*$/.test(text) ? Number(text) : text;
+  return isIntegerText(text) ? Number(text) : text;
 }
 
 /** "WxH" -> { width, height }. */
 export function sizeText(flag: string): (text: string) => unknown {
   return (text) => {
-    const m = /^\s*(\d+)\s*[xX]\s*(\d+)\s*$/.exec(text);
-    if (m === null) throw new UserError(flag, 'a size WxH in pixels (e.g. 2000x1000)', text);
-    return { width: Number(m[1]), height: Number(m[2]) };
+    const [width, height] = parseSize(text, flag);
+    return { width, height };
   };
 }
 
@@ -110,18 +110,8 @@ export function parseFamily(value: unknown): UnimodalFamily {
   return family;
 }
 
-export function parseInteger(value: unknown, field: string, min: number, max: number, fallback: number): number {
-  if (value === undefined) return fallback;
-  const n = typeof value === 'string' && /^\s*\d+\s*$/.test(value) ? Number(value) : NaN;
-  if (!Number.isInteger(n) || n < min || n > max) throw new UserError(field, `an integer between ${min} and ${max}`, value);
-  return n;
-}
-
-const DECIMAL = /^\s*[+-]?(\d+(\.\d*)?|\.\d+)([eE][+-]?\d+)?\s*$/;
-
 export function parseDecimal(value: unknown, field: string): string {
-  if (typeof value !== 'string' || !DECIMAL.test(value)) throw new UserError(field, 'a decimal number (e.g. -1.75 or 3.5e0)', value);
-  return value.trim();
+  return parseDecimalText(value, field, 'a decimal number (e.g. -1.75 or 3.5e0)');
 }
 
 export function tableFormat(values: Values): TableFormat {
@@ -131,7 +121,7 @@ export function tableFormat(values: Values): TableFormat {
 
 export function parseWorkers(value: unknown): number {
   const { availableParallelism } = process as unknown as { availableParallelism?: () => number };
-  return parseInteger(value, '--workers', 1, 256, availableParallelism?.() ?? 2);
+  return optionalInteger(value, '--workers', 1, 256) ?? availableParallelism?.() ?? 2;
 }
 
 /**
@@ -143,7 +133,7 @@ export function guarded<A extends unknown[]>(action: (...args: A) => Promise<voi
     try {
       await action(...args);
     } catch (err) {
-      if (err instanceof Error && err.name === 'NoConvergenceError') {
+      if (err instanceof ConvergenceError) {
         process.stderr.write(`quadatlas: no convergence: ${err.message.split('\n')[0]}\n`);
         process.exitCode = 1;
         return;

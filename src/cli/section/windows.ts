@@ -11,7 +11,8 @@ import { Decimal } from 'decimal.js';
 import { toExponent, toPlaces } from '../../section/decimal-text.js';
 import { formatTable, integerCell, numberCell, type Cell, type SectionTable } from '../../section/section-table.js';
 import { UserError } from '../../check/user-error.js';
-import { addOptions, CSV_OPTION, digitsOption, FAMILY_OPTION, guarded, JSON_OPTION, parseFamily, parseInteger, tableFormat, type SectionOption, type Values, writeStdout } from './section-options.js';
+import { addOptions, CSV_OPTION, digitsOption, FAMILY_OPTION, guarded, JSON_OPTION, parseFamily, tableFormat, type SectionOption, type Values, writeStdout } from './section-options.js';
+import { optionalInteger } from '../../check/fields.js';
 
 const DEFAULT_DIGITS = 15;
 
@@ -26,8 +27,8 @@ export const WINDOWS_OPTIONS: readonly SectionOption[] = [
 export async function windowsTable(values: Values): Promise<SectionTable> {
   const family = parseFamily(values['family']);
   if (family.maximumOrder !== 2) throw new UserError('--family', 'a family with a quadratic maximum for windows (logistic or sine)', values['family']);
-  const maxPeriod = parseInteger(values['maxPeriod'], '--max-period', 1, 16, 6);
-  const digits = parseInteger(values['digits'], '--digits', 4, 200, DEFAULT_DIGITS);
+  const maxPeriod = optionalInteger(values['maxPeriod'], '--max-period', 1, 16) ?? 6;
+  const digits = optionalInteger(values['digits'], '--digits', 4, 200) ?? DEFAULT_DIGITS;
   const { findWindows } = await import('../../section/windows.js');
   const { componentOf } = await import('../../section/component-of.js');
   // Significant working digits: `digits` places of parameters near 1..4, and `digits` significant digits of
