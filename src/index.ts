@@ -51,10 +51,10 @@ export { lyapunovExponents } from './section/lyapunov.js';
 
 // Deep arithmetic.
 export { computeReferenceOrbit, referenceBits, type ReferenceOrbit } from './precise/reference-orbit.js';
-export { buildBlaTable, type BlaTable } from './plane/bla-table.js';
-export { sampleDeep, type DeepSettings } from './plane/deep-sample.js';
-export { deepPlan } from './plane/deep-plan.js';
-export { prepareDeepJob, type DeepJob } from './render/deep-job.js';
+export { buildBlaTable, type BlaTable } from './plane/deep/bla-table.js';
+export { sampleDeep, type DeepSettings } from './plane/deep/sample-deep.js';
+export { deepPlan } from './plane/deep/plan.js';
+export { prepareDeepJob, type DeepJob } from './plane/deep/job.js';
 
 // The dynamical plane of one c, and orbits of the real slice.
 export { findJuliaCycle, type JuliaCycle } from './dynamic/julia-cycle.js';

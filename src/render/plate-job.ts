@@ -1,6 +1,6 @@
 import type { ColourSettings } from '../colour/colour-settings.js';
 import type { Legend, PixelRect } from '../colour/legend.js';
-import type { DeepJob } from './deep-job.js';
+import type { DeepJob } from '../plane/deep/job.js';
 import type { DoubleGrid } from '../view/view.js';
 import type { JuliaJob } from './julia-job.js';
 

@@ -15,7 +15,7 @@ import { DEFAULT_TILE_SIZE } from './render-plate.js';
 import { cardioidPoint, juliaRenderRecord, type JuliaSheet } from '../view/julia-sheet.js';
 import { resolveIterations } from '../view/sheet.js';
 import { doubleGrid, fitsDouble } from '../view/view.js';
-import { log2Decimal } from '../plane/deep-plan.js';
+import { log2Decimal } from '../plane/deep/plan.js';
 import { computeJuliaReference } from '../precise/julia-reference-orbit.js';
 import { referenceBits } from '../precise/reference-orbit.js';
 import type { JuliaReferences } from '../dynamic/sample-julia-deep.js';

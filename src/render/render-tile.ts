@@ -30,7 +30,7 @@ import { createJuliaSampleSet, sampleJulia, type JuliaSampleSet } from '../dynam
 import { sampleJuliaDeep } from '../dynamic/sample-julia-deep.js';
 import { createSampleScratch, sampleParameters, type SampleScratch } from '../plane/sample-parameters.js';
 import type { EscapeLoop } from '../plane/escape-loop.js';
-import { sampleDeep, type DeepStats } from '../plane/deep-sample.js';
+import { sampleDeep, type DeepStats } from '../plane/deep/sample-deep.js';
 import type { Tile } from '../view/tile-plan.js';
 import { emptyStats, type PlateJob, type TileStats } from './plate-job.js';
 import { pixelsToC } from '../view/view.js';
@@ -113,7 +113,7 @@ export function jitter(x: number, y: number, k: number, axis: number): number {
  * the double path maps them to c through the grid (centre + rotated offset);
  * the deep path to offsets from the reference orbit, origin + (x - 1/2) stepX
  * + (y - 1/2) stepY in units of 2^U, the same formula as fillDeepOffsets
- * (src/plane/deep-offsets.ts), so every pixel gets the same bits in any tile.
+ * (src/plane/deep/offsets.ts), so every pixel gets the same bits in any tile.
  */
 function evaluate(job: PlateJob, xs: Float64Array, ys: Float64Array, n: number, scratch: TileScratch, out: JuliaSampleSet, deepStats: DeepStats, loop?: EscapeLoop): void {
   const { cr, ci } = scratch;

@@ -6,12 +6,12 @@
  * arithmetic and precision.
  */
 import type { Legend, PixelRect } from '../colour/legend.js';
-import { deepPlan, type DeepPlan } from '../plane/deep-plan.js';
+import { deepPlan, type DeepPlan } from '../plane/deep/plan.js';
 import { DEFAULT_ESCAPE_RADIUS } from '../plane/sample-parameters.js';
 import { referenceBits } from '../precise/reference-orbit.js';
 import type { Sheet } from '../view/sheet.js';
 import type { DoubleGrid } from '../view/view.js';
-import { prepareDeepJob } from './deep-job.js';
+import { prepareDeepJob } from '../plane/deep/job.js';
 import type { PlateJob } from './plate-job.js';
 
 /** Periodicity tolerance in z units from the pixel spacing (docs/methods.md A4: tie it to the spacing). */

@@ -11,6 +11,7 @@
  *   (i + 0.5, j + 0.5). j grows downwards, the imaginary part grows upwards.
  * - `rotation` (degrees, counter-clockwise) turns the image about its centre.
  */
+import { rotationCosSin } from '../plane/rotation.js';
 export interface View {
   readonly centerRe: string;
   readonly centerIm: string;
@@ -40,16 +41,6 @@ export interface DoubleGrid {
  * published figure: 2^-42 leaves ~11 bits of headroom per pixel.
  */
 export const DOUBLE_MIN_RELATIVE_SPACING = 2 ** -42;
-
-/** cos and sin of a rotation in degrees; exact quarter turns keep exact axes (no 6e-17 from cos(pi/2)). */
-export function rotationCosSin(degrees: number): { cos: number; sin: number } {
-  if (degrees % 90 === 0) {
-    const q = (((degrees / 90) % 4) + 4) % 4;
-    return { cos: [1, 0, -1, 0][q]!, sin: [0, 1, 0, -1][q]! };
-  }
-  const turn = (degrees * Math.PI) / 180;
-  return { cos: Math.cos(turn), sin: Math.sin(turn) };
-}
 
 export function doubleGrid(view: View): DoubleGrid {
   const { cos, sin } = rotationCosSin(view.rotation);

@@ -1,10 +1,10 @@
 import { describe, expect, it } from 'vitest';
-import { computeReferenceOrbit, referenceBits } from '../../src/precise/reference-orbit.js';
-import { buildBlaTable } from '../../src/plane/bla-table.js';
-import { createDeepStats, sampleDeep } from '../../src/plane/deep-sample.js';
-import { createSampleSet, PERIOD_ESCAPED, PERIOD_UNDECIDED } from '../../src/plane/sample-set.js';
-import { decimalAt, decimalEscape, exactDouble, gridOffsets, decimalMultiplier, decimalNucleusStep } from './deep-helpers.js';
-import type { Dec } from './deep-helpers.js';
+import { computeReferenceOrbit, referenceBits } from '../../../src/precise/reference-orbit.js';
+import { buildBlaTable } from '../../../src/plane/deep/bla-table.js';
+import { createDeepStats, sampleDeep } from '../../../src/plane/deep/sample-deep.js';
+import { createSampleSet, PERIOD_ESCAPED, PERIOD_UNDECIDED } from '../../../src/plane/sample-set.js';
+import { decimalAt, decimalEscape, exactDouble, gridOffsets, decimalMultiplier, decimalNucleusStep } from './helpers.js';
+import type { Dec } from './helpers.js';
 
 // A period-79 nucleus near c = i, found by Newton's method in decimal.js from
 // the guess 1e-31 + (1 + 5e-32)i (atom-domain period 79 there); the test

@@ -1,9 +1,9 @@
 import { describe, expect, it } from 'vitest';
-import { computeReferenceOrbit, referenceBits } from '../../src/precise/reference-orbit.js';
-import { buildBlaTable } from '../../src/plane/bla-table.js';
-import { createDeepStats, sampleDeep } from '../../src/plane/deep-sample.js';
-import { createSampleSet, PERIOD_ESCAPED } from '../../src/plane/sample-set.js';
-import { decimalAt, exactDouble, gridOffsets } from './deep-helpers.js';
+import { computeReferenceOrbit, referenceBits } from '../../../src/precise/reference-orbit.js';
+import { buildBlaTable } from '../../../src/plane/deep/bla-table.js';
+import { createDeepStats, sampleDeep } from '../../../src/plane/deep/sample-deep.js';
+import { createSampleSet, PERIOD_ESCAPED } from '../../../src/plane/sample-set.js';
+import { decimalAt, exactDouble, gridOffsets } from './helpers.js';
 
 // Self-similarity at the Misiurewicz point c0 = i (Tan Lei, "Similarity between
 // the Mandelbrot set and Julia sets", Comm. Math. Phys. 134 (1990)): the orbit

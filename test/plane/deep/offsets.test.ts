@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { fillDeepOffsets } from '../../src/plane/deep-offsets.js';
+import { fillDeepOffsets } from '../../../src/plane/deep/offsets.js';
 
 describe('fillDeepOffsets', () => {
   const g = { originRe: -3.5, originIm: 2.25, stepXRe: 0.5, stepXIm: 0.125, stepYRe: 0.125, stepYIm: -0.5 };

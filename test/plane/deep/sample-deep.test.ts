@@ -1,11 +1,11 @@
 import { describe, expect, it } from 'vitest';
-import { computeReferenceOrbit, referenceBits } from '../../src/precise/reference-orbit.js';
-import { buildBlaTable } from '../../src/plane/bla-table.js';
-import { createDeepStats, sampleDeep } from '../../src/plane/deep-sample.js';
-import { createSampleSet, PERIOD_ESCAPED, PERIOD_UNDECIDED } from '../../src/plane/sample-set.js';
-import { sampleParameters } from '../../src/plane/sample-parameters.js';
-import { decimalAt, decimalEscape, exactDouble, gridOffsets } from './deep-helpers.js';
-import type { Dec } from './deep-helpers.js';
+import { computeReferenceOrbit, referenceBits } from '../../../src/precise/reference-orbit.js';
+import { buildBlaTable } from '../../../src/plane/deep/bla-table.js';
+import { createDeepStats, sampleDeep } from '../../../src/plane/deep/sample-deep.js';
+import { createSampleSet, PERIOD_ESCAPED, PERIOD_UNDECIDED } from '../../../src/plane/sample-set.js';
+import { sampleParameters } from '../../../src/plane/sample-parameters.js';
+import { decimalAt, decimalEscape, exactDouble, gridOffsets } from './helpers.js';
+import type { Dec } from './helpers.js';
 
 const R = 65536; // the shallow kernel's default escape radius (sample-parameters.ts)
 
@@ -112,8 +112,8 @@ describe('sampleDeep at span 1e-20 near the Misiurewicz point c = i', () => {
 
 describe('sampleDeep as a worker would call it', () => {
   it('gives identical bytes for shared or structured-cloned inputs and for any batching of the pixels', async () => {
-    const { shareReferenceOrbit } = await import('../../src/precise/reference-orbit.js');
-    const { shareBlaTable } = await import('../../src/plane/bla-table.js');
+    const { shareReferenceOrbit } = await import('../../../src/precise/reference-orbit.js');
+    const { shareBlaTable } = await import('../../../src/plane/deep/bla-table.js');
     const size = 12;
     const D = decimalAt(45);
     const orbit = computeReferenceOrbit({ re: '0', im: '1' }, referenceBits('1e-30', size), 1000, { escapeRadius: R });

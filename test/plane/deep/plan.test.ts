@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { deepPlan, log2Decimal } from '../../src/plane/deep-plan.js';
+import { deepPlan, log2Decimal } from '../../../src/plane/deep/plan.js';
 
 describe('deepPlan', () => {
   it('keeps doubles for a span of 1e-9 at 1000 pixels near -0.75 (spacing 2^-49.8 > 2^-42 * 1)', () => {

@@ -12,8 +12,8 @@
  *   offsets and distances stay in c units like the shallow kernel; below,
  *   U = floor(log2 span) - 8, so offsets are at most ~2^8 in tile units.
  */
-import { parseDecimal } from '../precise/decimal-string.js';
-import { referenceBits } from '../precise/reference-orbit.js';
+import { parseDecimal } from '../../precise/decimal-string.js';
+import { referenceBits } from '../../precise/reference-orbit.js';
 
 export interface DeepPlan {
   readonly arithmetic: 'double' | 'deep';

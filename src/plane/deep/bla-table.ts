@@ -27,8 +27,8 @@
  * (`minNorm`, at offset `minAt`), so that atom-domain period candidates are
  * not lost inside a skip.
  */
-import type { ReferenceOrbit } from '../precise/reference-orbit.js';
-import { exponentOf, ldexp } from '../precise/floatexp.js';
+import type { ReferenceOrbit } from '../../precise/reference-orbit.js';
+import { exponentOf, ldexp } from '../../precise/floatexp.js';
 
 export interface BlaTable {
   /** Number of levels; level j has counts[j] entries starting at offsets[j]. */

@@ -1,6 +1,6 @@
 import { describe, expect, it } from 'vitest';
-import { computeReferenceOrbit } from '../../src/precise/reference-orbit.js';
-import { buildBlaTable, findBla } from '../../src/plane/bla-table.js';
+import { computeReferenceOrbit } from '../../../src/precise/reference-orbit.js';
+import { buildBlaTable, findBla } from '../../../src/plane/deep/bla-table.js';
 
 // The Misiurewicz point c = i stays bounded (0 -> i -> -1+i -> -i -> -1+i, exact
 // algebra), so the table has 2999 single steps and 13 levels; |2 Z| is 2 or 2.83.

@@ -9,10 +9,10 @@
  * depend on tiling or worker count.
  */
 import { Decimal } from 'decimal.js';
-import { buildBlaTable, shareBlaTable, type BlaTable } from '../plane/bla-table.js';
-import type { DeepGeometry } from '../plane/deep-offsets.js';
-import { computeReferenceOrbit, referenceOffset, shareReferenceOrbit, type ReferenceOrbit } from '../precise/reference-orbit.js';
-import { rotationCosSin } from '../view/view.js';
+import { buildBlaTable, shareBlaTable, type BlaTable } from './bla-table.js';
+import type { DeepGeometry } from './offsets.js';
+import { computeReferenceOrbit, referenceOffset, shareReferenceOrbit, type ReferenceOrbit } from '../../precise/reference-orbit.js';
+import { rotationCosSin } from '../rotation.js';
 
 export interface DeepJob {
   readonly reference: ReferenceOrbit;
