@@ -3,7 +3,7 @@
  * precision), prepared once on the main thread and shared with every worker:
  * the reference orbit in BigInt fixed point, the bilinear-approximation table
  * and the geometry that turns a pixel coordinate into an offset from the
- * reference (see src/plane/deep-sample.ts for the method and its sources).
+ * reference (see src/plane/deep/sample-deep.ts for the method and its sources).
  *
  * Everything a pixel needs is fixed here per plate, so a pixel's bytes do not
  * depend on tiling or worker count.

@@ -1,6 +1,6 @@
 /**
  * Pixel offsets for the deep kernel: c - C for a block of pixel centres, in
- * tile units 2^unitExponent (see deep-sample.ts).
+ * tile units 2^unitExponent (see sample-deep.ts).
  *
  * The plate's geometry is given once: `origin`, the offset of the centre of
  * pixel (0, 0) of the whole plate from the reference C, and the steps
