@@ -5,7 +5,7 @@
  * the multiplier. Fills the same SampleSet as the shallow kernel, with the
  * same meanings, so deep plates colour like shallow ones.
  *
- * Methods (shared/methods.md):
+ * Methods (docs/methods.md):
  * - B1 perturbation, z_{n+1} = 2 Z_m z_n + z_n^2 + c (math.stackexchange
  *   q/939270; mathr.co.uk/web/deep-zoom.html section 2).
  * - B3 rebasing (Zhuoran, fractalforums.org t/4360; mathr deep-zoom 2.1):
