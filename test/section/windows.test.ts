@@ -4,6 +4,8 @@ import { componentOf } from '../../src/section/component-of.js';
 import { rToC } from '../../src/section/conjugacy.js';
 import { logistic, sine } from '../../src/section/families/index.js';
 import { findWindows } from '../../src/section/windows.js';
+import { requireInCi } from '../helpers/require-in-ci.js';
+import { haveMpmath, runMpmath } from '../oracles/mpmath.js';
 
 const D = Decimal.clone({ precision: 60 });
 const { windows } = findWindows(logistic, 7, 30);
@@ -84,6 +86,27 @@ describe('findWindows on the logistic family', () => {
       expect(y.minus(x).abs().toNumber(), `${w.word || 'C'}: a p-cycle`).toBeLessThan(1e-25);
       expect(m.plus(1).abs().toNumber(), `${w.word || 'C'}: multiplier at the doubling`).toBeLessThan(1e-20);
     }
+  });
+
+  it.skipIf(!requireInCi(haveMpmath, 'python3-mpmath'))('findWindows puts the period-3 crisis where mpmath finds F^9(0, c) = F^6(0, c)', () => {
+    // The oracle, written only here: the crisis is the tip of the small copy, renormalised parameter -2
+    // (methods.md E4), so it lies near nucleus - 2 |s| with the Hunt-Ott size |s| = 0.019035515913132
+    // (checks.md); the bracket [nucleus - 2.2|s|, nucleus - 1.8|s|] holds one sign change of
+    // F^9 - F^6 (a 400-point scan found one), which mpmath's bracketing solver pins at 40 digits.
+    const out = runMpmath(`
+from mpmath import mp, mpf, findroot, nstr
+mp.dps = 40
+def F(c, n):
+    z = mpf(0)
+    for _ in range(n):
+        z = z * z + c
+    return z
+c0 = mpf('-1.7548776662466927600495088963585286918946')
+s = mpf('0.019035515913132')
+print(nstr(findroot(lambda c: F(c, 9) - F(c, 6), (c0 - mpf('2.2') * s, c0 - mpf('1.8') * s), solver='anderson', tol=mpf(10) ** -70), 35))
+`);
+    const crisis = new D(out.trim());
+    expect(new D(rToC(period3.end.toString(), 30)).minus(crisis).abs().toNumber()).toBeLessThan(1e-25);
   });
 
   it('componentOf gives the Hunt-Ott size 0.019035515913132 for the period-3 window', () => {
