@@ -40,6 +40,12 @@ export interface TileStats {
   escaped: number;
   interior: number;
   undecided: number;
+  /**
+   * Decided pixels (escaped or interior) whose centre's distance estimate b is
+   * below AREA_SURE_DISTANCE_PIXELS pixel spacings, or could not be computed:
+   * their square may meet the boundary of the set (docs/methods.md A7).
+   */
+  nearBoundary: number;
   /** Pixels that received extra samples. */
   refined: number;
   /** Kernel samples taken (centre samples, apron included, plus refinement samples). */
@@ -54,13 +60,14 @@ export interface TileStats {
 }
 
 export function emptyStats(): TileStats {
-  return { escaped: 0, interior: 0, undecided: 0, refined: 0, samples: 0, periods: {}, stepped: 0, skipped: 0, skips: 0 };
+  return { escaped: 0, interior: 0, undecided: 0, nearBoundary: 0, refined: 0, samples: 0, periods: {}, stepped: 0, skipped: 0, skips: 0 };
 }
 
 export function addStats(into: TileStats, from: TileStats): void {
   into.escaped += from.escaped;
   into.interior += from.interior;
   into.undecided += from.undecided;
+  into.nearBoundary += from.nearBoundary;
   into.refined += from.refined;
   into.samples += from.samples;
   into.stepped += from.stepped;

@@ -54,7 +54,12 @@ export interface PlateSummary {
   /** Peak resident memory of the process (all worker threads included), MiB. */
   readonly peakMemoryMiB: number;
   readonly periods: Record<string, number>;
-  readonly area: { interior: number; undecided: number; pixelArea: number; note: string };
+  /**
+   * Interior area estimate and a bound on its error (docs/methods.md A7): the
+   * true area of the set within the view lies in [interior - uncertainty,
+   * interior + uncertainty], uncertainty = (nearBoundary + undecided pixels) x pixel area.
+   */
+  readonly area: { interior: number; undecided: number; nearBoundary: number; uncertainty: number; pixelArea: number; note: string };
   /** Julia plates: c, the cycle found (kind, period, points, multiplier) and the marks drawn. */
   readonly julia?: Record<string, unknown>;
 }
@@ -281,8 +286,10 @@ export async function writePlate(sheet: Sheet, job: PlateJob, run: PlateRun): Pr
       area: {
         interior: stats.interior * pixelArea,
         undecided: stats.undecided * pixelArea,
+        nearBoundary: stats.nearBoundary * pixelArea,
+        uncertainty: (stats.nearBoundary + stats.undecided) * pixelArea,
         pixelArea,
-        note: 'interior area = interior pixel centres x pixel area; undecided pixels bound its uncertainty',
+        note: 'interior area = interior pixel centres x pixel area; uncertainty = (undecided pixels + decided pixels whose distance estimate is below 2 sqrt 2 spacings) x pixel area; it bounds the error for the part of the set inside the view',
       },
       ...(run.julia === undefined ? {} : { julia: run.julia }),
     };

@@ -37,6 +37,14 @@ import { pixelsToC } from '../view/view.js';
 
 /** Refine where the distance estimate is below this many pixels (methods.md F1: "DE < ~2 px"). */
 export const REFINE_DISTANCE_PIXELS = 2;
+/**
+ * A decided pixel counts as wholly on its centre's side of the boundary when
+ * its distance estimate b is at least this many pixel spacings: the true
+ * distance is at least b/4 (docs/methods.md A2, A6), and b/4 >= 2 sqrt 2 / 4
+ * = 1/sqrt 2 spacings, half the pixel's diagonal, puts the whole square in
+ * the disk that misses the boundary (docs/methods.md A7).
+ */
+export const AREA_SURE_DISTANCE_PIXELS = 2 * Math.SQRT2;
 /** Refine where a linear channel steps by more than this to a 4-neighbour. */
 export const REFINE_COLOUR_STEP = 0.02;
 
@@ -206,6 +214,8 @@ export function renderTile(job: PlateJob, tile: Tile, scratch: TileScratch, loop
         stats.interior++;
         stats.periods[period] = (stats.periods[period] ?? 0) + 1;
       }
+      // NaN (no estimate) fails the comparison and counts as near.
+      if (period !== PERIOD_UNDECIDED && !(centre.distance[k]! / spacing >= AREA_SURE_DISTANCE_PIXELS)) stats.nearBoundary++;
       let flag = 0;
       if (refine) {
         const d = centre.distance[k]!;

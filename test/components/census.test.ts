@@ -9,6 +9,35 @@ const A000740 = [1, 1, 3, 6, 15, 27, 63, 120, 252, 495, 1023, 2010];
 // OEIS A000048: real components of exact period n (Metropolis, Stein & Stein 1973; checks.md).
 const A000048 = [1, 1, 1, 2, 3, 5, 9, 16, 28, 51, 93, 170];
 
+/**
+ * The angle pairs of the period-p components, checked against two theorems (Douady-Hubbard;
+ * Milnor, "Periodic orbits, external rays and the Mandelbrot set", 2000): every angle of exact
+ * period p under doubling lands at the root of exactly one period-p component, two per component
+ * (the cardioid aside), so the pairs partition the exact-period-p angles; and rays landing at
+ * different roots do not cross, so the arcs (lo, hi) of two pairs are nested or disjoint.
+ */
+function expectAnglePairs(p: number, pairs: ReadonlyArray<readonly number[]>): void {
+  const den = 2 ** p - 1;
+  const exactPeriod: number[] = [];
+  for (let n = 0; n < den; n += 1) {
+    let m = n, k = 0;
+    do {
+      m = (2 * m) % den;
+      k += 1;
+    } while (m !== n);
+    if (k === p) exactPeriod.push(n);
+  }
+  const used = pairs.flat().sort((a, b) => a - b);
+  expect(used, `period ${p}: the angles of all pairs`).toEqual(exactPeriod);
+  const arcs = pairs.map((a) => [Math.min(...a), Math.max(...a)] as const).sort((a, b) => a[0] - b[0]);
+  const open: number[] = [];
+  for (const [lo, hi] of arcs) {
+    while (open.length > 0 && open[open.length - 1]! < lo) open.pop();
+    if (open.length > 0) expect(hi, `period ${p}: arc ${lo}..${hi} crosses one ending at ${open[open.length - 1]}`).toBeLessThan(open[open.length - 1]!);
+    open.push(hi);
+  }
+}
+
 describe('census', () => {
   it('census(p) finds A000740(p) components and A000048(p) real ones for p = 1..12, every one with an angle pair, none unpaired or lost', async () => {
     for (let p = 1; p <= 12; p += 1) {
@@ -17,7 +46,7 @@ describe('census', () => {
       expect(r.components.filter((c) => c.real).length, `real, period ${p}`).toBe(A000048[p - 1]);
       expect(r.unpaired).toBe(0);
       expect(r.raysLost).toBe(0);
-      if (p > 1) for (const c of r.components) expect(c.angles.length).toBe(2);
+      if (p > 1) expectAnglePairs(p, r.components.map((c) => c.angles));
       // every nucleus lies in |c| <= 2 (methods.md C5)
       for (const c of r.components) expect(Math.hypot(c.reHi, c.imHi)).toBeLessThanOrEqual(2);
     }

@@ -3,10 +3,43 @@ import { lavaursPairs } from '../../src/components/lavaurs.js';
 import { lavaursSweep } from '../../src/components/lavaurs-sweep.js';
 import { landRays, RAY_RECORD } from '../../src/components/land-rays.js';
 
-// OEIS A000740 (as published; p = 13 is 4095): components of exact period n, i.e. Lavaurs pairs of period n (methods.md C5, D2).
+// OEIS A000740 (as published; p = 13 is 4095; checked below against its Moebius definition): components of exact period n, i.e. Lavaurs pairs of period n (methods.md C5, D2).
 const A000740 = [1, 1, 3, 6, 15, 27, 63, 120, 252, 495, 1023, 2010, 4095, 8127, 16365, 32640];
 // OEIS A000048: real components of period n, i.e. pairs symmetric about 1/2.
 const A000048 = [1, 1, 1, 2, 3, 5, 9, 16, 28, 51, 93, 170, 315, 585, 1091, 2048];
+
+/** Moebius mu(n) by trial division (written here, independent of the census code). */
+function mobius(n: number): number {
+  let m = n, sign = 1;
+  for (let q = 2; q * q <= m; q += 1) {
+    if (m % q !== 0) continue;
+    m /= q;
+    if (m % q === 0) return 0;
+    sign = -sign;
+  }
+  return m > 1 ? -sign : sign;
+}
+
+describe('the check tables', () => {
+  it('A000740 as typed equals its definition sum over d | n of mu(n/d) 2^(d-1) (OEIS A000740), n = 1..16', () => {
+    const byDefinition = Array.from({ length: 16 }, (_, i) => {
+      const n = i + 1;
+      let sum = 0;
+      for (let d = 1; d <= n; d += 1) if (n % d === 0) sum += mobius(n / d) * 2 ** (d - 1);
+      return sum;
+    });
+    expect(byDefinition).toEqual(A000740);
+  });
+  it('A000048 as typed equals its definition (1/(2n)) sum over odd d | n of mu(d) 2^(n/d) (OEIS A000048), n = 1..16', () => {
+    const byDefinition = Array.from({ length: 16 }, (_, i) => {
+      const n = i + 1;
+      let sum = 0;
+      for (let d = 1; d <= n; d += 2) if (n % d === 0) sum += mobius(d) * 2 ** (n / d);
+      return sum / (2 * n);
+    });
+    expect(byDefinition).toEqual(A000048);
+  });
+});
 
 describe('lavaursSweep', () => {
   it('lavaursSweep(p) gives the same pairs as the quadratic lavaursPairs for p = 2..11', () => {

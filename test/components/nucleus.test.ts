@@ -15,6 +15,19 @@ function cubic(re: string, im: string): number {
   return vr.times(vr).plus(vi.times(vi)).sqrt().toNumber();
 }
 
+/** |F_p(c) / F_p'(c)| with F_p(c) = f_c^p(0), in decimal.js (the length of a Newton step for a zero of F_p). */
+function newtonStep(p: number, cr: Decimal, ci: Decimal): Decimal {
+  let zr = new D(0), zi = new D(0), dr = new D(0), di = new D(0);
+  for (let k = 0; k < p; k += 1) {
+    const ndr = zr.times(dr).minus(zi.times(di)).times(2).plus(1);
+    const ndi = zr.times(di).plus(zi.times(dr)).times(2);
+    const nzr = zr.times(zr).minus(zi.times(zi)).plus(cr);
+    const nzi = zr.times(zi).times(2).plus(ci);
+    [zr, zi, dr, di] = [nzr, nzi, ndr, ndi];
+  }
+  return zr.pow(2).plus(zi.pow(2)).div(dr.pow(2).plus(di.pow(2))).sqrt();
+}
+
 describe('findNucleus', () => {
   it('findNucleus(3, -1.8) gives -1.7548776662466927600... (OEIS A060006, real root of c^3+2c^2+c+1)', () => {
     const r = findNucleus(3, { re: '-1.8', im: '0' }, 19);
@@ -41,8 +54,16 @@ describe('findNucleus', () => {
     const rad = Math.sin(Math.PI / q) / q ** 2; // bulb radius rule, checks.md
     const m = Math.hypot(rr, ri);
     const r = findNucleus(q, { re: String(rr + (rad * rr) / m), im: String(ri + (rad * ri) / m) }, 100);
-    expect(r.nucleus.re.startsWith('0.2500098')).toBe(true);
-    expect(r.nucleus.re.length).toBe(102);
+    // The guess already shares the first 7 digits, so the digits prove nothing; checked instead in
+    // decimal.js (120 digits, written here): c is a zero of F_1000 (Newton step below 1e-90), not a
+    // zero of F_500 or F_200 (every proper divisor of 1000 divides one of them; Newton steps towards
+    // their zeros are at least a bulb radius), and its distance to the 1/1000 root is about a radius.
+    const c = { re: new D(r.nucleus.re), im: new D(r.nucleus.im) };
+    expect(newtonStep(q, c.re, c.im).lt(1e-90)).toBe(true);
+    for (const d of [500, 200]) expect(newtonStep(d, c.re, c.im).gt(rad), `divisor ${d}`).toBe(true);
+    const fromRoot = Math.hypot(c.re.minus(rr).toNumber(), c.im.minus(ri).toNumber()) / rad;
+    expect(fromRoot).toBeGreaterThan(0.5);
+    expect(fromRoot).toBeLessThan(2);
   });
   it('findNucleus throws a NewtonError when the exact period differs, and a UserError for a bad guess', () => {
     // c = 0 is the period-1 nucleus: F^2(0, 0) = 0, but the exact period is 1

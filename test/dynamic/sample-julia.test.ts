@@ -207,9 +207,11 @@ describe('sampleJulia: interiors against exact facts', () => {
     const p = cardioidPoint(0, 0);
     expect(Math.hypot(p.mRe, p.mIm)).toBeCloseTo(1, 15);
     expect(Math.atan2(p.mIm, p.mRe) / (2 * Math.PI) + 1).toBeCloseTo(GOLDEN_MEAN, 14);
-    // c = -0.390541 - 0.586788 i for the golden mean (from memory; the usual quoted value).
-    expect(p.cRe).toBeCloseTo(-0.390541, 6);
-    expect(p.cIm).toBeCloseTo(-0.586788, 6);
+    // c = m/2 - m^2/4 with m = e^(2 pi i theta), theta = (sqrt 5 - 1)/2 (the main cardioid formula,
+    // checks.md; exact algebra), evaluated here apart from cardioidPoint: -0.3905408702 - 0.5867879073 i.
+    const th = 2 * Math.PI * ((Math.sqrt(5) - 1) / 2);
+    expect(p.cRe).toBeCloseTo(Math.cos(th) / 2 - Math.cos(2 * th) / 4, 14);
+    expect(p.cIm).toBeCloseTo(Math.sin(th) / 2 - Math.sin(2 * th) / 4, 14);
     const aRe = p.mRe / 2, aIm = p.mIm / 2;
     expect(aRe * aRe - aIm * aIm + p.cRe).toBeCloseTo(aRe, 15);
     expect(2 * aRe * aIm + p.cIm).toBeCloseTo(aIm, 15);

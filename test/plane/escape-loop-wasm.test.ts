@@ -101,13 +101,9 @@ describe('loadWasmEscapeLoop', () => {
     expect(BUILD_KEY.startsWith(`sha256:${hash} `)).toBe(true);
   });
 
-  it('wasm loop(bench-ref grid W = N = 1000, R^2 = 4, no periodicity check) totals 247632971 iterations', () => {
-    // Reference: shared/bench-ref/escape-ref.c built with strict IEEE double
-    // operations (`cc -O3 -march=native -ffp-contract=off`, or plain `cc -O3`):
-    // its scalar and vector loops both print 247632971 for `1000 1000`. The
-    // README's 247633556 is what gcc prints when it contracts 2 * x * y + ci
-    // into fused multiply-adds (-march=native on an FMA machine); the loop's
-    // contract forbids FMA, so the unfused total is the one to reach.
+  it('wasm loop(grid W = N = 1000, R^2 = 4, no periodicity check) totals 247632971 iterations, as the plain loop of escape-loop.test.ts', () => {
+    // Reference: the plain unfused scalar loop written in test/plane/escape-loop.test.ts, which totals
+    // 247632971 on this grid (fused multiply-adds would give 247633556; the loop's contract forbids FMA).
     const W = 1000, N = 1000;
     const cr = new Float64Array(W), ci = new Float64Array(W), out = createLoopOut(W);
     for (let i = 0; i < W; i++) cr[i] = -2.0 + (2.5 * (i + 0.5)) / W;

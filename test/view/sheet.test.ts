@@ -21,8 +21,8 @@ describe('parseSheet', () => {
   });
 
   it('keeps decimal strings exactly as written, trailing zeros included', () => {
-    const s = parseSheet({ view: { re: '-1.76852915246768520000000000000000000001', im: '0.000', span: '1e-9' } });
-    expect(s.view.re).toBe('-1.76852915246768520000000000000000000001');
+    const s = parseSheet({ view: { re: '-1.76852915246768501511813499857784340001', im: '0.000', span: '1e-9' } });
+    expect(s.view.re).toBe('-1.76852915246768501511813499857784340001');
     expect(s.view.im).toBe('0.000');
   });
 
