@@ -6,9 +6,10 @@ import path from 'node:path';
 import { Decimal } from 'decimal.js';
 import { describe, expect, it } from 'vitest';
 import { runCli, tempDir } from '../helpers/run-cli.js';
+import { requireInCi } from '../helpers/require-in-ci.js';
 
 const PYTHON = process.env['QUADATLAS_PYTHON'] ?? '/usr/bin/python3';
-const numpy = spawnSync(PYTHON, ['-c', 'import numpy'], { stdio: 'ignore' }).status === 0;
+const numpy = requireInCi(spawnSync(PYTHON, ['-c', 'import numpy'], { stdio: 'ignore' }).status === 0, 'python3-numpy');
 if (process.env['CI'] === 'true' && !numpy) throw new Error(`CI: numpy is missing for ${PYTHON} (install python3-numpy)`);
 
 /** Runs a NumPy script on the data folder; it prints one JSON value. */

@@ -3,6 +3,7 @@ import { describe, expect, it } from 'vitest';
 import { linearToOklab, linearToSrgb, oklabDistance } from '../../src/colour/oklab.js';
 import { PERIOD_GREYSCALE_DISTINCT, periodHex, periodLinear } from '../../src/colour/period-palette.js';
 import { luminance, MACHADO_2009, simulateVision, VISION_KINDS, type VisionKind } from '../../src/colour/vision-simulation.js';
+import { requireInCi } from '../helpers/require-in-ci.js';
 
 /** How many periods must stay apart for each colour-vision deficiency (the claim in period-palette.ts). */
 const CVD_PERIODS = 12;
@@ -56,7 +57,7 @@ describe('period palette under simulated colour-vision deficiencies and greyscal
   // CIECAM02 colour appearance model", Color Res. Appl. 31 (2006) 320-330), in
   // whose units about 1 is a just-noticeable difference (from memory).
   const python = '/usr/bin/python3';
-  const haveColorspacious = spawnSync(python, ['-c', 'import colorspacious'], { stdio: 'ignore' }).status === 0;
+  const haveColorspacious = requireInCi(spawnSync(python, ['-c', 'import colorspacious'], { stdio: 'ignore' }).status === 0, 'python3-colorspacious');
   const CAM02_APART = 6;
   const script = `
 import sys, json, itertools, numpy as np

@@ -2,9 +2,10 @@ import { spawnSync } from 'node:child_process';
 import { Decimal } from 'decimal.js';
 import { describe, expect, it } from 'vitest';
 import { doubleToPlaces, toExponent, toPlaces } from '../../src/section/decimal-text.js';
+import { requireInCi } from '../helpers/require-in-ci.js';
 
 // Python's decimal module (General Decimal Arithmetic, IEEE 754-2008 rounding) as the reference.
-const python = spawnSync('python3', ['-c', 'import decimal'], { stdio: 'ignore' }).status === 0;
+const python = requireInCi(spawnSync('python3', ['-c', 'import decimal'], { stdio: 'ignore' }).status === 0, 'python3');
 
 function pythonLines(program: string, input: string): string[] {
   const r = spawnSync('python3', ['-c', program], { input, encoding: 'utf8' });
