@@ -5,14 +5,13 @@
  * (`bits`) travels beside it in a {@link FixedScale}, made once per
  * precision, so hot loops do no BigInt conversions of their own. Measured
  * 15-27x faster than decimal.js for z <- z^2 + c at 40-120 digits
- * (shared/ecosystem.md section 3), which is why the project iterates in it.
+ * (a benchmark of ours), which is why the project iterates in it.
  *
  * Rounding rules (all exact integer arithmetic, no doubles on the way):
  * - add, sub, neg: exact.
- * - mul, square, div, sqrt, mulInt-free helpers: rounded to nearest, ties
+ * - mul, square, div, sqrt: rounded to nearest, ties
  *   towards +infinity (one extra BigInt add over plain truncation; plain
  *   `>>` would be floor and bias long orbits downwards).
- *   `mulTrunc` is the floor version for loops that prefer raw speed.
  * - fromDecimal / fromNumber: rounded to nearest, ties to even (exactly the
  *   nearest multiple of 2^-bits to the decimal or double value).
  * - toDecimal: rounded to nearest, ties to even, on the exact binary value.
@@ -44,7 +43,7 @@ export interface FixedComplex {
 const LOG2_10 = Math.log2(10);
 
 /** Default guard bits added by {@link bitsForDigits}. */
-export const GUARD_BITS = 16;
+const GUARD_BITS = 16;
 
 /** bits = ceil(digits * log2 10) + guard. */
 export function bitsForDigits(digits: number, guard: number = GUARD_BITS): number {
@@ -90,14 +89,14 @@ function floorDivRem(num: bigint, den: bigint): { q: bigint; r: bigint; den: big
 }
 
 /** num / den rounded to nearest, ties to even (den != 0). */
-export function divRoundEven(num: bigint, den: bigint): bigint {
+function divRoundEven(num: bigint, den: bigint): bigint {
   const { q, r, den: d } = floorDivRem(num, den);
   const twice = 2n * r;
   return twice > d || (twice === d && (q & 1n) === 1n) ? q + 1n : q;
 }
 
 /** num / den rounded to nearest, ties towards +infinity (den != 0). */
-export function divRoundUp(num: bigint, den: bigint): bigint {
+function divRoundUp(num: bigint, den: bigint): bigint {
   const { q, r, den: d } = floorDivRem(num, den);
   return 2n * r >= d ? q + 1n : q;
 }
@@ -131,11 +130,6 @@ export function mul(a: bigint, b: bigint, s: FixedScale): bigint {
   return (a * b + s.half) >> s.shift;
 }
 
-/** a * b rounded towards -infinity (plain shift; fastest). */
-export function mulTrunc(a: bigint, b: bigint, s: FixedScale): bigint {
-  return (a * b) >> s.shift;
-}
-
 /** a^2 rounded to nearest (ties up). */
 export function square(a: bigint, s: FixedScale): bigint {
   return (a * a + s.half) >> s.shift;
@@ -152,11 +146,6 @@ export function sqrt(a: bigint, s: FixedScale): bigint {
   // sqrt(a * 2^-b) * 2^b = sqrt(a * 2^b); take two extra bits and round.
   const r = isqrt(a << (s.shift + 2n));
   return (r + 1n) >> 1n;
-}
-
-/** Multiplies by an integer (exact). */
-export function mulInt(a: bigint, k: number | bigint): bigint {
-  return a * BigInt(k);
 }
 
 /** Rescales n from one bit count to another (rounded to nearest, ties up, when narrowing). */
@@ -202,16 +191,6 @@ export function cdiv(a: FixedComplex, b: FixedComplex, s: FixedScale): FixedComp
     re: divRoundUp((a.re * b.re + a.im * b.im) << s.shift, den),
     im: divRoundUp((a.im * b.re - a.re * b.im) << s.shift, den),
   };
-}
-
-/** |a|^2 (rounded to nearest). */
-export function cnorm(a: FixedComplex, s: FixedScale): bigint {
-  return (a.re * a.re + a.im * a.im + s.half) >> s.shift;
-}
-
-/** a scaled by a real fixed-point value. */
-export function cscale(a: FixedComplex, k: bigint, s: FixedScale): FixedComplex {
-  return { re: mul(a.re, k, s), im: mul(a.im, k, s) };
 }
 
 // ---------------------------------------------------------------- conversions
@@ -303,7 +282,7 @@ export function bigToNumberScaled(n: bigint, e: number): number {
 }
 
 /** Decimal formatting options for {@link toDecimal}. */
-export interface DecimalFormat {
+interface DecimalFormat {
   /** Number of digits: significant digits, or digits after the point. */
   readonly digits: number;
   /** 'fraction' (default): `digits` after the decimal point; 'significant': `digits` significant digits. */

@@ -133,34 +133,6 @@ export function compare(a: FloatExp, b: FloatExp): number {
   return a.m < b.m ? -1 : a.m > b.m ? 1 : 0;
 }
 
-const LOG10_2 = Math.log10(2);
-
-/** log10 |a| (-Infinity for 0). */
-export function log10Abs(a: FloatExp): number {
-  if (a.m === 0) return -Infinity;
-  return Math.log10(Math.abs(a.m)) + a.e * LOG10_2;
-}
-
-/**
- * A decimal string with `digits` significant digits ("-1.2345e-678"), for
- * messages and metadata. The decimal exponent is split off with log10, so
- * at exponents near 1e4 only about 12 of the digits are right; use
- * fromDecimalString / BigInt paths where exactness matters.
- */
-export function toDecimalString(a: FloatExp, digits = 17): string {
-  if (a.m === 0) return '0';
-  if (!Number.isFinite(a.m)) return String(a.m);
-  const l = log10Abs(a);
-  let d = Math.floor(l);
-  // mantissa = a / 10^d, computed as m * 2^e / 10^d = m * 10^(e log10 2 - d)
-  let mant = Math.sign(a.m) * 10 ** (l - d);
-  if (Math.abs(mant) >= 10) {
-    mant /= 10;
-    d += 1;
-  }
-  return `${mant.toPrecision(digits).replace(/\.?0+$/, '')}e${d}`;
-}
-
 /**
  * Parses a decimal string like "-1.25e-4000" (sign, digits, optional point,
  * optional exponent), correctly rounded up to a sticky-bit double rounding
