@@ -1,7 +1,8 @@
 /**
  * `quadatlas section cascade`: the period-doubling cascade of a family, its
  * Feigenbaum ratios, their accelerated limits with trusted digits, and the
- * accumulation point (methods.md E2, E3). Parameters are written to
+ * accumulation point (methods.md E2, E3); with --window, the cascade inside
+ * that periodic window (src/section/window-cascade.ts). Parameters are written to
  * `--digits` places after the decimal point.
  */
 import type { Command } from 'commander';
@@ -10,11 +11,13 @@ import { toPlaces } from '../../section/decimal-text.js';
 import { formatTable, integerCell, type Cell, type SectionTable } from '../../section/section-table.js';
 import { addOptions, clearProgress, CSV_OPTION, digitsOption, FAMILY_OPTION, guarded, JSON_OPTION, parseFamily, progressLine, tableFormat, type SectionOption, type Values, writeStdout } from './section-options.js';
 import { optionalInteger } from '../../check/fields.js';
+import { parseWindowWord, windowSolver } from '../../section/window-cascade.js';
 
 const DEFAULT_DIGITS = 24;
 
 export const CASCADE_OPTIONS: readonly SectionOption[] = [
   FAMILY_OPTION,
+  { flags: '--window <word>', help: 'the cascade inside the periodic window of this MSS word (e.g. RL: periods 3, 6, 12, ...; see `section windows`); default: the main cascade' },
   { flags: '--levels <n>', help: 'cascade levels: periods 1, 2, 4, ..., 2^k, k from 2 to 22 (default 16 for logistic: delta to about 16 significant digits, alpha to 12; 9 otherwise)' },
   digitsOption(DEFAULT_DIGITS, 'the parameters and ratios, from 8 to 500'),
   JSON_OPTION,
@@ -35,7 +38,10 @@ function trusted(value: Decimal, significant: number, places: number): string {
 export async function cascadeTable(values: Values, progress: (s: string) => void): Promise<SectionTable> {
   const family = parseFamily(values['family']);
   // 16 logistic levels take about 10 s on 2 cores; decimal.js sin makes the sine family about 40 times slower per step than the BigInt logistic path.
-  const levels = optionalInteger(values['levels'], '--levels', 2, 22) ?? (family.name === 'logistic' ? 16 : 9);
+  const word = values['window'] === undefined ? undefined : parseWindowWord(values['window']);
+  const p0 = word === undefined ? 1 : word.length + 1;
+  // Inside a window every level costs p times more; the default keeps periods below about 2^16 (logistic) or 2^9.
+  const levels = optionalInteger(values['levels'], '--levels', 2, 22) ?? Math.max(4, (family.name === 'logistic' ? 16 : 9) - Math.ceil(Math.log2(p0)));
   const digits = optionalInteger(values['digits'], '--digits', 8, 500) ?? DEFAULT_DIGITS;
   const { computeCascade } = await import('../../section/cascade.js');
   const { cascadeSolverFor } = await import('../../section/cascade-solver-for.js');
@@ -43,15 +49,16 @@ export async function cascadeTable(values: Values, progress: (s: string) => void
   // delta_n, so `digits` places of delta_n need that much more; the accelerated limits need 1.4 per level.
   const work = Math.max(digits + 6 + Math.ceil(0.7 * levels), Math.ceil(1.4 * levels) + 24);
   const solver = cascadeSolverFor(family, work);
+  const cascadeSolver = word === undefined ? solver.solver : windowSolver(family, word, solver.solver);
   const started = Date.now();
-  const cascade = computeCascade(solver.solver, levels, work, (l) => progress(`level ${l.level} (period ${l.period}) in ${((Date.now() - started) / 1000).toFixed(1)} s`));
+  const cascade = computeCascade(cascadeSolver, levels, work, (l) => progress(`level ${l.level} (period ${l.period}) in ${((Date.now() - started) / 1000).toFixed(1)} s`));
   const toC = solver.toC;
   const p = family.parameter;
   const columns = ['n', 'period', `doubling_${p}`, ...(toC ? ['doubling_c'] : []), `superstable_${p}`, ...(toC ? ['superstable_c'] : []), 'delta_n', 'alpha_n'];
   const at = (v: Decimal | undefined): string => (v === undefined ? '' : toPlaces(v, digits));
   const cOf = (v: Decimal | undefined): string => (v === undefined || toC === undefined ? '' : toPlaces(toC(v, work), digits));
   const rows = cascade.levels.map((l) => {
-    const row: Cell[] = [integerCell(l.level), integerCell(l.period), at(l.doubling)];
+    const row: Cell[] = [integerCell(l.level), integerCell(p0 * l.period), at(l.doubling)];
     if (toC) row.push(cOf(l.doubling));
     row.push(at(l.superstable));
     if (toC) row.push(cOf(l.superstable));
@@ -69,12 +76,13 @@ export async function cascadeTable(values: Values, progress: (s: string) => void
     summary.push({ name: 'c_inf', value: trusted(new Decimal(toC(acc.value, work)), acc.digits, digits), note: `${acc.digits} significant digits, from ${p}_inf` });
   }
   return {
-    title: `period-doubling cascade of the ${family.name} family ${family.formula}`,
+    title: word === undefined ? `period-doubling cascade of the ${family.name} family ${family.formula}` : `period-doubling cascade inside the window ${word} (period ${p0}) of the ${family.name} family ${family.formula}`,
     columns,
     rows,
     summary,
     extra: {
       family: family.name,
+      ...(word === undefined ? {} : { window: word, windowPeriod: p0 }),
       digits,
       estimates: {
         delta: { value: toPlaces(cascade.delta.value, digits), significantDigits: cascade.delta.digits },
