@@ -16,23 +16,25 @@ import { parseBox, componentJson } from './component-report.js';
 import { certifyListing, MAX_CERTIFY_PERIOD, reportCensusCertificate } from './certify-report.js';
 import { UserError } from '../check/user-error.js';
 import { parseInteger } from '../check/fields.js';
+import { addOptions, type OptionSpec } from './option-spec.js';
 
 /** Longest listing period (the listing refines every nucleus and root to D digits). */
 export const MAX_LIST_PERIOD = 16;
 
+export const COMPONENTS_OPTIONS: readonly OptionSpec[] = [
+  { flags: '--period <period>', description: 'exact period, an integer from 1 (required, no default)', required: true },
+  { flags: '--real', description: 'only components on the real axis (default: all)' },
+  { flags: '--within <box>', description: 'only nuclei inside the box RE0,IM0,RE1,IM1 in c (default: the whole plane)' },
+  { flags: '--digits <digits>', description: 'digits after the decimal point for nuclei and roots; sizes to D significant digits (at most 17)', default: '20' },
+  { flags: '--count', description: 'print only the number of components, with the time taken on stderr (default: list them)' },
+  { flags: '--workers <n>', description: 'worker threads for the census (default: all cores)' },
+  { flags: '--certify', description: 'prove each nucleus (a disk holding exactly one, of exact period P) and the census complete (default: computed, not proved)' },
+  { flags: '--json', description: 'JSON output (default: aligned text)' },
+  { flags: '--csv', description: 'CSV output with snake_case columns (default: aligned text)' },
+];
+
 export function register(program: Command): void {
-  program
-    .command('components')
-    .description('list or count the hyperbolic components of exact period P')
-    .requiredOption('--period <period>', 'exact period, an integer from 1 (required, no default)')
-    .option('--real', 'only components on the real axis (default: all)')
-    .option('--within <box>', 'only nuclei inside the box RE0,IM0,RE1,IM1 in c (default: the whole plane)')
-    .option('--digits <digits>', 'digits after the decimal point for nuclei and roots; sizes to D significant digits (at most 17)', '20')
-    .option('--count', 'print only the number of components, with the time taken on stderr (default: list them)')
-    .option('--workers <n>', 'worker threads for the census (default: all cores)')
-    .option('--certify', 'prove each nucleus (a disk holding exactly one, of exact period P) and the census complete (default: computed, not proved)')
-    .option('--json', 'JSON output (default: aligned text)')
-    .option('--csv', 'CSV output with snake_case columns (default: aligned text)')
+  addOptions(program.command('components').description('list or count the hyperbolic components of exact period P'), COMPONENTS_OPTIONS)
     .action(async (o: Record<string, unknown>) => {
       const count = o['count'] === true;
       const certify = o['certify'] === true;

@@ -11,13 +11,14 @@ import { renderJuliaSheet } from '../render/render-julia.js';
 import { readSheetFile, sheetName } from './sheet-file.js';
 import { UserError } from '../check/user-error.js';
 import { optionalInteger } from '../check/fields.js';
+import { addOptions } from './option-spec.js';
 
 export function register(program: Command): void {
   const cmd = program
     .command('julia')
     .description('render one image of the dynamical plane of one c (flags override the sheet)')
     .argument('[sheet]', 'a Julia sheet (JSON) holding c, the view, colouring and output');
-  for (const o of JULIA_OPTIONS) cmd.option(o.flags, o.description);
+  addOptions(cmd, JULIA_OPTIONS);
   cmd.action(async (sheetFile: string | undefined, values: Record<string, unknown>) => {
     let raw: Record<string, unknown>;
     let name = 'julia';

@@ -22,22 +22,24 @@ import { juliaCommandLine } from './julia-command.js';
 import { UserError } from '../check/user-error.js';
 import { certifyLocated } from './certify-report.js';
 import { parseInteger } from '../check/fields.js';
+import { addOptions, type OptionSpec } from './option-spec.js';
 
 /** Longest period for --angle (the ray is traced in double-double) and for --address (angles are enumerated). */
 export const MAX_ANGLE_PERIOD = 60;
 export const MAX_ADDRESS_PERIOD = 22;
 
+export const LOCATE_OPTIONS: readonly OptionSpec[] = [
+  { flags: '--period <period>', description: 'exact period, an integer from 1 (required with --near; default: from the angle or address)' },
+  { flags: '--near <re,im>', description: 'start point for Newton in c, RE,IM as decimals (default: none)' },
+  { flags: '--angle <a/b>', description: 'a rational external angle in turns, 0 <= a < b: land its ray (default: none)' },
+  { flags: '--address <1-2-4>', description: 'an internal address, increasing periods from 1 (default: none)' },
+  { flags: '--digits <digits>', description: 'digits after the decimal point; sizes to D significant digits (at most 17)', default: '30' },
+  { flags: '--certify', description: 'prove the nucleus and the root, disks holding exactly one solution each (default: computed, not proved)' },
+  { flags: '--json', description: 'JSON output (default: aligned text)' },
+];
+
 export function register(program: Command): void {
-  program
-    .command('locate')
-    .description('Newton to one nucleus of period P from a guess, an external angle or an internal address')
-    .option('--period <period>', 'exact period, an integer from 1 (required with --near; default: from the angle or address)')
-    .option('--near <re,im>', 'start point for Newton in c, RE,IM as decimals (default: none)')
-    .option('--angle <a/b>', 'a rational external angle in turns, 0 <= a < b: land its ray (default: none)')
-    .option('--address <1-2-4>', 'an internal address, increasing periods from 1 (default: none)')
-    .option('--digits <digits>', 'digits after the decimal point; sizes to D significant digits (at most 17)', '30')
-    .option('--certify', 'prove the nucleus and the root, disks holding exactly one solution each (default: computed, not proved)')
-    .option('--json', 'JSON output (default: aligned text)')
+  addOptions(program.command('locate').description('Newton to one nucleus of period P from a guess, an external angle or an internal address'), LOCATE_OPTIONS)
     .action(async (o: Record<string, unknown>) => {
       const digits = parseInteger(o['digits'], '--digits', 1, 5000);
       const given = ['near', 'angle', 'address'].filter((k) => o[k] !== undefined);

@@ -22,7 +22,7 @@ const COMMANDS: ReadonlyArray<readonly [string, string, () => Promise<CommandMod
   ['plate', 'render one image of a view of the c-plane', () => import('./plate.js')],
   ['julia', 'render one image of the dynamical plane of one c', () => import('./julia.js')],
   ['presets', 'list, show, check and render the sheets in presets/', () => import('./presets.js')],
-  ['section', 'the real slice: convert, cascade, windows, lyapunov, diagram, compare, orbit, cobweb', () => import('./section.js')],
+  ['section', 'the real slice: convert, cascade, windows, lyapunov, entropy, diagram, compare, orbit, cobweb', () => import('./section.js')],
   ['pyramid', 'write a deep-zoom tile pyramid of a view, with an offline viewer page', () => import('./pyramid.js')],
   ['worker', 'take tile jobs from a shared queue (cluster mode)', () => import('./worker.js')],
   ['components', 'list or count the hyperbolic components of a period', () => import('./components.js')],
@@ -58,27 +58,75 @@ export function protectNegativeNumbers(argv: readonly string[]): string[] {
   return [argv[0]!, ...options, '--', ...positionals];
 }
 
-export async function main(argv: readonly string[]): Promise<number> {
+/** The program with the wanted command registered (the others as stubs for --help); output goes through `write`. */
+async function buildProgram(wanted: string | undefined, write: { out: (s: string) => void; err: (s: string) => void }): Promise<Command> {
   const program = new Command('quadatlas')
     .description('Plates, components, the real slice and deep-zoom pyramids for z -> z^2 + c.')
     .version(toolVersion(), '-V, --version')
     .exitOverride()
     .configureOutput({
-      writeErr: (s) => process.stderr.write(s),
+      writeOut: write.out,
+      writeErr: write.err,
       // commander's own errors (unknown flag, missing value) in the one message style: one line, prefixed.
-      outputError: (text, write) => write(`${text.startsWith('quadatlas:') ? '' : 'quadatlas: '}${text.replace(/^error: /, '').trim().replace(/\s*\n\s*/g, ' ')}\n`),
+      outputError: (text, w) => w(`${text.startsWith('quadatlas:') ? '' : 'quadatlas: '}${text.replace(/^error: /, '').trim().replace(/\s*\n\s*/g, ' ')}\n`),
     });
-  const wanted = argv[0];
   for (const [name, summary, load] of COMMANDS) {
     if (name === wanted) (await load()).register(program);
     else program.command(name).description(summary).allowUnknownOption().helpOption(false);
   }
+  return program;
+}
+
+export async function main(argv: readonly string[]): Promise<number> {
+  const program = await buildProgram(argv[0], { out: (s) => process.stdout.write(s), err: (s) => process.stderr.write(s) });
   try {
     await program.parseAsync(protectNegativeNumbers(argv), { from: 'user' });
     return typeof process.exitCode === 'number' ? process.exitCode : 0;
   } catch (err) {
     return reportError(err);
   }
+}
+
+/** A command line read against the option tables: the command path, the option values (commander's names) and the positionals. */
+export interface ParsedArgs {
+  readonly command: readonly string[];
+  readonly values: Readonly<Record<string, unknown>>;
+  readonly positionals: readonly unknown[];
+  /** Help or version text, when the line asked for it (nothing else is read then). */
+  readonly shown?: string;
+}
+
+class Parsed extends Error {
+  constructor(readonly parsed: ParsedArgs) {
+    super('parsed');
+  }
+}
+
+/**
+ * Reads a command line exactly as `main` does, but runs nothing: no action,
+ * no output, no exit. What commander refuses (unknown flag, missing value or
+ * argument) comes back as a UserError-like one-line message in an Error.
+ * Pure, so the option tables of every command are tested without a process.
+ */
+export async function parseArgs(argv: readonly string[]): Promise<ParsedArgs> {
+  let text = '';
+  const program = await buildProgram(argv[0], { out: (s) => (text += s), err: (s) => (text += s) });
+  program.hook('preAction', (_root, action) => {
+    const path: string[] = [];
+    for (let c: Command | null = action; c !== null && c !== program; c = c.parent) path.unshift(c.name());
+    throw new Parsed({ command: path, values: { ...action.opts() }, positionals: [...action.processedArgs] });
+  });
+  try {
+    await program.parseAsync(protectNegativeNumbers(argv), { from: 'user' });
+  } catch (err) {
+    if (err instanceof Parsed) return err.parsed;
+    if (err instanceof CommanderError) {
+      if (err.exitCode === 0) return { command: [], values: {}, positionals: [], shown: text };
+      throw new Error(text.trim() || err.message);
+    }
+    throw err;
+  }
+  throw new Error(`quadatlas: no command in ${argv.join(' ')}`);
 }
 
 /** Prints a user error as one line and returns its exit code; rethrows bugs. */
@@ -108,15 +156,15 @@ function invokedDirectly(): boolean {
 /** Commands that stop cleanly on a signal by themselves (they finish the job in hand first). */
 const OWN_SIGNAL_HANDLING = new Set(['worker']);
 
+/** Sweeps of the temporary files after a signal, 20 ms apart, before the process exits. */
+const SIGNAL_SWEEPS = 5;
+let stopping = false;
+
 /**
  * On SIGINT or SIGTERM, removes the temporary files the run still holds
  * (nothing half-written stays behind; a later run also removes those of a
  * killed process) and exits with 128 + the signal number.
  */
-/** Sweeps of the temporary files after a signal, 20 ms apart, before the process exits. */
-const SIGNAL_SWEEPS = 5;
-let stopping = false;
-
 function removeTempsOnSignal(): void {
   for (const [signal, code] of [['SIGINT', 130], ['SIGTERM', 143]] as const) {
     process.on(signal, () => {

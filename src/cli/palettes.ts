@@ -18,6 +18,7 @@ import { gradientSwatch, interiorSwatch, periodSwatch, type Swatch } from '../co
 import { checkWritableDirectory } from '../io/check-writable-directory.js';
 import { writeFileAtomic } from '../io/write-file-atomic.js';
 import { Received, UserError } from '../check/user-error.js';
+import { addOptions, type OptionSpec } from './option-spec.js';
 
 /** Periods listed and drawn in the period swatch. */
 export const PALETTE_PERIODS = 24;
@@ -55,13 +56,14 @@ function gradientHexAt(gradient: keyof typeof EXTERIOR_GRADIENTS | readonly Grad
   return linearToHex(c[0]!, c[1]!, c[2]!);
 }
 
+export const PALETTES_OPTIONS: readonly OptionSpec[] = [
+  { flags: '--out-dir <dir>', description: 'write a swatch PNG per gradient, per interior style and one of the period colours into DIR (default: none)' },
+  { flags: '--gradient <file>', description: 'also show a custom gradient from colour stops (JSON or CSV at,colour, as plate --gradient reads; default: none)' },
+  { flags: '--json', description: 'print the listing as JSON on stdout (default: text)' },
+];
+
 export function register(program: Command): void {
-  program
-    .command('palettes')
-    .description('list and show the exterior gradients, interior styles and period colours')
-    .option('--out-dir <dir>', 'write a swatch PNG per gradient, per interior style and one of the period colours into DIR (default: none)')
-    .option('--gradient <file>', 'also show a custom gradient from colour stops (JSON or CSV at,colour, as plate --gradient reads; default: none)')
-    .option('--json', 'print the listing as JSON on stdout (default: text)')
+  addOptions(program.command('palettes').description('list and show the exterior gradients, interior styles and period colours'), PALETTES_OPTIONS)
     .action(async (values: { outDir?: string; gradient?: string; json?: boolean }) => {
       let custom: GradientStop[] | null = null;
       if (values.gradient !== undefined) {

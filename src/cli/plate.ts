@@ -14,6 +14,7 @@ import { readSheetFile, sheetName } from './sheet-file.js';
 import { Received, UserError } from '../check/user-error.js';
 import { toolVersion } from '../io/tool-version.js';
 import { optionalInteger } from '../check/fields.js';
+import { addOptions } from './option-spec.js';
 
 /**
  * The sheet recorded in a file quadatlas wrote (PNG, TIFF, SVG or JSON
@@ -40,7 +41,7 @@ export function register(program: Command): void {
     .command('plate')
     .description('render one image of a view of the c-plane (flags override the sheet)')
     .argument('[sheet]', 'a sheet (JSON) holding the view, colouring and output');
-  for (const o of PLATE_OPTIONS) cmd.option(o.flags, o.description);
+  addOptions(cmd, PLATE_OPTIONS);
   cmd.action(async (sheetFile: string | undefined, values: Record<string, unknown>) => {
     let raw: Record<string, unknown>;
     let name = 'plate';

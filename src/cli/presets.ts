@@ -17,6 +17,7 @@ import { quickSheet } from './quick.js';
 import { toolVersion } from '../io/tool-version.js';
 import { reportWrote } from './wrote.js';
 import { optionalInteger } from '../check/fields.js';
+import { addOptions, type OptionSpec } from './option-spec.js';
 
 interface Entry {
   name: string;
@@ -43,12 +44,19 @@ async function load(e: Entry): Promise<Sheet | JuliaSheet | FigureSheet> {
   return parseSheet(raw, e.name);
 }
 
+export const PRESETS_LIST_OPTIONS: readonly OptionSpec[] = [
+  { flags: '--json', description: 'print the list as JSON (default: aligned text)' },
+];
+
+export const PRESETS_RENDER_OPTIONS: readonly OptionSpec[] = [
+  { flags: '--out-dir <dir>', description: 'write into this directory instead of the sheets\' own paths (default: each sheet\'s output.file)' },
+  { flags: '--all', description: 'render every preset (default: only those marked startup)' },
+  { flags: '--workers <n>', description: 'worker threads, never changes the output (default: one per core)' },
+];
+
 export function register(program: Command): void {
   const presets = program.command('presets').description('list, show, check and render the sheets in presets/');
-  presets
-    .command('list')
-    .description('one line per preset: name, size, title')
-    .option('--json', 'print the list as JSON (default: aligned text)')
+  addOptions(presets.command('list').description('one line per preset: name, size, title'), PRESETS_LIST_OPTIONS)
     .action(async (opts: { json?: boolean }) => {
       const rows = [];
       for (const e of await entries()) {
@@ -89,12 +97,7 @@ export function register(program: Command): void {
       }
       if (bad > 0) process.exitCode = 2;
     });
-  presets
-    .command('render [names...]')
-    .description('render presets (default: those marked startup) into their output files')
-    .option('--out-dir <dir>', 'write into this directory instead of the sheets\' own paths (default: each sheet\'s output.file)')
-    .option('--all', 'render every preset (default: only those marked startup)')
-    .option('--workers <n>', 'worker threads, never changes the output (default: one per core)')
+  addOptions(presets.command('render [names...]').description('render presets (default: those marked startup) into their output files'), PRESETS_RENDER_OPTIONS)
     .action(async (names: string[], opts: { outDir?: string; all?: boolean; workers?: string }) => {
       const all = await entries();
       let chosen: Entry[];

@@ -24,20 +24,20 @@ import { juliaCommandLine } from './julia-command.js';
 import { criticalOrbit } from '../dynamic/critical-orbit.js';
 import { findJuliaCycle } from '../dynamic/julia-cycle.js';
 import { parseInteger } from '../check/fields.js';
+import { addOptions, type OptionSpec } from './option-spec.js';
 
 const ESCAPE_RADIUS = 1e6;
 
+export const PROBE_OPTIONS: readonly OptionSpec[] = [
+  { flags: '--digits <digits>', description: 'digits after the decimal point; multipliers, distances and sizes to D significant digits (at most 17)', default: '20' },
+  { flags: '--iterations <n>', description: 'iteration limit of the escape test', default: '100000' },
+  { flags: '--max-period <period>', description: 'longest attracting cycle looked for, in iterations', default: '1000' },
+  { flags: '--orbit <n>', description: 'also list the first n points of the critical orbit and the cycle it settles on (default: none)' },
+  { flags: '--json', description: 'JSON output (default: aligned text)' },
+];
+
 export function register(program: Command): void {
-  program
-    .command('probe')
-    .description('everything known about one parameter c')
-    .argument('<re,im>', 'the parameter c as RE,IM (write `probe -- -1.76,0.01` when RE is negative, or give RE and IM apart)')
-    .argument('[im]', 'IM, when RE and IM are given as two arguments')
-    .option('--digits <digits>', 'digits after the decimal point; multipliers, distances and sizes to D significant digits (at most 17)', '20')
-    .option('--iterations <n>', 'iteration limit of the escape test', '100000')
-    .option('--max-period <period>', 'longest attracting cycle looked for, in iterations', '1000')
-    .option('--orbit <n>', 'also list the first n points of the critical orbit and the cycle it settles on (default: none)')
-    .option('--json', 'JSON output (default: aligned text)')
+  addOptions(program.command('probe').description('everything known about one parameter c').argument('<re,im>', 'the parameter c as RE,IM (write `probe -- -1.76,0.01` when RE is negative, or give RE and IM apart)').argument('[im]', 'IM, when RE and IM are given as two arguments'), PROBE_OPTIONS)
     .action(async (first: string, second: string | undefined, o: Record<string, unknown>) => {
       const c = parseDecimalPair(second === undefined ? first : `${first},${second}`, 'c');
       const digits = parseInteger(o['digits'], '--digits', 1, 2000);

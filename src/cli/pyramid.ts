@@ -29,7 +29,7 @@ import { DOUBLE_MIN_RELATIVE_SPACING, fitsDouble } from '../view/view.js';
 import { sheetFromPlate } from './plate.js';
 import { COLOUR_OPTIONS } from './colour-options.js';
 import { applyPlateOptions, attributeName, PLATE_OPTIONS } from './plate-options.js';
-import type { OptionSpec } from './option-spec.js';
+import { addOptions, type OptionSpec } from './option-spec.js';
 import { readSheetFile, sheetName } from './sheet-file.js';
 import { Received, UserError } from '../check/user-error.js';
 import { toolVersion } from '../io/tool-version.js';
@@ -298,7 +298,7 @@ export function register(program: Command): void {
     .command('pyramid')
     .description('write a deep-zoom tile pyramid (IIIF level 0) of a view with an offline viewer page')
     .argument('[sheet]', 'a sheet (JSON) holding the view and colouring');
-  for (const o of PYRAMID_OPTIONS) cmd.option(o.flags, o.description);
+  addOptions(cmd, PYRAMID_OPTIONS);
   cmd.action(async (sheetFile: string | undefined, values: Record<string, unknown>) => {
     const summary = await runPyramid(sheetFile, values);
     if (values['json'] === true) process.stdout.write(`${JSON.stringify(summary, null, 2)}\n`);

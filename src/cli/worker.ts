@@ -12,7 +12,7 @@ import { pyramidKey, readPyramidSpec } from '../io/iiif-manifest.js';
 import type { PyramidSpec } from '../view/pyramid-spec.js';
 import { PyramidPool } from '../render/pyramid-pool.js';
 import { checkRedis, connectionOptions, parseRedisUrl, QUEUE_NAME, type TileJob, type TileJobResult } from '../render/pyramid-queue.js';
-import type { OptionSpec } from './option-spec.js';
+import { addOptions, type OptionSpec } from './option-spec.js';
 import { UserError } from '../check/user-error.js';
 import { optionalInteger } from '../check/fields.js';
 
@@ -114,7 +114,7 @@ export async function runWorker(values: Record<string, unknown>): Promise<Record
 
 export function register(program: Command): void {
   const cmd = program.command('worker').description('take pyramid tile jobs from a shared Redis queue (cluster mode)');
-  for (const o of WORKER_OPTIONS) cmd.option(o.flags, o.description);
+  addOptions(cmd, WORKER_OPTIONS);
   cmd.action(async (values: Record<string, unknown>) => {
     const summary = await runWorker(values);
     if (values['json'] === true) process.stdout.write(`${JSON.stringify(summary, null, 2)}\n`);

@@ -69,7 +69,7 @@ describe('section option parsing', () => {
 
   it('every section help line states its default', () => {
     for (const table of [CONVERT_OPTIONS, CASCADE_OPTIONS, WINDOWS_OPTIONS, LYAPUNOV_OPTIONS, DIAGRAM_OPTIONS, COMPARE_OPTIONS]) {
-      for (const o of table) expect(o.help, o.flags).toMatch(/\(default|default:/);
+      for (const o of table) expect(o.description, o.flags).toMatch(/\(default|default:/);
     }
   });
 });

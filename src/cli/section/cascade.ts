@@ -17,8 +17,8 @@ const DEFAULT_DIGITS = 24;
 
 export const CASCADE_OPTIONS: readonly SectionOption[] = [
   FAMILY_OPTION,
-  { flags: '--window <word>', help: 'the cascade inside the periodic window of this MSS word (e.g. RL: periods 3, 6, 12, ...; see `section windows`); default: the main cascade' },
-  { flags: '--levels <n>', help: 'cascade levels: periods 1, 2, 4, ..., 2^k, k from 2 to 22 (default 16 for logistic: delta to about 16 significant digits, alpha to 12; 9 otherwise)' },
+  { flags: '--window <word>', description: 'the cascade inside the periodic window of this MSS word (e.g. RL: periods 3, 6, 12, ...; see `section windows`); default: the main cascade' },
+  { flags: '--levels <n>', description: 'cascade levels: periods 1, 2, 4, ..., 2^k, k from 2 to 22 (default 16 for logistic: delta to about 16 significant digits, alpha to 12; 9 otherwise)' },
   digitsOption(DEFAULT_DIGITS, 'the parameters and ratios, from 8 to 500'),
   JSON_OPTION,
   CSV_OPTION,

@@ -15,10 +15,10 @@ import { optionalInteger } from '../../check/fields.js';
 const DEFAULT_DIGITS = 30;
 
 export const CONVERT_OPTIONS: readonly SectionOption[] = [
-  { flags: '--c <value>', help: 'a real parameter c of z -> z^2 + c, c <= 1/4 (default: none; give --c or --r)' },
-  { flags: '--r <value>', help: 'a logistic parameter r (default: none; give --c or --r)' },
-  { flags: '--x <value>', help: 'a logistic state x, converted to z at the parameter (default: none)' },
-  { flags: '--z <value>', help: 'a quadratic state z, converted to x at the parameter (default: none)' },
+  { flags: '--c <value>', description: 'a real parameter c of z -> z^2 + c, c <= 1/4 (default: none; give --c or --r)' },
+  { flags: '--r <value>', description: 'a logistic parameter r (default: none; give --c or --r)' },
+  { flags: '--x <value>', description: 'a logistic state x, converted to z at the parameter (default: none)' },
+  { flags: '--z <value>', description: 'a quadratic state z, converted to x at the parameter (default: none)' },
   digitsOption(DEFAULT_DIGITS, 'the converted values'),
   JSON_OPTION,
   CSV_OPTION,

@@ -22,12 +22,12 @@ const DEFAULT_LETTERS = { logistic: 1000, other: 300 };
 
 export const ENTROPY_OPTIONS: readonly SectionOption[] = [
   FAMILY_OPTION,
-  { flags: '--r-from <r>', help: 'left end of the parameter axis (default: the start of the family range, e.g. 2 for logistic)' },
-  { flags: '--r-to <r>', help: 'right end of the parameter axis (default: full chaos, e.g. 4 for logistic)' },
-  { flags: '--steps <n>', help: 'parameter values, evenly spaced, both ends included, 2 to 100000 (default 401)' },
-  { flags: '--letters <n>', help: 'kneading letters per parameter, 16 to 100000 (default 1000 logistic, 300 otherwise)' },
+  { flags: '--r-from <r>', description: 'left end of the parameter axis (default: the start of the family range, e.g. 2 for logistic)' },
+  { flags: '--r-to <r>', description: 'right end of the parameter axis (default: full chaos, e.g. 4 for logistic)' },
+  { flags: '--steps <n>', description: 'parameter values, evenly spaced, both ends included, 2 to 100000 (default 401)' },
+  { flags: '--letters <n>', description: 'kneading letters per parameter, 16 to 100000 (default 1000 logistic, 300 otherwise)' },
   digitsOption(DEFAULT_DIGITS, 'the entropy, 1 to 15'),
-  { flags: '--out <file>', help: 'also write the plot to this file, .svg or .png (default: table only)' },
+  { flags: '--out <file>', description: 'also write the plot to this file, .svg or .png (default: table only)' },
   NO_SIDECAR_OPTION,
   JSON_OPTION,
   CSV_OPTION,

@@ -10,6 +10,7 @@ import type { UnimodalFamily } from '../../section/unimodal-family.js';
 import { Received, UserError } from '../../check/user-error.js';
 import { parseDecimal, parseFamily, tableFormat } from './section-options.js';
 import { optionalInteger } from '../../check/fields.js';
+import { addOptions, type OptionSpec } from '../option-spec.js';
 
 type Values = Record<string, unknown>;
 
@@ -191,37 +192,40 @@ export async function cobwebRun(values: Values): Promise<{ table: SectionTable; 
   };
 }
 
+export const ORBIT_OPTIONS: readonly OptionSpec[] = [
+  { flags: '--r <values>', description: 'parameters R[,R2,...] (logistic: in [0, 4]; required, no default)' },
+  { flags: '--x0 <x>', description: 'start (default 0.2 for the logistic family)' },
+  { flags: '--iterations <n>', description: 'steps shown (default 60)' },
+  { flags: '--transient <n>', description: 'steps skipped before those shown (default 0)' },
+  { flags: '--digits <n>', description: 'print to n digits after the point, computed in decimal arithmetic, with the count of trusted steps (default: doubles, 12 significant digits)' },
+  { flags: '--family <name>', description: 'the unimodal family (default logistic)' },
+  { flags: '--json', description: 'write the table as JSON to stdout (default: aligned text)' },
+  { flags: '--csv', description: 'write the table as CSV to stdout (default: aligned text)' },
+  { flags: '--out <file>', description: 'figure: .svg (main output) or .png (the same figure; text in our bitmap font) (default: table only)' },
+];
+
+export const COBWEB_OPTIONS: readonly OptionSpec[] = [
+  { flags: '--r <value>', description: 'the parameter R (logistic: in [0, 4]; required, no default)' },
+  { flags: '--x0 <x>', description: 'start (default 0.2 for the logistic family)' },
+  { flags: '--iterations <n>', description: 'staircase steps (default 80)' },
+  { flags: '--iterate <k>', description: 'draw f^K and step by it (default 1)' },
+  { flags: '--family <name>', description: 'the unimodal family (default logistic)' },
+  { flags: '--json', description: 'write the orbit as JSON to stdout (default: aligned text)' },
+  { flags: '--csv', description: 'write the orbit as CSV to stdout (default: aligned text)' },
+  { flags: '--out <file>', description: 'figure: .svg (main output) or .png (the same figure; text in our bitmap font) (default: table only)' },
+];
+
 /** Registers `orbit` and `cobweb` under `section`. */
 export function registerOrbitCommands(section: Command): void {
-  const out = (cmd: Command): Command => cmd.option('--out <file>', 'figure: .svg (main output) or .png (the same figure; text in our bitmap font)');
-  const orbitCmd = section
-    .command('orbit')
-    .description('orbits x_0, x_1, ... for one or more parameters: table, classification, and a plot of x_n against n')
-    .option('--r <values>', 'parameters R[,R2,...] (logistic: in [0, 4])')
-    .option('--x0 <x>', 'start (default 0.2 for the logistic family)')
-    .option('--iterations <n>', 'steps shown (default 60)')
-    .option('--transient <n>', 'steps skipped before those shown (default 0)')
-    .option('--digits <n>', 'print to n digits after the point, computed in decimal arithmetic, with the count of trusted steps')
-    .option('--family <name>', 'the unimodal family (default logistic)')
-    .option('--json', 'write the table as JSON to stdout')
-    .option('--csv', 'write the table as CSV to stdout');
-  out(orbitCmd).action(async (values: Values) => {
+  const orbitCmd = addOptions(section.command('orbit').description('orbits x_0, x_1, ... for one or more parameters: table, classification, and a plot of x_n against n'), ORBIT_OPTIONS);
+  orbitCmd.action(async (values: Values) => {
     const format = tableFormat(values);
     const run = await orbitFigure(values);
     const { formatTable } = await import('../../section/section-table.js');
     process.stdout.write(formatTable(run.table, format));
   });
-  const cobweb = section
-    .command('cobweb')
-    .description('the cobweb of one orbit: the graph of f (or f^K), the diagonal and the staircase')
-    .option('--r <value>', 'the parameter R (logistic: in [0, 4])')
-    .option('--x0 <x>', 'start (default 0.2 for the logistic family)')
-    .option('--iterations <n>', 'staircase steps (default 80)')
-    .option('--iterate <k>', 'draw f^K and step by it (default 1)')
-    .option('--family <name>', 'the unimodal family (default logistic)')
-    .option('--json', 'write the orbit as JSON to stdout')
-    .option('--csv', 'write the orbit as CSV to stdout');
-  out(cobweb).action(async (values: Values) => {
+  const cobweb = addOptions(section.command('cobweb').description('the cobweb of one orbit: the graph of f (or f^K), the diagonal and the staircase'), COBWEB_OPTIONS);
+  cobweb.action(async (values: Values) => {
     const format = tableFormat(values);
     const run = await cobwebFigure(values);
     const { formatTable } = await import('../../section/section-table.js');

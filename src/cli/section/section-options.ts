@@ -13,17 +13,13 @@ import type { TableFormat } from '../../section/section-table.js';
 import type { UnimodalFamily } from '../../section/unimodal-family.js';
 import { Received, UserError } from '../../check/user-error.js';
 import { ConvergenceError, isIntegerText, optionalInteger, parseDecimalText, parseSize } from '../../check/fields.js';
+import { addOptions, type OptionSpec } from '../option-spec.js';
+export { addOptions };
 
 export type Values = Record<string, unknown>;
 
-export interface SectionOption {
-  readonly flags: string;
-  readonly help: string;
-  /** The sheet field the flag sets (dotted path), if any. */
-  readonly field?: string;
-  /** Text -> raw sheet value; the sheet's checker validates it. Default: the text itself. */
-  readonly value?: (text: string) => unknown;
-}
+/** Section commands use the one option shape of every command. */
+export type SectionOption = OptionSpec;
 
 export const FAMILY_NAMES = [...FAMILIES.keys()];
 
@@ -85,22 +81,17 @@ export function applySectionFlags(raw: Json, values: Values, options: readonly S
   return origin;
 }
 
-export function addOptions(cmd: Command, options: readonly SectionOption[]): Command {
-  for (const o of options) cmd.option(o.flags, o.help);
-  return cmd;
-}
-
 // Options shared by several subcommands, with their defaults stated.
-export const FAMILY_OPTION: SectionOption = { flags: '--family <name>', help: `the unimodal family: ${FAMILY_NAMES.join(', ')} (default logistic)`, field: 'family' };
-export const JSON_OPTION: SectionOption = { flags: '--json', help: 'write the table as JSON to stdout (default: aligned text)' };
-export const CSV_OPTION: SectionOption = { flags: '--csv', help: 'write the table as CSV to stdout (default: aligned text)' };
-export const WORKERS_OPTION: SectionOption = { flags: '--workers <n>', help: 'worker threads (default: all cores); never changes the output' };
-export const NO_SIDECAR_OPTION: SectionOption = { flags: '--no-sidecar', help: 'do not write the JSON sidecar FILE.json beside the output (default: write it)', field: 'output.sidecar' };
+export const FAMILY_OPTION: SectionOption = { flags: '--family <name>', description: `the unimodal family: ${FAMILY_NAMES.join(', ')} (default logistic)`, field: 'family' };
+export const JSON_OPTION: SectionOption = { flags: '--json', description: 'write the table as JSON to stdout (default: aligned text)' };
+export const CSV_OPTION: SectionOption = { flags: '--csv', description: 'write the table as CSV to stdout (default: aligned text)' };
+export const WORKERS_OPTION: SectionOption = { flags: '--workers <n>', description: 'worker threads (default: all cores); never changes the output' };
+export const NO_SIDECAR_OPTION: SectionOption = { flags: '--no-sidecar', description: 'do not write the JSON sidecar FILE.json beside the output (default: write it)', field: 'output.sidecar' };
 export function againOption(kind: string): SectionOption {
-  return { flags: '--again <file>', help: `render again from the sheet stored in a PNG, SVG or JSON sidecar that a ${kind} run wrote (default: none)` };
+  return { flags: '--again <file>', description: `render again from the sheet stored in a PNG, SVG or JSON sidecar that a ${kind} run wrote (default: none)` };
 }
 export function digitsOption(fallback: number, what: string): SectionOption {
-  return { flags: '--digits <digits>', help: `digits after the decimal point of ${what}; values written with an exponent carry D significant digits (default ${fallback})` };
+  return { flags: '--digits <digits>', description: `digits after the decimal point of ${what}; values written with an exponent carry D significant digits (default ${fallback})` };
 }
 
 export function parseFamily(value: unknown): UnimodalFamily {

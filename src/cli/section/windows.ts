@@ -17,8 +17,8 @@ import { optionalInteger } from '../../check/fields.js';
 const DEFAULT_DIGITS = 15;
 
 export const WINDOWS_OPTIONS: readonly SectionOption[] = [
-  { ...FAMILY_OPTION, help: `${FAMILY_OPTION.help}; windows need a quadratic maximum (logistic or sine)` },
-  { flags: '--max-period <period>', help: 'largest period of the windows listed, 1 to 16 (default 6)' },
+  { ...FAMILY_OPTION, description: `${FAMILY_OPTION.description}; windows need a quadratic maximum (logistic or sine)` },
+  { flags: '--max-period <period>', description: 'largest period of the windows listed, 1 to 16 (default 6)' },
   digitsOption(DEFAULT_DIGITS, 'the window points, from 4 to 200'),
   JSON_OPTION,
   CSV_OPTION,
