@@ -4,7 +4,9 @@
 import { describe, expect, it } from 'vitest';
 import { logistic, sine } from '../../src/section/families/index.js';
 import { eventualPeriod, kneadingCoefficients, kneadingSequence, topologicalEntropy } from '../../src/section/entropy.js';
-import { runCli } from '../helpers/run-cli.js';
+import { readFileSync } from 'node:fs';
+import path from 'node:path';
+import { runCli, tempDir } from '../helpers/run-cli.js';
 
 const LN2 = Math.log(2);
 const LN_PHI = Math.log((1 + Math.sqrt(5)) / 2);
@@ -57,6 +59,12 @@ describe('entropy of the logistic family', () => {
     expect(e.entropy).toBeCloseTo(LN2 / 2, 6);
   });
 
+  it('log of the tribonacci constant (OEIS A058265, 1.839286755...) on the period-4 window RLL: its kneading (RLL C) gives 1 - t - t^2 - t^3', () => {
+    // The window's superstable parameter, to 25 digits (its c = r/2 - r^2/4 is a real zero of F_4: see window-cascade.test.ts).
+    const e = topologicalEntropy(logistic, '3.960270127221152601571258', 1000);
+    expect(e.entropy).toBeCloseTo(Math.log(1.839286755214161132551852564653286600424), 10);
+  });
+
   it('never decreases with r (monotonicity of entropy in the real quadratic family: Milnor-Thurston, Douady-Hubbard)', () => {
     let last = 0;
     for (let k = 0; k <= 40; k++) {
@@ -90,5 +98,27 @@ describe('quadatlas section entropy', () => {
     expect(bad.status).toBe(2);
     expect(bad.stderr.trim().split('\n')).toHaveLength(1);
     expect(bad.stderr).toMatch(/--r-from/);
+    for (const [args, field] of [
+      [['--r-from', '3.9', '--r-to', '3.5'], '--r-to'],
+      [['--steps', '1'], '--steps'],
+      [['--letters', 'many'], '--letters'],
+      [['--out', 'plot.pdf'], '--out'],
+    ] as const) {
+      const b = runCli(['section', 'entropy', ...args]);
+      expect(b.status, args.join(' ')).toBe(2);
+      expect(b.stderr.trim().split('\n')).toHaveLength(1);
+      expect(b.stderr).toContain(field);
+    }
+  });
+
+  it('--out FILE.svg writes the plot carrying its settings, and a sidecar', () => {
+    const dir = tempDir();
+    const file = path.join(dir, 'h.svg');
+    const r = runCli(['section', 'entropy', '--r-from', '3.6', '--steps', '12', '--out', file]);
+    expect(r.status, r.stderr).toBe(0);
+    const svg = readFileSync(file, 'utf8');
+    expect(svg).toMatch(/<svg/);
+    expect(svg).toContain('section-entropy');
+    expect(JSON.parse(readFileSync(`${file}.json`, 'utf8'))).toBeTruthy();
   });
 });
