@@ -23,6 +23,8 @@ import { NewtonError } from './newton-error.js';
 export const WALK_STEPS = 16;
 /** How often a failed walk step may be halved before giving up. */
 export const MAX_HALVINGS = 10;
+/** Components with a size above 10^-DOUBLE_WALK_DIGITS are walked in doubles, leaving 6 or more digits to spare. */
+const DOUBLE_WALK_DIGITS = 9;
 
 /**
  * The parameter b on the component of period `period` around `nucleus` where
@@ -133,16 +135,43 @@ function componentPoint(
   // step can leave the basin of the cycle being followed.
   let done = 0;
   let step = reach / WALK_STEPS;
+  // Components at least 1e-9 across are walked in doubles (the walk only has to stay on the cycle being
+  // followed; the point is then solved at full precision below); smaller ones in BigInt at walkBits.
+  // Where doubles fail (near a cusp the system grows nearly singular), the walk goes on in BigInt from there.
+  let inDoubles = depthDigits <= DOUBLE_WALK_DIGITS;
+  const wd = { re: 0, im: 0 };
+  const bd = { re: toNumber(b.re, sw), im: toNumber(b.im, sw) };
   while (done < reach) {
     const f = Math.min(reach, done + step);
-    const r = solve(period, w, b, multiplierAt(multiplier, sw, f), sw, 60);
-    if (r === null) {
+    let ok: boolean;
+    if (inDoubles) {
+      const wTry = { ...wd };
+      const bTry = { ...bd };
+      ok = solveDouble(period, wTry, bTry, multiplierDouble(multiplier, f), 60);
+      if (ok) {
+        Object.assign(wd, wTry);
+        Object.assign(bd, bTry);
+      } else {
+        inDoubles = false;
+        w = { re: fromNumber(wd.re, sw), im: fromNumber(wd.im, sw) };
+        b = { re: fromNumber(bd.re, sw), im: fromNumber(bd.im, sw) };
+        continue;
+      }
+    } else {
+      const r = solve(period, w, b, multiplierAt(multiplier, sw, f), sw, 60);
+      ok = r !== null;
+      if (r !== null) ({ w, b } = r);
+    }
+    if (!ok) {
       step /= 2;
       if (step < reach / (WALK_STEPS * 2 ** MAX_HALVINGS)) throw failure(period, nucleus, multiplier, `Newton failed on the walk at t = ${f} of the way`);
       continue;
     }
-    ({ w, b } = r);
     done = f;
+  }
+  if (inDoubles) {
+    w = { re: fromNumber(wd.re, sw), im: fromNumber(wd.im, sw) };
+    b = { re: fromNumber(bd.re, sw), im: fromNumber(bd.im, sw) };
   }
   if (nearRoot) {
     const parent = findParent(period, w, b, sw, digits);
@@ -273,4 +302,65 @@ function solve(period: number, w0: FixedComplex, b0: FixedComplex, t: FixedCompl
 
 function dbl(a: FixedComplex): FixedComplex {
   return { re: a.re << 1n, im: a.im << 1n };
+}
+
+/** The multiplier times `fraction` as a complex double (the walk in doubles). */
+function multiplierDouble(m: Multiplier, fraction: number): { re: number; im: number } {
+  if ('re' in m) return { re: m.re * fraction, im: m.im * fraction };
+  const a = (2 * Math.PI * m.num) / m.den;
+  return { re: Math.cos(a) * fraction, im: Math.sin(a) * fraction };
+}
+
+/**
+ * solve in complex doubles, updating w and b in place: Newton on
+ * (F^p(w,b) - w, D_z F^p(w,b) - t), converged when the step is below 1e-13
+ * of the scale twice in a row; false after maxSteps or on overflow.
+ */
+function solveDouble(period: number, w: { re: number; im: number }, b: { re: number; im: number }, t: { re: number; im: number }, maxSteps: number): boolean {
+  let close = 0;
+  for (let step = 0; step < maxSteps; step += 1) {
+    let zr = w.re, zi = w.im;
+    let dzr = 1, dzi = 0, dcr = 0, dci = 0, dzzr = 0, dzzi = 0, dczr = 0, dczi = 0;
+    for (let k = 0; k < period; k += 1) {
+      // dcz <- 2 (z dcz + dc dz); dzz <- 2 (z dzz + dz^2); dc <- 2 z dc + 1; dz <- 2 z dz; z <- z^2 + b
+      const ndczr = 2 * (zr * dczr - zi * dczi + dcr * dzr - dci * dzi);
+      const ndczi = 2 * (zr * dczi + zi * dczr + dcr * dzi + dci * dzr);
+      const ndzzr = 2 * (zr * dzzr - zi * dzzi + dzr * dzr - dzi * dzi);
+      const ndzzi = 2 * (zr * dzzi + zi * dzzr + 2 * dzr * dzi);
+      const ndcr = 2 * (zr * dcr - zi * dci) + 1;
+      const ndci = 2 * (zr * dci + zi * dcr);
+      const ndzr = 2 * (zr * dzr - zi * dzi);
+      const ndzi = 2 * (zr * dzi + zi * dzr);
+      const nzr = zr * zr - zi * zi + b.re;
+      const nzi = 2 * zr * zi + b.im;
+      dczr = ndczr; dczi = ndczi; dzzr = ndzzr; dzzi = ndzzi; dcr = ndcr; dci = ndci; dzr = ndzr; dzi = ndzi; zr = nzr; zi = nzi;
+      if (!(Math.abs(zr) + Math.abs(zi) < 1e8)) return false;
+    }
+    const f1r = zr - w.re, f1i = zi - w.im;
+    const f2r = dzr - t.re, f2i = dzi - t.im;
+    const mr = dzr - 1, mi = dzi;
+    // det = (dz - 1) dcz - dc dzz
+    const detr = mr * dczr - mi * dczi - (dcr * dzzr - dci * dzzi);
+    const deti = mr * dczi + mi * dczr - (dcr * dzzi + dci * dzzr);
+    const d2 = detr * detr + deti * deti;
+    if (!(d2 > 0) || !Number.isFinite(d2)) return false;
+    // db = ((dz - 1) f2 - dzz f1) / det; dw = (dcz f1 - dc f2) / det
+    const nbr = mr * f2r - mi * f2i - (dzzr * f1r - dzzi * f1i);
+    const nbi = mr * f2i + mi * f2r - (dzzr * f1i + dzzi * f1r);
+    const nwr = dczr * f1r - dczi * f1i - (dcr * f2r - dci * f2i);
+    const nwi = dczr * f1i + dczi * f1r - (dcr * f2i + dci * f2r);
+    const dbr = (nbr * detr + nbi * deti) / d2, dbi = (nbi * detr - nbr * deti) / d2;
+    const dwr = (nwr * detr + nwi * deti) / d2, dwi = (nwi * detr - nwr * deti) / d2;
+    if (!Number.isFinite(dbr + dbi + dwr + dwi)) return false;
+    b.re -= dbr;
+    b.im -= dbi;
+    w.re -= dwr;
+    w.im -= dwi;
+    const size = Math.max(Math.abs(dbr), Math.abs(dbi), Math.abs(dwr), Math.abs(dwi));
+    if (size <= 1e-12 * Math.max(1, Math.abs(b.re) + Math.abs(b.im))) {
+      close += 1;
+      if (close >= 2) return true;
+    }
+  }
+  return false;
 }
