@@ -9,9 +9,8 @@ import type { Command } from 'commander';
 import { availableParallelism } from 'node:os';
 import { census, MAX_CENSUS_PERIOD } from '../components/census.js';
 import type { CensusComponent } from '../components/census.js';
-import { componentInfo, mersenneAngle } from '../components/component-info.js';
 import type { ComponentInfo } from '../components/component-info.js';
-import { findNucleus } from '../components/nucleus.js';
+import { listComponents } from '../components/list-components.js';
 import { parseBox, componentJson } from './component-report.js';
 import { certifyListing, MAX_CERTIFY_PERIOD, reportCensusCertificate } from './certify-report.js';
 import { UserError } from '../check/user-error.js';
@@ -71,12 +70,13 @@ export function register(program: Command): void {
         process.stderr.write(`quadatlas: period ${period}: ${n} components located in ${seconds.toFixed(2)} s (${result.raysTraced} rays, ${workers} workers)\n`);
         return;
       }
-      const rows: ComponentInfo[] = [];
-      for (const c of comps) {
-        const guess = { re: (c.reHi + c.reLo).toPrecision(17), im: (c.imHi + c.imLo).toPrecision(17) };
-        const nucleus = c.real ? { ...findNucleus(period, { re: guess.re, im: '0' }, digits).nucleus, im: '0' } : findNucleus(period, guess, digits).nucleus;
-        rows.push(await componentInfo(period, nucleus, digits, c.angles.map((n) => mersenneAngle(n, period))));
-      }
+      const listing = process.stderr.isTTY
+        ? (done: number, total: number): void => {
+            process.stderr.write(`\rquadatlas: period ${period}: ${done}/${total} rows`);
+          }
+        : undefined;
+      const rows = await listComponents(period, comps, digits, workers, listing);
+      if (listing !== undefined) process.stderr.write('\n');
       const radii = certify ? certifyListing(period, rows, digits) : null;
       if (o['json'] === true) process.stdout.write(`${JSON.stringify(rows.map((r, i) => (radii === null ? componentJson(r) : { ...componentJson(r), certifiedRadius: radii[i] })), null, 2)}\n`);
       else if (o['csv'] === true) process.stdout.write(toCsv(rows, radii));

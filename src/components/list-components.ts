@@ -1,0 +1,66 @@
+/**
+ * The rows of a listing: for each census component, its nucleus refined to
+ * the digits asked (Newton from the census' double-double position) and its
+ * component information (root, size, shape, parent, angles, address). Rows
+ * are independent, so blocks of them go to worker threads and come back in
+ * their places: the listing is the same for any number of workers.
+ */
+import { builtWorkerUrl } from '../threads/built-worker.js';
+import { mapOnWorkers } from '../threads/map-on-workers.js';
+import type { CensusComponent } from './census.js';
+import { componentInfo, mersenneAngle, type ComponentInfo } from './component-info.js';
+import { findNucleus } from './nucleus.js';
+
+/** One census component as a worker receives it. */
+export interface ListItem {
+  readonly re: string;
+  readonly im: string;
+  readonly real: boolean;
+  readonly angles: readonly number[];
+}
+
+/** A block of rows for one worker. */
+export interface ListJob {
+  readonly period: number;
+  readonly digits: number;
+  readonly items: readonly ListItem[];
+}
+
+/** Rows per block handed to a worker. */
+const BLOCK = 64;
+
+/** The rows of one block, in order (the worker's work; also run in-thread for small listings). */
+export async function componentRows(job: ListJob): Promise<ComponentInfo[]> {
+  const rows: ComponentInfo[] = [];
+  for (const c of job.items) {
+    const nucleus = c.real ? { ...findNucleus(job.period, { re: c.re, im: '0' }, job.digits).nucleus, im: '0' } : findNucleus(job.period, { re: c.re, im: c.im }, job.digits).nucleus;
+    rows.push(await componentInfo(job.period, nucleus, job.digits, c.angles.map((n) => mersenneAngle(n, job.period))));
+  }
+  return rows;
+}
+
+function item(c: CensusComponent): ListItem {
+  return { re: (c.reHi + c.reLo).toPrecision(17), im: (c.imHi + c.imLo).toPrecision(17), real: c.real, angles: [...c.angles] };
+}
+
+/** The rows of `comps`, in their order, computed on `workers` threads in blocks of BLOCK. */
+export async function listComponents(period: number, comps: readonly CensusComponent[], digits: number, workers: number, onProgress?: (done: number, total: number) => void): Promise<ComponentInfo[]> {
+  const blocks = Math.ceil(comps.length / BLOCK);
+  const jobOf = (b: number): ListJob => ({ period, digits, items: comps.slice(b * BLOCK, (b + 1) * BLOCK).map(item) });
+  const out: ComponentInfo[][] = new Array<ComponentInfo[]>(blocks);
+  let done = 0;
+  if (workers <= 1 || blocks <= 1) {
+    for (let b = 0; b < blocks; b++) {
+      out[b] = await componentRows(jobOf(b));
+      done += out[b]!.length;
+      onProgress?.(done, comps.length);
+    }
+  } else {
+    await mapOnWorkers<ListJob, ComponentInfo[]>(builtWorkerUrl('listing-worker'), blocks, (b) => ({ message: jobOf(b) }), workers, (b, rows) => {
+      out[b] = rows;
+      done += rows.length;
+      onProgress?.(done, comps.length);
+    });
+  }
+  return out.flat();
+}

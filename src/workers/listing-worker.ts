@@ -1,0 +1,10 @@
+/**
+ * worker_threads entry for component listings: receives a block of census
+ * components (list-components.ts) and posts back their rows, in order.
+ */
+import { parentPort } from 'node:worker_threads';
+import { componentRows, type ListJob } from '../components/list-components.js';
+
+parentPort?.on('message', (job: ListJob) => {
+  void componentRows(job).then((rows) => parentPort?.postMessage(rows));
+});
