@@ -1,0 +1,99 @@
+/**
+ * Lays a figure model out on the page: the plate at its print size
+ * (pixels / dpi inches), the frame and outward ticks around it, tick labels
+ * centred on their ticks (Re below, Im at the left, read horizontally), the
+ * axis titles (Im turned to read upwards) and the caption below, wrapped to
+ * the page. Sizes follow common journal practice for a single-column figure
+ * (7 pt labels, 8 pt titles, 0.5 pt lines); not a published rule.
+ */
+import type { FigureFont } from './figure-font.js';
+import type { FigureModel } from './figure-model.js';
+import type { FigureScene, Rect, SceneStroke, SceneText } from './figure-scene.js';
+
+export const LABEL_PT = 7;
+export const TITLE_PT = 8;
+export const CAPTION_PT = 8;
+export const TICK_PT = 3.5;
+export const LINE_PT = 0.5;
+const PAD = 6;
+const GAP = 2.5;
+const INK = '#000000';
+const RAY_INK = '#ffffff';
+
+/** Greedy word wrap of `text` into lines no wider than `width` at `size`. */
+function wrap(font: FigureFont, text: string, size: number, width: number): string[] {
+  const lines: string[] = [];
+  let line = '';
+  for (const word of text.split(/\s+/).filter((w) => w !== '')) {
+    const next = line === '' ? word : `${line} ${word}`;
+    if (line !== '' && font.width(next, size) > width) {
+      lines.push(line);
+      line = word;
+    } else line = next;
+  }
+  if (line !== '') lines.push(line);
+  return lines;
+}
+
+export function layoutFigure(model: FigureModel, dpi: number, font: FigureFont): FigureScene {
+  const { view } = model;
+  const pw = (view.width / dpi) * 72;
+  const ph = (view.height / dpi) * 72;
+  const cap = (size: number): number => font.capHeight * size;
+  let left = 0;
+  let top = 0;
+  let right = 0;
+  let below = 0;
+  const axes = model.axes;
+  let imLabelWidth = 0;
+  if (axes !== null) {
+    imLabelWidth = Math.max(0, ...axes.im.ticks.map((t) => font.width(t.label, LABEL_PT)));
+    left = TICK_PT + GAP + imLabelWidth + 1.5 * GAP + font.descent * TITLE_PT + cap(TITLE_PT) + PAD;
+    const lastRe = axes.re.ticks.at(-1);
+    const overhang = lastRe === undefined ? 0 : font.width(lastRe.label, LABEL_PT) / 2 - (view.width - lastRe.at) * (pw / view.width);
+    right = Math.max(PAD, overhang + 2);
+    top = PAD;
+    below = TICK_PT + GAP + cap(LABEL_PT) + font.descent * LABEL_PT + 1.5 * GAP + cap(TITLE_PT) + font.descent * TITLE_PT;
+  }
+  const plate: Rect = { x: left, y: top, width: pw, height: ph };
+  const pageWidth = left + pw + right;
+  const captionLines = model.caption === '' ? [] : wrap(font, model.caption, CAPTION_PT, pageWidth - 2 * PAD);
+  const lineHeight = 1.25 * CAPTION_PT;
+  const captionTop = top + ph + below + (captionLines.length > 0 ? 1.5 * GAP : 0);
+  const pageHeight = captionTop + captionLines.length * lineHeight + (axes !== null || captionLines.length > 0 ? PAD : 0);
+  const strokes: SceneStroke[] = [];
+  const texts: SceneText[] = [];
+  const sx = pw / view.width;
+  const sy = ph / view.height;
+  for (const curve of model.curves) {
+    const pts: number[] = [];
+    for (let i = 0; i + 1 < curve.points.length; i += 2) pts.push(plate.x + curve.points[i]! * sx, plate.y + curve.points[i + 1]! * sy);
+    strokes.push({ points: pts, width: 2 * LINE_PT, colour: RAY_INK, clip: true });
+  }
+  if (axes !== null) {
+    const x0 = plate.x;
+    const y0 = plate.y;
+    const x1 = x0 + pw;
+    const y1 = y0 + ph;
+    strokes.push({ points: [x0, y0, x1, y0, x1, y1, x0, y1, x0, y0], width: LINE_PT, colour: INK, clip: false });
+    for (const t of axes.re.ticks) {
+      const x = x0 + t.at * sx;
+      strokes.push({ points: [x, y1, x, y1 + TICK_PT], width: LINE_PT, colour: INK, clip: false });
+      texts.push({ text: t.label, x: x - font.width(t.label, LABEL_PT) / 2, y: y1 + TICK_PT + GAP + cap(LABEL_PT), size: LABEL_PT, rotate: 0, role: 're-tick' });
+    }
+    for (const t of axes.im.ticks) {
+      const y = y0 + t.at * sy;
+      strokes.push({ points: [x0 - TICK_PT, y, x0, y], width: LINE_PT, colour: INK, clip: false });
+      texts.push({ text: t.label, x: x0 - TICK_PT - GAP - font.width(t.label, LABEL_PT), y: y + cap(LABEL_PT) / 2, size: LABEL_PT, rotate: 0, role: 'im-tick' });
+    }
+    const reTitleY = y1 + TICK_PT + GAP + cap(LABEL_PT) + font.descent * LABEL_PT + 1.5 * GAP + cap(TITLE_PT);
+    texts.push({ text: axes.re.title, x: x0 + pw / 2 - font.width(axes.re.title, TITLE_PT) / 2, y: reTitleY, size: TITLE_PT, rotate: 0, role: 'title' });
+    const imTitleX = x0 - TICK_PT - GAP - imLabelWidth - 1.5 * GAP - font.descent * TITLE_PT;
+    // Turned to read upwards, the text runs from the bottom: its start sits below the middle by half its length.
+    texts.push({ text: axes.im.title, x: imTitleX, y: y0 + ph / 2 + font.width(axes.im.title, TITLE_PT) / 2, size: TITLE_PT, rotate: -90, role: 'title' });
+  }
+  captionLines.forEach((line, i) => {
+    texts.push({ text: line, x: PAD, y: captionTop + cap(CAPTION_PT) + i * lineHeight, size: CAPTION_PT, rotate: 0, role: 'caption' });
+  });
+  return { width: pageWidth, height: pageHeight, plate, strokes, texts };
+}
