@@ -46,13 +46,19 @@ function decimalsFor(step: number): number {
   return Math.max(0, -Math.floor(Math.log10(step) + 1e-9));
 }
 
+/** The power of ten an offset axis of this extent is written in: the half extent is 1 to 10 units. */
+export function offsetExponentFor(extent: string): number {
+  return Math.floor(new Decimal(extent).div(2).log(10).toNumber() + 1e-9);
+}
+
 /**
  * Ticks along an axis through `centre` of length `extent` (both decimal
  * strings, c units) drawn over `pixels` pixels; `count` is d3's hint.
  * `name` is "Re c" or "Im c"; `upwards` makes pixel coordinates grow
- * against the value (the Im axis).
+ * against the value (the Im axis). `offsetExponent` fixes the power of ten
+ * of the offset form (both axes of a plate share the wider one's).
  */
-export function axisTicks(name: string, centre: string, extent: string, pixels: number, count: number, upwards: boolean): AxisTicks {
+export function axisTicks(name: string, centre: string, extent: string, pixels: number, count: number, upwards: boolean, offsetExponent?: number): AxisTicks {
   // Enough digits for the centre as written and a dozen below the span.
   const D = Decimal.clone({ precision: centre.length + Math.max(0, -new Decimal(extent).e) + 30 });
   const c0 = new D(centre);
@@ -72,7 +78,7 @@ export function axisTicks(name: string, centre: string, extent: string, pixels: 
     });
     return { title: name, offset: null, ticks: ticks.filter((t) => t.at >= 0 && t.at <= pixels) };
   }
-  const exponent = Math.floor(half.log(10).toNumber() + 1e-9);
+  const exponent = offsetExponent ?? offsetExponentFor(extent);
   const unit = new D(10).pow(exponent);
   const xs = scaleLinear().domain([half.neg().div(unit).toNumber(), half.div(unit).toNumber()]).ticks(count);
   const step = xs.length > 1 ? xs[1]! - xs[0]! : 1;

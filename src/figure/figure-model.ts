@@ -6,7 +6,7 @@
  */
 import { Decimal } from 'decimal.js';
 import type { View } from '../view/view.js';
-import { axisTicks, type AxisTicks } from './axis-ticks.js';
+import { axisTicks, offsetExponentFor, type AxisTicks } from './axis-ticks.js';
 
 export interface FigureOptions {
   /** Frame, ticks, tick labels and axis titles outside the image. */
@@ -32,6 +32,8 @@ export interface FigureModel {
 
 /** One tick per this many points of axis length, at most (d3's count is a hint). */
 export const TICK_SPACING_PT = 55;
+/** d3's count hint never below this, so a small plate still gets three or more ticks an axis. */
+export const MIN_TICKS = 4;
 
 /**
  * The model of a figure of `view` printed at `dpi`. Axes need a view
@@ -44,9 +46,10 @@ export function figureModel(view: View, dpi: number, options: FigureOptions, cur
     const widthPt = (view.width / dpi) * 72;
     const heightPt = (view.height / dpi) * 72;
     const spanIm = spanOf(view.span, view.height, view.width);
+    const exponent = offsetExponentFor(view.width >= view.height ? view.span : spanIm);
     axes = {
-      re: axisTicks('Re c', view.centerRe, view.span, view.width, Math.max(2, Math.round(widthPt / TICK_SPACING_PT)), false),
-      im: axisTicks('Im c', view.centerIm, spanIm, view.height, Math.max(2, Math.round(heightPt / TICK_SPACING_PT)), true),
+      re: axisTicks('Re c', view.centerRe, view.span, view.width, Math.max(MIN_TICKS, Math.round(widthPt / TICK_SPACING_PT)), false, exponent),
+      im: axisTicks('Im c', view.centerIm, spanIm, view.height, Math.max(MIN_TICKS, Math.round(heightPt / TICK_SPACING_PT)), true, exponent),
     };
   }
   return { view, axes, caption: options.caption, curves };

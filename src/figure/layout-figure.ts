@@ -46,21 +46,26 @@ export function layoutFigure(model: FigureModel, dpi: number, font: FigureFont):
   let below = 0;
   const axes = model.axes;
   let imLabelWidth = 0;
+  let imTitleOver = 0;
+  let reTitleWidth = 0;
   if (axes !== null) {
+    // A long (offset form) Im title, turned upright, may be taller than the plate: the page grows to hold it.
+    imTitleOver = Math.max(0, (font.width(axes.im.title, TITLE_PT) - ph) / 2);
+    reTitleWidth = font.width(axes.re.title, TITLE_PT);
     imLabelWidth = Math.max(0, ...axes.im.ticks.map((t) => font.width(t.label, LABEL_PT)));
     left = TICK_PT + GAP + imLabelWidth + 1.5 * GAP + font.descent * TITLE_PT + cap(TITLE_PT) + PAD;
     const lastRe = axes.re.ticks.at(-1);
     const overhang = lastRe === undefined ? 0 : font.width(lastRe.label, LABEL_PT) / 2 - (view.width - lastRe.at) * (pw / view.width);
-    right = Math.max(PAD, overhang + 2);
-    top = PAD;
+    right = Math.max(PAD, overhang + 4);
+    top = PAD + imTitleOver;
     below = TICK_PT + GAP + cap(LABEL_PT) + font.descent * LABEL_PT + 1.5 * GAP + cap(TITLE_PT) + font.descent * TITLE_PT;
   }
   const plate: Rect = { x: left, y: top, width: pw, height: ph };
-  const pageWidth = left + pw + right;
+  const pageWidth = Math.max(left + pw + right, left + pw / 2 + reTitleWidth / 2 + PAD);
   const captionLines = model.caption === '' ? [] : wrap(font, model.caption, CAPTION_PT, pageWidth - 2 * PAD);
   const lineHeight = 1.25 * CAPTION_PT;
   const captionTop = top + ph + below + (captionLines.length > 0 ? 1.5 * GAP : 0);
-  const pageHeight = captionTop + captionLines.length * lineHeight + (axes !== null || captionLines.length > 0 ? PAD : 0);
+  const pageHeight = Math.max(captionTop + captionLines.length * lineHeight + (axes !== null || captionLines.length > 0 ? PAD : 0), top + ph + imTitleOver + (axes !== null ? PAD : 0));
   const strokes: SceneStroke[] = [];
   const texts: SceneText[] = [];
   const sx = pw / view.width;

@@ -13,12 +13,11 @@ import { createHash } from 'node:crypto';
 import PDFDocument from 'pdfkit';
 import type { FigureFont } from './figure-font.js';
 import type { FigureScene } from './figure-scene.js';
+import { PDF_METADATA_KEY } from './pdf-metadata-key.js';
 
 /** The creation and modification date of every figure: a sheet has no time (the metadata names the version). */
 export const FIXED_DATE = new Date(Date.UTC(2000, 0, 1, 0, 0, 0));
 
-/** The PDF Info key that carries the metadata JSON (the same text a plate's PNG carries). */
-export const PDF_METADATA_KEY = 'QuadatlasSheet';
 
 export interface PdfDocInfo {
   readonly title: string;

@@ -1,0 +1,95 @@
+/**
+ * Renders a sheet whose output is a figure (.pdf or .svg): the plate is
+ * rendered as a PNG under a temporary name (16 bits a channel for PDF, the
+ * sheet's depth for SVG), then the figure model (src/figure/) is laid out
+ * around it and written. The SVG inlines the PNG as a data URL up to
+ * SVG_INLINE_LIMIT bytes and links `NAME-plate.png` beside it above that.
+ */
+import { readFile, rename, rm } from 'node:fs/promises';
+import path from 'node:path';
+import { svgWithMetadata } from '../io/embed-metadata.js';
+import { releaseTemp, tempPathFor } from '../io/temp-path.js';
+import { writeFileAtomic } from '../io/write-file-atomic.js';
+import { figureFont } from '../figure/figure-font.js';
+import { figureModel } from '../figure/figure-model.js';
+import { layoutFigure } from '../figure/layout-figure.js';
+import { figurePdf } from '../figure/write-figure-pdf.js';
+import { figureSvg } from '../figure/write-figure-svg.js';
+import type { Sheet } from '../view/sheet.js';
+import type { View } from '../view/view.js';
+import { plateMetadata, renderSheet, type PlateSummary, type RenderSheetOptions } from './render-sheet.js';
+import { UserError } from './user-error.js';
+import { toolVersion } from './version.js';
+
+/** Largest PNG (bytes) an SVG figure carries inside itself as a data URL. */
+export const SVG_INLINE_LIMIT = 8 * 1024 * 1024;
+
+export interface FigureSummary {
+  readonly format: 'pdf' | 'svg';
+  /** The plate's rectangle on the page, in points from the top left. */
+  readonly plate: { x: number; y: number; width: number; height: number };
+  readonly page: { width: number; height: number };
+  readonly axes: { re: { title: string; ticks: Array<{ value: string; label: string }> }; im: { title: string; ticks: Array<{ value: string; label: string }> } } | null;
+  /** The PNG beside an SVG too large to inline, else null. */
+  readonly image: string | null;
+}
+
+export async function renderFigure(sheet: Sheet, options: RenderSheetOptions = {}): Promise<PlateSummary & { figure: FigureSummary }> {
+  const spec = sheet.figure;
+  if (spec === null) throw new Error('renderFigure: the sheet has no figure');
+  if (sheet.colour.legend === 'beside') throw new UserError('colour.legend', 'none or inset on a figure (a legend beside the plate is a separate file)', sheet.colour.legend);
+  const file = sheet.output.file;
+  const pdf = /\.pdf$/i.test(file);
+  const besideName = file.replace(/\.(pdf|svg)$/i, '-plate.png');
+  const rasterFile = tempPathFor(besideName);
+  const raster: Sheet = { ...sheet, depth: pdf ? 16 : sheet.depth, output: { file: rasterFile, data: sheet.output.data, sidecar: false }, figure: null };
+  try {
+    const summary = await renderSheet(raster, { ...options, label: options.label ?? path.basename(file) });
+    const png = await readFile(rasterFile);
+    const view: View = { centerRe: sheet.view.re, centerIm: sheet.view.im, span: sheet.view.span, width: sheet.width, height: sheet.height, rotation: sheet.view.rotation };
+    const model = figureModel(view, sheet.dpi, { axes: spec.axes, caption: spec.caption });
+    const font = figureFont();
+    const scene = layoutFigure(model, sheet.dpi, font);
+    const metadata = plateMetadata(sheet, { arithmetic: summary.arithmetic, bits: Number(summary.precision['referenceBits'] ?? 53), iterations: summary.iterations });
+    let image: string | null = null;
+    if (pdf) {
+      await writeFileAtomic(file, await figurePdf(scene, png, font, { title: sheet.title, creator: `quadatlas ${toolVersion()}`, metadata }));
+      await rm(rasterFile, { force: true });
+    } else {
+      let href: string;
+      if (png.length <= SVG_INLINE_LIMIT) {
+        href = `data:image/png;base64,${png.toString('base64')}`;
+        await rm(rasterFile, { force: true });
+      } else {
+        href = path.basename(besideName);
+        image = path.resolve(besideName);
+      }
+      await writeFileAtomic(file, svgWithMetadata(figureSvg(scene, href, font, sheet.title), metadata));
+      if (image !== null) await rename(rasterFile, besideName);
+    }
+    releaseTemp(rasterFile);
+    const round = (v: number): number => Math.round(v * 1000) / 1000;
+    const figure: FigureSummary = {
+      format: pdf ? 'pdf' : 'svg',
+      plate: { x: round(scene.plate.x), y: round(scene.plate.y), width: round(scene.plate.width), height: round(scene.plate.height) },
+      page: { width: round(scene.width), height: round(scene.height) },
+      axes: model.axes === null ? null : {
+        re: { title: model.axes.re.title, ticks: model.axes.re.ticks.map((t) => ({ value: t.value, label: t.label })) },
+        im: { title: model.axes.im.title, ticks: model.axes.im.ticks.map((t) => ({ value: t.value, label: t.label })) },
+      },
+      image,
+    };
+    const files = [path.resolve(file), ...(image === null ? [] : [image]), ...summary.files.filter((f) => f !== summary.file)];
+    const result = { ...summary, file: path.resolve(file), files, figure };
+    if (sheet.output.sidecar) {
+      const sidecar = `${file}.json`;
+      await writeFileAtomic(sidecar, `${JSON.stringify({ metadata: JSON.parse(metadata) as unknown, summary: result }, null, 2)}\n`);
+      files.push(path.resolve(sidecar));
+    }
+    return result;
+  } catch (err) {
+    await rm(rasterFile, { force: true });
+    releaseTemp(rasterFile);
+    throw err;
+  }
+}
