@@ -32,8 +32,8 @@ export interface FigureModel {
 
 /** One tick per this many points of axis length, at most (d3's count is a hint). */
 export const TICK_SPACING_PT = 55;
-/** d3's count hint never below this, so a small plate still gets three or more ticks an axis. */
-export const MIN_TICKS = 4;
+/** d3's count hint never below this, so a small plate still gets four or more ticks an axis (d3 may give one fewer). */
+export const MIN_TICKS = 5;
 
 /**
  * The model of a figure of `view` printed at `dpi`. Axes need a view

@@ -1,0 +1,207 @@
+/**
+ * `plate --axes --out fig.pdf|fig.svg`: the tick labels a reader sees sit
+ * where the view geometry (docs/architecture.md conventions: the image spans
+ * centre ± span/2 across, pixels square, Im c upwards) puts those values.
+ * PDF text is read back by pdftotext (Debian poppler-utils, an outside
+ * reader); SVG text by the aria-label of each outline and the outline's own
+ * coordinates.
+ */
+import { spawnSync } from 'node:child_process';
+import { existsSync, readdirSync, readFileSync, writeFileSync } from 'node:fs';
+import path from 'node:path';
+import { describe, expect, it } from 'vitest';
+import { requireInCi } from '../helpers/require-in-ci.js';
+import { runCli, tempDir } from '../helpers/run-cli.js';
+
+const havePoppler = requireInCi(spawnSync('pdftotext', ['-v']).status === 0, 'pdftotext (poppler-utils)');
+
+interface Word {
+  text: string;
+  x0: number;
+  x1: number;
+  y0: number;
+  y1: number;
+}
+
+/** Words of page 1 with their boxes, from `pdftotext -bbox` (points, y down). */
+function pdfWords(file: string): Word[] {
+  const r = spawnSync('pdftotext', ['-bbox', file, '-'], { encoding: 'utf8' });
+  expect(r.status, r.stderr).toBe(0);
+  const words: Word[] = [];
+  for (const m of r.stdout.matchAll(/<word xMin="([\d.]+)" yMin="([\d.]+)" xMax="([\d.]+)" yMax="([\d.]+)">([^<]*)<\/word>/g)) {
+    words.push({ text: m[5]!.replace(/&amp;/g, '&'), x0: Number(m[1]), y0: Number(m[2]), x1: Number(m[3]), y1: Number(m[4]) });
+  }
+  return words;
+}
+
+/** A printed number with U+2212 minus as a double, or NaN. */
+function printed(label: string): number {
+  const t = label.replace(/\u2212/g, '-');
+  return /^-?\d+(\.\d+)?$/.test(t) ? Number(t) : Number.NaN;
+}
+
+/** Half a unit in the label's last printed digit. */
+function halfDigit(label: string): number {
+  const decimals = label.includes('.') ? label.split('.')[1]!.length : 0;
+  return 0.5 * 10 ** -decimals;
+}
+
+/** Labels in increasing order are evenly spaced by 1, 2 or 5 times a power of ten (a round step). */
+function expectRoundSteps(values: number[]): void {
+  const sorted = [...values].sort((a, b) => a - b);
+  expect(sorted.length).toBeGreaterThanOrEqual(3);
+  const step = sorted[1]! - sorted[0]!;
+  const mant = step / 10 ** Math.floor(Math.log10(step) + 1e-9);
+  expect([1, 2, 5].some((m) => Math.abs(mant - m) < 1e-6)).toBe(true);
+  for (let i = 1; i < sorted.length; i++) expect(sorted[i]! - sorted[i - 1]!).toBeCloseTo(step, 9);
+}
+
+const VIEW = { re: -0.75, im: 0.1, span: 3, width: 480, height: 320 };
+const FLAGS = ['--center', `${VIEW.re},${VIEW.im}`, '--span', String(VIEW.span), '--size', `${VIEW.width}x${VIEW.height}`, '--iterations', '300', '--samples', '1', '--dpi', '200'];
+
+/** c at a page point over the plate rectangle (x, y, w, h in points): the view geometry, done here in doubles. */
+function cAt(plate: { x: number; y: number; width: number; height: number }, px: number, py: number): [number, number] {
+  const spacing = VIEW.span / VIEW.width;
+  const i = ((px - plate.x) / plate.width) * VIEW.width;
+  const j = ((py - plate.y) / plate.height) * VIEW.height;
+  return [VIEW.re + (i - VIEW.width / 2) * spacing, VIEW.im + (VIEW.height / 2 - j) * spacing];
+}
+
+describe('plate --axes --out fig.pdf', () => {
+  it.runIf(havePoppler)('prints tick labels (read back by pdftotext) equal to the c values at their positions, to the printed digits', () => {
+    const dir = tempDir();
+    const file = path.join(dir, 'f.pdf');
+    const r = runCli(['plate', ...FLAGS, '--axes', '--caption', 'Axes test', '--out', file, '--json']);
+    expect(r.status, r.stderr).toBe(0);
+    const plate = (JSON.parse(r.stdout) as { figure: { plate: { x: number; y: number; width: number; height: number } } }).figure.plate;
+    // The plate's print size: pixels / dpi inches.
+    expect(plate.width).toBeCloseTo((VIEW.width / 200) * 72, 6);
+    const words = pdfWords(file);
+    const re = words.filter((w) => !Number.isNaN(printed(w.text)) && w.y0 > plate.y + plate.height);
+    const im = words.filter((w) => !Number.isNaN(printed(w.text)) && w.x1 < plate.x);
+    expect(re.length).toBeGreaterThanOrEqual(4);
+    expect(im.length).toBeGreaterThanOrEqual(3);
+    for (const w of re) {
+      const [c] = cAt(plate, (w.x0 + w.x1) / 2, 0);
+      expect(Math.abs(c - printed(w.text)), w.text).toBeLessThan(halfDigit(w.text));
+      // and placed to a quarter point (pdftotext's boxes follow the glyph advances)
+      expect(Math.abs(c - printed(w.text)) * (plate.width / VIEW.span)).toBeLessThan(0.25);
+    }
+    for (const w of im) {
+      // The label is centred on the tick by its capitals; pdftotext's box runs from the ascent to the descent line,
+      // whose middle lies within a fifth of a point of the capitals' middle for a 7 pt DejaVu Sans label.
+      const [, c] = cAt(plate, 0, (w.y0 + w.y1) / 2);
+      expect(Math.abs(c - printed(w.text)), w.text).toBeLessThan(halfDigit(w.text));
+      expect(Math.abs(c - printed(w.text)) * (plate.height / ((VIEW.span * VIEW.height) / VIEW.width))).toBeLessThan(0.6);
+    }
+    expectRoundSteps(re.map((w) => printed(w.text)));
+    expectRoundSteps(im.map((w) => printed(w.text)));
+    const text = words.map((w) => w.text).join(' ');
+    expect(text).toContain('Re c');
+    expect(text).toContain('Axes test');
+    // the plate is embedded at 16 bits per component (pdfimages, poppler-utils)
+    const list = spawnSync('pdfimages', ['-list', file], { encoding: 'utf8' });
+    expect(list.stdout.split('\n')[2]!.trim().split(/\s+/).slice(3, 8)).toEqual([String(VIEW.width), String(VIEW.height), 'rgb', '3', '16']);
+  });
+
+  it.runIf(havePoppler)('deep view: offsets from the centre with the exponent factored out, each offset where the geometry puts it', () => {
+    const dir = tempDir();
+    const file = path.join(dir, 'deep.pdf');
+    const centre = '-0.74530000000001234';
+    const span = 4e-13;
+    const r = runCli(['plate', '--center', `${centre},0.1127`, '--span', String(span), '--size', '300x200', '--iterations', '2000', '--samples', '1', '--dpi', '100', '--axes', '--out', file, '--json']);
+    expect(r.status, r.stderr).toBe(0);
+    const plate = (JSON.parse(r.stdout) as { figure: { plate: { x: number; y: number; width: number } } }).figure.plate;
+    const words = pdfWords(file);
+    const line = spawnSync('pdftotext', ['-raw', file, '-'], { encoding: 'utf8' }).stdout;
+    const title = /Re c = (\S+) \+ x × 1e(\S+)/.exec(line);
+    expect(title, line).not.toBeNull();
+    expect(title![1]!.replace('\u2212', '-')).toBe(centre);
+    const exponent = Number(title![2]!.replace('\u2212', '-'));
+    expect(exponent).toBe(-13);
+    // tick labels are short offsets; the title's centre is the one long number below the plate
+    const re = words.filter((w) => !Number.isNaN(printed(w.text)) && w.text.length < 8 && w.y0 > plate.y + (plate.width * 2) / 3 && w.x0 > plate.x - 10);
+    expect(re.length).toBeGreaterThanOrEqual(3);
+    for (const w of re) {
+      const offset = (((w.x0 + w.x1) / 2 - plate.x) / plate.width - 0.5) * span;
+      expect(Math.abs(offset / 10 ** exponent - printed(w.text)), w.text).toBeLessThan(halfDigit(w.text));
+    }
+  });
+});
+
+describe('plate --axes --out fig.svg', () => {
+  it('labels every tick with an outline whose aria-label is the c value at its position, to the printed digits', () => {
+    const dir = tempDir();
+    const file = path.join(dir, 'f.svg');
+    const r = runCli(['plate', ...FLAGS, '--axes', '--out', file]);
+    expect(r.status, r.stderr).toBe(0);
+    const svg = readFileSync(file, 'utf8');
+    const img = /<image x="([\d.]+)" y="([\d.]+)" width="([\d.]+)" height="([\d.]+)"[^>]*href="data:image\/png;base64,/.exec(svg);
+    expect(img).not.toBeNull();
+    const plate = { x: Number(img![1]), y: Number(img![2]), width: Number(img![3]), height: Number(img![4]) };
+    const labels = [...svg.matchAll(/<path role="img" class="(re-tick|im-tick)" aria-label="([^"]+)"[^>]* d="([^"]+)"/g)];
+    expect(labels.filter((m) => m[1] === 're-tick').length).toBeGreaterThanOrEqual(4);
+    expect(labels.filter((m) => m[1] === 'im-tick').length).toBeGreaterThanOrEqual(3);
+    expect(svg).not.toContain('<text');
+    for (const [, kind, label, d] of labels) {
+      const nums = d!.match(/-?\d+(\.\d+)?/g)!.map(Number);
+      const xs = nums.filter((_, i) => i % 2 === 0);
+      const ys = nums.filter((_, i) => i % 2 === 1);
+      // the centre of the ink; side bearings of DejaVu Sans shift it from the advance's centre by well under a point
+      const [cr, ci] = cAt(plate, (Math.min(...xs) + Math.max(...xs)) / 2, (Math.min(...ys) + Math.max(...ys)) / 2);
+      const c = kind === 're-tick' ? cr : ci;
+      expect(Math.abs(c - printed(label!)), `${kind} ${label}`).toBeLessThan(halfDigit(label!));
+    }
+  });
+});
+
+describe('figure bytes', () => {
+  it('are the same for --workers 1 and 2 and again from the file alone (--again), for PDF and SVG', () => {
+    const dir = tempDir();
+    for (const ext of ['pdf', 'svg']) {
+      const a = path.join(dir, `a.${ext}`);
+      const b = path.join(dir, `b.${ext}`);
+      expect(runCli(['plate', ...FLAGS, '--axes', '--caption', 'Ünïcode (caption) \\ test', '--workers', '1', '--out', a]).status).toBe(0);
+      expect(runCli(['plate', ...FLAGS, '--axes', '--caption', 'Ünïcode (caption) \\ test', '--workers', '2', '--out', b]).status).toBe(0);
+      expect(readFileSync(a).equals(readFileSync(b)), ext).toBe(true);
+      const again = runCli(['plate', '--again', a, '--workers', '2']);
+      expect(again.status, again.stderr).toBe(0);
+      expect(readFileSync(path.join(dir, `a-again.${ext}`)).equals(readFileSync(a)), `${ext} --again`).toBe(true);
+      const sheet = runCli(['sheet', a]);
+      expect(sheet.status, sheet.stderr).toBe(0);
+      expect((JSON.parse(sheet.stdout) as { figure: unknown }).figure).toEqual({ axes: true, caption: 'Ünïcode (caption) \\ test', rays: [] });
+    }
+    // nothing but the figures and their sidecars is left (no temporary plate)
+    expect(readdirSync(dir).sort()).toEqual(['a-again.pdf', 'a-again.pdf.json', 'a-again.svg', 'a-again.svg.json', 'a.pdf', 'a.pdf.json', 'a.svg', 'a.svg.json', 'b.pdf', 'b.pdf.json', 'b.svg', 'b.svg.json']);
+  });
+});
+
+describe('figure bad input', () => {
+  const cases: Array<[string, string[], RegExp]> = [
+    ['a rotated view with --axes', ['--rotation', '30', '--axes', '--out', 'X.pdf'], /^quadatlas: Expected a view without rotation .* for --axes \(sheet field figure\.axes\) but received rotation 30$/],
+    ['--axes on a PNG', ['--axes', '--out', 'X.png'], /^quadatlas: Expected an output file ending in \.pdf or \.svg .* for --out \(sheet field output\.file\) but received .*X\.png$/],
+    ['a legend beside a figure', ['--legend', 'beside', '--out', 'X.svg'], /^quadatlas: Expected none or inset on a figure .* for colour\.legend but received "?beside"?$/],
+    ['an unknown output kind', ['--out', 'X.eps'], /^quadatlas: Expected a file name ending in \.png, \.tif, \.tiff, \.pdf or \.svg for --out \(sheet field output\.file\) but received .*X\.eps"?$/],
+  ];
+  for (const [what, flags, line] of cases) {
+    it(`${what}: one line, exit 2, no file`, () => {
+      const dir = tempDir();
+      const args = flags.map((f) => (f.startsWith('X.') ? path.join(dir, f) : f));
+      const r = runCli(['plate', ...FLAGS, ...args]);
+      expect(r.status).toBe(2);
+      expect(r.stderr.trimEnd().split('\n')).toHaveLength(1);
+      expect(r.stderr.trimEnd()).toMatch(line);
+      expect(readdirSync(dir)).toEqual([]);
+    });
+  }
+
+  it('a sheet whose figure.caption is not a string names the field', () => {
+    const dir = tempDir();
+    const sheet = path.join(dir, 's.json');
+    writeFileSync(sheet, JSON.stringify({ output: { file: path.join(dir, 'x.pdf') }, figure: { caption: 3 } }));
+    const s = runCli(['plate', sheet]);
+    expect(s.status).toBe(2);
+    expect(s.stderr.trim()).toBe('quadatlas: Expected a string for figure.caption but received 3');
+    expect(existsSync(path.join(dir, 'x.pdf'))).toBe(false);
+  });
+});
