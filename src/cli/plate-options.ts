@@ -89,6 +89,11 @@ export const PLATE_OPTIONS: readonly OptionSpec[] = [
   { flags: '--title <text>', description: 'title recorded in the metadata (default none; sheet title)', apply: (s, v) => void (s['title'] = v) },
   { flags: '--axes', description: 'figures: frame, ticks and labels in Re c and Im c outside the image; not with --rotation (default: none; sheet figure.axes)' },
   { flags: '--caption <text>', description: 'figures: text drawn below the figure (default none; sheet figure.caption)', apply: (s, v) => void (sub(s, 'figure')['caption'] = v) },
+  {
+    flags: '--rays <angles>',
+    description: 'figures: parameter rays of these external angles p/q, comma-separated (e.g. 1/3,2/3,1/7), traced to where they land and labelled (default none; sheet figure.rays)',
+    apply: (s, v) => void (sub(s, 'figure')['rays'] = v.split(',').map((a) => a.trim())),
+  },
   { flags: '--out <file>', description: 'output file: an image ending in .png, .tif or .tiff, or a figure ending in .pdf or .svg (default out/<sheet>.png; sheet output.file)', apply: (s, v) => void (sub(s, 'output')['file'] = v) },
   { flags: '--data <dir>', description: 'also write the per-pixel arrays as NPY files into this directory (default none; sheet output.data)', apply: (s, v) => void (sub(s, 'output')['data'] = v) },
   { flags: '--no-sidecar', description: 'do not write the JSON sidecar FILE.json beside the image (default: write it; sheet output.sidecar)' },
@@ -137,6 +142,7 @@ const FIELD_FLAGS: ReadonlyArray<readonly [string, string]> = [
   ['title', '--title'],
   ['output.file', '--out'],
   ['figure.caption', '--caption'],
+  ['figure.rays', '--rays'],
   ['output.data', '--data'],
 ];
 

@@ -16,7 +16,9 @@ import { layoutFigure } from '../figure/layout-figure.js';
 import { figurePdf } from '../figure/write-figure-pdf.js';
 import { figureSvg } from '../figure/write-figure-svg.js';
 import type { Sheet } from '../view/sheet.js';
-import type { View } from '../view/view.js';
+import { doubleGrid, fitsDouble, type View } from '../view/view.js';
+import type { FigureCurve } from '../figure/figure-model.js';
+import { parameterRay, type ParameterRay } from '../figure/parameter-rays.js';
 import { plateMetadata, renderSheet, type PlateSummary, type RenderSheetOptions } from './render-sheet.js';
 import { UserError } from './user-error.js';
 import { toolVersion } from './version.js';
@@ -34,7 +36,31 @@ export interface FigureSummary {
   readonly image: string | null;
 }
 
-export async function renderFigure(sheet: Sheet, options: RenderSheetOptions = {}): Promise<PlateSummary & { figure: FigureSummary }> {
+/** A ray drawn: landing from Newton (decimal strings), and how far (in pixels) the traced part ended from it. */
+export interface RaySummary { angle: string; kind: string; preperiod: number; period: number; landing: { re: string; im: string }; tracedEnd: { re: string; im: string }; tracedEndPixels: number; landsInView: boolean }
+
+/** The rays of the sheet, traced and landed, with their polylines in plate pixels. */
+function traceRays(sheet: Sheet, view: View): { rays: ParameterRay[]; curves: FigureCurve[] } {
+  const spec = sheet.figure!;
+  if (spec.rays.length === 0) return { rays: [], curves: [] };
+  const grid = doubleGrid(view);
+  if (!fitsDouble(grid)) throw new UserError('figure.rays', 'a view that doubles resolve (rays are traced in double precision)', `span ${sheet.view.span}`);
+  const rays = spec.rays.map((a, i) => parameterRay(a, `figure.rays[${i}]`));
+  const curves = rays.map((r) => {
+    const pts = new Float64Array(r.points.length);
+    for (let i = 0; i < r.points.length; i += 2) {
+      // inverse of pixelToC (view.ts): pixel coordinates of c, for any rotation
+      const u = r.points[i]! - grid.centerRe;
+      const v = r.points[i + 1]! - grid.centerIm;
+      pts[i] = grid.width / 2 + (u * grid.cos + v * grid.sin) / grid.spacing;
+      pts[i + 1] = grid.height / 2 - (-u * grid.sin + v * grid.cos) / grid.spacing;
+    }
+    return { kind: 'ray', label: r.angle, points: pts };
+  });
+  return { rays, curves };
+}
+
+export async function renderFigure(sheet: Sheet, options: RenderSheetOptions = {}): Promise<PlateSummary & { figure: FigureSummary; rays: RaySummary[] }> {
   const spec = sheet.figure;
   if (spec === null) throw new Error('renderFigure: the sheet has no figure');
   if (sheet.colour.legend === 'beside') throw new UserError('colour.legend', 'none or inset on a figure (a legend beside the plate is a separate file)', sheet.colour.legend);
@@ -43,11 +69,13 @@ export async function renderFigure(sheet: Sheet, options: RenderSheetOptions = {
   const besideName = file.replace(/\.(pdf|svg)$/i, '-plate.png');
   const rasterFile = tempPathFor(besideName);
   const raster: Sheet = { ...sheet, depth: pdf ? 16 : sheet.depth, output: { file: rasterFile, data: sheet.output.data, sidecar: false }, figure: null };
+  const view: View = { centerRe: sheet.view.re, centerIm: sheet.view.im, span: sheet.view.span, width: sheet.width, height: sheet.height, rotation: sheet.view.rotation };
+  // Rays first: an angle Newton cannot land is refused before the plate is rendered.
+  const { rays, curves } = traceRays(sheet, view);
   try {
     const summary = await renderSheet(raster, { ...options, label: options.label ?? path.basename(file) });
     const png = await readFile(rasterFile);
-    const view: View = { centerRe: sheet.view.re, centerIm: sheet.view.im, span: sheet.view.span, width: sheet.width, height: sheet.height, rotation: sheet.view.rotation };
-    const model = figureModel(view, sheet.dpi, { axes: spec.axes, caption: spec.caption });
+    const model = figureModel(view, sheet.dpi, { axes: spec.axes, caption: spec.caption }, curves);
     const font = figureFont();
     const scene = layoutFigure(model, sheet.dpi, font);
     const metadata = plateMetadata(sheet, { arithmetic: summary.arithmetic, bits: Number(summary.precision['referenceBits'] ?? 53), iterations: summary.iterations });
@@ -79,8 +107,26 @@ export async function renderFigure(sheet: Sheet, options: RenderSheetOptions = {
       },
       image,
     };
+    const raySummaries: RaySummary[] = rays.map((r, i) => {
+        const pts = curves[i]!.points;
+        const n = pts.length;
+        // the traced end is the second-to-last point, the landing the last
+        const px = Math.hypot(pts[n - 4]! - pts[n - 2]!, pts[n - 3]! - pts[n - 1]!);
+        const lx = pts[n - 2]!;
+        const ly = pts[n - 1]!;
+        return {
+          angle: r.angle,
+          kind: r.kind,
+          preperiod: r.preperiod,
+          period: r.period,
+          landing: { re: r.landing.re, im: r.landing.im },
+          tracedEnd: { re: String(r.tracedEnd.re), im: String(r.tracedEnd.im) },
+          tracedEndPixels: Math.round(px * 1000) / 1000,
+          landsInView: lx >= 0 && lx <= sheet.width && ly >= 0 && ly <= sheet.height,
+        };
+      });
     const files = [path.resolve(file), ...(image === null ? [] : [image]), ...summary.files.filter((f) => f !== summary.file)];
-    const result = { ...summary, file: path.resolve(file), files, figure };
+    const result = { ...summary, file: path.resolve(file), files, figure, rays: raySummaries };
     if (sheet.output.sidecar) {
       const sidecar = `${file}.json`;
       await writeFileAtomic(sidecar, `${JSON.stringify({ metadata: JSON.parse(metadata) as unknown, summary: result }, null, 2)}\n`);

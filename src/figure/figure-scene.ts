@@ -21,6 +21,8 @@ export interface SceneText {
   readonly rotate: 0 | -90;
   /** What the text is, for readers of the SVG and the --json summary: 're-tick', 'im-tick', 'title', 'caption', 'ray'. */
   readonly role: string;
+  /** sRGB hex fill. */
+  readonly colour: string;
 }
 
 export interface SceneStroke {
@@ -33,11 +35,19 @@ export interface SceneStroke {
   readonly clip: boolean;
 }
 
+/** A filled rectangle (the backing of a label drawn over the plate). */
+export interface SceneFill extends Rect {
+  readonly colour: string;
+  readonly opacity: number;
+}
+
 export interface FigureScene {
   readonly width: number;
   readonly height: number;
   /** Where the raster plate goes. */
   readonly plate: Rect;
   readonly strokes: readonly SceneStroke[];
+  /** Drawn after the strokes, before the texts. */
+  readonly fills: readonly SceneFill[];
   readonly texts: readonly SceneText[];
 }

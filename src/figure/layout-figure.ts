@@ -8,7 +8,8 @@
  */
 import type { FigureFont } from './figure-font.js';
 import type { FigureModel } from './figure-model.js';
-import type { FigureScene, Rect, SceneStroke, SceneText } from './figure-scene.js';
+import type { FigureScene, Rect, SceneFill, SceneStroke, SceneText } from './figure-scene.js';
+import { clipPolyline } from './clip-polyline.js';
 
 export const LABEL_PT = 7;
 export const TITLE_PT = 8;
@@ -18,7 +19,12 @@ export const LINE_PT = 0.5;
 const PAD = 6;
 const GAP = 2.5;
 const INK = '#000000';
+/** Rays: white over a black halo, legible over any exterior or interior colour. */
 const RAY_INK = '#ffffff';
+const RAY_HALO = '#000000';
+export const RAY_PT = 0.75;
+/** Ray labels: white on a half-transparent black backing. */
+const RAY_LABEL_BACKING = 0.55;
 
 /** Greedy word wrap of `text` into lines no wider than `width` at `size`. */
 function wrap(font: FigureFont, text: string, size: number, width: number): string[] {
@@ -70,10 +76,25 @@ export function layoutFigure(model: FigureModel, dpi: number, font: FigureFont):
   const texts: SceneText[] = [];
   const sx = pw / view.width;
   const sy = ph / view.height;
-  for (const curve of model.curves) {
+  const fills: SceneFill[] = [];
+  const placed: Rect[] = [];
+  const curveRuns = model.curves.map((curve) => {
     const pts: number[] = [];
     for (let i = 0; i + 1 < curve.points.length; i += 2) pts.push(plate.x + curve.points[i]! * sx, plate.y + curve.points[i + 1]! * sy);
-    strokes.push({ points: pts, width: 2 * LINE_PT, colour: RAY_INK, clip: true });
+    // Keep coordinates near the page: clip to the plate grown by a tenth (the writers clip to the plate itself).
+    return clipPolyline(pts, plate.x - pw / 10, plate.y - ph / 10, plate.x + pw * 1.1, plate.y + ph * 1.1);
+  });
+  const allRuns = curveRuns.flat();
+  for (const runs of curveRuns) for (const run of runs) strokes.push({ points: run, width: 2.5 * RAY_PT, colour: RAY_HALO, clip: true });
+  for (const runs of curveRuns) for (const run of runs) strokes.push({ points: run, width: RAY_PT, colour: RAY_INK, clip: true });
+  for (const [k, curve] of model.curves.entries()) {
+    const runs = curveRuns[k]!;
+    const label = curve.label === '' ? null : placeRayLabel(font, curve.label, runs, plate, placed, allRuns);
+    if (label !== null) {
+      placed.push(label.box);
+      fills.push({ ...label.box, colour: RAY_HALO, opacity: RAY_LABEL_BACKING });
+      texts.push({ text: curve.label, x: label.x, y: label.y, size: LABEL_PT, rotate: 0, role: 'ray', colour: RAY_INK });
+    }
   }
   if (axes !== null) {
     const x0 = plate.x;
@@ -84,21 +105,78 @@ export function layoutFigure(model: FigureModel, dpi: number, font: FigureFont):
     for (const t of axes.re.ticks) {
       const x = x0 + t.at * sx;
       strokes.push({ points: [x, y1, x, y1 + TICK_PT], width: LINE_PT, colour: INK, clip: false });
-      texts.push({ text: t.label, x: x - font.width(t.label, LABEL_PT) / 2, y: y1 + TICK_PT + GAP + cap(LABEL_PT), size: LABEL_PT, rotate: 0, role: 're-tick' });
+      texts.push({ text: t.label, x: x - font.width(t.label, LABEL_PT) / 2, y: y1 + TICK_PT + GAP + cap(LABEL_PT), size: LABEL_PT, rotate: 0, role: 're-tick', colour: INK });
     }
     for (const t of axes.im.ticks) {
       const y = y0 + t.at * sy;
       strokes.push({ points: [x0 - TICK_PT, y, x0, y], width: LINE_PT, colour: INK, clip: false });
-      texts.push({ text: t.label, x: x0 - TICK_PT - GAP - font.width(t.label, LABEL_PT), y: y + cap(LABEL_PT) / 2, size: LABEL_PT, rotate: 0, role: 'im-tick' });
+      texts.push({ text: t.label, x: x0 - TICK_PT - GAP - font.width(t.label, LABEL_PT), y: y + cap(LABEL_PT) / 2, size: LABEL_PT, rotate: 0, role: 'im-tick', colour: INK });
     }
     const reTitleY = y1 + TICK_PT + GAP + cap(LABEL_PT) + font.descent * LABEL_PT + 1.5 * GAP + cap(TITLE_PT);
-    texts.push({ text: axes.re.title, x: x0 + pw / 2 - font.width(axes.re.title, TITLE_PT) / 2, y: reTitleY, size: TITLE_PT, rotate: 0, role: 'title' });
+    texts.push({ text: axes.re.title, x: x0 + pw / 2 - font.width(axes.re.title, TITLE_PT) / 2, y: reTitleY, size: TITLE_PT, rotate: 0, role: 'title', colour: INK });
     const imTitleX = x0 - TICK_PT - GAP - imLabelWidth - 1.5 * GAP - font.descent * TITLE_PT;
     // Turned to read upwards, the text runs from the bottom: its start sits below the middle by half its length.
-    texts.push({ text: axes.im.title, x: imTitleX, y: y0 + ph / 2 + font.width(axes.im.title, TITLE_PT) / 2, size: TITLE_PT, rotate: -90, role: 'title' });
+    texts.push({ text: axes.im.title, x: imTitleX, y: y0 + ph / 2 + font.width(axes.im.title, TITLE_PT) / 2, size: TITLE_PT, rotate: -90, role: 'title', colour: INK });
   }
   captionLines.forEach((line, i) => {
-    texts.push({ text: line, x: PAD, y: captionTop + cap(CAPTION_PT) + i * lineHeight, size: CAPTION_PT, rotate: 0, role: 'caption' });
+    texts.push({ text: line, x: PAD, y: captionTop + cap(CAPTION_PT) + i * lineHeight, size: CAPTION_PT, rotate: 0, role: 'caption', colour: INK });
   });
-  return { width: pageWidth, height: pageHeight, plate, strokes, texts };
+  return { width: pageWidth, height: pageHeight, plate, strokes, fills, texts };
+}
+
+function overlaps(a: Rect, b: Rect): boolean {
+  return a.x < b.x + b.width && b.x < a.x + a.width && a.y < b.y + b.height && b.y < a.y + a.height;
+}
+
+/** Whether segment (ax, ay)-(bx, by) meets rectangle r (Liang-Barsky on the one segment). */
+function segmentMeets(ax: number, ay: number, bx: number, by: number, r: Rect): boolean {
+  return clipPolyline([ax, ay, bx, by], r.x, r.y, r.x + r.width, r.y + r.height).length > 0;
+}
+
+/**
+ * Where a ray's label goes: beside a point of the ray, a little to one side
+ * of it (left of the inward direction first, then right), trying the points
+ * from outside inwards, at the first place where the box lies inside the
+ * plate and covers neither another label nor any ray; null when there is
+ * no such place.
+ */
+function placeRayLabel(font: FigureFont, text: string, runs: readonly number[][], plate: Rect, placed: readonly Rect[], allRuns: readonly number[][]): { x: number; y: number; box: Rect } | null {
+  const w = font.width(text, LABEL_PT);
+  const h = font.capHeight * LABEL_PT;
+  const pad = 1.2;
+  const inset = 2;
+  const gap = 2.5;
+  const bw = w + 2 * pad;
+  const bh = h + 2 * pad;
+  for (const run of runs) {
+    let travelled = 0;
+    for (let i = 2; i + 1 < run.length; i += 2) {
+      const px = run[i]!;
+      const py = run[i + 1]!;
+      const dx = px - run[i - 2]!;
+      const dy = py - run[i - 1]!;
+      const len = Math.hypot(dx, dy);
+      travelled += len;
+      if (len === 0 || travelled < 4) continue;
+      if (px < plate.x + inset || px > plate.x + plate.width - inset || py < plate.y + inset || py > plate.y + plate.height - inset) continue;
+      for (const side of [1, -1]) {
+        // unit normal to the left (side 1) or right (side -1) of the inward direction, in a y-down page
+        const nx = (side * dy) / len;
+        const ny = (-side * dx) / len;
+        // the box's centre sits off the ray by the gap plus the box's half extent along the normal
+        const reach = gap + Math.abs(nx) * (bw / 2) + Math.abs(ny) * (bh / 2);
+        const box = { x: px + nx * reach - bw / 2, y: py + ny * reach - bh / 2, width: bw, height: bh };
+        if (box.x < plate.x + inset || box.y < plate.y + inset || box.x + bw > plate.x + plate.width - inset || box.y + bh > plate.y + plate.height - inset) continue;
+        if (placed.some((b) => overlaps(b, box))) continue;
+        if (allRuns.some((r) => hitsRun(r, box))) continue;
+        return { x: box.x + pad, y: box.y + pad + h, box };
+      }
+    }
+  }
+  return null;
+}
+
+function hitsRun(run: readonly number[], box: Rect): boolean {
+  for (let i = 0; i + 3 < run.length; i += 2) if (segmentMeets(run[i]!, run[i + 1]!, run[i + 2]!, run[i + 3]!, box)) return true;
+  return false;
 }

@@ -59,11 +59,15 @@ export async function figurePdf(scene: FigureScene, png: Uint8Array, font: Figur
     doc.lineWidth(s.width).lineJoin('round').lineCap('butt').strokeColor(s.colour).stroke();
     doc.restore();
   }
-  doc.fillColor('#000000');
+  for (const f of scene.fills) {
+    doc.save();
+    doc.rect(f.x, f.y, f.width, f.height).fillOpacity(f.opacity).fillColor(f.colour).fill();
+    doc.restore();
+  }
   for (const t of scene.texts) {
     doc.save();
     if (t.rotate !== 0) doc.rotate(t.rotate, { origin: [t.x, t.y] });
-    if (t.role === 'ray') doc.fillColor('#ffffff');
+    doc.fillColor(t.colour);
     doc.font('figure').fontSize(t.size).text(t.text, t.x, t.y, { lineBreak: false, baseline: 'alphabetic' });
     doc.restore();
   }

@@ -32,9 +32,12 @@ export function figureSvg(scene: FigureScene, href: string, font: FigureFont, ti
     for (let i = 0; i + 1 < s.points.length; i += 2) pts.push(`${num(s.points[i]!)},${num(s.points[i + 1]!)}`);
     out.push(`<polyline points="${pts.join(' ')}" fill="none" stroke="${s.colour}" stroke-width="${num(s.width)}" stroke-linejoin="round"${s.clip ? ' clip-path="url(#plate)"' : ''}/>`);
   }
+  for (const f of scene.fills) {
+    out.push(`<rect x="${num(f.x)}" y="${num(f.y)}" width="${num(f.width)}" height="${num(f.height)}" fill="${f.colour}" fill-opacity="${num(f.opacity)}"/>`);
+  }
   for (const t of scene.texts) {
     const d = font.outline(t.text, t.size, t.x, t.y);
-    const fill = t.role === 'ray' ? '#ffffff' : '#000000';
+    const fill = t.colour;
     const turn = t.rotate === 0 ? '' : ` transform="rotate(${t.rotate} ${num(t.x)} ${num(t.y)})"`;
     out.push(`<path role="img" class="${t.role}" aria-label="${escapeAttr(t.text)}" fill="${fill}"${turn} d="${d}"/>`);
   }
