@@ -152,7 +152,7 @@ const FIELD_FLAGS: ReadonlyArray<readonly [string, string]> = [
  */
 export function flagForField(field: string, values: Record<string, unknown>, options: readonly OptionSpec[] = PLATE_OPTIONS): string | undefined {
   for (const [prefix, flag] of FIELD_FLAGS) {
-    if (field !== prefix && !field.startsWith(`${prefix}.`)) continue;
+    if (field !== prefix && !field.startsWith(`${prefix}.`) && !field.startsWith(`${prefix}[`)) continue;
     const spec = options.find((o) => o.flags.startsWith(`${flag} `) || o.flags === flag);
     if (spec !== undefined && typeof values[attributeName(spec.flags)] === 'string') return flag;
   }

@@ -176,11 +176,50 @@ describe('figure bytes', () => {
   });
 });
 
+describe('plate --rays', () => {
+  it('reports landings within a pixel of the exact points in --json, and each drawn ray ends at its landing on the page (SVG)', () => {
+    const dir = tempDir();
+    const file = path.join(dir, 'r.svg');
+    const r = runCli(['plate', ...FLAGS, '--axes', '--rays', '1/3,2/3,1/7,2/7,1/6', '--out', file, '--json']);
+    expect(r.status, r.stderr).toBe(0);
+    const out = JSON.parse(r.stdout) as { rays: Array<{ angle: string; kind: string; landing: { re: string; im: string } }> };
+    // exact landings: -3/4 (root of the period-2 disk); -1/8 + (3 sqrt 3/8) i (cardioid formula at internal
+    // angle 1/3, methods.md C3); c = i (Misiurewicz, preperiod 1, period 2), by the Douady-Hubbard landing theorem
+    const exact: Record<string, [number, number]> = { '1/3': [-0.75, 0], '2/3': [-0.75, 0], '1/7': [-1 / 8, (3 * Math.sqrt(3)) / 8], '2/7': [-1 / 8, (3 * Math.sqrt(3)) / 8], '1/6': [0, 1] };
+    const pixel = VIEW.span / VIEW.width;
+    expect(out.rays.map((x) => x.angle)).toEqual(['1/3', '2/3', '1/7', '2/7', '1/6']);
+    for (const ray of out.rays) {
+      const [re, im] = exact[ray.angle]!;
+      expect(Math.hypot(Number(ray.landing.re) - re, Number(ray.landing.im) - im), ray.angle).toBeLessThan(pixel);
+      expect(Math.hypot(Number(ray.landing.re) - re, Number(ray.landing.im) - im), ray.angle).toBeLessThan(1e-15);
+      expect(ray.landing.re).toMatch(/^-?\d+(\.\d+)?$/);
+    }
+    const svg = readFileSync(file, 'utf8');
+    const img = /<image x="([\d.]+)" y="([\d.]+)" width="([\d.]+)" height="([\d.]+)"/.exec(svg)!;
+    const plate = { x: Number(img[1]), y: Number(img[2]), width: Number(img[3]), height: Number(img[4]) };
+    const ends = [...svg.matchAll(/<polyline points="([^"]+)" fill="none" stroke="#ffffff"/g)].map((m) => m[1]!.trim().split(' ').at(-1)!.split(',').map(Number) as [number, number]);
+    expect(ends.length).toBeGreaterThanOrEqual(5);
+    for (const ray of out.rays) {
+      const [re, im] = exact[ray.angle]!;
+      const hit = ends.some(([x, y]) => {
+        const [cr, ci] = cAt(plate, x, y);
+        return Math.hypot(cr - re, ci - im) < pixel / 2;
+      });
+      expect(hit, ray.angle).toBe(true);
+    }
+    const labels = [...svg.matchAll(/class="ray" aria-label="([^"]+)"/g)].map((m) => m[1]);
+    expect(labels.sort()).toEqual(['1/3', '1/6', '1/7', '2/3', '2/7']);
+  });
+});
+
 describe('figure bad input', () => {
   const cases: Array<[string, string[], RegExp]> = [
     ['a rotated view with --axes', ['--rotation', '30', '--axes', '--out', 'X.pdf'], /^quadatlas: Expected a view without rotation .* for --axes \(sheet field figure\.axes\) but received rotation 30$/],
     ['--axes on a PNG', ['--axes', '--out', 'X.png'], /^quadatlas: Expected an output file ending in \.pdf or \.svg .* for --out \(sheet field output\.file\) but received .*X\.png$/],
     ['a legend beside a figure', ['--legend', 'beside', '--out', 'X.svg'], /^quadatlas: Expected none or inset on a figure .* for colour\.legend but received "?beside"?$/],
+    ['an angle not below 1', ['--rays', '1/3,3/2', '--out', 'X.pdf'], /^quadatlas: Expected an external angle written p\/q with integers 0 <= p < q < 2\^52 \(e\.g\. 1\/3\) for --rays \(sheet field figure\.rays\[1\]\) but received "?3\/2"?$/],
+    ['an angle that is no fraction', ['--rays', 'x', '--out', 'X.svg'], /^quadatlas: Expected an external angle .* for --rays \(sheet field figure\.rays\[0\]\) but received "?x"?$/],
+    ['rays in a view too deep for doubles', ['--span', '1e-15', '--rays', '1/3', '--out', 'X.pdf'], /^quadatlas: Expected a view that doubles resolve \(rays are traced in double precision\) for --rays \(sheet field figure\.rays\) but received "?span 1e-15"?$/],
     ['an unknown output kind', ['--out', 'X.eps'], /^quadatlas: Expected a file name ending in \.png, \.tif, \.tiff, \.pdf or \.svg for --out \(sheet field output\.file\) but received .*X\.eps"?$/],
   ];
   for (const [what, flags, line] of cases) {
