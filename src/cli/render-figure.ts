@@ -16,9 +16,11 @@ import { layoutFigure } from '../figure/layout-figure.js';
 import { figurePdf } from '../figure/write-figure-pdf.js';
 import { figureSvg } from '../figure/write-figure-svg.js';
 import type { Sheet } from '../view/sheet.js';
-import { doubleGrid, fitsDouble, type View } from '../view/view.js';
+import { doubleGrid, fitsDouble, type DoubleGrid, type View } from '../view/view.js';
 import type { FigureCurve } from '../figure/figure-model.js';
 import { parameterRay, type ParameterRay } from '../figure/parameter-rays.js';
+import { outlinesInView, type ComponentOutline } from '../figure/component-outlines.js';
+import os from 'node:os';
 import { plateMetadata, renderSheet, type PlateSummary, type RenderSheetOptions } from './render-sheet.js';
 import { UserError } from './user-error.js';
 import { toolVersion } from './version.js';
@@ -39,28 +41,35 @@ export interface FigureSummary {
 /** A ray drawn: landing from Newton (decimal strings), and how far (in pixels) the traced part ended from it. */
 export interface RaySummary { angle: string; kind: string; preperiod: number; period: number; landing: { re: string; im: string }; tracedEnd: { re: string; im: string }; tracedEndPixels: number; landsInView: boolean }
 
-/** The rays of the sheet, traced and landed, with their polylines in plate pixels. */
-function traceRays(sheet: Sheet, view: View): { rays: ParameterRay[]; curves: FigureCurve[] } {
-  const spec = sheet.figure!;
-  if (spec.rays.length === 0) return { rays: [], curves: [] };
-  const grid = doubleGrid(view);
-  if (!fitsDouble(grid)) throw new UserError('figure.rays', 'a view that doubles resolve (rays are traced in double precision)', `span ${sheet.view.span}`);
-  const rays = spec.rays.map((a, i) => parameterRay(a, `figure.rays[${i}]`));
-  const curves = rays.map((r) => {
-    const pts = new Float64Array(r.points.length);
-    for (let i = 0; i < r.points.length; i += 2) {
-      // inverse of pixelToC (view.ts): pixel coordinates of c, for any rotation
-      const u = r.points[i]! - grid.centerRe;
-      const v = r.points[i + 1]! - grid.centerIm;
-      pts[i] = grid.width / 2 + (u * grid.cos + v * grid.sin) / grid.spacing;
-      pts[i + 1] = grid.height / 2 - (-u * grid.sin + v * grid.cos) / grid.spacing;
-    }
-    return { kind: 'ray', label: r.angle, points: pts };
-  });
-  return { rays, curves };
+/** Plate pixel coordinates of c values (re, im, ...): the inverse of pixelToC (view.ts), for any rotation. */
+function toPixels(grid: DoubleGrid, c: Float64Array): Float64Array {
+  const pts = new Float64Array(c.length);
+  for (let i = 0; i < c.length; i += 2) {
+    const u = c[i]! - grid.centerRe;
+    const v = c[i + 1]! - grid.centerIm;
+    pts[i] = grid.width / 2 + (u * grid.cos + v * grid.sin) / grid.spacing;
+    pts[i + 1] = grid.height / 2 - (-u * grid.sin + v * grid.cos) / grid.spacing;
+  }
+  return pts;
 }
 
-export async function renderFigure(sheet: Sheet, options: RenderSheetOptions = {}): Promise<PlateSummary & { figure: FigureSummary; rays: RaySummary[] }> {
+/** The rays and outlines of the sheet, computed in c, with their polylines in plate pixels. */
+async function traceCurves(sheet: Sheet, view: View, workers: number): Promise<{ rays: ParameterRay[]; outlines: ComponentOutline[]; curves: FigureCurve[] }> {
+  const spec = sheet.figure!;
+  if (spec.rays.length === 0 && spec.outlines === 0) return { rays: [], outlines: [], curves: [] };
+  const grid = doubleGrid(view);
+  const field = spec.rays.length > 0 ? 'figure.rays' : 'figure.outlines';
+  if (!fitsDouble(grid)) throw new UserError(field, `a view that doubles resolve (${field === 'figure.rays' ? 'rays are traced' : 'outlines are followed'} in double precision)`, `span ${sheet.view.span}`);
+  const rays = spec.rays.map((a, i) => parameterRay(a, `figure.rays[${i}]`));
+  const outlines = spec.outlines > 0 ? await outlinesInView(spec.outlines, grid, workers) : [];
+  const curves: FigureCurve[] = [
+    ...outlines.map((o) => ({ kind: 'outline', label: '', points: toPixels(grid, o.points) })),
+    ...rays.map((r) => ({ kind: 'ray', label: r.angle, points: toPixels(grid, r.points) })),
+  ];
+  return { rays, outlines, curves };
+}
+
+export async function renderFigure(sheet: Sheet, options: RenderSheetOptions = {}): Promise<PlateSummary & { figure: FigureSummary; rays: RaySummary[]; outlines: Array<{ period: number; nucleus: { re: number; im: number }; points: number }> }> {
   const spec = sheet.figure;
   if (spec === null) throw new Error('renderFigure: the sheet has no figure');
   if (sheet.colour.legend === 'beside') throw new UserError('colour.legend', 'none or inset on a figure (a legend beside the plate is a separate file)', sheet.colour.legend);
@@ -71,7 +80,8 @@ export async function renderFigure(sheet: Sheet, options: RenderSheetOptions = {
   const raster: Sheet = { ...sheet, depth: pdf ? 16 : sheet.depth, output: { file: rasterFile, data: sheet.output.data, sidecar: false }, figure: null };
   const view: View = { centerRe: sheet.view.re, centerIm: sheet.view.im, span: sheet.view.span, width: sheet.width, height: sheet.height, rotation: sheet.view.rotation };
   // Rays first: an angle Newton cannot land is refused before the plate is rendered.
-  const { rays, curves } = traceRays(sheet, view);
+  const { rays, outlines, curves } = await traceCurves(sheet, view, options.workers ?? os.availableParallelism());
+  const rayCurves = curves.filter((c) => c.kind === 'ray');
   try {
     const summary = await renderSheet(raster, { ...options, label: options.label ?? path.basename(file) });
     const png = await readFile(rasterFile);
@@ -108,7 +118,7 @@ export async function renderFigure(sheet: Sheet, options: RenderSheetOptions = {
       image,
     };
     const raySummaries: RaySummary[] = rays.map((r, i) => {
-        const pts = curves[i]!.points;
+        const pts = rayCurves[i]!.points;
         const n = pts.length;
         // the traced end is the second-to-last point, the landing the last
         const px = Math.hypot(pts[n - 4]! - pts[n - 2]!, pts[n - 3]! - pts[n - 1]!);
@@ -126,7 +136,7 @@ export async function renderFigure(sheet: Sheet, options: RenderSheetOptions = {
         };
       });
     const files = [path.resolve(file), ...(image === null ? [] : [image]), ...summary.files.filter((f) => f !== summary.file)];
-    const result = { ...summary, file: path.resolve(file), files, figure, rays: raySummaries };
+    const result = { ...summary, file: path.resolve(file), files, figure, rays: raySummaries, outlines: outlines.map((o) => ({ period: o.period, nucleus: o.nucleus, points: o.points.length / 2 })) };
     if (sheet.output.sidecar) {
       const sidecar = `${file}.json`;
       await writeFileAtomic(sidecar, `${JSON.stringify({ metadata: JSON.parse(metadata) as unknown, summary: result }, null, 2)}\n`);

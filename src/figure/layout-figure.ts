@@ -23,6 +23,9 @@ const INK = '#000000';
 const RAY_INK = '#ffffff';
 const RAY_HALO = '#000000';
 export const RAY_PT = 0.75;
+/** Component outlines: a thinner warm yellow, told apart from the white rays. */
+export const OUTLINE_PT = 0.5;
+const OUTLINE_INK = '#ffd84a';
 /** Ray labels: white on a half-transparent black backing. */
 const RAY_LABEL_BACKING = 0.55;
 
@@ -85,8 +88,15 @@ export function layoutFigure(model: FigureModel, dpi: number, font: FigureFont):
     return clipPolyline(pts, plate.x - pw / 10, plate.y - ph / 10, plate.x + pw * 1.1, plate.y + ph * 1.1);
   });
   const allRuns = curveRuns.flat();
-  for (const runs of curveRuns) for (const run of runs) strokes.push({ points: run, width: 2.5 * RAY_PT, colour: RAY_HALO, clip: true });
-  for (const runs of curveRuns) for (const run of runs) strokes.push({ points: run, width: RAY_PT, colour: RAY_INK, clip: true });
+  // halos first, so a curve crossing another stays unbroken
+  const widthOf = (kind: string): number => (kind === 'outline' ? OUTLINE_PT : RAY_PT);
+  curveRuns.forEach((runs, k) => {
+    for (const run of runs) strokes.push({ points: run, width: 2.5 * widthOf(model.curves[k]!.kind), colour: RAY_HALO, clip: true });
+  });
+  curveRuns.forEach((runs, k) => {
+    const kind = model.curves[k]!.kind;
+    for (const run of runs) strokes.push({ points: run, width: widthOf(kind), colour: kind === 'outline' ? OUTLINE_INK : RAY_INK, clip: true });
+  });
   for (const [k, curve] of model.curves.entries()) {
     const runs = curveRuns[k]!;
     const label = curve.label === '' ? null : placeRayLabel(font, curve.label, runs, plate, placed, allRuns);

@@ -21,7 +21,7 @@
  *   "skip": true,                            // deep: bilinear-approximation skipping
  *   "reference": { "re": "...", "im": "...", "period": 79 },   // deep: a nucleus as periodic reference (default: the centre)
  *   "output": { "file": "out/name.png", "data": "out/name-data", "sidecar": true },   // or .pdf / .svg: a figure
- *   "figure": { "axes": true, "caption": "...", "rays": ["1/3", "2/3"] },   // with a .pdf or .svg output
+ *   "figure": { "axes": true, "caption": "...", "rays": ["1/3", "2/3"], "outlines": 3 },   // with a .pdf or .svg output
  *   "startup": true                           // rendered by `npm start`
  * }
  * ```
@@ -67,6 +67,8 @@ export interface FigureSpec {
   readonly caption: string;
   /** External angles p/q (0 <= p < q) of the parameter rays to draw, as written. */
   readonly rays: readonly string[];
+  /** Draw the boundary of every component of this period in view (0: none). */
+  readonly outlines: number;
 }
 
 /** A figure's output file: vector PDF or SVG with the plate inside. */
@@ -95,7 +97,7 @@ function parseFigure(value: unknown, file: string, rotation: number): FigureSpec
   }
   const v = value ?? {};
   if (!isObject(v)) throw new UserError('figure', 'an object { "axes": ..., "caption": ..., "rays": [...] }', v);
-  noUnknownKeys(v, ['axes', 'caption', 'rays'], 'figure');
+  noUnknownKeys(v, ['axes', 'caption', 'rays', 'outlines'], 'figure');
   const axes = parseBoolean(v['axes'] ?? false, 'figure.axes');
   if (axes && rotation !== 0) throw new UserError('figure.axes', 'a view without rotation (the axes run along Re c and Im c)', new Received(`rotation ${rotation}`));
   const caption = v['caption'] ?? '';
@@ -104,7 +106,8 @@ function parseFigure(value: unknown, file: string, rotation: number): FigureSpec
   if (!Array.isArray(raysIn)) throw new UserError('figure.rays', 'a list of angles p/q, e.g. ["1/3", "2/3"]', raysIn);
   if (raysIn.length > MAX_RAYS) throw new UserError('figure.rays', `at most ${MAX_RAYS} rays`, new Received(`${raysIn.length} rays`));
   const rays = raysIn.map((a: unknown, i: number) => parseAngleText(a, `figure.rays[${i}]`));
-  return { axes, caption, rays };
+  const outlines = parseInteger(v['outlines'] ?? 0, 'figure.outlines', 0, MAX_LABEL_PERIOD);
+  return { axes, caption, rays, outlines };
 }
 
 /** Largest side in pixels: beyond it a plate is refused before any work. */
@@ -311,7 +314,7 @@ export function renderRecord(sheet: Sheet, version: string): Json {
     arithmetic: sheet.arithmetic,
     skip: sheet.skip,
     reference: sheet.reference === null ? null : { ...sheet.reference },
-    ...(sheet.figure === null ? {} : { figure: { axes: sheet.figure.axes, caption: sheet.figure.caption, rays: [...sheet.figure.rays] } }),
+    ...(sheet.figure === null ? {} : { figure: { axes: sheet.figure.axes, caption: sheet.figure.caption, rays: [...sheet.figure.rays], outlines: sheet.figure.outlines } }),
   };
 }
 

@@ -156,20 +156,20 @@ describe('plate --axes --out fig.svg', () => {
 });
 
 describe('figure bytes', () => {
-  it('are the same for --workers 1 and 2 and again from the file alone (--again), for PDF and SVG', () => {
+  it('are the same for --workers 1 and 2 and again from the file alone (--again), for PDF and SVG with axes, rays and outlines', () => {
     const dir = tempDir();
     for (const ext of ['pdf', 'svg']) {
       const a = path.join(dir, `a.${ext}`);
       const b = path.join(dir, `b.${ext}`);
-      expect(runCli(['plate', ...FLAGS, '--axes', '--caption', 'Ünïcode (caption) \\ test', '--workers', '1', '--out', a]).status).toBe(0);
-      expect(runCli(['plate', ...FLAGS, '--axes', '--caption', 'Ünïcode (caption) \\ test', '--workers', '2', '--out', b]).status).toBe(0);
+      expect(runCli(['plate', ...FLAGS, '--axes', '--caption', 'Ünïcode (caption) \\ test', '--rays', '1/3,2/3', '--outlines', '2', '--workers', '1', '--out', a]).status).toBe(0);
+      expect(runCli(['plate', ...FLAGS, '--axes', '--caption', 'Ünïcode (caption) \\ test', '--rays', '1/3,2/3', '--outlines', '2', '--workers', '2', '--out', b]).status).toBe(0);
       expect(readFileSync(a).equals(readFileSync(b)), ext).toBe(true);
       const again = runCli(['plate', '--again', a, '--workers', '2']);
       expect(again.status, again.stderr).toBe(0);
       expect(readFileSync(path.join(dir, `a-again.${ext}`)).equals(readFileSync(a)), `${ext} --again`).toBe(true);
       const sheet = runCli(['sheet', a]);
       expect(sheet.status, sheet.stderr).toBe(0);
-      expect((JSON.parse(sheet.stdout) as { figure: unknown }).figure).toEqual({ axes: true, caption: 'Ünïcode (caption) \\ test', rays: [] });
+      expect((JSON.parse(sheet.stdout) as { figure: unknown }).figure).toEqual({ axes: true, caption: 'Ünïcode (caption) \\ test', rays: ['1/3', '2/3'], outlines: 2 });
     }
     // nothing but the figures and their sidecars is left (no temporary plate)
     expect(readdirSync(dir).sort()).toEqual(['a-again.pdf', 'a-again.pdf.json', 'a-again.svg', 'a-again.svg.json', 'a.pdf', 'a.pdf.json', 'a.svg', 'a.svg.json', 'b.pdf', 'b.pdf.json', 'b.svg', 'b.svg.json']);
@@ -212,6 +212,30 @@ describe('plate --rays', () => {
   });
 });
 
+describe('plate --outlines', () => {
+  it('draws the period-2 outline on the circle |c + 1| = 1/4 (the 2-cycle multiplier is 4(c + 1)), closed, and lists it in --json', () => {
+    const dir = tempDir();
+    const file = path.join(dir, 'o.svg');
+    const r = runCli(['plate', ...FLAGS, '--outlines', '2', '--out', file, '--json']);
+    expect(r.status, r.stderr).toBe(0);
+    const out = JSON.parse(r.stdout) as { outlines: Array<{ period: number; nucleus: { re: number; im: number } }> };
+    expect(out.outlines.map((o) => [o.period, o.nucleus.re, o.nucleus.im])).toEqual([[2, -1, 0]]);
+    const svg = readFileSync(file, 'utf8');
+    const img = /<image x="([\d.]+)" y="([\d.]+)" width="([\d.]+)" height="([\d.]+)"/.exec(svg)!;
+    const plate = { x: Number(img[1]), y: Number(img[2]), width: Number(img[3]), height: Number(img[4]) };
+    const lines = [...svg.matchAll(/<polyline points="([^"]+)" fill="none" stroke="#ffd84a"/g)].map((m) => m[1]!.trim().split(' ').map((p) => p.split(',').map(Number) as [number, number]));
+    expect(lines).toHaveLength(1);
+    const pixel = VIEW.span / VIEW.width;
+    expect(lines[0]!.length).toBeGreaterThan(90);
+    for (const [x, y] of lines[0]!) {
+      const [cr, ci] = cAt(plate, x, y);
+      // SVG coordinates are rounded to 1/1000 pt, under 1/100 of a pixel here
+      expect(Math.abs(Math.hypot(cr + 1, ci) - 0.25)).toBeLessThan(pixel / 100);
+    }
+    expect(lines[0]![0]).toEqual(lines[0]!.at(-1));
+  });
+});
+
 describe('figure bad input', () => {
   const cases: Array<[string, string[], RegExp]> = [
     ['a rotated view with --axes', ['--rotation', '30', '--axes', '--out', 'X.pdf'], /^quadatlas: Expected a view without rotation .* for --axes \(sheet field figure\.axes\) but received rotation 30$/],
@@ -220,6 +244,8 @@ describe('figure bad input', () => {
     ['an angle not below 1', ['--rays', '1/3,3/2', '--out', 'X.pdf'], /^quadatlas: Expected an external angle written p\/q with integers 0 <= p < q < 2\^52 \(e\.g\. 1\/3\) for --rays \(sheet field figure\.rays\[1\]\) but received "?3\/2"?$/],
     ['an angle that is no fraction', ['--rays', 'x', '--out', 'X.svg'], /^quadatlas: Expected an external angle .* for --rays \(sheet field figure\.rays\[0\]\) but received "?x"?$/],
     ['rays in a view too deep for doubles', ['--span', '1e-15', '--rays', '1/3', '--out', 'X.pdf'], /^quadatlas: Expected a view that doubles resolve \(rays are traced in double precision\) for --rays \(sheet field figure\.rays\) but received "?span 1e-15"?$/],
+    ['outlines of a period with no component in view', ['--center', '0.3,0', '--span', '0.01', '--outlines', '2', '--out', 'X.pdf'], /^quadatlas: Expected a period with a component in view at least 3 pixels across for --outlines \(sheet field figure\.outlines\) but received "?period 2 \(none in view\)"?$/],
+    ['outlines of period 15', ['--outlines', '15', '--out', 'X.pdf'], /^quadatlas: Expected an integer between 0 and 14 for --outlines \(sheet field figure\.outlines\) but received 15$/],
     ['an unknown output kind', ['--out', 'X.eps'], /^quadatlas: Expected a file name ending in \.png, \.tif, \.tiff, \.pdf or \.svg for --out \(sheet field output\.file\) but received .*X\.eps"?$/],
   ];
   for (const [what, flags, line] of cases) {
