@@ -25,8 +25,13 @@ import { plateMetadata, renderSheet, type PlateSummary, type RenderSheetOptions 
 import { UserError } from './user-error.js';
 import { toolVersion } from './version.js';
 
-/** Largest PNG (bytes) an SVG figure carries inside itself as a data URL. */
-export const SVG_INLINE_LIMIT = 8 * 1024 * 1024;
+/**
+ * Largest PNG (bytes) an SVG figure carries inside itself as a data URL:
+ * 4 MiB is 5.6 MB of base64. librsvg (used by sharp and many viewers)
+ * refuses an attribute over 10 MB unless told to parse huge files; measured
+ * with a 7.6 MB plate.
+ */
+export const SVG_INLINE_LIMIT = 4 * 1024 * 1024;
 
 export interface FigureSummary {
   readonly format: 'pdf' | 'svg';
