@@ -71,8 +71,7 @@ export function register(program: Command): void {
     let summary;
     try {
       const sheet: Sheet = quickSheet(parseSheet(applyPlateOptions(raw, values), name));
-      const render = sheet.figure === null ? renderSheet : (await import('./render-figure.js')).renderFigure;
-      summary = await render(sheet, { ...(workers === undefined ? {} : { workers }), ...(tileSize === undefined ? {} : { tileSize }) });
+      summary = await renderSheet(sheet, { ...(workers === undefined ? {} : { workers }), ...(tileSize === undefined ? {} : { tileSize }) });
     } catch (err) {
       throw nameTheFlag(err, values);
     }

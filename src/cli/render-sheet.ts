@@ -144,6 +144,8 @@ async function writeCoordinates(dataDir: string, view: View, grid: DoubleGrid, d
 }
 
 export async function renderSheet(sheet: Sheet, options: RenderSheetOptions = {}): Promise<PlateSummary> {
+  // A figure (.pdf, .svg) renders its plate through this function again, with figure null.
+  if (sheet.figure !== null) return (await import('./render-figure.js')).renderFigure(sheet, options);
   const started = process.hrtime.bigint();
   const view = { centerRe: sheet.view.re, centerIm: sheet.view.im, span: sheet.view.span, width: sheet.width, height: sheet.height, rotation: sheet.view.rotation };
   const grid = doubleGrid(view);

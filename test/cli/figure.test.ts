@@ -260,6 +260,18 @@ describe('figure bad input', () => {
     });
   }
 
+  it('julia keeps its own --rays and refuses a figure output in one line', () => {
+    const dir = tempDir();
+    const help = runCli(['julia', '--help']);
+    expect(help.status, help.stderr).toBe(0);
+    expect(help.stdout).toContain('dynamic rays');
+    expect(help.stdout).not.toContain('--axes');
+    const r = runCli(['julia', '--c', '-1,0', '--size', '40x30', '--out', path.join(dir, 'j.pdf')]);
+    expect(r.status).toBe(2);
+    expect(r.stderr.trim()).toMatch(/^quadatlas: Expected a file name ending in \.png, \.tif or \.tiff \(figures are drawn for plates of the c-plane\) for .*output\.file.* but received .*j\.pdf"?$/);
+    expect(readdirSync(dir)).toEqual([]);
+  });
+
   it('a sheet whose figure.caption is not a string names the field', () => {
     const dir = tempDir();
     const sheet = path.join(dir, 's.json');
