@@ -21,7 +21,7 @@ import type { FigureCurve } from '../figure/figure-model.js';
 import { parameterRay, type ParameterRay } from '../figure/parameter-rays.js';
 import { outlinesInView, type ComponentOutline } from '../figure/component-outlines.js';
 import os from 'node:os';
-import { plateMetadata, renderSheet, type PlateSummary, type RenderSheetOptions } from './render-sheet.js';
+import { plateMetadata, refuseDirectory, renderSheet, type PlateSummary, type RenderSheetOptions } from './render-sheet.js';
 import { UserError } from './user-error.js';
 import { toolVersion } from './version.js';
 
@@ -81,6 +81,7 @@ export async function renderFigure(sheet: Sheet, options: RenderSheetOptions = {
   const file = sheet.output.file;
   const pdf = /\.pdf$/i.test(file);
   const besideName = file.replace(/\.(pdf|svg)$/i, '-plate.png');
+  for (const f of [file, besideName, ...(sheet.output.sidecar ? [`${file}.json`] : [])]) await refuseDirectory(f, 'output.file');
   const rasterFile = tempPathFor(besideName);
   const raster: Sheet = { ...sheet, depth: pdf ? 16 : sheet.depth, output: { file: rasterFile, data: sheet.output.data, sidecar: false }, figure: null };
   const view: View = { centerRe: sheet.view.re, centerIm: sheet.view.im, span: sheet.view.span, width: sheet.width, height: sheet.height, rotation: sheet.view.rotation };

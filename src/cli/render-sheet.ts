@@ -80,7 +80,7 @@ export function periodTolerance(spacing: number): number {
 }
 
 /** An output name that is an existing directory is refused before any work (it would fail at the final rename). */
-async function refuseDirectory(file: string, field: string): Promise<void> {
+export async function refuseDirectory(file: string, field: string): Promise<void> {
   let isDir = false;
   try {
     isDir = (await stat(file)).isDirectory();

@@ -7,7 +7,7 @@
  * coordinates.
  */
 import { spawnSync } from 'node:child_process';
-import { existsSync, readdirSync, readFileSync, writeFileSync } from 'node:fs';
+import { existsSync, mkdirSync, readdirSync, readFileSync, writeFileSync } from 'node:fs';
 import path from 'node:path';
 import { describe, expect, it } from 'vitest';
 import { requireInCi } from '../helpers/require-in-ci.js';
@@ -259,6 +259,15 @@ describe('figure bad input', () => {
       expect(readdirSync(dir)).toEqual([]);
     });
   }
+
+  it('an output name that is a directory is refused before any work', () => {
+    const dir = tempDir();
+    mkdirSync(path.join(dir, 'd.pdf'));
+    const r = runCli(['plate', ...FLAGS, '--out', path.join(dir, 'd.pdf')]);
+    expect(r.status).toBe(2);
+    expect(r.stderr.trim()).toMatch(/^quadatlas: Expected a file name \(not an existing directory\) for --out \(sheet field output\.file\) but received .*d\.pdf \(a directory\)"?$/);
+    expect(readdirSync(dir)).toEqual(['d.pdf']);
+  });
 
   it('julia keeps its own --rays and refuses a figure output in one line', () => {
     const dir = tempDir();
