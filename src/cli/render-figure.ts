@@ -21,6 +21,7 @@ import type { FigureCurve } from '../figure/figure-model.js';
 import { parameterRay, type ParameterRay } from '../figure/parameter-rays.js';
 import { outlinesInView, type ComponentOutline } from '../figure/component-outlines.js';
 import os from 'node:os';
+import { periodMarks, type PeriodMark } from '../figure/period-marks.js';
 import { plateMetadata, refuseDirectory, renderSheet, type PlateSummary, type RenderSheetOptions } from './render-sheet.js';
 import { UserError } from './user-error.js';
 import { toolVersion } from './version.js';
@@ -74,7 +75,7 @@ async function traceCurves(sheet: Sheet, view: View, workers: number): Promise<{
   return { rays, outlines, curves };
 }
 
-export async function renderFigure(sheet: Sheet, options: RenderSheetOptions = {}): Promise<PlateSummary & { figure: FigureSummary; rays: RaySummary[]; outlines: Array<{ period: number; nucleus: { re: number; im: number }; points: number }> }> {
+export async function renderFigure(sheet: Sheet, options: RenderSheetOptions = {}): Promise<PlateSummary & { figure: FigureSummary; rays: RaySummary[]; outlines: Array<{ period: number; nucleus: { re: number; im: number }; points: number }>; labels: Array<{ period: number; c: { re: number; im: number } }> }> {
   const spec = sheet.figure;
   if (spec === null) throw new Error('renderFigure: the sheet has no figure');
   if (sheet.colour.legend === 'beside') throw new UserError('colour.legend', 'none or inset on a figure (a legend beside the plate is a separate file)', sheet.colour.legend);
@@ -83,15 +84,22 @@ export async function renderFigure(sheet: Sheet, options: RenderSheetOptions = {
   const besideName = file.replace(/\.(pdf|svg)$/i, '-plate.png');
   for (const f of [file, besideName, ...(sheet.output.sidecar ? [`${file}.json`] : [])]) await refuseDirectory(f, 'output.file');
   const rasterFile = tempPathFor(besideName);
-  const raster: Sheet = { ...sheet, depth: pdf ? 16 : sheet.depth, output: { file: rasterFile, data: sheet.output.data, sidecar: false }, figure: null };
+  // Period labels are set in the figure font over the plate, not drawn into its pixels.
+  const raster: Sheet = { ...sheet, depth: pdf ? 16 : sheet.depth, labels: 0, output: { file: rasterFile, data: sheet.output.data, sidecar: false }, figure: null };
   const view: View = { centerRe: sheet.view.re, centerIm: sheet.view.im, span: sheet.view.span, width: sheet.width, height: sheet.height, rotation: sheet.view.rotation };
   // Rays first: an angle Newton cannot land is refused before the plate is rendered.
   const { rays, outlines, curves } = await traceCurves(sheet, view, options.workers ?? os.availableParallelism());
   const rayCurves = curves.filter((c) => c.kind === 'ray');
+  let marks: PeriodMark[] = [];
+  if (sheet.labels > 0) {
+    const grid = doubleGrid(view);
+    if (!fitsDouble(grid)) throw new UserError('labels', '0 for a deep view (labels are placed from nuclei located in double precision)', sheet.labels);
+    marks = await periodMarks(sheet.labels, grid, sheet.dpi, options.workers ?? os.availableParallelism());
+  }
   try {
     const summary = await renderSheet(raster, { ...options, label: options.label ?? path.basename(file) });
     const png = await readFile(rasterFile);
-    const model = figureModel(view, sheet.dpi, { axes: spec.axes, caption: spec.caption }, curves);
+    const model = figureModel(view, sheet.dpi, { axes: spec.axes, caption: spec.caption }, curves, marks);
     const font = figureFont();
     const scene = layoutFigure(model, sheet.dpi, font);
     const metadata = plateMetadata(sheet, { arithmetic: summary.arithmetic, bits: Number(summary.precision['referenceBits'] ?? 53), iterations: summary.iterations });
@@ -142,7 +150,7 @@ export async function renderFigure(sheet: Sheet, options: RenderSheetOptions = {
         };
       });
     const files = [path.resolve(file), ...(image === null ? [] : [image]), ...summary.files.filter((f) => f !== summary.file)];
-    const result = { ...summary, file: path.resolve(file), files, figure, rays: raySummaries, outlines: outlines.map((o) => ({ period: o.period, nucleus: o.nucleus, points: o.points.length / 2 })) };
+    const result = { ...summary, file: path.resolve(file), files, figure, rays: raySummaries, labels: scene.drawnMarks.map((m) => ({ period: marks[m]!.period, c: { re: marks[m]!.re, im: marks[m]!.im } })), outlines: outlines.map((o) => ({ period: o.period, nucleus: o.nucleus, points: o.points.length / 2 })) };
     if (sheet.output.sidecar) {
       const sidecar = `${file}.json`;
       await writeFileAtomic(sidecar, `${JSON.stringify({ metadata: JSON.parse(metadata) as unknown, summary: result }, null, 2)}\n`);

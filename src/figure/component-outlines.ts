@@ -22,14 +22,19 @@ export interface ComponentOutline {
   readonly points: Float64Array;
 }
 
-export async function outlinesInView(period: number, grid: DoubleGrid, workers: number): Promise<ComponentOutline[]> {
+/** The c-range of a view's corners (for any rotation). */
+export function viewBox(grid: DoubleGrid): { re0: number; re1: number; im0: number; im1: number } {
   const corners = [[0, 0], [grid.width, 0], [0, grid.height], [grid.width, grid.height]].map(([x, y]) => pixelToC(grid, x!, y!, new Float64Array(2)));
-  const box = {
+  return {
     re0: Math.min(...corners.map((c) => c[0]!)),
     re1: Math.max(...corners.map((c) => c[0]!)),
     im0: Math.min(...corners.map((c) => c[1]!)),
     im1: Math.max(...corners.map((c) => c[1]!)),
   };
+}
+
+export async function outlinesInView(period: number, grid: DoubleGrid, workers: number): Promise<ComponentOutline[]> {
+  const box = viewBox(grid);
   const nuclei = await componentsInBox({ min: period, max: period }, box, OUTLINE_MIN_PIXELS * grid.spacing, { workers });
   if (nuclei.length === 0) throw new UserError('figure.outlines', `a period with a component in view at least ${OUTLINE_MIN_PIXELS} pixels across`, new Received(`period ${period} (none in view)`));
   return nuclei.map((n) => {

@@ -23,11 +23,21 @@ export interface FigureCurve {
   readonly points: Float64Array;
 }
 
+/** A labelled point of the figure (a nucleus and its period), in continuous plate pixels. */
+export interface FigureMark {
+  readonly kind: string;
+  readonly label: string;
+  readonly x: number;
+  readonly y: number;
+}
+
 export interface FigureModel {
   readonly view: View;
   readonly axes: { readonly re: AxisTicks; readonly im: AxisTicks } | null;
   readonly caption: string;
   readonly curves: readonly FigureCurve[];
+  /** Placed after the curves' labels, each only where it covers no curve and no other label. */
+  readonly marks: readonly FigureMark[];
 }
 
 /** One tick per this many points of axis length, at most (d3's count is a hint). */
@@ -39,7 +49,7 @@ export const MIN_TICKS = 5;
  * The model of a figure of `view` printed at `dpi`. Axes need a view
  * without rotation: their ticks run along Re c and Im c.
  */
-export function figureModel(view: View, dpi: number, options: FigureOptions, curves: readonly FigureCurve[] = []): FigureModel {
+export function figureModel(view: View, dpi: number, options: FigureOptions, curves: readonly FigureCurve[] = [], marks: readonly FigureMark[] = []): FigureModel {
   let axes: FigureModel['axes'] = null;
   if (options.axes) {
     if (view.rotation !== 0) throw new Error('figureModel: axes need a view without rotation');
@@ -52,7 +62,7 @@ export function figureModel(view: View, dpi: number, options: FigureOptions, cur
       im: axisTicks('Im c', view.centerIm, spanIm, view.height, Math.max(MIN_TICKS, Math.round(heightPt / TICK_SPACING_PT)), true, exponent),
     };
   }
-  return { view, axes, caption: options.caption, curves };
+  return { view, axes, caption: options.caption, curves, marks };
 }
 
 /** The extent of `pixels` pixels at span/width per pixel, as a decimal string (40 digits beyond the span's). */

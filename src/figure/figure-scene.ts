@@ -50,4 +50,6 @@ export interface FigureScene {
   /** Drawn after the strokes, before the texts. */
   readonly fills: readonly SceneFill[];
   readonly texts: readonly SceneText[];
+  /** Indices into the model's marks of those that found room and were drawn. */
+  readonly drawnMarks: readonly number[];
 }

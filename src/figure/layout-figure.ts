@@ -106,6 +106,22 @@ export function layoutFigure(model: FigureModel, dpi: number, font: FigureFont):
       texts.push({ text: curve.label, x: label.x, y: label.y, size: LABEL_PT, rotate: 0, role: 'ray', colour: RAY_INK });
     }
   }
+  // Period labels: centred on the nucleus, skipped where they would cover a curve or another label.
+  const drawnMarks: number[] = [];
+  for (const [m, mark] of model.marks.entries()) {
+    const w = font.width(mark.label, LABEL_PT);
+    const h = font.capHeight * LABEL_PT;
+    const pad = 1.2;
+    const cx = plate.x + mark.x * sx;
+    const cy = plate.y + mark.y * sy;
+    const box = { x: cx - w / 2 - pad, y: cy - h / 2 - pad, width: w + 2 * pad, height: h + 2 * pad };
+    if (box.x < plate.x || box.y < plate.y || box.x + box.width > plate.x + pw || box.y + box.height > plate.y + ph) continue;
+    if (placed.some((b) => overlaps(b, box)) || allRuns.some((r) => hitsRun(r, box))) continue;
+    placed.push(box);
+    drawnMarks.push(m);
+    fills.push({ ...box, colour: RAY_HALO, opacity: RAY_LABEL_BACKING });
+    texts.push({ text: mark.label, x: cx - w / 2, y: cy + h / 2, size: LABEL_PT, rotate: 0, role: mark.kind, colour: RAY_INK });
+  }
   if (axes !== null) {
     const x0 = plate.x;
     const y0 = plate.y;
@@ -131,7 +147,7 @@ export function layoutFigure(model: FigureModel, dpi: number, font: FigureFont):
   captionLines.forEach((line, i) => {
     texts.push({ text: line, x: PAD, y: captionTop + cap(CAPTION_PT) + i * lineHeight, size: CAPTION_PT, rotate: 0, role: 'caption', colour: INK });
   });
-  return { width: pageWidth, height: pageHeight, plate, strokes, fills, texts };
+  return { width: pageWidth, height: pageHeight, plate, strokes, fills, texts, drawnMarks };
 }
 
 function overlaps(a: Rect, b: Rect): boolean {

@@ -156,13 +156,13 @@ describe('plate --axes --out fig.svg', () => {
 });
 
 describe('figure bytes', () => {
-  it('are the same for --workers 1 and 2 and again from the file alone (--again), for PDF and SVG with axes, rays and outlines', () => {
+  it('are the same for --workers 1 and 2 and again from the file alone (--again), for PDF and SVG with axes, rays, outlines and period labels', () => {
     const dir = tempDir();
     for (const ext of ['pdf', 'svg']) {
       const a = path.join(dir, `a.${ext}`);
       const b = path.join(dir, `b.${ext}`);
-      expect(runCli(['plate', ...FLAGS, '--axes', '--caption', 'Ünïcode (caption) \\ test', '--rays', '1/3,2/3', '--outlines', '2', '--workers', '1', '--out', a]).status).toBe(0);
-      expect(runCli(['plate', ...FLAGS, '--axes', '--caption', 'Ünïcode (caption) \\ test', '--rays', '1/3,2/3', '--outlines', '2', '--workers', '2', '--out', b]).status).toBe(0);
+      expect(runCli(['plate', ...FLAGS, '--axes', '--caption', 'Ünïcode (caption) \\ test', '--rays', '1/3,2/3', '--outlines', '2', '--label-periods', '2', '--workers', '1', '--out', a]).status).toBe(0);
+      expect(runCli(['plate', ...FLAGS, '--axes', '--caption', 'Ünïcode (caption) \\ test', '--rays', '1/3,2/3', '--outlines', '2', '--label-periods', '2', '--workers', '2', '--out', b]).status).toBe(0);
       expect(readFileSync(a).equals(readFileSync(b)), ext).toBe(true);
       const again = runCli(['plate', '--again', a, '--workers', '2']);
       expect(again.status, again.stderr).toBe(0);
@@ -209,6 +209,29 @@ describe('plate --rays', () => {
     }
     const labels = [...svg.matchAll(/class="ray" aria-label="([^"]+)"/g)].map((m) => m[1]);
     expect(labels.sort()).toEqual(['1/3', '1/6', '1/7', '2/3', '2/7']);
+  });
+});
+
+describe('plate --label-periods on a figure', () => {
+  it.runIf(havePoppler)('sets each period label in the font (pdftotext reads it) centred on its nucleus: 1 at c = 0, 2 at c = -1 (0 -> -1 -> 0)', () => {
+    const dir = tempDir();
+    const file = path.join(dir, 'l.pdf');
+    const r = runCli(['plate', ...FLAGS, '--label-periods', '3', '--out', file, '--json']);
+    expect(r.status, r.stderr).toBe(0);
+    const out = JSON.parse(r.stdout) as { labels: Array<{ period: number; c: { re: number; im: number } }>; figure: { plate: { x: number; y: number; width: number; height: number } } };
+    expect(out.labels.map((l) => l.period)).toEqual([1, 2]);
+    const plate = out.figure.plate;
+    const words = pdfWords(file).filter((w) => w.x0 > plate.x && w.x1 < plate.x + plate.width && w.y0 > plate.y && w.y1 < plate.y + plate.height);
+    const nuclei: Record<string, [number, number]> = { '1': [0, 0], '2': [-1, 0] };
+    expect(words.map((w) => w.text).sort()).toEqual(['1', '2']);
+    const pointC = VIEW.span / plate.width; // c units per point
+    for (const w of words) {
+      const [cr] = cAt(plate, (w.x0 + w.x1) / 2, 0);
+      const [, ci] = cAt(plate, 0, (w.y0 + w.y1) / 2);
+      expect(Math.abs(cr - nuclei[w.text]![0]) / pointC, w.text).toBeLessThan(0.25);
+      // the box runs from the ascent to the descent line; its middle is within a point of the capitals' middle
+      expect(Math.abs(ci - nuclei[w.text]![1]) / pointC, w.text).toBeLessThan(1);
+    }
   });
 });
 
