@@ -94,6 +94,7 @@ export const PLATE_OPTIONS: readonly OptionSpec[] = [
     description: 'figures: parameter rays of these external angles p/q, comma-separated (e.g. 1/3,2/3,1/7), traced to where they land and labelled (default none; sheet figure.rays)',
     apply: (s, v) => void (sub(s, 'figure')['rays'] = v.split(',').map((a) => a.trim())),
   },
+  { flags: '--rays-of <period>', description: 'figures: both rays landing at the root of every component of this period (1 to 12) in view, 0 for none (default 0; sheet figure.raysOf)', apply: (s, v) => void (sub(s, 'figure')['raysOf'] = integer(v, '--rays-of')) },
   { flags: '--outlines <period>', description: 'figures: draw the boundary of every component of this period (1 to 14) in view, 0 for none (default 0; sheet figure.outlines)', apply: (s, v) => void (sub(s, 'figure')['outlines'] = integer(v, '--outlines')) },
   { flags: '--out <file>', description: 'output file: an image ending in .png, .tif or .tiff, or a figure ending in .pdf or .svg (default out/<sheet>.png; sheet output.file)', apply: (s, v) => void (sub(s, 'output')['file'] = v) },
   { flags: '--data <dir>', description: 'also write the per-pixel arrays as NPY files into this directory (default none; sheet output.data)', apply: (s, v) => void (sub(s, 'output')['data'] = v) },
@@ -145,6 +146,7 @@ const FIELD_FLAGS: ReadonlyArray<readonly [string, string]> = [
   ['figure.caption', '--caption'],
   ['figure.rays', '--rays'],
   ['figure.outlines', '--outlines'],
+  ['figure.raysOf', '--rays-of'],
   ['output.data', '--data'],
 ];
 

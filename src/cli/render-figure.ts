@@ -21,6 +21,8 @@ import type { FigureCurve } from '../figure/figure-model.js';
 import { parameterRay, type ParameterRay } from '../figure/parameter-rays.js';
 import { outlinesInView, type ComponentOutline } from '../figure/component-outlines.js';
 import os from 'node:os';
+import { raysOfPeriod } from '../figure/rays-of-period.js';
+import { MAX_RAYS } from '../view/sheet.js';
 import { periodMarks, type PeriodMark } from '../figure/period-marks.js';
 import { plateMetadata, refuseDirectory, renderSheet, type PlateSummary, type RenderSheetOptions } from './render-sheet.js';
 import { UserError } from './user-error.js';
@@ -62,11 +64,15 @@ function toPixels(grid: DoubleGrid, c: Float64Array): Float64Array {
 /** The rays and outlines of the sheet, computed in c, with their polylines in plate pixels. */
 async function traceCurves(sheet: Sheet, view: View, workers: number): Promise<{ rays: ParameterRay[]; outlines: ComponentOutline[]; curves: FigureCurve[] }> {
   const spec = sheet.figure!;
-  if (spec.rays.length === 0 && spec.outlines === 0) return { rays: [], outlines: [], curves: [] };
+  if (spec.rays.length === 0 && spec.raysOf === 0 && spec.outlines === 0) return { rays: [], outlines: [], curves: [] };
   const grid = doubleGrid(view);
-  const field = spec.rays.length > 0 ? 'figure.rays' : 'figure.outlines';
-  if (!fitsDouble(grid)) throw new UserError(field, `a view that doubles resolve (${field === 'figure.rays' ? 'rays are traced' : 'outlines are followed'} in double precision)`, `span ${sheet.view.span}`);
+  const field = spec.rays.length > 0 ? 'figure.rays' : spec.raysOf > 0 ? 'figure.raysOf' : 'figure.outlines';
+  if (!fitsDouble(grid)) throw new UserError(field, `a view that doubles resolve (${field === 'figure.outlines' ? 'outlines are followed' : 'rays are traced'} in double precision)`, `span ${sheet.view.span}`);
   const rays = spec.rays.map((a, i) => parameterRay(a, `figure.rays[${i}]`));
+  if (spec.raysOf > 0) {
+    const given = new Set(spec.rays);
+    for (const a of await raysOfPeriod(spec.raysOf, grid, workers, MAX_RAYS - spec.rays.length)) if (!given.has(a)) rays.push(parameterRay(a, 'figure.raysOf'));
+  }
   const outlines = spec.outlines > 0 ? await outlinesInView(spec.outlines, grid, workers) : [];
   const curves: FigureCurve[] = [
     ...outlines.map((o) => ({ kind: 'outline', label: '', points: toPixels(grid, o.points) })),

@@ -169,7 +169,7 @@ describe('figure bytes', () => {
       expect(readFileSync(path.join(dir, `a-again.${ext}`)).equals(readFileSync(a)), `${ext} --again`).toBe(true);
       const sheet = runCli(['sheet', a]);
       expect(sheet.status, sheet.stderr).toBe(0);
-      expect((JSON.parse(sheet.stdout) as { figure: unknown }).figure).toEqual({ axes: true, caption: 'Ünïcode (caption) \\ test', rays: ['1/3', '2/3'], outlines: 2 });
+      expect((JSON.parse(sheet.stdout) as { figure: unknown }).figure).toEqual({ axes: true, caption: 'Ünïcode (caption) \\ test', rays: ['1/3', '2/3'], raysOf: 0, outlines: 2 });
     }
     // nothing but the figures and their sidecars is left (no temporary plate)
     expect(readdirSync(dir).sort()).toEqual(['a-again.pdf', 'a-again.pdf.json', 'a-again.svg', 'a-again.svg.json', 'a.pdf', 'a.pdf.json', 'a.svg', 'a.svg.json', 'b.pdf', 'b.pdf.json', 'b.svg', 'b.svg.json']);
@@ -209,6 +209,25 @@ describe('plate --rays', () => {
     }
     const labels = [...svg.matchAll(/class="ray" aria-label="([^"]+)"/g)].map((m) => m[1]);
     expect(labels.sort()).toEqual(['1/3', '1/6', '1/7', '2/3', '2/7']);
+  });
+});
+
+describe('plate --rays-of', () => {
+  it('draws both rays of every period-3 component in view: 1/7, 2/7 | 3/7, 4/7 | 5/7, 6/7, landing at the roots (angles: Douady-Hubbard, from memory; roots: the window at -7/4, the cardioid formula at internal angle 1/3)', () => {
+    const dir = tempDir();
+    const r = runCli(['plate', '--center', '-0.75,0', '--span', '3', '--size', '480x360', '--iterations', '300', '--samples', '1', '--rays-of', '3', '--out', path.join(dir, 'r.pdf'), '--json']);
+    expect(r.status, r.stderr).toBe(0);
+    const out = JSON.parse(r.stdout) as { rays: Array<{ angle: string; landing: { re: string; im: string } }> };
+    const at = (a: string): [number, number] => {
+      const x = out.rays.find((y) => y.angle === a)!;
+      return [Number(x.landing.re), Number(x.landing.im)];
+    };
+    expect(out.rays.map((x) => x.angle).sort()).toEqual(['1/7', '2/7', '3/7', '4/7', '5/7', '6/7']);
+    const bulb = (3 * Math.sqrt(3)) / 8;
+    for (const [a, re, im] of [['3/7', -1.75, 0], ['4/7', -1.75, 0], ['1/7', -0.125, bulb], ['2/7', -0.125, bulb], ['5/7', -0.125, -bulb], ['6/7', -0.125, -bulb]] as const) {
+      const [x, y] = at(a);
+      expect(Math.hypot(x - re, y - im), a).toBeLessThan(1e-12);
+    }
   });
 });
 
@@ -268,6 +287,8 @@ describe('figure bad input', () => {
     ['an angle that is no fraction', ['--rays', 'x', '--out', 'X.svg'], /^quadatlas: Expected an external angle .* for --rays \(sheet field figure\.rays\[0\]\) but received "?x"?$/],
     ['rays in a view too deep for doubles', ['--span', '1e-15', '--rays', '1/3', '--out', 'X.pdf'], /^quadatlas: Expected a view that doubles resolve \(rays are traced in double precision\) for --rays \(sheet field figure\.rays\) but received "?span 1e-15"?$/],
     ['outlines of a period with no component in view', ['--center', '0.3,0', '--span', '0.01', '--outlines', '2', '--out', 'X.pdf'], /^quadatlas: Expected a period with a component in view at least 3 pixels across for --outlines \(sheet field figure\.outlines\) but received "?period 2 \(none in view\)"?$/],
+    ['rays of a period with no component in view', ['--center', '0.3,0', '--span', '0.01', '--rays-of', '2', '--out', 'X.pdf'], /^quadatlas: Expected a period with a component in view at least 3 pixels across for --rays-of \(sheet field figure\.raysOf\) but received "?period 2 \(none in view\)"?$/],
+    ['rays of period 13', ['--rays-of', '13', '--out', 'X.svg'], /^quadatlas: Expected an integer between 0 and 12 for --rays-of \(sheet field figure\.raysOf\) but received 13$/],
     ['outlines of period 15', ['--outlines', '15', '--out', 'X.pdf'], /^quadatlas: Expected an integer between 0 and 14 for --outlines \(sheet field figure\.outlines\) but received 15$/],
     ['an unknown output kind', ['--out', 'X.eps'], /^quadatlas: Expected a file name ending in \.png, \.tif, \.tiff, \.pdf or \.svg for --out \(sheet field output\.file\) but received .*X\.eps"?$/],
   ];
