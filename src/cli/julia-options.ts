@@ -8,7 +8,7 @@ import { attributeName, PLATE_OPTIONS, type OptionSpec } from './plate-options.j
 import { UserError } from './user-error.js';
 
 /** Figure flags of plates (vector annotations in c), not offered on Julia plates. */
-const FIGURE_FLAGS = new Set(['--axes', '--caption <text>', '--rays <angles>', '--rays-of <period>', '--outlines <period>']);
+const FIGURE_FLAGS = new Set(['--axes', '--caption <text>', '--rays <angles>', '--rays-of <period>', '--equipotentials <n>', '--outlines <period>']);
 
 /** Plate flags that have no meaning on a Julia plate. */
 const REFUSED = new Set(['--label-periods <n>', '--reference <re,im,period>', '--no-skip']);

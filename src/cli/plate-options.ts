@@ -95,6 +95,7 @@ export const PLATE_OPTIONS: readonly OptionSpec[] = [
     apply: (s, v) => void (sub(s, 'figure')['rays'] = v.split(',').map((a) => a.trim())),
   },
   { flags: '--rays-of <period>', description: 'figures: both rays landing at the root of every component of this period (1 to 12) in view, 0 for none (default 0; sheet figure.raysOf)', apply: (s, v) => void (sub(s, 'figure')['raysOf'] = integer(v, '--rays-of')) },
+  { flags: '--equipotentials <n>', description: 'figures: n level curves of the potential, G_0 / 2^k for k = 0..n-1 with G_0 the largest in view, n from 0 (none) to 64 (default 0; sheet figure.equipotentials)', apply: (s, v) => void (sub(s, 'figure')['equipotentials'] = integer(v, '--equipotentials')) },
   { flags: '--outlines <period>', description: 'figures: draw the boundary of every component of this period (1 to 14) in view, 0 for none (default 0; sheet figure.outlines)', apply: (s, v) => void (sub(s, 'figure')['outlines'] = integer(v, '--outlines')) },
   { flags: '--out <file>', description: 'output file: an image ending in .png, .tif or .tiff, or a figure ending in .pdf or .svg (default out/<sheet>.png; sheet output.file)', apply: (s, v) => void (sub(s, 'output')['file'] = v) },
   { flags: '--data <dir>', description: 'also write the per-pixel arrays as NPY files into this directory (default none; sheet output.data)', apply: (s, v) => void (sub(s, 'output')['data'] = v) },
@@ -147,6 +148,7 @@ const FIELD_FLAGS: ReadonlyArray<readonly [string, string]> = [
   ['figure.rays', '--rays'],
   ['figure.outlines', '--outlines'],
   ['figure.raysOf', '--rays-of'],
+  ['figure.equipotentials', '--equipotentials'],
   ['output.data', '--data'],
 ];
 

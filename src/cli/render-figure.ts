@@ -22,10 +22,11 @@ import { parameterRay, type ParameterRay } from '../figure/parameter-rays.js';
 import { outlinesInView, type ComponentOutline } from '../figure/component-outlines.js';
 import os from 'node:os';
 import { raysOfPeriod } from '../figure/rays-of-period.js';
+import { equipotential, equipotentialLevel, largestPotential, MAX_CURVE_STEPS } from '../figure/equipotentials.js';
 import { MAX_RAYS } from '../view/sheet.js';
 import { periodMarks, type PeriodMark } from '../figure/period-marks.js';
 import { plateMetadata, refuseDirectory, renderSheet, type PlateSummary, type RenderSheetOptions } from './render-sheet.js';
-import { UserError } from './user-error.js';
+import { Received, UserError } from './user-error.js';
 import { toolVersion } from './version.js';
 
 /**
@@ -62,12 +63,28 @@ function toPixels(grid: DoubleGrid, c: Float64Array): Float64Array {
 }
 
 /** The rays and outlines of the sheet, computed in c, with their polylines in plate pixels. */
-async function traceCurves(sheet: Sheet, view: View, workers: number): Promise<{ rays: ParameterRay[]; outlines: ComponentOutline[]; curves: FigureCurve[] }> {
+async function traceCurves(sheet: Sheet, view: View, workers: number): Promise<{ rays: ParameterRay[]; outlines: ComponentOutline[]; levels: number[]; curves: FigureCurve[] }> {
   const spec = sheet.figure!;
-  if (spec.rays.length === 0 && spec.raysOf === 0 && spec.outlines === 0) return { rays: [], outlines: [], curves: [] };
+  if (spec.rays.length === 0 && spec.raysOf === 0 && spec.outlines === 0 && spec.equipotentials === 0) return { rays: [], outlines: [], levels: [], curves: [] };
   const grid = doubleGrid(view);
-  const field = spec.rays.length > 0 ? 'figure.rays' : spec.raysOf > 0 ? 'figure.raysOf' : 'figure.outlines';
-  if (!fitsDouble(grid)) throw new UserError(field, `a view that doubles resolve (${field === 'figure.outlines' ? 'outlines are followed' : 'rays are traced'} in double precision)`, `span ${sheet.view.span}`);
+  const field = spec.rays.length > 0 ? 'figure.rays' : spec.raysOf > 0 ? 'figure.raysOf' : spec.outlines > 0 ? 'figure.outlines' : 'figure.equipotentials';
+  if (!fitsDouble(grid)) throw new UserError(field, `a view that doubles resolve (${field === 'figure.outlines' ? 'outlines are followed' : field === 'figure.equipotentials' ? 'equipotentials are followed' : 'rays are traced'} in double precision)`, `span ${sheet.view.span}`);
+  const levels: number[] = [];
+  const levelCurves: FigureCurve[] = [];
+  if (spec.equipotentials > 0) {
+    const g0 = largestPotential(grid, 100_000);
+    if (!(g0 > 0)) throw new UserError('figure.equipotentials', 'a view with points outside the set', new Received(`no escaping point on the frame of the view`));
+    for (let k = 0; k < spec.equipotentials; k += 1) {
+      const g = g0 / 2 ** k;
+      if (equipotentialLevel(g).steps > MAX_CURVE_STEPS) {
+        throw new UserError('figure.equipotentials', `at most ${k} levels in this view (level G_0 / 2^k takes about 2^(k+7) Newton steps; the limit is ${MAX_CURVE_STEPS})`, spec.equipotentials);
+      }
+      const curve = equipotential(g, grid.spacing / 4);
+      if (curve === null) throw new UserError('figure.equipotentials', 'levels whose curve Newton follows in double precision', new Received(`G = ${g}`));
+      levels.push(g);
+      levelCurves.push({ kind: 'equipotential', label: '', points: toPixels(grid, curve) });
+    }
+  }
   const rays = spec.rays.map((a, i) => parameterRay(a, `figure.rays[${i}]`));
   if (spec.raysOf > 0) {
     const given = new Set(spec.rays);
@@ -75,13 +92,14 @@ async function traceCurves(sheet: Sheet, view: View, workers: number): Promise<{
   }
   const outlines = spec.outlines > 0 ? await outlinesInView(spec.outlines, grid, workers) : [];
   const curves: FigureCurve[] = [
+    ...levelCurves,
     ...outlines.map((o) => ({ kind: 'outline', label: '', points: toPixels(grid, o.points) })),
     ...rays.map((r) => ({ kind: 'ray', label: r.angle, points: toPixels(grid, r.points) })),
   ];
-  return { rays, outlines, curves };
+  return { rays, outlines, levels, curves };
 }
 
-export async function renderFigure(sheet: Sheet, options: RenderSheetOptions = {}): Promise<PlateSummary & { figure: FigureSummary; rays: RaySummary[]; outlines: Array<{ period: number; nucleus: { re: number; im: number }; points: number }>; labels: Array<{ period: number; c: { re: number; im: number } }> }> {
+export async function renderFigure(sheet: Sheet, options: RenderSheetOptions = {}): Promise<PlateSummary & { figure: FigureSummary; rays: RaySummary[]; outlines: Array<{ period: number; nucleus: { re: number; im: number }; points: number }>; labels: Array<{ period: number; c: { re: number; im: number } }>; equipotentials: Array<{ potential: number }> }> {
   const spec = sheet.figure;
   if (spec === null) throw new Error('renderFigure: the sheet has no figure');
   if (sheet.colour.legend === 'beside') throw new UserError('colour.legend', 'none or inset on a figure (a legend beside the plate is a separate file)', sheet.colour.legend);
@@ -94,7 +112,7 @@ export async function renderFigure(sheet: Sheet, options: RenderSheetOptions = {
   const raster: Sheet = { ...sheet, depth: pdf ? 16 : sheet.depth, labels: 0, output: { file: rasterFile, data: sheet.output.data, sidecar: false }, figure: null };
   const view: View = { centerRe: sheet.view.re, centerIm: sheet.view.im, span: sheet.view.span, width: sheet.width, height: sheet.height, rotation: sheet.view.rotation };
   // Rays first: an angle Newton cannot land is refused before the plate is rendered.
-  const { rays, outlines, curves } = await traceCurves(sheet, view, options.workers ?? os.availableParallelism());
+  const { rays, outlines, levels, curves } = await traceCurves(sheet, view, options.workers ?? os.availableParallelism());
   const rayCurves = curves.filter((c) => c.kind === 'ray');
   let marks: PeriodMark[] = [];
   if (sheet.labels > 0) {
@@ -156,7 +174,7 @@ export async function renderFigure(sheet: Sheet, options: RenderSheetOptions = {
         };
       });
     const files = [path.resolve(file), ...(image === null ? [] : [image]), ...summary.files.filter((f) => f !== summary.file)];
-    const result = { ...summary, file: path.resolve(file), files, figure, rays: raySummaries, labels: scene.drawnMarks.map((m) => ({ period: marks[m]!.period, c: { re: marks[m]!.re, im: marks[m]!.im } })), outlines: outlines.map((o) => ({ period: o.period, nucleus: o.nucleus, points: o.points.length / 2 })) };
+    const result = { ...summary, file: path.resolve(file), files, figure, rays: raySummaries, equipotentials: levels.map((g) => ({ potential: g })), labels: scene.drawnMarks.map((m) => ({ period: marks[m]!.period, c: { re: marks[m]!.re, im: marks[m]!.im } })), outlines: outlines.map((o) => ({ period: o.period, nucleus: o.nucleus, points: o.points.length / 2 })) };
     if (sheet.output.sidecar) {
       const sidecar = `${file}.json`;
       await writeFileAtomic(sidecar, `${JSON.stringify({ metadata: JSON.parse(metadata) as unknown, summary: result }, null, 2)}\n`);

@@ -26,6 +26,9 @@ export const RAY_PT = 0.75;
 /** Component outlines: a thinner warm yellow, told apart from the white rays. */
 export const OUTLINE_PT = 0.5;
 const OUTLINE_INK = '#ffd84a';
+/** Equipotentials: pale hairlines, under the rays and outlines. */
+export const LEVEL_PT = 0.35;
+const LEVEL_INK = '#e6eeff';
 /** Ray labels: white on a half-transparent black backing. */
 const RAY_LABEL_BACKING = 0.55;
 
@@ -89,13 +92,16 @@ export function layoutFigure(model: FigureModel, dpi: number, font: FigureFont):
   });
   const allRuns = curveRuns.flat();
   // halos first, so a curve crossing another stays unbroken
-  const widthOf = (kind: string): number => (kind === 'outline' ? OUTLINE_PT : RAY_PT);
+  const widthOf = (kind: string): number => (kind === 'outline' ? OUTLINE_PT : kind === 'equipotential' ? LEVEL_PT : RAY_PT);
+  const inkOf = (kind: string): string => (kind === 'outline' ? OUTLINE_INK : kind === 'equipotential' ? LEVEL_INK : RAY_INK);
   curveRuns.forEach((runs, k) => {
-    for (const run of runs) strokes.push({ points: run, width: 2.5 * widthOf(model.curves[k]!.kind), colour: RAY_HALO, clip: true });
+    const kind = model.curves[k]!.kind;
+    if (kind === 'equipotential') return; // hairlines over the exterior need no halo
+    for (const run of runs) strokes.push({ points: run, width: 2.5 * widthOf(kind), colour: RAY_HALO, clip: true });
   });
   curveRuns.forEach((runs, k) => {
     const kind = model.curves[k]!.kind;
-    for (const run of runs) strokes.push({ points: run, width: widthOf(kind), colour: kind === 'outline' ? OUTLINE_INK : RAY_INK, clip: true });
+    for (const run of runs) strokes.push({ points: run, width: widthOf(kind), colour: inkOf(kind), clip: true });
   });
   for (const [k, curve] of model.curves.entries()) {
     const runs = curveRuns[k]!;

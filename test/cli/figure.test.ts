@@ -156,20 +156,20 @@ describe('plate --axes --out fig.svg', () => {
 });
 
 describe('figure bytes', () => {
-  it('are the same for --workers 1 and 2 and again from the file alone (--again), for PDF and SVG with axes, rays, outlines and period labels', () => {
+  it('are the same for --workers 1 and 2 and again from the file alone (--again), for PDF and SVG with axes, rays, outlines, equipotentials and period labels', () => {
     const dir = tempDir();
     for (const ext of ['pdf', 'svg']) {
       const a = path.join(dir, `a.${ext}`);
       const b = path.join(dir, `b.${ext}`);
-      expect(runCli(['plate', ...FLAGS, '--axes', '--caption', 'Ünïcode (caption) \\ test', '--rays', '1/3,2/3', '--outlines', '2', '--label-periods', '2', '--workers', '1', '--out', a]).status).toBe(0);
-      expect(runCli(['plate', ...FLAGS, '--axes', '--caption', 'Ünïcode (caption) \\ test', '--rays', '1/3,2/3', '--outlines', '2', '--label-periods', '2', '--workers', '2', '--out', b]).status).toBe(0);
+      expect(runCli(['plate', ...FLAGS, '--axes', '--caption', 'Ünïcode (caption) \\ test', '--rays', '1/3,2/3', '--outlines', '2', '--equipotentials', '3', '--label-periods', '2', '--workers', '1', '--out', a]).status).toBe(0);
+      expect(runCli(['plate', ...FLAGS, '--axes', '--caption', 'Ünïcode (caption) \\ test', '--rays', '1/3,2/3', '--outlines', '2', '--equipotentials', '3', '--label-periods', '2', '--workers', '2', '--out', b]).status).toBe(0);
       expect(readFileSync(a).equals(readFileSync(b)), ext).toBe(true);
       const again = runCli(['plate', '--again', a, '--workers', '2']);
       expect(again.status, again.stderr).toBe(0);
       expect(readFileSync(path.join(dir, `a-again.${ext}`)).equals(readFileSync(a)), `${ext} --again`).toBe(true);
       const sheet = runCli(['sheet', a]);
       expect(sheet.status, sheet.stderr).toBe(0);
-      expect((JSON.parse(sheet.stdout) as { figure: unknown }).figure).toEqual({ axes: true, caption: 'Ünïcode (caption) \\ test', rays: ['1/3', '2/3'], raysOf: 0, outlines: 2 });
+      expect((JSON.parse(sheet.stdout) as { figure: unknown }).figure).toEqual({ axes: true, caption: 'Ünïcode (caption) \\ test', rays: ['1/3', '2/3'], raysOf: 0, equipotentials: 3, outlines: 2 });
     }
     // nothing but the figures and their sidecars is left (no temporary plate)
     expect(readdirSync(dir).sort()).toEqual(['a-again.pdf', 'a-again.pdf.json', 'a-again.svg', 'a-again.svg.json', 'a.pdf', 'a.pdf.json', 'a.svg', 'a.svg.json', 'b.pdf', 'b.pdf.json', 'b.svg', 'b.svg.json']);
@@ -254,6 +254,52 @@ describe('plate --label-periods on a figure', () => {
   });
 });
 
+describe('plate --equipotentials', () => {
+  /** The Green's function by direct iteration: log|z_n| / 2^(n-1) once |z_n| > 1e50. */
+  function green(cr: number, ci: number): number {
+    let zr = cr;
+    let zi = ci;
+    for (let n = 1; n < 100000; n++) {
+      const m = zr * zr + zi * zi;
+      if (m > 1e100) return (0.5 * Math.log(m)) / 2 ** (n - 1);
+      [zr, zi] = [zr * zr - zi * zi + cr, 2 * zr * zi + ci];
+    }
+    return 0;
+  }
+
+  it('span 64: G_0 is the potential at the far corner, G_k = G_0 / 2^k, and every drawn point has its level by direct iteration', () => {
+    const dir = tempDir();
+    const file = path.join(dir, 'e.svg');
+    const r = runCli(['plate', '--center', '0,0', '--span', '64', '--size', '256x256', '--iterations', '300', '--samples', '1', '--equipotentials', '4', '--out', file, '--json']);
+    expect(r.status, r.stderr).toBe(0);
+    const out = JSON.parse(r.stdout) as { equipotentials: Array<{ potential: number }> };
+    const g = out.equipotentials.map((e) => e.potential);
+    expect(g).toHaveLength(4);
+    // far out G(c) = log|c + 1/2| + O(1/|c|^2): largest at the corners (32, ±32), farthest from -1/2
+    expect(Math.abs(g[0]! - green(32, 32))).toBeLessThan(1e-9);
+    for (let k = 1; k < 4; k++) expect(g[k]).toBe(g[0]! / 2 ** k);
+    const svg = readFileSync(file, 'utf8');
+    const img = /<image x="([\d.]+)" y="([\d.]+)" width="([\d.]+)" height="([\d.]+)"/.exec(svg)!;
+    const plate = { x: Number(img[1]), y: Number(img[2]), width: Number(img[3]), height: Number(img[4]) };
+    const lines = [...svg.matchAll(/<polyline points="([^"]+)" fill="none" stroke="#e6eeff"/g)].map((m) => m[1]!.trim().split(' ').map((p) => p.split(',').map(Number) as [number, number]));
+    expect(lines.length).toBeGreaterThanOrEqual(3);
+    const perPoint = 64 / plate.width;
+    for (const line of lines) {
+      const levels = line.map(([x, y]) => {
+        const i = ((x - plate.x) / plate.width) * 256;
+        const j = ((y - plate.y) / plate.height) * 256;
+        return green((i - 128) * (64 / 256), (128 - j) * (64 / 256));
+      });
+      // one of the levels, to the SVG's rounding: 1/1000 pt is perPoint/1000 in c, and |grad G| is below 2 outside the
+      // set's neighbourhood shown here (far out it is 1/|c|); neighbouring levels differ by a factor 2
+      const tol = (v: number): number => 2 * (perPoint / 1000) + 1e-6 * v;
+      const level = g.find((v) => Math.abs(levels[Math.floor(levels.length / 2)]! - v) < tol(v))!;
+      expect(level, `${levels[0]}`).toBeDefined();
+      for (const v of levels) expect(Math.abs(v - level)).toBeLessThan(tol(level));
+    }
+  });
+});
+
 describe('plate --outlines', () => {
   it('draws the period-2 outline on the circle |c + 1| = 1/4 (the 2-cycle multiplier is 4(c + 1)), closed, and lists it in --json', () => {
     const dir = tempDir();
@@ -289,6 +335,8 @@ describe('figure bad input', () => {
     ['outlines of a period with no component in view', ['--center', '0.3,0', '--span', '0.01', '--outlines', '2', '--out', 'X.pdf'], /^quadatlas: Expected a period with a component in view at least 3 pixels across for --outlines \(sheet field figure\.outlines\) but received "?period 2 \(none in view\)"?$/],
     ['rays of a period with no component in view', ['--center', '0.3,0', '--span', '0.01', '--rays-of', '2', '--out', 'X.pdf'], /^quadatlas: Expected a period with a component in view at least 3 pixels across for --rays-of \(sheet field figure\.raysOf\) but received "?period 2 \(none in view\)"?$/],
     ['rays of period 13', ['--rays-of', '13', '--out', 'X.svg'], /^quadatlas: Expected an integer between 0 and 12 for --rays-of \(sheet field figure\.raysOf\) but received 13$/],
+    ['65 equipotentials', ['--equipotentials', '65', '--out', 'X.pdf'], /^quadatlas: Expected an integer between 0 and 64 for --equipotentials \(sheet field figure\.equipotentials\) but received 65$/],
+    ['equipotentials in a view inside the set', ['--center', '0,0', '--span', '0.01', '--equipotentials', '2', '--out', 'X.pdf'], /^quadatlas: Expected a view with points outside the set for --equipotentials \(sheet field figure\.equipotentials\) but received "?no escaping point on the frame of the view"?$/],
     ['outlines of period 15', ['--outlines', '15', '--out', 'X.pdf'], /^quadatlas: Expected an integer between 0 and 14 for --outlines \(sheet field figure\.outlines\) but received 15$/],
     ['an unknown output kind', ['--out', 'X.eps'], /^quadatlas: Expected a file name ending in \.png, \.tif, \.tiff, \.pdf or \.svg for --out \(sheet field output\.file\) but received .*X\.eps"?$/],
   ];
