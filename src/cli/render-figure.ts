@@ -140,8 +140,9 @@ export async function renderFigure(sheet: Sheet, options: RenderSheetOptions = {
         href = path.basename(besideName);
         image = path.resolve(besideName);
       }
-      await writeFileAtomic(file, svgWithMetadata(figureSvg(scene, href, font, sheet.title), metadata));
+      // the plate first: an SVG never points at a PNG that is not there
       if (image !== null) await rename(rasterFile, besideName);
+      await writeFileAtomic(file, svgWithMetadata(figureSvg(scene, href, font, sheet.title), metadata));
     }
     releaseTemp(rasterFile);
     const round = (v: number): number => Math.round(v * 1000) / 1000;
@@ -156,23 +157,23 @@ export async function renderFigure(sheet: Sheet, options: RenderSheetOptions = {
       image,
     };
     const raySummaries: RaySummary[] = rays.map((r, i) => {
-        const pts = rayCurves[i]!.points;
-        const n = pts.length;
-        // the traced end is the second-to-last point, the landing the last
-        const px = Math.hypot(pts[n - 4]! - pts[n - 2]!, pts[n - 3]! - pts[n - 1]!);
-        const lx = pts[n - 2]!;
-        const ly = pts[n - 1]!;
-        return {
-          angle: r.angle,
-          kind: r.kind,
-          preperiod: r.preperiod,
-          period: r.period,
-          landing: { re: r.landing.re, im: r.landing.im },
-          tracedEnd: { re: String(r.tracedEnd.re), im: String(r.tracedEnd.im) },
-          tracedEndPixels: Math.round(px * 1000) / 1000,
-          landsInView: lx >= 0 && lx <= sheet.width && ly >= 0 && ly <= sheet.height,
-        };
-      });
+      const pts = rayCurves[i]!.points;
+      const n = pts.length;
+      // the traced end is the second-to-last point, the landing the last
+      const px = Math.hypot(pts[n - 4]! - pts[n - 2]!, pts[n - 3]! - pts[n - 1]!);
+      const lx = pts[n - 2]!;
+      const ly = pts[n - 1]!;
+      return {
+        angle: r.angle,
+        kind: r.kind,
+        preperiod: r.preperiod,
+        period: r.period,
+        landing: { re: r.landing.re, im: r.landing.im },
+        tracedEnd: { re: String(r.tracedEnd.re), im: String(r.tracedEnd.im) },
+        tracedEndPixels: Math.round(px * 1000) / 1000,
+        landsInView: lx >= 0 && lx <= sheet.width && ly >= 0 && ly <= sheet.height,
+      };
+    });
     const files = [path.resolve(file), ...(image === null ? [] : [image]), ...summary.files.filter((f) => f !== summary.file)];
     const result = { ...summary, file: path.resolve(file), files, figure, rays: raySummaries, equipotentials: levels.map((g) => ({ potential: g })), labels: scene.drawnMarks.map((m) => ({ period: marks[m]!.period, c: { re: marks[m]!.re, im: marks[m]!.im } })), outlines: outlines.map((o) => ({ period: o.period, nucleus: o.nucleus, points: o.points.length / 2 })) };
     if (sheet.output.sidecar) {
