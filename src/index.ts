@@ -69,3 +69,15 @@ export { parseJuliaSheet, type JuliaSheet } from './view/julia-sheet.js';
 export { orbit, classifyOrbit, type OrbitClass } from './section/orbit.js';
 export { preciseOrbit, type PreciseOrbit } from './section/precise-orbit.js';
 export { orbitPlotSvg, cobwebSvg } from './section/orbit-figures.js';
+
+// Figures: annotations in c coordinates and their PDF and SVG writers.
+export { axisTicks, type AxisTicks, type Tick } from './figure/axis-ticks.js';
+export { figureModel, type FigureModel, type FigureOptions, type FigureCurve } from './figure/figure-model.js';
+export { layoutFigure } from './figure/layout-figure.js';
+export type { FigureScene } from './figure/figure-scene.js';
+export { figureFont, type FigureFont } from './figure/figure-font.js';
+export { figurePdf } from './figure/write-figure-pdf.js';
+export { figureSvg } from './figure/write-figure-svg.js';
+export { parameterRay, type ParameterRay } from './figure/parameter-rays.js';
+export { outlinesInView, type ComponentOutline } from './figure/component-outlines.js';
+export { componentOutline } from './components/component-outline.js';

@@ -8,6 +8,9 @@ import { attributeName, PLATE_OPTIONS } from './plate-options.js';
 import type { OptionSpec } from './option-spec.js';
 import { UserError } from '../check/user-error.js';
 
+/** Figure flags of plates (vector annotations in c), not offered on Julia plates. */
+const FIGURE_FLAGS = new Set(['--axes', '--caption <text>', '--rays <angles>', '--rays-of <period>', '--equipotentials <n>', '--outlines <period>']);
+
 /** Plate flags that have no meaning on a Julia plate. */
 const REFUSED = new Set(['--label-periods <n>', '--reference <re,im,period>', '--no-skip']);
 
@@ -36,7 +39,7 @@ export const JULIA_OPTIONS: readonly OptionSpec[] = [
   { flags: '--cycle', description: 'mark the attracting (or parabolic) cycle (default: not marked; sheet marks.cycle)' },
   { flags: '--fixed-points', description: 'mark the fixed points alpha (red) and beta (blue) (default: not marked; sheet marks.fixedPoints)' },
   { flags: '--rays <angles>', description: 'draw the dynamic rays of these angles, e.g. 1/7,2/7,4/7 (default: none; sheet marks.rays)', apply: (s, v) => void (sub(s, 'marks')['rays'] = v.split(',').map((a) => a.trim())) },
-  ...PLATE_OPTIONS.filter((o) => !REFUSED.has(o.flags)).map((o) =>
+  ...PLATE_OPTIONS.filter((o) => !REFUSED.has(o.flags) && !FIGURE_FLAGS.has(o.flags)).map((o) =>
     o.flags.startsWith('--center') ? { ...o, description: 'centre of the view in z as two decimal numbers (default 0,0)' } : o.flags.startsWith('--span') ? { ...o, description: 'width of the view in z units (default 4)' } : o,
   ),
   ...[...REFUSED].map((flags) => ({ flags, description: 'not on Julia plates: refused in one line (default: absent)' })),

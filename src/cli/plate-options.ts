@@ -75,12 +75,22 @@ export const PLATE_OPTIONS: readonly OptionSpec[] = [
   ...COLOUR_OPTIONS,
   { flags: '--label-periods <n>', description: 'mark and label the nuclei of periods 1..n that are large enough, n from 0 (none) to 14 (default 0; sheet labels)', apply: (s, v) => void (s['labels'] = integer(v, '--label-periods')) },
   { flags: '--title <text>', description: 'title recorded in the metadata (default none; sheet title)', apply: (s, v) => void (s['title'] = v) },
-  { flags: '--out <file>', description: 'output image file ending in .png, .tif or .tiff (default out/<sheet>.png; sheet output.file)', apply: (s, v) => void (sub(s, 'output')['file'] = v) },
+  { flags: '--axes', description: 'figures: frame, ticks and labels in Re c and Im c outside the image; not with --rotation (default: none; sheet figure.axes)' },
+  { flags: '--caption <text>', description: 'figures: text drawn below the figure (default none; sheet figure.caption)', apply: (s, v) => void (sub(s, 'figure')['caption'] = v) },
+  {
+    flags: '--rays <angles>',
+    description: 'figures: parameter rays of these external angles p/q, comma-separated (e.g. 1/3,2/3,1/7), traced to where they land and labelled (default none; sheet figure.rays)',
+    apply: (s, v) => void (sub(s, 'figure')['rays'] = v.split(',').map((a) => a.trim())),
+  },
+  { flags: '--rays-of <period>', description: 'figures: both rays landing at the root of every component of this period (1 to 12) in view, 0 for none (default 0; sheet figure.raysOf)', apply: (s, v) => void (sub(s, 'figure')['raysOf'] = integer(v, '--rays-of')) },
+  { flags: '--equipotentials <n>', description: 'figures: n level curves of the potential, G_0 / 2^k for k = 0..n-1 with G_0 the largest in view, n from 0 (none) to 64 (default 0; sheet figure.equipotentials)', apply: (s, v) => void (sub(s, 'figure')['equipotentials'] = integer(v, '--equipotentials')) },
+  { flags: '--outlines <period>', description: 'figures: draw the boundary of every component of this period (1 to 14) in view, 0 for none (default 0; sheet figure.outlines)', apply: (s, v) => void (sub(s, 'figure')['outlines'] = integer(v, '--outlines')) },
+  { flags: '--out <file>', description: 'output file: an image ending in .png, .tif or .tiff, or a figure ending in .pdf or .svg (default out/<sheet>.png; sheet output.file)', apply: (s, v) => void (sub(s, 'output')['file'] = v) },
   { flags: '--data <dir>', description: 'also write the per-pixel arrays as NPY files into this directory (default none; sheet output.data)', apply: (s, v) => void (sub(s, 'output')['data'] = v) },
   { flags: '--no-sidecar', description: 'do not write the JSON sidecar FILE.json beside the image (default: write it; sheet output.sidecar)' },
   { flags: '--workers <n>', description: 'worker threads, never changes the output (default: one per core)' },
   { flags: '--tile-size <pixels>', description: 'tile side in pixels, 8 to 1024, never changes the output (default 64)' },
-  { flags: '--again <file>', description: 'render again from the sheet stored in a PNG, TIFF or JSON sidecar quadatlas wrote (default: none)' },
+  { flags: '--again <file>', description: 'render again from the sheet stored in a PNG, TIFF, PDF, SVG or JSON sidecar quadatlas wrote (default: none)' },
   { flags: '--json', description: 'print a JSON summary of the render on stdout (default: a one-line report on stderr)' },
 ];
 
@@ -94,6 +104,7 @@ export function applyPlateOptions(sheet: Record<string, unknown>, values: Record
   }
   if (values['sidecar'] === false) sub(sheet, 'output')['sidecar'] = false;
   if (values['skip'] === false) sheet['skip'] = false;
+  if (values['axes'] === true) sub(sheet, 'figure')['axes'] = true;
   return sheet;
 }
 
@@ -121,6 +132,11 @@ const FIELD_FLAGS: ReadonlyArray<readonly [string, string]> = [
   ['labels', '--label-periods'],
   ['title', '--title'],
   ['output.file', '--out'],
+  ['figure.caption', '--caption'],
+  ['figure.rays', '--rays'],
+  ['figure.outlines', '--outlines'],
+  ['figure.raysOf', '--rays-of'],
+  ['figure.equipotentials', '--equipotentials'],
   ['output.data', '--data'],
 ];
 
@@ -130,7 +146,7 @@ const FIELD_FLAGS: ReadonlyArray<readonly [string, string]> = [
  */
 export function flagForField(field: string, values: Record<string, unknown>, options: readonly OptionSpec[] = PLATE_OPTIONS): string | undefined {
   for (const [prefix, flag] of FIELD_FLAGS) {
-    if (field !== prefix && !field.startsWith(`${prefix}.`)) continue;
+    if (field !== prefix && !field.startsWith(`${prefix}.`) && !field.startsWith(`${prefix}[`)) continue;
     const spec = options.find((o) => o.flags.startsWith(`${flag} `) || o.flags === flag);
     if (spec !== undefined && typeof values[attributeName(spec.flags)] === 'string') return flag;
   }
@@ -141,5 +157,7 @@ export function flagForField(field: string, values: Record<string, unknown>, opt
 export function nameTheFlag(err: unknown, values: Record<string, unknown>): unknown {
   if (!(err instanceof UserError)) return err;
   const flag = flagForField(err.field, values);
+  if (err.field === 'figure' && typeof values['out'] === 'string') return err.withField('--out (sheet field output.file)');
+  if (flag === undefined && err.field === 'figure.axes' && values['axes'] === true) return err.withField('--axes (sheet field figure.axes)');
   return flag === undefined ? err : err.withField(`${flag} (sheet field ${err.field})`);
 }

@@ -25,9 +25,9 @@ export async function sheetFromPlate(file: string, field = '--again'): Promise<R
   try {
     text = await readPlateMetadata(file);
   } catch (err) {
-    throw new UserError(field, 'a PNG, TIFF, SVG or JSON sidecar written by quadatlas', new Received(`${file} (${(err as Error).message.split('\n')[0]})`));
+    throw new UserError(field, 'a PNG, TIFF, PDF, SVG or JSON sidecar written by quadatlas', new Received(`${file} (${(err as Error).message.split('\n')[0]})`));
   }
-  if (text === undefined) throw new UserError(field, 'a file carrying a quadatlas sheet (PNG, TIFF, SVG or JSON sidecar)', new Received(`${file} (none found)`));
+  if (text === undefined) throw new UserError(field, 'a file carrying a quadatlas sheet (PNG, TIFF, PDF, SVG or JSON sidecar)', new Received(`${file} (none found)`));
   const meta = JSON.parse(text) as { version?: string; sheet?: Record<string, unknown> };
   if (meta.sheet === undefined) throw new UserError(field, 'metadata holding a sheet', file);
   if (meta.version !== toolVersion()) {
@@ -48,10 +48,10 @@ export function register(program: Command): void {
     if (typeof values['again'] === 'string') {
       if (sheetFile !== undefined) throw new UserError('--again', 'either a sheet or --again, not both', sheetFile);
       raw = await sheetFromPlate(values['again']);
-      const stem = values['again'].replace(/\.json$/i, '').replace(/\.(png|tiff?|svg)$/i, '');
+      const stem = values['again'].replace(/\.json$/i, '').replace(/\.(png|tiff?|svg|pdf)$/i, '');
       name = `${sheetName(stem)}-again`;
       if (typeof values['out'] !== 'string') {
-        const ext = /\.tiff?(\.json)?$/i.test(values['again']) ? 'tif' : 'png';
+        const ext = /\.(tiff?|pdf|svg)(\.json)?$/i.exec(values['again'])?.[1]?.toLowerCase().replace('tiff', 'tif') ?? 'png';
         raw['output'] = { file: `${stem}-again.${ext}` };
       }
     } else if (sheetFile !== undefined) {

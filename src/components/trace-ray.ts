@@ -51,13 +51,17 @@ export interface RayEnd {
 
 /**
  * Traces the ray of angle num/den (0 <= num < den, integers below 2^52 so
- * that doubling is exact) to `depth` levels in double precision.
+ * that doubling is exact) to `depth` levels in double precision. With
+ * `path`, every settled sub-step's c is appended to it (re, im, re, im, ...),
+ * starting at the ray's point on the circle of radius RAY_RADIUS: the ray as
+ * a polyline, for figures.
  */
-export function traceRayDouble(num: number, den: number, depth: number, sharpness: number): RayEnd {
+export function traceRayDouble(num: number, den: number, depth: number, sharpness: number, path?: number[]): RayEnd {
   let n = num;
   const a0 = (2 * Math.PI * n) / den;
   let cr = RAY_RADIUS * Math.cos(a0);
   let ci = RAY_RADIUS * Math.sin(a0);
+  path?.push(cr, ci);
   // R^(2^-u) at u = j / sharpness (two pow calls per sub-step were a third of the time)
   const radius = new Float64Array(sharpness + 1);
   for (let j = 0; j <= sharpness; j += 1) radius[j] = RAY_RADIUS ** (0.5 ** (j / sharpness));
@@ -122,6 +126,7 @@ export function traceRayDouble(num: number, den: number, depth: number, sharpnes
       }
       cr = xr;
       ci = xi;
+      path?.push(cr, ci);
       u = un;
     }
     n = (n * 2) % den;

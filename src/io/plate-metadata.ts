@@ -5,6 +5,7 @@ import { METADATA_KEYWORD, PNG_SIGNATURE } from './png-chunk.js';
 import { jsonFromXmp } from './xmp-packet.js';
 import { metadataFromSvg } from './embed-metadata.js';
 import { readFile } from 'node:fs/promises';
+import { readPdfMetadata } from './pdf-metadata.js';
 
 /**
  * The metadata JSON text a plate sink stored in the file at `path`, or
@@ -12,7 +13,8 @@ import { readFile } from 'node:fs/promises';
  * tEXt chunk with keyword "quadatlas-sheet", read chunk by chunk up to the
  * first IDAT without loading the image data (PNG spec 11.3.4). TIFF: the
  * quadatlas:sheet element of the XMP packet (tag 700), via sharp's header
- * read. SVG: the `<metadata id="quadatlas-sheet">` element. JSON: a sidecar
+ * read. PDF: the information dictionary's QuadatlasSheet string
+ * (pdf-metadata.ts). SVG: the `<metadata id="quadatlas-sheet">` element. JSON: a sidecar
  * `{ metadata, summary }` or a metadata object itself. Other files: undefined.
  */
 export async function readPlateMetadata(path: string): Promise<string | undefined> {
@@ -23,6 +25,7 @@ export async function readPlateMetadata(path: string): Promise<string | undefine
     const { bytesRead } = await fh.read(head, 0, 8, 0);
     if (bytesRead === 8 && head.equals(PNG_SIGNATURE)) return await pngMetadata(fh);
     const magic = head.toString('latin1', 0, 4);
+    if (magic === '%PDF') return await readPdfMetadata(path);
     kind = magic === 'II*\0' || magic === 'MM\0*' || magic === 'II+\0' || magic === 'MM\0+' ? 'tiff' : 'other';
     if (kind === 'other' && bytesRead > 0) return await textMetadata(path);
   } finally {

@@ -78,7 +78,7 @@ function round3(x: number): number {
 }
 
 /** An output name that is an existing directory is refused before any work (it would fail at the final rename). */
-async function refuseDirectory(file: string, field: string): Promise<void> {
+export async function refuseDirectory(file: string, field: string): Promise<void> {
   let isDir = false;
   try {
     isDir = (await stat(file)).isDirectory();
@@ -141,6 +141,8 @@ async function writeCoordinates(dataDir: string, view: View, grid: DoubleGrid, d
 }
 
 export async function renderSheet(sheet: Sheet, options: RenderSheetOptions = {}): Promise<PlateSummary> {
+  // A figure (.pdf, .svg) renders its plate through this function again, with figure null.
+  if (sheet.figure !== null) return (await import('./render-figure.js')).renderFigure(sheet, options);
   const started = process.hrtime.bigint();
   const view = { centerRe: sheet.view.re, centerIm: sheet.view.im, span: sheet.view.span, width: sheet.width, height: sheet.height, rotation: sheet.view.rotation };
   const grid = doubleGrid(view);

@@ -120,6 +120,7 @@ export function parseJuliaSheet(input: unknown, name = 'julia'): JuliaSheet {
   const viewIn = rest['view'] ?? {};
   if (isObject(viewIn)) rest['view'] = { re: '0', im: '0', span: '4', ...viewIn };
   const sheet = parseSheet(rest, name);
+  if (sheet.figure !== null) throw new UserError('output.file', 'a file name ending in .png, .tif or .tiff (figures are drawn for plates of the c-plane)', sheet.output.file);
 
   let c: { re: string; im: string };
   let cardioidAngle: string | null = null;

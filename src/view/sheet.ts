@@ -20,7 +20,8 @@
  *   "arithmetic": "auto",                    // auto | double | deep
  *   "skip": true,                            // deep: bilinear-approximation skipping
  *   "reference": { "re": "...", "im": "...", "period": 79 },   // deep: a nucleus as periodic reference (default: the centre)
- *   "output": { "file": "out/name.png", "data": "out/name-data", "sidecar": true },
+ *   "output": { "file": "out/name.png", "data": "out/name-data", "sidecar": true },   // or .pdf / .svg: a figure
+ *   "figure": { "axes": true, "caption": "...", "rays": ["1/3", "2/3"], "raysOf": 4, "equipotentials": 6, "outlines": 3 },   // with a .pdf or .svg output
  *   "startup": true                           // rendered by `npm start`
  * }
  * ```
@@ -54,7 +55,70 @@ export interface Sheet {
   /** Deep arithmetic: reference point, e.g. a nucleus from `quadatlas locate` with its period; default the view centre. */
   readonly reference: { readonly re: string; readonly im: string; readonly period: number } | null;
   readonly output: { readonly file: string; readonly data: string | null; readonly sidecar: boolean };
+  /** Present exactly when output.file is a figure (.pdf or .svg): what is drawn around and over the plate. */
+  readonly figure: FigureSpec | null;
   readonly startup: boolean;
+}
+
+/** The annotations of a figure (src/figure/), recorded in the sheet so `--again` draws them again. */
+export interface FigureSpec {
+  /** Frame, ticks and labels in Re c and Im c outside the image (needs rotation 0). */
+  readonly axes: boolean;
+  /** Text drawn below the figure; '' for none (separate from the metadata title). */
+  readonly caption: string;
+  /** External angles p/q (0 <= p < q) of the parameter rays to draw, as written. */
+  readonly rays: readonly string[];
+  /** Draw the boundary of every component of this period in view (0: none). */
+  readonly outlines: number;
+  /** Draw both rays landing at the root of every component of this period in view (0: none). */
+  readonly raysOf: number;
+  /** Draw this many equipotentials, G_k = G_0 / 2^k for k = 0..n-1 with G_0 the largest potential in view (0: none). */
+  readonly equipotentials: number;
+}
+
+/** A figure's output file: vector PDF or SVG with the plate inside. */
+export function isFigureFile(file: string): boolean {
+  return /\.(pdf|svg)$/i.test(file);
+}
+
+/** Rays of a period come from its census, which pairs every angle up to period 12 in seconds. */
+export const MAX_RAYS_OF_PERIOD = 12;
+/** Most equipotentials one figure draws. */
+export const MAX_EQUIPOTENTIALS = 64;
+/** Most rays one figure draws. */
+export const MAX_RAYS = 64;
+/** Denominators of ray angles stay below 2^52, so doubling the numerator is exact in a double. */
+const MAX_DENOMINATOR = 2n ** 52n;
+
+/** An external angle written p/q with integers 0 <= p < q; returned as written (trimmed). */
+export function parseAngleText(value: unknown, field: string): string {
+  const m = typeof value === 'string' ? /^\s*(\d+)\s*\/\s*(\d+)\s*$/.exec(value) : null;
+  if (m === null || BigInt(m[1]!) >= BigInt(m[2]!) || BigInt(m[2]!) >= MAX_DENOMINATOR) {
+    throw new UserError(field, 'an external angle written p/q with integers 0 <= p < q < 2^52 (e.g. 1/3)', value);
+  }
+  return `${BigInt(m[1]!)}/${BigInt(m[2]!)}`;
+}
+
+function parseFigure(value: unknown, file: string, rotation: number): FigureSpec | null {
+  if (!isFigureFile(file)) {
+    if (value !== undefined && value !== null) throw new UserError('figure', 'an output file ending in .pdf or .svg (axes, captions and rays are drawn on figures)', new Received(file));
+    return null;
+  }
+  const v = value ?? {};
+  if (!isObject(v)) throw new UserError('figure', 'an object { "axes": ..., "caption": ..., "rays": [...] }', v);
+  noUnknownKeys(v, ['axes', 'caption', 'rays', 'raysOf', 'equipotentials', 'outlines'], 'figure');
+  const axes = parseBoolean(v['axes'] ?? false, 'figure.axes');
+  if (axes && rotation !== 0) throw new UserError('figure.axes', 'a view without rotation (the axes run along Re c and Im c)', new Received(`rotation ${rotation}`));
+  const caption = v['caption'] ?? '';
+  if (typeof caption !== 'string') throw new UserError('figure.caption', 'a string', caption);
+  const raysIn = v['rays'] ?? [];
+  if (!Array.isArray(raysIn)) throw new UserError('figure.rays', 'a list of angles p/q, e.g. ["1/3", "2/3"]', raysIn);
+  if (raysIn.length > MAX_RAYS) throw new UserError('figure.rays', `at most ${MAX_RAYS} rays`, new Received(`${raysIn.length} rays`));
+  const rays = raysIn.map((a: unknown, i: number) => parseAngleText(a, `figure.rays[${i}]`));
+  const outlines = parseInteger(v['outlines'] ?? 0, 'figure.outlines', 0, MAX_LABEL_PERIOD);
+  const raysOf = parseInteger(v['raysOf'] ?? 0, 'figure.raysOf', 0, MAX_RAYS_OF_PERIOD);
+  const equipotentials = parseInteger(v['equipotentials'] ?? 0, 'figure.equipotentials', 0, MAX_EQUIPOTENTIALS);
+  return { axes, caption, rays, raysOf, equipotentials, outlines };
 }
 
 /** Largest side in pixels: beyond it a plate is refused before any work. */
@@ -66,7 +130,7 @@ export const DEFAULT_DPI = 300;
 /** Labels need every component of each period located (the census); beyond 14 that takes too long for a plate. */
 export const MAX_LABEL_PERIOD = 14;
 
-const TOP_KEYS = ['kind', 'schema', 'writtenBy', 'title', 'note', 'view', 'pixels', 'print', 'dpi', 'iterations', 'samples', 'depth', 'colour', 'labels', 'arithmetic', 'skip', 'reference', 'output', 'startup'];
+const TOP_KEYS = ['kind', 'schema', 'writtenBy', 'title', 'note', 'view', 'pixels', 'print', 'dpi', 'iterations', 'samples', 'depth', 'colour', 'labels', 'arithmetic', 'skip', 'reference', 'output', 'figure', 'startup'];
 
 type Json = Record<string, unknown>;
 
@@ -203,7 +267,7 @@ export function parseSheet(input: unknown, name = 'plate'): Sheet {
   if (!isObject(outIn)) throw new UserError('output', 'an object { "file": ..., "data": ..., "sidecar": ... }', outIn);
   noUnknownKeys(outIn, ['file', 'data', 'sidecar'], 'output');
   const file = outIn['file'] === undefined ? `out/${name}.png` : text(outIn['file'], 'output.file');
-  if (!/\.(png|tif|tiff)$/i.test(file)) throw new UserError('output.file', 'a file name ending in .png, .tif or .tiff', file);
+  if (!/\.(png|tif|tiff|pdf|svg)$/i.test(file)) throw new UserError('output.file', 'a file name ending in .png, .tif, .tiff, .pdf or .svg', file);
   const data = outIn['data'] === undefined || outIn['data'] === null ? null : text(outIn['data'], 'output.data');
   const sidecar = outIn['sidecar'] ?? true;
   if (typeof sidecar !== 'boolean') throw new UserError('output.sidecar', 'true or false', sidecar);
@@ -227,6 +291,7 @@ export function parseSheet(input: unknown, name = 'plate'): Sheet {
     skip: parseBoolean(value['skip'] ?? true, 'skip'),
     reference: parseReference(value['reference'] ?? null),
     output: { file, data, sidecar },
+    figure: parseFigure(value['figure'], file, view.rotation),
     startup,
   };
 }
@@ -254,6 +319,7 @@ export function renderRecord(sheet: Sheet, version: string): Json {
     arithmetic: sheet.arithmetic,
     skip: sheet.skip,
     reference: sheet.reference === null ? null : { ...sheet.reference },
+    ...(sheet.figure === null ? {} : { figure: { axes: sheet.figure.axes, caption: sheet.figure.caption, rays: [...sheet.figure.rays], raysOf: sheet.figure.raysOf, equipotentials: sheet.figure.equipotentials, outlines: sheet.figure.outlines } }),
   };
 }
 

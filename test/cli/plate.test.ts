@@ -145,7 +145,7 @@ describe('quadatlas plate, bad input', () => {
     writeFileSync(sheet, JSON.stringify({ view: { re: '-0.5', im: '0', span: '3' }, zoom: 4 }));
     const r = runCli(['plate', sheet, '--out', path.join(dir, 'p.png')]);
     expect(r.status).toBe(2);
-    expect(r.stderr.trim()).toBe('quadatlas: Expected one of the fields kind, schema, writtenBy, title, note, view, pixels, print, dpi, iterations, samples, depth, colour, labels, arithmetic, skip, reference, output, startup for zoom but received an unknown field "zoom"');
+    expect(r.stderr.trim()).toBe('quadatlas: Expected one of the fields kind, schema, writtenBy, title, note, view, pixels, print, dpi, iterations, samples, depth, colour, labels, arithmetic, skip, reference, output, figure, startup for zoom but received an unknown field "zoom"');
     expect(existsSync(path.join(dir, 'p.png'))).toBe(false);
   });
 

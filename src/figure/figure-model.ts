@@ -1,0 +1,72 @@
+/**
+ * What a figure shows, in c coordinates and plate pixels, before any page
+ * layout: the view, its two axes (ticks from axis-ticks.ts), the caption,
+ * and the annotation curves (rays). Writers never see c; layout.ts maps the
+ * model onto the page.
+ */
+import { Decimal } from 'decimal.js';
+import type { View } from '../view/view.js';
+import { axisTicks, offsetExponentFor, type AxisTicks } from './axis-ticks.js';
+
+export interface FigureOptions {
+  /** Frame, ticks, tick labels and axis titles outside the image. */
+  readonly axes: boolean;
+  /** Text drawn below the figure ('' for none). */
+  readonly caption: string;
+}
+
+/** A curve of the figure in continuous plate pixel coordinates (x right, y down), with its label. */
+export interface FigureCurve {
+  readonly kind: string;
+  readonly label: string;
+  /** x0, y0, x1, y1, ... in plate pixels; the layout clips it to the image. */
+  readonly points: Float64Array;
+}
+
+/** A labelled point of the figure (a nucleus and its period), in continuous plate pixels. */
+export interface FigureMark {
+  readonly kind: string;
+  readonly label: string;
+  readonly x: number;
+  readonly y: number;
+}
+
+export interface FigureModel {
+  readonly view: View;
+  readonly axes: { readonly re: AxisTicks; readonly im: AxisTicks } | null;
+  readonly caption: string;
+  readonly curves: readonly FigureCurve[];
+  /** Placed after the curves' labels, each only where it covers no curve and no other label. */
+  readonly marks: readonly FigureMark[];
+}
+
+/** One tick per this many points of axis length, at most (d3's count is a hint). */
+export const TICK_SPACING_PT = 55;
+/** d3's count hint never below this, so a small plate still gets four or more ticks an axis (d3 may give one fewer). */
+export const MIN_TICKS = 5;
+
+/**
+ * The model of a figure of `view` printed at `dpi`. Axes need a view
+ * without rotation: their ticks run along Re c and Im c.
+ */
+export function figureModel(view: View, dpi: number, options: FigureOptions, curves: readonly FigureCurve[] = [], marks: readonly FigureMark[] = []): FigureModel {
+  let axes: FigureModel['axes'] = null;
+  if (options.axes) {
+    if (view.rotation !== 0) throw new Error('figureModel: axes need a view without rotation');
+    const widthPt = (view.width / dpi) * 72;
+    const heightPt = (view.height / dpi) * 72;
+    const spanIm = spanOf(view.span, view.height, view.width);
+    const exponent = offsetExponentFor(view.width >= view.height ? view.span : spanIm);
+    axes = {
+      re: axisTicks('Re c', view.centerRe, view.span, view.width, Math.max(MIN_TICKS, Math.round(widthPt / TICK_SPACING_PT)), false, exponent),
+      im: axisTicks('Im c', view.centerIm, spanIm, view.height, Math.max(MIN_TICKS, Math.round(heightPt / TICK_SPACING_PT)), true, exponent),
+    };
+  }
+  return { view, axes, caption: options.caption, curves, marks };
+}
+
+/** The extent of `pixels` pixels at span/width per pixel, as a decimal string (40 digits beyond the span's). */
+function spanOf(span: string, pixels: number, width: number): string {
+  const D = Decimal.clone({ precision: span.length + 40 });
+  return new D(span).times(pixels).div(width).toString();
+}

@@ -1,0 +1,214 @@
+/**
+ * Lays a figure model out on the page: the plate at its print size
+ * (pixels / dpi inches), the frame and outward ticks around it, tick labels
+ * centred on their ticks (Re below, Im at the left, read horizontally), the
+ * axis titles (Im turned to read upwards) and the caption below, wrapped to
+ * the page. Sizes follow common journal practice for a single-column figure
+ * (7 pt labels, 8 pt titles, 0.5 pt lines); not a published rule.
+ */
+import type { FigureFont } from './figure-font.js';
+import type { FigureModel } from './figure-model.js';
+import type { FigureScene, Rect, SceneFill, SceneStroke, SceneText } from './figure-scene.js';
+import { clipPolyline } from './clip-polyline.js';
+
+export const LABEL_PT = 7;
+export const TITLE_PT = 8;
+export const CAPTION_PT = 8;
+export const TICK_PT = 3.5;
+export const LINE_PT = 0.5;
+const PAD = 6;
+const GAP = 2.5;
+const INK = '#000000';
+/** Rays: white over a black halo, legible over any exterior or interior colour. */
+const RAY_INK = '#ffffff';
+const RAY_HALO = '#000000';
+export const RAY_PT = 0.75;
+/** Component outlines: a thinner warm yellow, told apart from the white rays. */
+export const OUTLINE_PT = 0.5;
+const OUTLINE_INK = '#ffd84a';
+/** Equipotentials: pale hairlines, under the rays and outlines. */
+export const LEVEL_PT = 0.35;
+const LEVEL_INK = '#e6eeff';
+/** Ray labels: white on a half-transparent black backing. */
+const RAY_LABEL_BACKING = 0.55;
+
+/** Greedy word wrap of `text` into lines no wider than `width` at `size`. */
+function wrap(font: FigureFont, text: string, size: number, width: number): string[] {
+  const lines: string[] = [];
+  let line = '';
+  for (const word of text.split(/\s+/).filter((w) => w !== '')) {
+    const next = line === '' ? word : `${line} ${word}`;
+    if (line !== '' && font.width(next, size) > width) {
+      lines.push(line);
+      line = word;
+    } else line = next;
+  }
+  if (line !== '') lines.push(line);
+  return lines;
+}
+
+export function layoutFigure(model: FigureModel, dpi: number, font: FigureFont): FigureScene {
+  const { view } = model;
+  const pw = (view.width / dpi) * 72;
+  const ph = (view.height / dpi) * 72;
+  const cap = (size: number): number => font.capHeight * size;
+  let left = 0;
+  let top = 0;
+  let right = 0;
+  let below = 0;
+  const axes = model.axes;
+  let imLabelWidth = 0;
+  let imTitleOver = 0;
+  let reTitleWidth = 0;
+  if (axes !== null) {
+    // A long (offset form) Im title, turned upright, may be taller than the plate: the page grows to hold it.
+    imTitleOver = Math.max(0, (font.width(axes.im.title, TITLE_PT) - ph) / 2);
+    reTitleWidth = font.width(axes.re.title, TITLE_PT);
+    imLabelWidth = Math.max(0, ...axes.im.ticks.map((t) => font.width(t.label, LABEL_PT)));
+    left = TICK_PT + GAP + imLabelWidth + 1.5 * GAP + font.descent * TITLE_PT + cap(TITLE_PT) + PAD;
+    const lastRe = axes.re.ticks.at(-1);
+    const overhang = lastRe === undefined ? 0 : font.width(lastRe.label, LABEL_PT) / 2 - (view.width - lastRe.at) * (pw / view.width);
+    right = Math.max(PAD, overhang + 4);
+    top = PAD + imTitleOver;
+    below = TICK_PT + GAP + cap(LABEL_PT) + font.descent * LABEL_PT + 1.5 * GAP + cap(TITLE_PT) + font.descent * TITLE_PT;
+  }
+  const plate: Rect = { x: left, y: top, width: pw, height: ph };
+  const pageWidth = Math.max(left + pw + right, left + pw / 2 + reTitleWidth / 2 + PAD);
+  const captionLines = model.caption === '' ? [] : wrap(font, model.caption, CAPTION_PT, pageWidth - 2 * PAD);
+  const lineHeight = 1.25 * CAPTION_PT;
+  const captionTop = top + ph + below + (captionLines.length > 0 ? 1.5 * GAP : 0);
+  const pageHeight = Math.max(captionTop + captionLines.length * lineHeight + (axes !== null || captionLines.length > 0 ? PAD : 0), top + ph + imTitleOver + (axes !== null ? PAD : 0));
+  const strokes: SceneStroke[] = [];
+  const texts: SceneText[] = [];
+  const sx = pw / view.width;
+  const sy = ph / view.height;
+  const fills: SceneFill[] = [];
+  const placed: Rect[] = [];
+  const curveRuns = model.curves.map((curve) => {
+    const pts: number[] = [];
+    for (let i = 0; i + 1 < curve.points.length; i += 2) pts.push(plate.x + curve.points[i]! * sx, plate.y + curve.points[i + 1]! * sy);
+    // Keep coordinates near the page: clip to the plate grown by a tenth (the writers clip to the plate itself).
+    return clipPolyline(pts, plate.x - pw / 10, plate.y - ph / 10, plate.x + pw * 1.1, plate.y + ph * 1.1);
+  });
+  const allRuns = curveRuns.flat();
+  // halos first, so a curve crossing another stays unbroken
+  const widthOf = (kind: string): number => (kind === 'outline' ? OUTLINE_PT : kind === 'equipotential' ? LEVEL_PT : RAY_PT);
+  const inkOf = (kind: string): string => (kind === 'outline' ? OUTLINE_INK : kind === 'equipotential' ? LEVEL_INK : RAY_INK);
+  curveRuns.forEach((runs, k) => {
+    const kind = model.curves[k]!.kind;
+    if (kind === 'equipotential') return; // hairlines over the exterior need no halo
+    for (const run of runs) strokes.push({ points: run, width: 2.5 * widthOf(kind), colour: RAY_HALO, clip: true });
+  });
+  curveRuns.forEach((runs, k) => {
+    const kind = model.curves[k]!.kind;
+    for (const run of runs) strokes.push({ points: run, width: widthOf(kind), colour: inkOf(kind), clip: true });
+  });
+  for (const [k, curve] of model.curves.entries()) {
+    const runs = curveRuns[k]!;
+    const label = curve.label === '' ? null : placeRayLabel(font, curve.label, runs, plate, placed, allRuns);
+    if (label !== null) {
+      placed.push(label.box);
+      fills.push({ ...label.box, colour: RAY_HALO, opacity: RAY_LABEL_BACKING });
+      texts.push({ text: curve.label, x: label.x, y: label.y, size: LABEL_PT, rotate: 0, role: 'ray', colour: RAY_INK });
+    }
+  }
+  // Period labels: centred on the nucleus, skipped where they would cover a curve or another label.
+  const drawnMarks: number[] = [];
+  for (const [m, mark] of model.marks.entries()) {
+    const w = font.width(mark.label, LABEL_PT);
+    const h = font.capHeight * LABEL_PT;
+    const pad = 1.2;
+    const cx = plate.x + mark.x * sx;
+    const cy = plate.y + mark.y * sy;
+    const box = { x: cx - w / 2 - pad, y: cy - h / 2 - pad, width: w + 2 * pad, height: h + 2 * pad };
+    if (box.x < plate.x || box.y < plate.y || box.x + box.width > plate.x + pw || box.y + box.height > plate.y + ph) continue;
+    if (placed.some((b) => overlaps(b, box)) || allRuns.some((r) => hitsRun(r, box))) continue;
+    placed.push(box);
+    drawnMarks.push(m);
+    fills.push({ ...box, colour: RAY_HALO, opacity: RAY_LABEL_BACKING });
+    texts.push({ text: mark.label, x: cx - w / 2, y: cy + h / 2, size: LABEL_PT, rotate: 0, role: mark.kind, colour: RAY_INK });
+  }
+  if (axes !== null) {
+    const x0 = plate.x;
+    const y0 = plate.y;
+    const x1 = x0 + pw;
+    const y1 = y0 + ph;
+    strokes.push({ points: [x0, y0, x1, y0, x1, y1, x0, y1, x0, y0], width: LINE_PT, colour: INK, clip: false });
+    for (const t of axes.re.ticks) {
+      const x = x0 + t.at * sx;
+      strokes.push({ points: [x, y1, x, y1 + TICK_PT], width: LINE_PT, colour: INK, clip: false });
+      texts.push({ text: t.label, x: x - font.width(t.label, LABEL_PT) / 2, y: y1 + TICK_PT + GAP + cap(LABEL_PT), size: LABEL_PT, rotate: 0, role: 're-tick', colour: INK });
+    }
+    for (const t of axes.im.ticks) {
+      const y = y0 + t.at * sy;
+      strokes.push({ points: [x0 - TICK_PT, y, x0, y], width: LINE_PT, colour: INK, clip: false });
+      texts.push({ text: t.label, x: x0 - TICK_PT - GAP - font.width(t.label, LABEL_PT), y: y + cap(LABEL_PT) / 2, size: LABEL_PT, rotate: 0, role: 'im-tick', colour: INK });
+    }
+    const reTitleY = y1 + TICK_PT + GAP + cap(LABEL_PT) + font.descent * LABEL_PT + 1.5 * GAP + cap(TITLE_PT);
+    texts.push({ text: axes.re.title, x: x0 + pw / 2 - font.width(axes.re.title, TITLE_PT) / 2, y: reTitleY, size: TITLE_PT, rotate: 0, role: 'title', colour: INK });
+    const imTitleX = x0 - TICK_PT - GAP - imLabelWidth - 1.5 * GAP - font.descent * TITLE_PT;
+    // Turned to read upwards, the text runs from the bottom: its start sits below the middle by half its length.
+    texts.push({ text: axes.im.title, x: imTitleX, y: y0 + ph / 2 + font.width(axes.im.title, TITLE_PT) / 2, size: TITLE_PT, rotate: -90, role: 'title', colour: INK });
+  }
+  captionLines.forEach((line, i) => {
+    texts.push({ text: line, x: PAD, y: captionTop + cap(CAPTION_PT) + i * lineHeight, size: CAPTION_PT, rotate: 0, role: 'caption', colour: INK });
+  });
+  return { width: pageWidth, height: pageHeight, plate, strokes, fills, texts, drawnMarks };
+}
+
+function overlaps(a: Rect, b: Rect): boolean {
+  return a.x < b.x + b.width && b.x < a.x + a.width && a.y < b.y + b.height && b.y < a.y + a.height;
+}
+
+/** Whether segment (ax, ay)-(bx, by) meets rectangle r (Liang-Barsky on the one segment). */
+function segmentMeets(ax: number, ay: number, bx: number, by: number, r: Rect): boolean {
+  return clipPolyline([ax, ay, bx, by], r.x, r.y, r.x + r.width, r.y + r.height).length > 0;
+}
+
+/**
+ * Where a ray's label goes: beside a point of the ray, a little to one side
+ * of it (left of the inward direction first, then right), trying the points
+ * from outside inwards, at the first place where the box lies inside the
+ * plate and covers neither another label nor any ray; null when there is
+ * no such place.
+ */
+function placeRayLabel(font: FigureFont, text: string, runs: readonly number[][], plate: Rect, placed: readonly Rect[], allRuns: readonly number[][]): { x: number; y: number; box: Rect } | null {
+  const w = font.width(text, LABEL_PT);
+  const h = font.capHeight * LABEL_PT;
+  const pad = 1.2;
+  const inset = 2;
+  const gap = 2.5;
+  const bw = w + 2 * pad;
+  const bh = h + 2 * pad;
+  for (const run of runs) {
+    let travelled = 0;
+    for (let i = 2; i + 1 < run.length; i += 2) {
+      const px = run[i]!;
+      const py = run[i + 1]!;
+      const dx = px - run[i - 2]!;
+      const dy = py - run[i - 1]!;
+      const len = Math.hypot(dx, dy);
+      travelled += len;
+      if (len === 0 || travelled < 4) continue;
+      if (px < plate.x + inset || px > plate.x + plate.width - inset || py < plate.y + inset || py > plate.y + plate.height - inset) continue;
+      for (const side of [1, -1]) {
+        // unit normal to the left (side 1) or right (side -1) of the inward direction, in a y-down page
+        const nx = (side * dy) / len;
+        const ny = (-side * dx) / len;
+        // the box's centre sits off the ray by the gap plus the box's half extent along the normal
+        const reach = gap + Math.abs(nx) * (bw / 2) + Math.abs(ny) * (bh / 2);
+        const box = { x: px + nx * reach - bw / 2, y: py + ny * reach - bh / 2, width: bw, height: bh };
+        if (box.x < plate.x + inset || box.y < plate.y + inset || box.x + bw > plate.x + plate.width - inset || box.y + bh > plate.y + plate.height - inset) continue;
+        if (placed.some((b) => overlaps(b, box))) continue;
+        if (allRuns.some((r) => hitsRun(r, box))) continue;
+        return { x: box.x + pad, y: box.y + pad + h, box };
+      }
+    }
+  }
+  return null;
+}
+
+function hitsRun(run: readonly number[], box: Rect): boolean {
+  for (let i = 0; i + 3 < run.length; i += 2) if (segmentMeets(run[i]!, run[i + 1]!, run[i + 2]!, run[i + 3]!, box)) return true;
+  return false;
+}

@@ -1,0 +1,190 @@
+/**
+ * Renders a sheet whose output is a figure (.pdf or .svg): the plate is
+ * rendered as a PNG under a temporary name (16 bits a channel for PDF, the
+ * sheet's depth for SVG), then the figure model (src/figure/) is laid out
+ * around it and written. The SVG inlines the PNG as a data URL up to
+ * SVG_INLINE_LIMIT bytes and links `NAME-plate.png` beside it above that.
+ */
+import { readFile, rename, rm } from 'node:fs/promises';
+import path from 'node:path';
+import { svgWithMetadata } from '../io/embed-metadata.js';
+import { releaseTemp, tempPathFor } from '../io/temp-path.js';
+import { writeFileAtomic } from '../io/write-file-atomic.js';
+import { figureFont } from '../figure/figure-font.js';
+import { figureModel } from '../figure/figure-model.js';
+import { layoutFigure } from '../figure/layout-figure.js';
+import { figurePdf } from '../figure/write-figure-pdf.js';
+import { figureSvg } from '../figure/write-figure-svg.js';
+import type { Sheet } from '../view/sheet.js';
+import { doubleGrid, fitsDouble, type DoubleGrid, type View } from '../view/view.js';
+import type { FigureCurve } from '../figure/figure-model.js';
+import { parameterRay, type ParameterRay } from '../figure/parameter-rays.js';
+import { outlinesInView, type ComponentOutline } from '../figure/component-outlines.js';
+import os from 'node:os';
+import { raysOfPeriod } from '../figure/rays-of-period.js';
+import { equipotential, equipotentialLevel, largestPotential, MAX_CURVE_STEPS } from '../figure/equipotentials.js';
+import { MAX_RAYS } from '../view/sheet.js';
+import { periodMarks, type PeriodMark } from '../figure/period-marks.js';
+import { plateMetadata, refuseDirectory, renderSheet, type PlateSummary, type RenderSheetOptions } from './render-sheet.js';
+import { Received, UserError } from '../check/user-error.js';
+import { toolVersion } from '../io/tool-version.js';
+
+/**
+ * Largest PNG (bytes) an SVG figure carries inside itself as a data URL:
+ * 4 MiB is 5.6 MB of base64. librsvg (used by sharp and many viewers)
+ * refuses an attribute over 10 MB unless told to parse huge files; measured
+ * with a 7.6 MB plate.
+ */
+export const SVG_INLINE_LIMIT = 4 * 1024 * 1024;
+
+export interface FigureSummary {
+  readonly format: 'pdf' | 'svg';
+  /** The plate's rectangle on the page, in points from the top left. */
+  readonly plate: { x: number; y: number; width: number; height: number };
+  readonly page: { width: number; height: number };
+  readonly axes: { re: { title: string; ticks: Array<{ value: string; label: string }> }; im: { title: string; ticks: Array<{ value: string; label: string }> } } | null;
+  /** The PNG beside an SVG too large to inline, else null. */
+  readonly image: string | null;
+}
+
+/** A ray drawn: landing from Newton (decimal strings), and how far (in pixels) the traced part ended from it. */
+export interface RaySummary { angle: string; kind: string; preperiod: number; period: number; landing: { re: string; im: string }; tracedEnd: { re: string; im: string }; tracedEndPixels: number; landsInView: boolean }
+
+/** Plate pixel coordinates of c values (re, im, ...): the inverse of pixelToC (view.ts), for any rotation. */
+function toPixels(grid: DoubleGrid, c: Float64Array): Float64Array {
+  const pts = new Float64Array(c.length);
+  for (let i = 0; i < c.length; i += 2) {
+    const u = c[i]! - grid.centerRe;
+    const v = c[i + 1]! - grid.centerIm;
+    pts[i] = grid.width / 2 + (u * grid.cos + v * grid.sin) / grid.spacing;
+    pts[i + 1] = grid.height / 2 - (-u * grid.sin + v * grid.cos) / grid.spacing;
+  }
+  return pts;
+}
+
+/** The rays and outlines of the sheet, computed in c, with their polylines in plate pixels. */
+async function traceCurves(sheet: Sheet, view: View, workers: number): Promise<{ rays: ParameterRay[]; outlines: ComponentOutline[]; levels: number[]; curves: FigureCurve[] }> {
+  const spec = sheet.figure!;
+  if (spec.rays.length === 0 && spec.raysOf === 0 && spec.outlines === 0 && spec.equipotentials === 0) return { rays: [], outlines: [], levels: [], curves: [] };
+  const grid = doubleGrid(view);
+  const field = spec.rays.length > 0 ? 'figure.rays' : spec.raysOf > 0 ? 'figure.raysOf' : spec.outlines > 0 ? 'figure.outlines' : 'figure.equipotentials';
+  if (!fitsDouble(grid)) throw new UserError(field, `a view that doubles resolve (${field === 'figure.outlines' ? 'outlines are followed' : field === 'figure.equipotentials' ? 'equipotentials are followed' : 'rays are traced'} in double precision)`, `span ${sheet.view.span}`);
+  const levels: number[] = [];
+  const levelCurves: FigureCurve[] = [];
+  if (spec.equipotentials > 0) {
+    const g0 = largestPotential(grid, 100_000);
+    if (!(g0 > 0)) throw new UserError('figure.equipotentials', 'a view with points outside the set', new Received(`no escaping point on the frame of the view`));
+    for (let k = 0; k < spec.equipotentials; k += 1) {
+      const g = g0 / 2 ** k;
+      if (equipotentialLevel(g).steps > MAX_CURVE_STEPS) {
+        throw new UserError('figure.equipotentials', `at most ${k} levels in this view (level G_0 / 2^k takes about 2^(k+7) Newton steps; the limit is ${MAX_CURVE_STEPS})`, spec.equipotentials);
+      }
+      const curve = equipotential(g, grid.spacing / 4);
+      if (curve === null) throw new UserError('figure.equipotentials', 'levels whose curve Newton follows in double precision', new Received(`G = ${g}`));
+      levels.push(g);
+      levelCurves.push({ kind: 'equipotential', label: '', points: toPixels(grid, curve) });
+    }
+  }
+  const rays = spec.rays.map((a, i) => parameterRay(a, `figure.rays[${i}]`));
+  if (spec.raysOf > 0) {
+    const given = new Set(spec.rays);
+    for (const a of await raysOfPeriod(spec.raysOf, grid, workers, MAX_RAYS - spec.rays.length)) if (!given.has(a)) rays.push(parameterRay(a, 'figure.raysOf'));
+  }
+  const outlines = spec.outlines > 0 ? await outlinesInView(spec.outlines, grid, workers) : [];
+  const curves: FigureCurve[] = [
+    ...levelCurves,
+    ...outlines.map((o) => ({ kind: 'outline', label: '', points: toPixels(grid, o.points) })),
+    ...rays.map((r) => ({ kind: 'ray', label: r.angle, points: toPixels(grid, r.points) })),
+  ];
+  return { rays, outlines, levels, curves };
+}
+
+export async function renderFigure(sheet: Sheet, options: RenderSheetOptions = {}): Promise<PlateSummary & { figure: FigureSummary; rays: RaySummary[]; outlines: Array<{ period: number; nucleus: { re: number; im: number }; points: number }>; labels: Array<{ period: number; c: { re: number; im: number } }>; equipotentials: Array<{ potential: number }> }> {
+  const spec = sheet.figure;
+  if (spec === null) throw new Error('renderFigure: the sheet has no figure');
+  if (sheet.colour.legend === 'beside') throw new UserError('colour.legend', 'none or inset on a figure (a legend beside the plate is a separate file)', sheet.colour.legend);
+  const file = sheet.output.file;
+  const pdf = /\.pdf$/i.test(file);
+  const besideName = file.replace(/\.(pdf|svg)$/i, '-plate.png');
+  for (const f of [file, besideName, ...(sheet.output.sidecar ? [`${file}.json`] : [])]) await refuseDirectory(f, 'output.file');
+  const rasterFile = tempPathFor(besideName);
+  // Period labels are set in the figure font over the plate, not drawn into its pixels.
+  const raster: Sheet = { ...sheet, depth: pdf ? 16 : sheet.depth, labels: 0, output: { file: rasterFile, data: sheet.output.data, sidecar: false }, figure: null };
+  const view: View = { centerRe: sheet.view.re, centerIm: sheet.view.im, span: sheet.view.span, width: sheet.width, height: sheet.height, rotation: sheet.view.rotation };
+  // Rays first: an angle Newton cannot land is refused before the plate is rendered.
+  const { rays, outlines, levels, curves } = await traceCurves(sheet, view, options.workers ?? os.availableParallelism());
+  const rayCurves = curves.filter((c) => c.kind === 'ray');
+  let marks: PeriodMark[] = [];
+  if (sheet.labels > 0) {
+    const grid = doubleGrid(view);
+    if (!fitsDouble(grid)) throw new UserError('labels', '0 for a deep view (labels are placed from nuclei located in double precision)', sheet.labels);
+    marks = await periodMarks(sheet.labels, grid, sheet.dpi, options.workers ?? os.availableParallelism());
+  }
+  try {
+    const summary = await renderSheet(raster, { ...options, label: options.label ?? path.basename(file) });
+    const png = await readFile(rasterFile);
+    const model = figureModel(view, sheet.dpi, { axes: spec.axes, caption: spec.caption }, curves, marks);
+    const font = figureFont();
+    const scene = layoutFigure(model, sheet.dpi, font);
+    const metadata = plateMetadata(sheet, { arithmetic: summary.arithmetic, bits: Number(summary.precision['referenceBits'] ?? 53), iterations: summary.iterations });
+    let image: string | null = null;
+    if (pdf) {
+      await writeFileAtomic(file, await figurePdf(scene, png, font, { title: sheet.title, creator: `quadatlas ${toolVersion()}`, metadata }));
+      await rm(rasterFile, { force: true });
+    } else {
+      let href: string;
+      if (png.length <= SVG_INLINE_LIMIT) {
+        href = `data:image/png;base64,${png.toString('base64')}`;
+        await rm(rasterFile, { force: true });
+      } else {
+        href = path.basename(besideName);
+        image = path.resolve(besideName);
+      }
+      // the plate first: an SVG never points at a PNG that is not there
+      if (image !== null) await rename(rasterFile, besideName);
+      await writeFileAtomic(file, svgWithMetadata(figureSvg(scene, href, font, sheet.title), metadata));
+    }
+    releaseTemp(rasterFile);
+    const round = (v: number): number => Math.round(v * 1000) / 1000;
+    const figure: FigureSummary = {
+      format: pdf ? 'pdf' : 'svg',
+      plate: { x: round(scene.plate.x), y: round(scene.plate.y), width: round(scene.plate.width), height: round(scene.plate.height) },
+      page: { width: round(scene.width), height: round(scene.height) },
+      axes: model.axes === null ? null : {
+        re: { title: model.axes.re.title, ticks: model.axes.re.ticks.map((t) => ({ value: t.value, label: t.label })) },
+        im: { title: model.axes.im.title, ticks: model.axes.im.ticks.map((t) => ({ value: t.value, label: t.label })) },
+      },
+      image,
+    };
+    const raySummaries: RaySummary[] = rays.map((r, i) => {
+      const pts = rayCurves[i]!.points;
+      const n = pts.length;
+      // the traced end is the second-to-last point, the landing the last
+      const px = Math.hypot(pts[n - 4]! - pts[n - 2]!, pts[n - 3]! - pts[n - 1]!);
+      const lx = pts[n - 2]!;
+      const ly = pts[n - 1]!;
+      return {
+        angle: r.angle,
+        kind: r.kind,
+        preperiod: r.preperiod,
+        period: r.period,
+        landing: { re: r.landing.re, im: r.landing.im },
+        tracedEnd: { re: String(r.tracedEnd.re), im: String(r.tracedEnd.im) },
+        tracedEndPixels: Math.round(px * 1000) / 1000,
+        landsInView: lx >= 0 && lx <= sheet.width && ly >= 0 && ly <= sheet.height,
+      };
+    });
+    const files = [path.resolve(file), ...(image === null ? [] : [image]), ...summary.files.filter((f) => f !== summary.file)];
+    const result = { ...summary, file: path.resolve(file), files, figure, rays: raySummaries, equipotentials: levels.map((g) => ({ potential: g })), labels: scene.drawnMarks.map((m) => ({ period: marks[m]!.period, c: { re: marks[m]!.re, im: marks[m]!.im } })), outlines: outlines.map((o) => ({ period: o.period, nucleus: o.nucleus, points: o.points.length / 2 })) };
+    if (sheet.output.sidecar) {
+      const sidecar = `${file}.json`;
+      await writeFileAtomic(sidecar, `${JSON.stringify({ metadata: JSON.parse(metadata) as unknown, summary: result }, null, 2)}\n`);
+      files.push(path.resolve(sidecar));
+    }
+    return result;
+  } catch (err) {
+    await rm(rasterFile, { force: true });
+    releaseTemp(rasterFile);
+    throw err;
+  }
+}
