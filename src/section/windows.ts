@@ -64,7 +64,7 @@ export function bisectWord(family: UnimodalFamily, word: string): number {
   return (lo + hi) / 2;
 }
 
-function crisisGap(family: UnimodalFamily, r: number, p: number): number {
+function crisisGapDouble(family: UnimodalFamily, r: number, p: number): number {
   let x = Number(family.critical);
   let x2p = x;
   for (let k = 1; k <= 3 * p; k++) {
@@ -74,31 +74,56 @@ function crisisGap(family: UnimodalFamily, r: number, p: number): number {
   return x - x2p;
 }
 
-/** Brackets the window end by an outward walk from the doubling point, then bisects (double precision). */
-function bracketEnd(family: UnimodalFamily, p: number, doubling: number, scale: number): number {
-  const rEnd = Number(family.range[1]);
-  const stepSize = Math.abs(scale) / 32;
-  const dir = Math.sign(-scale);
-  let a = doubling;
-  let ha = crisisGap(family, a, p);
+/**
+ * The window end, roughly, as a decimal string for Newton to finish: the
+ * crisis gap f^(3p)(x_c) - f^(2p)(x_c) changes sign there. Walk outward from
+ * the doubling point in steps of scale/32, then bisect to a millionth of the
+ * window. The critical orbit is expanded by up to about 2 per step near
+ * r = 4, so 3p steps in doubles lose about 3p bits, and the narrowest
+ * windows of period p are about 4^-p wide, below the spacing of doubles near
+ * 4 from period 13 on: up to period 8 the walk runs in doubles, beyond in
+ * decimal.js with 3p bits and the window's digits to spare.
+ */
+function bracketEnd(family: UnimodalFamily, p: number, doubling: Decimal, scale: Decimal): string {
+  const D = p <= 8 ? null : workingDecimal(Math.ceil(3 * p * Math.log10(2)) + 20 + Math.max(0, -scale.abs().log(10).floor().toNumber()));
+  const gap = (r: Decimal | number): number => {
+    if (D === null) return crisisGapDouble(family, Number(r), p);
+    const rr = new D(r);
+    let x = new D(family.critical);
+    let x2p = x;
+    for (let k = 1; k <= 3 * p; k++) {
+      x = family.value(x, rr, D);
+      if (k === 2 * p) x2p = x;
+    }
+    return x.minus(x2p).toNumber();
+  };
+  const W = D ?? workingDecimal(20);
+  const rEnd = new W(family.range[1]);
+  const step = new W(scale).abs().div(32);
+  const dir = scale.isNegative() ? 1 : -1;
+  let a = new W(doubling);
+  if (D === null) a = new W(a.toNumber());
+  let ha = gap(D === null ? a.toNumber() : a);
   // C runs from -3/4 to about -4 (the size estimate is a few per cent off).
   for (let i = 0; i < 32 * 4; i++) {
-    let b = a + dir * stepSize;
-    if ((b - rEnd) * dir > 0) b = rEnd;
-    const hb = crisisGap(family, b, p);
-    if (hb === 0) return b;
+    let b = a.plus(step.times(dir));
+    if (b.minus(rEnd).times(dir).gt(0)) b = rEnd;
+    if (D === null) b = new W(b.toNumber());
+    const hb = gap(D === null ? b.toNumber() : b);
+    if (hb === 0) return b.toString();
     if (Math.sign(hb) !== Math.sign(ha)) {
-      for (let k = 0; k < 200 && Math.abs(b - a) > 4e-16 * Math.abs(b); k++) {
-        const m = (a + b) / 2;
-        const hm = crisisGap(family, m, p);
+      const tol = step.times(32e-6);
+      for (let k = 0; k < 200 && b.minus(a).abs().gt(tol); k++) {
+        const m = a.plus(b).div(2);
+        const hm = gap(D === null ? m.toNumber() : m);
         if (Math.sign(hm) === Math.sign(ha)) {
           a = m;
           ha = hm;
         } else b = m;
       }
-      return (a + b) / 2;
+      return a.plus(b).div(2).toString();
     }
-    if (b === rEnd) break;
+    if (b.eq(rEnd)) break;
     a = b;
     ha = hb;
   }
@@ -110,7 +135,7 @@ function must(ok: boolean, what: string): void {
 }
 
 /** Every window of period 1..maxPeriod, in increasing order of the parameter. */
-export function findWindows(family: UnimodalFamily, maxPeriod: number, digits: number): { windows: PeriodicWindow[]; D: DecimalCtor } {
+export function findWindows(family: UnimodalFamily, maxPeriod: number, digits: number, onPeriod?: (period: number, windows: number) => void): { windows: PeriodicWindow[]; D: DecimalCtor } {
   if (family.maximumOrder !== 2) throw new RangeError(`windows need a quadratic maximum; ${family.name} has order ${family.maximumOrder}`);
   const D = workingDecimal(digits);
   const byWord = new Map<string, PeriodicWindow>();
@@ -139,8 +164,8 @@ export function findWindows(family: UnimodalFamily, maxPeriod: number, digits: n
       let end: Decimal;
       if (p === 1) end = new D(family.range[1]);
       else {
-        const rough = bracketEnd(family, p, dbl.r.toNumber(), scale.toNumber());
-        const e = orbitCoincidence(family, 3 * p, 2 * p, rough.toPrecision(17), digits);
+        const rough = bracketEnd(family, p, dbl.r, scale);
+        const e = orbitCoincidence(family, 3 * p, 2 * p, rough, digits);
         must(e.converged, `end of ${word} (period ${p}) did not converge`);
         end = e.r;
       }
@@ -148,6 +173,7 @@ export function findWindows(family: UnimodalFamily, maxPeriod: number, digits: n
       must(onset.lt(rs) && rs.lt(dbl.r) && dbl.r.lte(end), `window ${word || 'C'} (period ${p}) came out of order`);
       byWord.set(word, { period: p, word, satellite: parentWord !== undefined, onset, superstable: rs, doubling: dbl.r, end, scale });
     }
+    onPeriod?.(p, byWord.size);
   }
   const windows = [...byWord.values()].sort((a, b) => a.superstable.comparedTo(b.superstable));
   return { windows, D };

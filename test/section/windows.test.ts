@@ -138,3 +138,24 @@ describe('windowOf', () => {
     expect(windowOf('-1.6', 5)).toBeUndefined();
   });
 });
+
+describe('superstable parameters against the plane', () => {
+  it('for periods 8..11 they are distinct real zeros of F_p, and the same set as the real nuclei of the census (another code path)', async () => {
+    const { census } = await import('../../src/components/census.js');
+    const { windows: wide } = findWindows(logistic, 11, 30);
+    for (let p = 8; p <= 11; p++) {
+      const cs = wide.filter((w) => w.period === p).map((w) => new D(rToC(w.superstable.toString(), 40)));
+      // F_p(c) = f_c^p(0) in decimal.js, written here.
+      for (const c of cs) {
+        let z = new D(0);
+        for (let k = 0; k < p; k++) z = z.times(z).plus(c);
+        expect(z.abs().toNumber(), `period ${p} at ${c.toString()}`).toBeLessThan(1e-20);
+      }
+      const sorted = cs.map((c) => c.toNumber()).sort((a, b) => a - b);
+      for (let i = 1; i < sorted.length; i++) expect(sorted[i]! - sorted[i - 1]!, `period ${p}`).toBeGreaterThan(1e-12);
+      const real = (await census(p, { workers: 1 })).components.filter((c) => c.real).map((c) => c.reHi + c.reLo).sort((a, b) => a - b);
+      expect(real.length, `period ${p}`).toBe(sorted.length);
+      for (let i = 0; i < real.length; i++) expect(Math.abs(real[i]! - sorted[i]!), `period ${p} #${i}`).toBeLessThan(1e-12);
+    }
+  });
+});
