@@ -1,0 +1,68 @@
+/**
+ * Runs the truncations of a constants plan (src/section/constants/) on
+ * worker threads, one truncation per worker, or one after the other in this
+ * thread for one worker. Each truncation is a deterministic computation of
+ * its own, so the answers never depend on the worker count.
+ */
+import { Worker } from 'node:worker_threads';
+import { constantsAt, truncationCost, type ConstantsPlan } from '../section/constants/feigenbaum-constants.js';
+import type { LadderStep } from '../section/constants/fixed-point.js';
+import type { FeigenbaumJob, FromFeigenbaumWorker } from '../workers/feigenbaum-messages.js';
+
+export interface TruncationResult {
+  readonly terms: number;
+  readonly alpha: string;
+  readonly delta: string;
+}
+
+/** The built worker script: next to this file in dist/, or in dist/ when running from src/ (tests). */
+export function feigenbaumWorkerUrl(): URL {
+  const here = import.meta.url;
+  return here.endsWith('.ts') ? new URL('../../dist/src/workers/feigenbaum-worker.js', here) : new URL('../workers/feigenbaum-worker.js', here);
+}
+
+/** Progress of the whole plan: the fraction of the estimated work done (0..1) and the last step. */
+export type ConstantsProgress = (fraction: number, step: LadderStep) => void;
+
+function runOnWorker(job: FeigenbaumJob, onStep: (s: LadderStep) => void): Promise<TruncationResult> {
+  return new Promise((resolve, reject) => {
+    const w = new Worker(feigenbaumWorkerUrl());
+    let settled = false;
+    const finish = (f: () => void): void => {
+      if (settled) return;
+      settled = true;
+      void w.terminate();
+      f();
+    };
+    w.on('message', (m: FromFeigenbaumWorker) => {
+      if (m.type === 'step') onStep(m.step);
+      else if (m.type === 'done') finish(() => resolve({ terms: m.terms, alpha: m.alpha, delta: m.delta }));
+      else finish(() => reject(Object.assign(new Error(m.message), { name: m.name })));
+    });
+    w.on('error', (e) => finish(() => reject(e)));
+    w.on('exit', (code) => finish(() => reject(new Error(`feigenbaum worker exited with code ${code} before its truncation was done`))));
+    w.postMessage(job);
+  });
+}
+
+/** Both truncations of the plan, fewer terms first. */
+export async function constantsOnWorkers(plan: ConstantsPlan, workers: number, places: number, onProgress?: ConstantsProgress): Promise<TruncationResult[]> {
+  const costs = plan.terms.map((n) => truncationCost(n, plan.bits));
+  const total = costs.reduce((a, b) => a + b, 0);
+  // Work done per truncation, estimated from the ladder step reached: a step at b bits stands for the rungs up to b.
+  const done = plan.terms.map(() => 0);
+  const tracker = (i: number) => (step: LadderStep): void => {
+    const share = step.stage === 'fixed point' ? 0.5 : 1;
+    const part = (truncationCost(plan.terms[i]!, step.bits) / costs[i]!) * 0.5 + (share - 0.5);
+    done[i] = Math.max(done[i]!, costs[i]! * Math.min(1, part));
+    onProgress?.(done.reduce((a, b) => a + b, 0) / total, step);
+  };
+  const jobs: FeigenbaumJob[] = plan.terms.map((terms) => ({ type: 'truncation', order: plan.order, terms, bits: plan.bits, places }));
+  if (workers <= 1) {
+    return jobs.map((job, i) => {
+      const r = constantsAt(job.order, job.terms, job.bits, job.places, tracker(i));
+      return { terms: r.terms, alpha: r.alpha, delta: r.delta };
+    });
+  }
+  return Promise.all(jobs.map((job, i) => runOnWorker(job, tracker(i))));
+}
