@@ -1,7 +1,7 @@
 /**
  * `quadatlas section constants`: Feigenbaum's alpha and delta for a maximum
- * of order Z from the renormalisation fixed point (docs/methods.md,
- * "Feigenbaum constants from the fixed point"). Two truncations run on two
+ * of order Z from the renormalisation fixed point (docs/methods.md
+ * E9). Two truncations run on two
  * workers; only the digits both agree on are written, truncated (not
  * rounded) to `--digits` places after the point. The run time goes to
  * stderr, so stdout is the same bytes for any worker count.

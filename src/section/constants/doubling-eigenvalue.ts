@@ -1,7 +1,7 @@
 /**
  * Feigenbaum's delta: the eigenvalue outside the unit circle of the doubling
  * operator linearised at the fixed point g, with alpha held fixed
- * (docs/methods.md, "Feigenbaum constants from the fixed point"; Briggs 1991):
+ * (docs/methods.md E9; Briggs 1991):
  * T h(x) = (1/s) [h(g(s x)) + g'(g(s x)) h(s x)], s = g(1) = -1/alpha,
  * on the even functions h(x) = sum_j b_j T_j(2|x|^Z - 1) collocated at x = 0
  * and the fixed point's own points: the pencil M b = lambda B b.

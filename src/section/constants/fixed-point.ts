@@ -1,7 +1,7 @@
 /**
  * The Feigenbaum-Cvitanovic fixed point of period doubling for a maximum of
  * order Z: g(x) = -alpha g(g(-x/alpha)), g(0) = 1, g even and a function of
- * |x|^Z (docs/methods.md, "Feigenbaum constants from the fixed point";
+ * |x|^Z (docs/methods.md E9;
  * Lanford 1982, Briggs 1991). With s = g(1) = -1/alpha the equation reads
  * s g(x) = g(g(s x)); we collocate it at x_i with
  * x_i^Z = (1 + cos(pi (2i - 1) / (2M))), i = 1..M, M = N - 1, and add

@@ -1,6 +1,6 @@
 /**
  * Feigenbaum's constants from the renormalisation fixed point
- * (docs/methods.md, "Feigenbaum constants from the fixed point"), checked
+ * (docs/methods.md E9), checked
  * against OEIS and against an independent computation with mpmath (Debian
  * python3-mpmath, installed by .ci/run) that shares nothing with ours but
  * the equation: a plain power series in |x|^Z (not Chebyshev), Gauss-Legendre
