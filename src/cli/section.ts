@@ -12,6 +12,7 @@ import { register as registerConvert } from './section/convert.js';
 import { register as registerDiagram } from './section/diagram.js';
 import { register as registerLyapunov } from './section/lyapunov.js';
 import { register as registerWindows } from './section/windows.js';
+import { register as registerUniversality } from './section/universality.js';
 import { registerOrbitCommands } from './section-orbit.js';
 
 export { convertTable } from './section/convert.js';
@@ -21,7 +22,7 @@ export { parseDecimal, parseFamily, parseInteger, tableFormat } from './section/
 export { landmarks } from '../section/landmarks.js';
 
 export function register(program: Command): void {
-  const section = program.command('section').description('the real slice: convert, cascade, windows, lyapunov, diagram, compare, orbit, cobweb, constants');
+  const section = program.command('section').description('the real slice: convert, cascade, windows, lyapunov, diagram, compare, orbit, cobweb, constants, universality');
   // commander's own errors (unknown flag, missing value) in the one message style: one line, prefixed.
   section.configureOutput({ outputError: (text, write) => write(`${text.startsWith('quadatlas:') ? '' : 'quadatlas: '}${text.replace(/^error: /, '').trim().replace(/\s*\n\s*/g, ' ')}\n`) });
   registerConvert(section);
@@ -32,4 +33,5 @@ export function register(program: Command): void {
   registerCompare(section);
   registerOrbitCommands(section);
   registerConstants(section);
+  registerUniversality(section);
 }
