@@ -5,7 +5,7 @@
  * its own, so the answers never depend on the worker count.
  */
 import { Worker } from 'node:worker_threads';
-import { constantsAt, truncationCost, type ConstantsPlan } from '../section/constants/feigenbaum-constants.js';
+import { constantsAt, truncationProgress, type ConstantsPlan } from '../section/constants/feigenbaum-constants.js';
 import type { LadderStep } from '../section/constants/fixed-point.js';
 import type { FeigenbaumJob, FromFeigenbaumWorker } from '../workers/feigenbaum-messages.js';
 
@@ -47,15 +47,13 @@ function runOnWorker(job: FeigenbaumJob, onStep: (s: LadderStep) => void): Promi
 
 /** Both truncations of the plan, fewer terms first. */
 export async function constantsOnWorkers(plan: ConstantsPlan, workers: number, places: number, onProgress?: ConstantsProgress): Promise<TruncationResult[]> {
-  const costs = plan.terms.map((n) => truncationCost(n, plan.bits));
-  const total = costs.reduce((a, b) => a + b, 0);
-  // Work done per truncation, estimated from the ladder step reached: a step at b bits stands for the rungs up to b.
+  // Each truncation weighs as its N^3 (the factorisations); its own share from its last Newton step.
+  const weights = plan.terms.map((n) => n ** 3);
+  const total = weights.reduce((a, b) => a + b, 0);
   const done = plan.terms.map(() => 0);
   const tracker = (i: number) => (step: LadderStep): void => {
-    const share = step.stage === 'fixed point' ? 0.5 : 1;
-    const part = (truncationCost(plan.terms[i]!, step.bits) / costs[i]!) * 0.5 + (share - 0.5);
-    done[i] = Math.max(done[i]!, costs[i]! * Math.min(1, part));
-    onProgress?.(done.reduce((a, b) => a + b, 0) / total, step);
+    done[i] = Math.max(done[i]!, truncationProgress(step, plan.bits));
+    onProgress?.(done.reduce((a, d, j) => a + d * weights[j]!, 0) / total, step);
   };
   const jobs: FeigenbaumJob[] = plan.terms.map((terms) => ({ type: 'truncation', order: plan.order, terms, bits: plan.bits, places }));
   if (workers <= 1) {

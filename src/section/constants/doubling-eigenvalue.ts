@@ -15,7 +15,8 @@
  * Newton on the bordered system (M - lambda B) b = 0, b_m = 1.
  */
 import { luFactor, luSolve } from './fixed-lu.js';
-import { collocationPoints, collocationTriples, exactFixed, ladder, rescaleAll, type FixedPointSolution, type LadderStep } from './fixed-point.js';
+import { collocationPoints, collocationTriples, exactFixed, LU_BITS, rescaleAll, type FixedPointSolution, type LadderStep } from './fixed-point.js';
+import { seriesAt, seriesValue } from './even-series.js';
 
 /** The pencil (M, B) at `bits`, rows for x = 0 then the collocation points. */
 export function doublingPencil(sol: FixedPointSolution, bits: number): { m: bigint[][]; b: bigint[][] } {
@@ -105,55 +106,88 @@ export function deltaEstimate(lower: FixedPointSolution, upper: FixedPointSoluti
   return Math.max(...common);
 }
 
+/** Bordered chord Jacobian [M - lambda B, -B v; e_m, 0] at `bits`, factorised. */
+function borderedLu(pencil: { m: bigint[][]; b: bigint[][] }, vec: readonly bigint[], lambda: bigint, big: number, bits: number) {
+  const shift = BigInt(bits);
+  const n = vec.length;
+  const bv = matVec(pencil.b, vec, shift);
+  const jac = pencil.m.map((row, i) => [...row.map((v, j) => v - ((lambda * pencil.b[i]![j]!) >> shift)), -bv[i]!]);
+  jac.push(Array.from({ length: n + 1 }, (_, j) => (j === big ? 1n << shift : 0n)));
+  return luFactor(jac, bits);
+}
+
+/**
+ * The residual (M - lambda B) v, v_m - 1 at `bits` without the matrices: with
+ * h = sum_j v_j T_j, (M v)_i = (1/s)[h(g(u_i)) + g'(g(u_i)) h(u_i)] and
+ * (B v)_i = h(x_i), from the points evaluated once.
+ */
+interface EigenPoints {
+  readonly x: bigint[];
+  readonly u: bigint[];
+  readonly gu: bigint[];
+  readonly slope: bigint[];
+  readonly s: bigint;
+}
+
+function eigenPoints(sol: FixedPointSolution, bits: number): EigenPoints {
+  const c = rescaleAll(sol.coefficients, sol.bits, bits);
+  const shift = BigInt(bits);
+  let s = 0n;
+  for (const v of c) s += v;
+  const x = [0, ...collocationPoints(sol.order, c.length - 1)].map((p) => exactFixed(p, bits));
+  const u = x.map((v) => (s * v) >> shift);
+  const gu = u.map((v) => seriesValue(v, c, sol.order, bits));
+  const slope = gu.map((v) => seriesAt(v, c, sol.order, bits).slope);
+  return { x, u, gu, slope, s };
+}
+
+function eigenResidual(p: EigenPoints, vec: readonly bigint[], lambda: bigint, big: number, order: number, bits: number): bigint[] {
+  const shift = BigInt(bits);
+  const f = p.x.map((x, i) => {
+    const mv = ((seriesValue(p.gu[i]!, vec, order, bits) + ((p.slope[i]! * seriesValue(p.u[i]!, vec, order, bits)) >> shift)) << shift) / p.s;
+    return mv - ((lambda * seriesValue(x, vec, order, bits)) >> shift);
+  });
+  f.push(vec[big]! - (1n << shift));
+  return f;
+}
+
 /**
  * delta at the fixed point's precision, from the double estimate: inverse
- * iteration at the lowest rung, then chord Newton on the bordered system up
- * the ladder.
+ * iteration at 128 bits, then chord Newton on the bordered system with its
+ * Jacobian factorised at LU_BITS (once from the inverse iteration's pair,
+ * once more when that is good to LU_BITS) and residuals at full precision.
  */
 export function refineDelta(sol: FixedPointSolution, estimate: number, baseBits: number, step?: (s: LadderStep) => void): bigint {
   const n = sol.terms;
-  const rungs = ladder(sol.bits, baseBits);
-  const b0 = rungs[0]!;
-  const low = doublingPencil(sol, b0);
-  const first = inverseIteration(low.m, low.b, estimate, b0, 200);
+  const low = doublingPencil(sol, baseBits);
+  const first = inverseIteration(low.m, low.b, estimate, baseBits, 200);
   if (first === undefined) throw Object.assign(new Error(`order ${sol.order}: inverse iteration at ${estimate} did not settle`), { name: 'NoConvergenceError' });
-  // normalise on the largest component m (it is 1 there already)
-  let big = 0;
-  for (let i = 0; i < n; i++) if ((first.vector[i]! < 0n ? -first.vector[i]! : first.vector[i]!) === 1n << BigInt(b0)) big = i;
-  let vec = first.vector;
-  let lambda = exactFixed(first.value, b0);
-  let from = b0;
-  let lowPencil = low;
-  for (let r = 0; r < rungs.length; r++) {
-    const bits = rungs[r]!;
-    const shift = BigInt(bits);
-    vec = rescaleAll(vec, from, bits);
-    lambda = rescaleAll([lambda], from, bits)[0]!;
-    from = bits;
-    const pencil = r === 0 ? low : doublingPencil(sol, bits);
-    // chord Jacobian at the rung below: [M - lambda B, -B v; e_m, 0]
-    const jb = r === 0 ? bits : rungs[r - 1]!;
-    const jshift = BigInt(jb);
-    const vj = rescaleAll(vec, bits, jb);
-    const lj = rescaleAll([lambda], bits, jb)[0]!;
-    const bv = matVec(lowPencil.b, vj, jshift);
-    const jac = lowPencil.m.map((row, i) => [...row.map((v, j) => v - ((lj * lowPencil.b[i]![j]!) >> jshift)), -bv[i]!]);
-    jac.push(Array.from({ length: n + 1 }, (_, j) => (j === big ? 1n << jshift : 0n)));
-    const lu = luFactor(jac, jb);
-    for (let k = 0; k < (r === 0 ? 30 : 8); k++) {
-      const mv = matVec(pencil.m, vec, shift);
-      const bvh = matVec(pencil.b, vec, shift);
-      const f = mv.map((x, i) => x - ((lambda * bvh[i]!) >> shift));
-      f.push(vec[big]! - (1n << shift));
-      const d = luSolve(lu, f);
+  const unit = 1n << BigInt(baseBits);
+  const big = first.vector.findIndex((v) => v === unit);
+  const q = Math.min(sol.bits, LU_BITS);
+  let vec = rescaleAll(first.vector, baseBits, q);
+  let lambda = exactFixed(first.value, q);
+  const chord = (bits: number, lu: ReturnType<typeof luFactor>, points: EigenPoints, maxSteps: number): void => {
+    for (let k = 0; k < maxSteps; k++) {
+      const d = luSolve(lu, eigenResidual(points, vec, lambda, big, sol.order, bits));
       for (let i = 0; i < n; i++) vec[i] = vec[i]! - d[i]!;
       lambda -= d[n]!;
       let worst = 0n;
       for (const x of d) if ((x < 0n ? -x : x) > worst) worst = x < 0n ? -x : x;
       step?.({ stage: 'eigenvalue', bits, terms: n, correctionLog2: worst === 0n ? -Infinity : worst.toString(2).length - bits });
-      if (worst < 1n << 40n) break;
+      if (worst < 1n << 40n) return;
     }
-    lowPencil = pencil;
+    throw Object.assign(new Error(`order ${sol.order}: the eigenvalue delta did not settle at ${bits} bits`), { name: 'NoConvergenceError' });
+  };
+  const pencil = doublingPencil(sol, q);
+  const pointsQ = eigenPoints(sol, q);
+  chord(q, borderedLu(pencil, vec, lambda, big, q), pointsQ, 200);
+  if (q < sol.bits) {
+    const lu = borderedLu(pencil, vec, lambda, big, q);
+    vec = rescaleAll(vec, q, sol.bits);
+    lambda = rescaleAll([lambda], q, sol.bits)[0]!;
+    // The correction comes back at the full scale: the right-hand side at sol.bits read by an LU at q (fixed-lu.ts).
+    chord(sol.bits, lu, eigenPoints(sol, sol.bits), 400);
   }
   return lambda;
 }

@@ -92,9 +92,12 @@ export function agreeingDigits(a: string, b: string): { text: string; significan
   return { text, significant: digits.length };
 }
 
-/** Relative cost of one truncation (for progress and ETA): N^3 b^1.6 summed over the ladder, fixed point and eigenvalue. */
-export function truncationCost(terms: number, bits: number): number {
-  let cost = 0;
-  for (let b = bits; b > 2 * BASE_BITS; b = Math.ceil(b / 2) + 32) cost += 2 * terms ** 3 * Math.pow(b / 2, 1.6);
-  return cost + 2 * terms ** 3 * Math.pow(BASE_BITS, 1.6);
+/**
+ * Progress of one truncation from its last Newton step: the fixed point is
+ * the first half and delta the second, each measured by the bits its
+ * correction has reached out of the target.
+ */
+export function truncationProgress(step: LadderStep, bits: number): number {
+  const reached = Math.min(1, Math.max(0, -step.correctionLog2) / bits);
+  return (step.stage === 'fixed point' ? 0 : 0.5) + 0.5 * reached;
 }

@@ -8,13 +8,16 @@
  * g(0) = 1, for the N Chebyshev coefficients of g in y = |x|^Z
  * (even-series.ts).
  *
- * Newton runs up a ladder of precisions, each about twice the one below, so
- * that almost all steps are cheap; at each rung the residual is evaluated
- * at the rung's precision while the Jacobian is factorised at the rung
- * below (a chord step: the correction is small, so a Jacobian good to
- * half the digits still doubles them). The right-hand side is read at the
- * lower scale, which makes the solve return the correction at the upper
- * one (fixed-lu.ts).
+ * Newton is a chord iteration: the Jacobian is factorised at LU_BITS only,
+ * the residual is evaluated at the full precision, and each step gains
+ * about LU_BITS bits less the log of the condition number (a solve at lower
+ * precision refined by full-precision residuals). The right-hand side is
+ * read at the lower scale, which makes the solve return the correction at
+ * the full one (fixed-lu.ts). Tried first and dropped: a ladder of
+ * precisions doubling up to the full one with a factorisation per rung;
+ * BigInt products of a few hundred bits cost mostly their overhead, so
+ * every rung cost about as much as the top one, and 300 digits took 2.4x as
+ * long.
  */
 import { luFactor, luSolve } from './fixed-lu.js';
 import { seriesAt, seriesValue, type SeriesPoint } from './even-series.js';
@@ -29,7 +32,7 @@ export interface FixedPointSolution {
   readonly g1: bigint;
 }
 
-/** One step of the ladder, for progress reports. */
+/** One Newton step, for progress reports. */
 export interface LadderStep {
   readonly stage: 'fixed point' | 'eigenvalue';
   readonly bits: number;
@@ -132,27 +135,23 @@ function log2Of(n: bigint, bits: number): number {
   return n.toString(2).length - bits;
 }
 
-/** Precisions of the ladder, lowest first: each rung about half the next, above `base`. */
-export function ladder(bits: number, base: number): number[] {
-  const rungs = [bits];
-  while (rungs[rungs.length - 1]! > 2 * base) rungs.push(Math.ceil(rungs[rungs.length - 1]! / 2) + 32);
-  return rungs.reverse();
-}
-
 /** Newton (chord) iterations at `bits` with the Jacobian factorised at `jacobianBits` from c, until the correction is below 2^-(bits - 40). */
 function newtonRung(c: bigint[], xs: readonly number[], order: number, bits: number, jacobianBits: number, maxSteps: number, step?: (s: LadderStep) => void): bigint[] {
   const xsHigh = xs.map((x) => exactFixed(x, bits));
-  const xsLow = xs.map((x) => exactFixed(x, jacobianBits));
-  const lu = luFactor(jacobian(rescaleAll(c, bits, jacobianBits), xsLow, order, jacobianBits), jacobianBits);
+  let lu = luFactor(jacobian(rescaleAll(c, bits, jacobianBits), xs.map((x) => exactFixed(x, jacobianBits)), order, jacobianBits), jacobianBits);
+  let previous = -1n;
   for (let k = 0; k < maxSteps; k++) {
     const e = residual(c, xsHigh, order, bits);
     const d = luSolve(lu, e);
     for (let j = 0; j < c.length; j++) c[j] = c[j]! - d[j]!;
     const m = maxAbs(d);
     step?.({ stage: 'fixed point', bits, terms: c.length, correctionLog2: log2Of(m, bits) });
-    if (m < 1n << 40n) break;
+    if (m < 1n << 40n) return c;
+    // A chord that stopped contracting (a stale Jacobian): factorise again where we are.
+    if (previous >= 0n && m > previous / 4n) lu = luFactor(jacobian(rescaleAll(c, bits, jacobianBits), xs.map((x) => exactFixed(x, jacobianBits)), order, jacobianBits), jacobianBits);
+    previous = m;
   }
-  return c;
+  throw Object.assign(new Error(`fixed point of order ${order} with ${c.length} terms: Newton did not settle at ${bits} bits`), { name: 'NoConvergenceError' });
 }
 
 /** A first g: g(y) = 1 - a y with g(1) = 1 - a = -(1 - 1/Z) 0.8, the rough size of -1/alpha (Z = 2: -0.4). */
@@ -162,7 +161,7 @@ function startingSeries(order: number, bits: number): bigint[] {
   return [exactFixed(1 - a / 2, bits), exactFixed(-a / 2, bits)];
 }
 
-/** The number of terms reached by continuation at low precision before the ladder starts. */
+/** The number of terms reached by continuation at low precision before the full truncation. */
 export const CONTINUATION_TERMS = 14;
 export const BASE_BITS = 128;
 
@@ -177,10 +176,10 @@ export function continuation(order: number, terms: number, bits: number = BASE_B
     while (c.length < n) c.push(0n);
     const xs = collocationPoints(order, n - 1);
     for (let k = 0; k < 40; k++) {
-      const before = c.slice();
-      newtonRung(c, xs, order, bits, bits, 1);
-      const m = maxAbs(c.map((v, j) => v - before[j]!));
-      if (m < 1n << 40n) break;
+      const lu = luFactor(jacobian(c, xs.map((x) => exactFixed(x, bits)), order, bits), bits);
+      const d = luSolve(lu, residual(c, xs.map((x) => exactFixed(x, bits)), order, bits));
+      for (let j = 0; j < c.length; j++) c[j] = c[j]! - d[j]!;
+      if (maxAbs(d) < 1n << 40n) break;
       if (k === 39) throw Object.assign(new Error(`fixed point of order ${order}: Newton did not settle at ${n} terms`), { name: 'NoConvergenceError' });
     }
     found.push(c.slice());
@@ -188,21 +187,28 @@ export function continuation(order: number, terms: number, bits: number = BASE_B
   return found;
 }
 
-/** The fixed point with `terms` Chebyshev coefficients at `bits` fractional bits. */
+/**
+ * Bits of the factorised Jacobians: each chord step gains about this many
+ * bits less the log of the condition number, so a 1000-digit fixed point
+ * needs about 15 cheap steps instead of a factorisation per doubling.
+ */
+export const LU_BITS = 256;
+
+/**
+ * The fixed point with `terms` Chebyshev coefficients at `bits` fractional
+ * bits: continuation to CONTINUATION_TERMS terms at 128 bits, then chord
+ * Newton with the Jacobian factorised at LU_BITS, first from the padded
+ * start until the solution is good to LU_BITS, then once more there and
+ * with residuals at the full precision until the correction vanishes.
+ */
 export function solveFixedPoint(order: number, terms: number, bits: number, step?: (s: LadderStep) => void): FixedPointSolution {
   const start = continuation(order, Math.min(terms, CONTINUATION_TERMS));
-  let c = start[start.length - 1]!.slice();
-  while (c.length < terms) c.push(0n);
+  const c0 = start[start.length - 1]!.slice();
+  while (c0.length < terms) c0.push(0n);
   const xs = collocationPoints(order, terms - 1);
-  const rungs = ladder(bits, BASE_BITS);
-  let from = BASE_BITS;
-  for (let r = 0; r < rungs.length; r++) {
-    const b = rungs[r]!;
-    c = rescaleAll(c, from, b);
-    from = b;
-    const jb = r === 0 ? b : rungs[r - 1]!;
-    newtonRung(c, xs, order, b, jb, r === 0 ? 40 : 8, step);
-  }
+  const q = Math.min(bits, LU_BITS);
+  let c = newtonRung(rescaleAll(c0, BASE_BITS, q), xs, order, q, q, 200, step);
+  if (q < bits) c = newtonRung(rescaleAll(c, q, bits), xs, order, bits, q, 400, step);
   return { order, terms, bits, coefficients: c, g1: sum(c) };
 }
 
