@@ -7,7 +7,7 @@
  * so the caller may run them on two threads; neither depends on the other
  * or on the thread count.
  */
-import { BASE_BITS, CONTINUATION_TERMS, solveFixedPoint, type FixedPointSolution, type LadderStep } from './fixed-point.js';
+import { BASE_BITS, CONTINUATION_TERMS, LU_BITS, solveFixedPoint, type FixedPointSolution, type LadderStep } from './fixed-point.js';
 import { deltaEstimate, refineDelta } from './doubling-eigenvalue.js';
 
 export const MIN_ORDER = 2;
@@ -33,9 +33,14 @@ export interface ConstantsPlan {
   readonly bytes: number;
 }
 
-/** A BigInt of b bits costs about b/8 bytes plus a header; the pencil, its LU and the basis arrays hold about 6 N^2 of them. */
+/**
+ * Peak heap of one truncation, bytes. A BigInt of b bits costs about b/8
+ * bytes plus a header; the N^2 arrays (the Jacobian or pencil, its LU and
+ * the basis values at the collocation points) hold about 6 N^2 of them at
+ * LU_BITS, while the full precision lives only in O(N) vectors.
+ */
 export function memoryEstimate(terms: number, bits: number): number {
-  return 6 * terms * terms * (bits / 8 + 32);
+  return 6 * terms * terms * (Math.min(bits, LU_BITS) / 8 + 32) + 40 * terms * (bits / 8 + 32);
 }
 
 /** Terms and bits for `digits` significant digits of alpha and delta at order Z. */
