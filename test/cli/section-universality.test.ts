@@ -58,3 +58,16 @@ describe('section universality', () => {
     expect(r.stderr).toContain('for --orders but received');
   });
 });
+
+describe('section cascade beside the fixed point', () => {
+  it('section cascade --family sine --json reports the fixed-point delta, and every trusted cascade digit agrees (universality)', () => {
+    const r = runCli(['section', 'cascade', '--family', 'sine', '--levels', '8', '--json']);
+    expect(r.status).toBe(0);
+    const t = JSON.parse(r.stdout) as { estimates: { delta: { significantDigits: number } }; fixedPoint: { order: number; delta: string; deltaDigitsAgreeing: number } };
+    // OEIS A006890 (docs/checks.md), the order-2 delta
+    expect(t.fixedPoint.order).toBe(2);
+    expect(t.fixedPoint.delta.slice(0, 16)).toBe('4.66920160910299');
+    expect(t.estimates.delta.significantDigits).toBeGreaterThanOrEqual(4);
+    expect(t.fixedPoint.deltaDigitsAgreeing).toBe(t.estimates.delta.significantDigits);
+  });
+});

@@ -8,8 +8,7 @@
  * class of |x|^3, not of x^3, which has no maximum).
  */
 import type { Command } from 'commander';
-import { Decimal } from 'decimal.js';
-import { agreeingDigits, MAX_ORDER, MIN_ORDER } from '../../section/constants/feigenbaum-constants.js';
+import { agreeingDigits, MAX_ORDER, MIN_ORDER, roundedAgreement } from '../../section/constants/feigenbaum-constants.js';
 import { formatTable, integerCell, type Cell, type SectionTable } from '../../section/section-table.js';
 import type { UnimodalFamily } from '../../section/unimodal-family.js';
 import { UserError } from '../user-error.js';
@@ -42,20 +41,6 @@ export function parseOrders(value: unknown): number[] {
   });
   if (new Set(orders).size !== orders.length) throw new UserError('--orders', 'each order once', value);
   return orders;
-}
-
-/**
- * The significant digits of the estimate `x` that are right: the largest k up
- * to its length with x and the fixed-point value `y` equal when both are
- * rounded to k significant digits (a rounded estimate may end in a digit
- * the longer value does not show).
- */
-export function roundedAgreement(x: string, y: string): number {
-  const a = new Decimal(x);
-  const b = new Decimal(y);
-  const shown = x.replace(/^-/, '').replace('.', '').replace(/^0+/, '').length;
-  for (let k = shown; k >= 1; k--) if (a.toSignificantDigits(k).eq(b.toSignificantDigits(k))) return k;
-  return 0;
 }
 
 /** The project's family whose maximum has this order, and how it relates to x -> r - |x|^Z. */
@@ -96,7 +81,7 @@ export async function universalityTable(values: Values, progress: (s: string) =>
       progress(`order ${z}: cascade of the ${known.family.name} family, ${levels} levels`);
       const work = Math.max(30, Math.ceil(1.4 * levels) + 24);
       const c = computeCascade(cascadeSolverFor(known.family, work).solver, levels, work);
-      const est = (v: { value: Decimal; digits: number }): string => (v.digits > 0 ? v.value.toPrecision(v.digits) : 'not trusted');
+      const est = (v: { value: { toPrecision(n: number): string }; digits: number }): string => (v.digits > 0 ? v.value.toPrecision(v.digits) : 'not trusted');
       const ca = est(c.alpha);
       const cd = est(c.delta);
       const agree = (x: string, y: string): number => (x === 'not trusted' ? 0 : roundedAgreement(x, y));
@@ -130,3 +115,5 @@ export function register(section: Command): void {
     }),
   );
 }
+
+export { roundedAgreement };

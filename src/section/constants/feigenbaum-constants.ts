@@ -7,6 +7,7 @@
  * so the caller may run them on two threads; neither depends on the other
  * or on the thread count.
  */
+import { Decimal } from 'decimal.js';
 import { BASE_BITS, CONTINUATION_TERMS, LU_BITS, solveFixedPoint, type FixedPointSolution, type LadderStep } from './fixed-point.js';
 import { deltaEstimate, refineDelta } from './doubling-eigenvalue.js';
 
@@ -105,4 +106,18 @@ export function agreeingDigits(a: string, b: string): { text: string; significan
 export function truncationProgress(step: LadderStep, bits: number): number {
   const reached = Math.min(1, Math.max(0, -step.correctionLog2) / bits);
   return (step.stage === 'fixed point' ? 0 : 0.5) + 0.5 * reached;
+}
+
+/**
+ * The significant digits of the estimate `x` that are right: the largest k up
+ * to its length with x and the fixed-point value `y` equal when both are
+ * rounded to k significant digits (a rounded estimate may end in a digit
+ * the longer value does not show).
+ */
+export function roundedAgreement(x: string, y: string): number {
+  const a = new Decimal(x);
+  const b = new Decimal(y);
+  const shown = x.replace(/^-/, '').replace('.', '').replace(/^0+/, '').length;
+  for (let k = shown; k >= 1; k--) if (a.toSignificantDigits(k).eq(b.toSignificantDigits(k))) return k;
+  return 0;
 }
