@@ -168,6 +168,39 @@ describe('Feigenbaum constants of order 4 from the fixed point', () => {
   }, 240_000);
 });
 
+describe('Feigenbaum constants of order 3 (the class of |x|^3)', () => {
+  it.runIf(requireInCi(haveMpmath, 'python3-mpmath'))('delta(3) agrees with the mpmath cascade of x -> r - |x|^3 (periods to 2^11, Aitken) to 2e-6', () => {
+    // An independent route: superstable parameters of r - |x|^3 by mpmath Newton in r, their ratios delta_n and
+    // Aitken's extrapolation of the last three (methods.md E2, E3); it gives 6.0846894 against our 6.0846891.
+    const out = runMpmath(`from mpmath import mp, mpf, sign
+mp.dps = 60
+def F(r, n):
+    x, d = mpf(0), mpf(0)
+    for _ in range(2 ** n):
+        x, d = r - abs(x) ** 3, 1 - 3 * abs(x) ** 2 * sign(x) * d
+    return x, d
+rs, ds = [mpf(0), mpf(1)], []
+for n in range(2, 12):
+    r = rs[-1] + (rs[-1] - rs[-2]) / (ds[-1] if ds else 6)
+    for _ in range(100):
+        x, d = F(r, n)
+        r -= x / d
+        if abs(x / d) < mpf(10) ** -50: break
+    rs.append(r)
+    ds.append((rs[-2] - rs[-3]) / (rs[-1] - rs[-2]))
+a = ds[-1] - (ds[-1] - ds[-2]) ** 2 / (ds[-1] - 2 * ds[-2] + ds[-3])
+print(mp.nstr(ds[-1], 20))
+print(mp.nstr(a, 20))`);
+    const [last, aitken] = out.trim().split('\n').map(Number);
+    const ours = Number(constants(3, 20).delta);
+    expect(Math.abs(aitken! - ours)).toBeLessThan(2e-6);
+    expect(Math.abs(last! - ours)).toBeLessThan(2e-6);
+    // The orders differ: a cascade of order 3 is far from delta(2) and delta(4).
+    expect(Math.abs(aitken! - 4.6692)).toBeGreaterThan(1);
+    expect(Math.abs(aitken! - 7.2847)).toBeGreaterThan(1);
+  });
+});
+
 describe('fixedPointDefect of the returned g', () => {
   /** Points off the collocation set: midpoints between neighbouring collocation points, and an irrational grid. */
   function offPoints(order: number, terms: number): number[] {
