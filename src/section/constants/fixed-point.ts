@@ -171,20 +171,42 @@ export const BASE_BITS = 128;
  */
 export function continuation(order: number, terms: number, bits: number = BASE_BITS): bigint[][] {
   const found: bigint[][] = [];
-  let c = startingSeries(order, bits);
+  let last = startingSeries(order, bits);
   for (let n = 2; n <= terms; n++) {
+    const c = last.slice();
     while (c.length < n) c.push(0n);
-    const xs = collocationPoints(order, n - 1);
-    for (let k = 0; k < 40; k++) {
-      const lu = luFactor(jacobian(c, xs.map((x) => exactFixed(x, bits)), order, bits), bits);
-      const d = luSolve(lu, residual(c, xs.map((x) => exactFixed(x, bits)), order, bits));
-      for (let j = 0; j < c.length; j++) c[j] = c[j]! - d[j]!;
-      if (maxAbs(d) < 1n << 40n) break;
-      if (k === 39) throw Object.assign(new Error(`fixed point of order ${order}: Newton did not settle at ${n} terms`), { name: 'NoConvergenceError' });
-    }
-    found.push(c.slice());
+    const settled = dampedNewton(c, collocationPoints(order, n - 1), order, bits);
+    if (settled !== undefined) {
+      last = settled;
+      found.push(settled.slice());
+    } else if (n === terms) throw Object.assign(new Error(`fixed point of order ${order}: Newton did not settle at ${n} terms`), { name: 'NoConvergenceError' });
+    // Otherwise skip n: at some orders one truncation lies far from its neighbours (order 5 at 6 terms); the next starts from the last good one.
   }
   return found;
+}
+
+/** Full Newton with step halving until the residual shrinks; the solution, or undefined when it does not settle in 60 steps. */
+function dampedNewton(start: bigint[], xs: readonly number[], order: number, bits: number): bigint[] | undefined {
+  let c = start;
+  const xf = xs.map((x) => exactFixed(x, bits));
+  for (let k = 0; k < 60; k++) {
+    const e = residual(c, xf, order, bits);
+    let d: bigint[];
+    try {
+      d = luSolve(luFactor(jacobian(c, xf, order, bits), bits), e);
+    } catch {
+      return undefined;
+    }
+    if (maxAbs(d) < 1n << 40n) return c.map((v, j) => v - d[j]!);
+    const before = maxAbs(e);
+    let trial = c;
+    for (let h = 0n; h < 20n; h++) {
+      trial = c.map((v, j) => v - (d[j]! >> h));
+      if (maxAbs(residual(trial, xf, order, bits)) < before) break;
+    }
+    c = trial;
+  }
+  return undefined;
 }
 
 /**
