@@ -6,7 +6,7 @@
  */
 import { Worker } from 'node:worker_threads';
 import { constantsAt, truncationProgress, type ConstantsPlan } from '../section/constants/feigenbaum-constants.js';
-import type { LadderStep } from '../section/constants/fixed-point.js';
+import type { NewtonStep } from '../section/constants/fixed-point.js';
 import type { FeigenbaumJob, FromFeigenbaumWorker } from '../workers/feigenbaum-messages.js';
 
 export interface TruncationResult {
@@ -22,9 +22,9 @@ export function feigenbaumWorkerUrl(): URL {
 }
 
 /** Progress of the whole plan: the fraction of the estimated work done (0..1) and the last step. */
-export type ConstantsProgress = (fraction: number, step: LadderStep) => void;
+export type ConstantsProgress = (fraction: number, step: NewtonStep) => void;
 
-function runOnWorker(job: FeigenbaumJob, onStep: (s: LadderStep) => void): Promise<TruncationResult> {
+function runOnWorker(job: FeigenbaumJob, onStep: (s: NewtonStep) => void): Promise<TruncationResult> {
   return new Promise((resolve, reject) => {
     const w = new Worker(feigenbaumWorkerUrl());
     let settled = false;
@@ -51,7 +51,7 @@ export async function constantsOnWorkers(plan: ConstantsPlan, workers: number, p
   const weights = plan.terms.map((n) => n ** 3);
   const total = weights.reduce((a, b) => a + b, 0);
   const done = plan.terms.map(() => 0);
-  const tracker = (i: number) => (step: LadderStep): void => {
+  const tracker = (i: number) => (step: NewtonStep): void => {
     done[i] = Math.max(done[i]!, truncationProgress(step, plan.bits));
     onProgress?.(done.reduce((a, d, j) => a + d * weights[j]!, 0) / total, step);
   };

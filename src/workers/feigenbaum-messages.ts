@@ -3,7 +3,7 @@
  * Feigenbaum workers (src/workers/feigenbaum-worker.ts) exchange: one job is
  * one truncation of the fixed point; the reply carries decimal strings only.
  */
-import type { LadderStep } from '../section/constants/fixed-point.js';
+import type { NewtonStep } from '../section/constants/fixed-point.js';
 
 export interface FeigenbaumJob {
   readonly type: 'truncation';
@@ -16,7 +16,7 @@ export interface FeigenbaumJob {
 
 export interface FeigenbaumStepMessage {
   readonly type: 'step';
-  readonly step: LadderStep;
+  readonly step: NewtonStep;
 }
 
 export interface FeigenbaumDoneMessage {

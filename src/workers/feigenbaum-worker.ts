@@ -1,6 +1,6 @@
 /**
  * Feigenbaum worker entry point: computes one truncation of the
- * renormalisation fixed point (constantsAt) per job, posting each ladder
+ * renormalisation fixed point (constantsAt) per job, posting each Newton
  * step as progress and the constants as decimal strings at the end.
  */
 import { parentPort } from 'node:worker_threads';

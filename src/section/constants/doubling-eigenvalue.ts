@@ -11,11 +11,13 @@
  * eigenvalues that the truncation makes and that move as the number of terms
  * grows. So delta is found at low precision by inverse iteration from a scan
  * of shifts, at two truncations, and kept only where both agree; then it is
- * refined up the same ladder of precisions as the fixed point, by chord
- * Newton on the bordered system (M - lambda B) b = 0, b_m = 1.
+ * refined like the fixed point, by chord Newton on the bordered system
+ * (M - lambda B) b = 0, b_m = 1: its Jacobian factorised at LU_BITS, its
+ * residual evaluated at full precision as series values, so no matrix is
+ * ever held at full precision.
  */
 import { luFactor, luSolve } from './fixed-lu.js';
-import { collocationPoints, collocationTriples, exactFixed, LU_BITS, rescaleAll, type FixedPointSolution, type LadderStep } from './fixed-point.js';
+import { collocationPoints, collocationTriples, exactFixed, fixedToNumber, LU_BITS, rescaleAll, type FixedPointSolution, type NewtonStep } from './fixed-point.js';
 import { seriesAt, seriesValue } from './even-series.js';
 
 /** The pencil (M, B) at `bits`, rows for x = 0 then the collocation points. */
@@ -43,12 +45,6 @@ function matVec(a: readonly bigint[][], v: readonly bigint[], shift: bigint): bi
   });
 }
 
-function toDouble(n: bigint, bits: number): number {
-  const len = n < 0n ? (-n).toString(2).length : n.toString(2).length;
-  const drop = Math.max(0, len - 60);
-  return Number(n >> BigInt(drop)) * 2 ** (drop - bits);
-}
-
 /** Inverse iteration for the pencil at shift sigma: the eigenvalue it settles on, or undefined. */
 export function inverseIteration(m: readonly bigint[][], b: readonly bigint[][], sigma: number, bits: number, steps = 60): { value: number; vector: bigint[] } | undefined {
   const shift = BigInt(bits);
@@ -67,7 +63,7 @@ export function inverseIteration(m: readonly bigint[][], b: readonly bigint[][],
     let big = 0;
     for (let i = 1; i < w.length; i++) if ((w[i]! < 0n ? -w[i]! : w[i]!) > (w[big]! < 0n ? -w[big]! : w[big]!)) big = i;
     if (w[big] === 0n) return undefined;
-    const value = sigma + toDouble(v[big]!, bits) / toDouble(w[big]!, bits);
+    const value = sigma + fixedToNumber(v[big]!, bits) / fixedToNumber(w[big]!, bits);
     v = w.map((x) => (x << shift) / w[big]!);
     if (Math.abs(value - last) < 1e-13 * Math.abs(value)) return { value, vector: v };
     last = value;
@@ -157,7 +153,7 @@ function eigenResidual(p: EigenPoints, vec: readonly bigint[], lambda: bigint, b
  * Jacobian factorised at LU_BITS (once from the inverse iteration's pair,
  * once more when that is good to LU_BITS) and residuals at full precision.
  */
-export function refineDelta(sol: FixedPointSolution, estimate: number, baseBits: number, step?: (s: LadderStep) => void): bigint {
+export function refineDelta(sol: FixedPointSolution, estimate: number, baseBits: number, step?: (s: NewtonStep) => void): bigint {
   const n = sol.terms;
   const low = doublingPencil(sol, baseBits);
   const first = inverseIteration(low.m, low.b, estimate, baseBits, 200);

@@ -8,7 +8,7 @@
  * or on the thread count.
  */
 import { Decimal } from 'decimal.js';
-import { BASE_BITS, CONTINUATION_TERMS, LU_BITS, solveFixedPoint, type FixedPointSolution, type LadderStep } from './fixed-point.js';
+import { BASE_BITS, CONTINUATION_TERMS, LU_BITS, solveFixedPoint, type FixedPointSolution, type NewtonStep } from './fixed-point.js';
 import { deltaEstimate, refineDelta } from './doubling-eigenvalue.js';
 
 export const MIN_ORDER = 2;
@@ -78,7 +78,7 @@ function estimateTerms(order: number): [number, number] {
 }
 
 /** alpha and delta from one truncation of `terms` Chebyshev terms at `bits`. */
-export function constantsAt(order: number, terms: number, bits: number, places: number, step?: (s: LadderStep) => void): ConstantsAt {
+export function constantsAt(order: number, terms: number, bits: number, places: number, step?: (s: NewtonStep) => void): ConstantsAt {
   const [a, b] = estimateTerms(order);
   const estimate = deltaEstimate(solveFixedPoint(order, a, BASE_BITS), solveFixedPoint(order, b, BASE_BITS));
   const solution = solveFixedPoint(order, terms, bits, step);
@@ -103,7 +103,7 @@ export function agreeingDigits(a: string, b: string): { text: string; significan
  * the first half and delta the second, each measured by the bits its
  * correction has reached out of the target.
  */
-export function truncationProgress(step: LadderStep, bits: number): number {
+export function truncationProgress(step: NewtonStep, bits: number): number {
   const reached = Math.min(1, Math.max(0, -step.correctionLog2) / bits);
   return (step.stage === 'fixed point' ? 0 : 0.5) + 0.5 * reached;
 }

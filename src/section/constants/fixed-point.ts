@@ -33,7 +33,7 @@ export interface FixedPointSolution {
 }
 
 /** One Newton step, for progress reports. */
-export interface LadderStep {
+export interface NewtonStep {
   readonly stage: 'fixed point' | 'eigenvalue';
   readonly bits: number;
   readonly terms: number;
@@ -136,7 +136,7 @@ function log2Of(n: bigint, bits: number): number {
 }
 
 /** Newton (chord) iterations at `bits` with the Jacobian factorised at `jacobianBits` from c, until the correction is below 2^-(bits - 40). */
-function newtonRung(c: bigint[], xs: readonly number[], order: number, bits: number, jacobianBits: number, maxSteps: number, step?: (s: LadderStep) => void): bigint[] {
+function chordNewton(c: bigint[], xs: readonly number[], order: number, bits: number, jacobianBits: number, maxSteps: number, step?: (s: NewtonStep) => void): bigint[] {
   const xsHigh = xs.map((x) => exactFixed(x, bits));
   let lu = luFactor(jacobian(rescaleAll(c, bits, jacobianBits), xs.map((x) => exactFixed(x, jacobianBits)), order, jacobianBits), jacobianBits);
   let previous = -1n;
@@ -223,15 +223,22 @@ export const LU_BITS = 256;
  * start until the solution is good to LU_BITS, then once more there and
  * with residuals at the full precision until the correction vanishes.
  */
-export function solveFixedPoint(order: number, terms: number, bits: number, step?: (s: LadderStep) => void): FixedPointSolution {
+export function solveFixedPoint(order: number, terms: number, bits: number, step?: (s: NewtonStep) => void): FixedPointSolution {
   const start = continuation(order, Math.min(terms, CONTINUATION_TERMS));
   const c0 = start[start.length - 1]!.slice();
   while (c0.length < terms) c0.push(0n);
   const xs = collocationPoints(order, terms - 1);
   const q = Math.min(bits, LU_BITS);
-  let c = newtonRung(rescaleAll(c0, BASE_BITS, q), xs, order, q, q, 200, step);
-  if (q < bits) c = newtonRung(rescaleAll(c, q, bits), xs, order, bits, q, 400, step);
+  let c = chordNewton(rescaleAll(c0, BASE_BITS, q), xs, order, q, q, 200, step);
+  if (q < bits) c = chordNewton(rescaleAll(c, q, bits), xs, order, bits, q, 400, step);
   return { order, terms, bits, coefficients: c, g1: sum(c) };
+}
+
+/** A fixed-point BigInt n * 2^-bits as the nearest double or so (the top 60 bits kept; no overflow at any scale). */
+export function fixedToNumber(n: bigint, bits: number): number {
+  const len = (n < 0n ? -n : n).toString(2).length;
+  const drop = Math.max(0, len - 60);
+  return Number(n >> BigInt(drop)) * 2 ** (drop - bits);
 }
 
 /** max |s g(x) - g(g(s x))| over the given points, as a double (for checks at points off the collocation set). */
@@ -241,12 +248,9 @@ export function fixedPointDefect(sol: FixedPointSolution, points: readonly numbe
   let worst = 0;
   for (const p of points) {
     const x = exactFixed(p, bits);
-    const gx = seriesValue(x, c, order, bits);
     const gu = seriesValue((g1 * x) >> shift, c, order, bits);
-    const e = ((g1 * gx) >> shift) - seriesValue(gu, c, order, bits);
-    const a = e < 0n ? -e : e;
-    const l = a === 0n ? -Infinity : Math.log2(Number(a.toString(2).length > 60 ? a >> BigInt(a.toString(2).length - 60) : a)) + Math.max(0, a.toString(2).length - 60) - bits;
-    worst = Math.max(worst, l === -Infinity ? 0 : 2 ** l);
+    const e = ((g1 * seriesValue(x, c, order, bits)) >> shift) - seriesValue(gu, c, order, bits);
+    worst = Math.max(worst, Math.abs(fixedToNumber(e, bits)));
   }
   return worst;
 }
