@@ -48,6 +48,9 @@ export { findWindows, type PeriodicWindow } from './section/windows.js';
 export { windowOf } from './section/window-of.js';
 export { mssWords } from './section/kneading.js';
 export { lyapunovExponents } from './section/lyapunov.js';
+export { agreeingDigits, constantsAt, constantsPlan, type ConstantsAt, type ConstantsPlan } from './section/constants/feigenbaum-constants.js';
+export { fixedPointDefect, solveFixedPoint, type FixedPointSolution } from './section/constants/fixed-point.js';
+export { kneadingEntropy, kneadingOrbit, type EntropyResult } from './section/entropy.js';
 
 // Deep arithmetic.
 export { computeReferenceOrbit, referenceBits, type ReferenceOrbit } from './precise/reference-orbit.js';
