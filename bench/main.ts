@@ -12,6 +12,7 @@ import { deepSection } from './deep-section.js';
 import { pyramidSection } from './pyramid-section.js';
 import { componentsSection } from './components-section.js';
 import { sliceSection } from './slice-section.js';
+import { constantsSection } from './constants-section.js';
 import { certifySection } from './certify-section.js';
 import { juliaSection } from './julia-section.js';
 
@@ -29,6 +30,7 @@ export const SECTIONS: readonly BenchSection[] = [
   componentsSection,
   certifySection,
   sliceSection,
+  constantsSection,
   pyramidSection,
 ];
 

@@ -48,6 +48,10 @@ export { findWindows, type PeriodicWindow } from './section/windows.js';
 export { windowOf } from './section/window-of.js';
 export { mssWords } from './section/kneading.js';
 export { lyapunovExponents } from './section/lyapunov.js';
+export { agreeingDigits, constantsAt, constantsPlan, type ConstantsAt, type ConstantsPlan } from './section/constants/feigenbaum-constants.js';
+export { fixedPointDefect, solveFixedPoint, type FixedPointSolution } from './section/constants/fixed-point.js';
+export { kneadingSequence as criticalKneading, topologicalEntropy, type Entropy, type Kneading } from './section/entropy.js';
+export { doubledWord, parseWindowWord, windowSolver } from './section/window-cascade.js';
 
 // Deep arithmetic.
 export { computeReferenceOrbit, referenceBits, type ReferenceOrbit } from './precise/reference-orbit.js';

@@ -1,7 +1,7 @@
 /**
  * Topological entropy of a unimodal map from its kneading sequence, by the
  * Milnor-Thurston kneading determinant (J. Milnor, W. Thurston, "On iterated
- * maps of the interval", LNM 1342 (1988) 465-563; docs/methods.md E9).
+ * maps of the interval", LNM 1342 (1988) 465-563; docs/methods.md E10).
  *
  * Let x_i = f^i(x_c) be the orbit of the critical point and eps_i = -1 when
  * x_i lies right of x_c (the decreasing branch, letter R), +1 when left (L).

@@ -4,7 +4,7 @@
  * (the first return map near the critical point is again unimodal with a
  * quadratic maximum) its ratios converge to the same Feigenbaum delta and
  * alpha as the main cascade (Feigenbaum, J. Stat. Phys. 19 (1978) 25-52;
- * docs/methods.md E2, E4).
+ * docs/methods.md E2, E4, E11).
  *
  * The cascade runs through the solver of the family at periods p 2^n: level
  * n of this cascade is the superstable parameter of the word obtained from W

@@ -35,6 +35,14 @@ function trusted(value: Decimal, significant: number, places: number): string {
   return value.toFixed(Math.min(placesTrusted, places));
 }
 
+/** alpha and delta of order Z from the fixed point, only the digits two truncations agree on (in this thread: a fraction of a second). */
+async function fixedPointConstants(order: number, digits: number): Promise<{ alpha: string; delta: string }> {
+  const { constantsPlan, agreeingDigits } = await import('../../section/constants/feigenbaum-constants.js');
+  const { constantsOnWorkers } = await import('../../render/feigenbaum-pool.js');
+  const [a, b] = await constantsOnWorkers(constantsPlan(order, digits), 1, digits + 4);
+  return { alpha: agreeingDigits(a!.alpha, b!.alpha).text, delta: agreeingDigits(a!.delta, b!.delta).text };
+}
+
 export async function cascadeTable(values: Values, progress: (s: string) => void): Promise<SectionTable> {
   const family = parseFamily(values['family']);
   // 16 logistic levels take about 10 s on 2 cores; decimal.js sin makes the sine family about 40 times slower per step than the BigInt logistic path.
@@ -71,10 +79,22 @@ export async function cascadeTable(values: Values, progress: (s: string) => void
     { name: 'alpha', value: trusted(cascade.alpha.value, cascade.alpha.digits, digits), note: `${cascade.alpha.digits} significant digits trusted, repeated Aitken x${cascade.alpha.passes}` },
     { name: `${p}_inf`, value: trusted(acc.value, acc.digits, digits), note: `${acc.digits} significant digits trusted, accumulation point` },
   ];
+  // Beside the cascade's own estimates: the renormalisation fixed point of the family's order (docs/methods.md E9).
+  const fixed = await fixedPointConstants(family.maximumOrder, Math.max(cascade.delta.digits, cascade.alpha.digits) + 10);
+  const { roundedAgreement } = await import('../../section/constants/feigenbaum-constants.js');
+  const right = (estimate: string, exact: string): number => (estimate === 'not trusted' ? 0 : roundedAgreement(estimate, exact));
+  const deltaShown = cascade.delta.digits > 0 ? cascade.delta.value.toPrecision(cascade.delta.digits) : 'not trusted';
+  const alphaShown = cascade.alpha.digits > 0 ? cascade.alpha.value.toPrecision(cascade.alpha.digits) : 'not trusted';
+  const deltaRight = right(deltaShown, fixed.delta);
+  const alphaRight = right(alphaShown, fixed.alpha);
   if (toC && acc.digits > 0) {
     const { Decimal } = await import('decimal.js');
     summary.push({ name: 'c_inf', value: trusted(new Decimal(toC(acc.value, work)), acc.digits, digits), note: `${acc.digits} significant digits, from ${p}_inf` });
-  }
+  }  summary.push(
+    { name: 'delta (fixed point)', value: fixed.delta, note: `order ${family.maximumOrder}; ${deltaRight} of the cascade's ${cascade.delta.digits} trusted digits agree` },
+    { name: 'alpha (fixed point)', value: fixed.alpha, note: `order ${family.maximumOrder}; ${alphaRight} of the cascade's ${cascade.alpha.digits} trusted digits agree` },
+  );
+
   return {
     title: word === undefined ? `period-doubling cascade of the ${family.name} family ${family.formula}` : `period-doubling cascade inside the window ${word} (period ${p0}) of the ${family.name} family ${family.formula}`,
     columns,
@@ -89,6 +109,7 @@ export async function cascadeTable(values: Values, progress: (s: string) => void
         alpha: { value: toPlaces(cascade.alpha.value, digits), significantDigits: cascade.alpha.digits },
         accumulation: { value: toPlaces(acc.value, digits), significantDigits: acc.digits },
       },
+      fixedPoint: { order: family.maximumOrder, delta: fixed.delta, alpha: fixed.alpha, deltaDigitsAgreeing: deltaRight, alphaDigitsAgreeing: alphaRight },
     },
   };
 }
