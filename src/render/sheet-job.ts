@@ -11,7 +11,10 @@ import { DEFAULT_ESCAPE_RADIUS } from '../plane/sample-parameters.js';
 import { referenceBits } from '../precise/reference-orbit.js';
 import type { Sheet } from '../view/sheet.js';
 import type { DoubleGrid } from '../view/view.js';
-import { prepareDeepJob } from '../plane/deep/job.js';
+import { prepareDeepJob, type DeepMemory } from '../plane/deep/job.js';
+import { PROBE_RULE, probeDeepLimit, type ProbeLevel } from '../plane/deep/probe-limit.js';
+import type { ReferenceBuilder } from '../precise/reference-orbit.js';
+import { autoIterations } from '../view/sheet.js';
 import type { PlateJob } from './plate-job.js';
 
 /** Periodicity tolerance in z units from the pixel spacing (docs/methods.md A4: tie it to the spacing). */
@@ -34,6 +37,59 @@ export function sheetArithmetic(sheet: Sheet): SheetArithmetic {
   return { arithmetic, plan, bits };
 }
 
+/** How a sheet's iteration limit was found, for the metadata and the summary. */
+export interface IterationChoice {
+  readonly iterations: number;
+  /** 'given' (the sheet's number), 'depth' (auto from the span) or 'probe' (auto from a probe of the view, methods B9). */
+  readonly rule: 'given' | 'depth' | 'probe';
+  /** The probe's record (deterministic: the same sheet gives the same record). */
+  readonly probe?: {
+    readonly rule: string;
+    readonly grid: string;
+    readonly stop: 'stable' | 'ceiling';
+    readonly ceiling: number;
+    readonly levels: ProbeLevel[];
+  };
+  readonly probeSeconds: number;
+  /** The probe's reference orbit, continued by the plate's job (never serialised). */
+  readonly builder?: ReferenceBuilder;
+}
+
+/**
+ * The iteration limit of a sheet: its number when given; for `auto`, a deep
+ * view probes itself (plane/deep/probe-limit.ts) under the depth rule as a
+ * ceiling, a double view keeps the depth rule (autoIterations).
+ */
+export function sheetIterations(sheet: Sheet, arith: SheetArithmetic): IterationChoice {
+  if (sheet.iterations !== 'auto') return { iterations: sheet.iterations, rule: 'given', probeSeconds: 0 };
+  const ceiling = autoIterations(sheet.view.span);
+  if (arith.arithmetic !== 'deep') return { iterations: ceiling, rule: 'depth', probeSeconds: 0 };
+  const t0 = performance.now();
+  const probe = probeDeepLimit(
+    { re: sheet.view.re, im: sheet.view.im, span: sheet.view.span, rotation: sheet.view.rotation, width: sheet.width, height: sheet.height },
+    arith.bits,
+    arith.plan.unitExponent,
+    DEFAULT_ESCAPE_RADIUS,
+    sheet.skip,
+    sheet.reference ?? undefined,
+    ceiling,
+  );
+  const r = PROBE_RULE;
+  return {
+    iterations: probe.limit,
+    rule: 'probe',
+    probe: {
+      rule: `limits ${r.start} x 2^k on a ${r.side}-pixel probe of the view until at most ${r.tolerance} of its pixels are decided over one doubling (and some are decided); then ${r.margin} x that limit, at most the depth rule`,
+      grid: `${probe.width}x${probe.height}`,
+      stop: probe.stop,
+      ceiling,
+      levels: probe.levels,
+    },
+    probeSeconds: (performance.now() - t0) / 1000,
+    builder: probe.builder,
+  };
+}
+
 /** What differs between a plate's job and a pyramid level's. */
 export interface JobExtras {
   readonly depth: 8 | 16;
@@ -47,9 +103,11 @@ export interface PreparedJob {
   readonly job: PlateJob;
   readonly referenceSeconds: number;
   readonly tableSeconds: number;
+  /** Deep arithmetic: what the reference orbit and the table hold. */
+  readonly memory?: DeepMemory;
 }
 
-export function sheetJob(sheet: Sheet, grid: DoubleGrid, iterations: number, arith: SheetArithmetic, extras: JobExtras): PreparedJob {
+export function sheetJob(sheet: Sheet, grid: DoubleGrid, iterations: number, arith: SheetArithmetic, extras: JobExtras, builder?: ReferenceBuilder): PreparedJob {
   let job: PlateJob = {
     ...(extras.legendBounds === undefined ? {} : { legendBounds: extras.legendBounds }),
     grid,
@@ -73,7 +131,8 @@ export function sheetJob(sheet: Sheet, grid: DoubleGrid, iterations: number, ari
     DEFAULT_ESCAPE_RADIUS,
     sheet.skip,
     sheet.reference ?? undefined,
+    builder,
   );
   job = { ...job, deep: prepared.job };
-  return { job, referenceSeconds: prepared.referenceSeconds, tableSeconds: prepared.tableSeconds };
+  return { job, referenceSeconds: prepared.referenceSeconds, tableSeconds: prepared.tableSeconds, memory: prepared.memory };
 }
