@@ -13,6 +13,7 @@ import { buildBlaTable, shareBlaTable, type BlaTable } from './bla-table.js';
 import type { DeepGeometry } from './offsets.js';
 import { extendReferenceOrbit, orbitBytes, orbitSnapshot, referenceOffset, shareReferenceOrbit, startReferenceOrbit, type ReferenceBuilder, type ReferenceOrbit } from '../../precise/reference-orbit.js';
 import { rotationCosSin } from '../rotation.js';
+import { Received, UserError } from '../../check/user-error.js';
 
 export interface DeepJob {
   readonly reference: ReferenceOrbit;
@@ -101,6 +102,27 @@ export function startViewReference(view: DeepView, bits: number, escapeRadius: n
   return startReferenceOrbit({ re: centre.re, im: centre.im }, bits, { escapeRadius, ...(reference === undefined ? {} : { period: reference.period }) });
 }
 
+/**
+ * A periodic reference must be a nucleus: the kernel rebases at m = p
+ * (methods.md B3), indexing one stored cycle modulo the period, which is
+ * exact when Z_p = 0 and loses the pixel's digits when |Z_p| is of order 1.
+ * 2^-64 is the lenient side of that (the deep path's fewest bits); nuclei
+ * from `quadatlas locate` give |Z_p| below 1e-50 at the spans they are
+ * used for. Throws a UserError once the cycle is computed; else does nothing.
+ */
+export function checkNucleus(b: ReferenceBuilder): void {
+  if (b.period === 0 || b.escaped || b.length < b.period) {
+    if (b.period > 0 && b.escaped) throw new UserError('reference', `a nucleus of period ${b.period} (its orbit of 0 returns to 0)`, new Received(`an orbit that escapes at iteration ${b.length}`));
+    return;
+  }
+  const z = Math.hypot(b.re[b.period]!, b.im[b.period]!);
+  if (!(z < NUCLEUS_TOLERANCE)) {
+    throw new UserError('reference', `a nucleus of period ${b.period} (|z_${b.period}| below 2^-64 from the point given)`, new Received(`|z_${b.period}| = ${z.toPrecision(3)}`));
+  }
+}
+
+const NUCLEUS_TOLERANCE = 2 ** -64;
+
 /** Bytes held by a table's arrays. */
 export function tableBytes(table: BlaTable | null): number {
   if (table === null) return 0;
@@ -127,7 +149,9 @@ export function prepareDeepJob(
   builder?: ReferenceBuilder,
 ): DeepPrepared {
   const t0 = performance.now();
-  const orbit = orbitSnapshot(extendReferenceOrbit(builder ?? startViewReference(view, bits, escapeRadius, reference), iterations));
+  const b = extendReferenceOrbit(builder ?? startViewReference(view, bits, escapeRadius, reference), iterations);
+  checkNucleus(b);
+  const orbit = orbitSnapshot(b);
   const t1 = performance.now();
   const { geometry, spacing, deltaMax } = deepFrame(view, { re: orbit.centreRe, im: orbit.centreIm }, bits, unitExponent);
   const bla = skip ? shareBlaTable(buildBlaTable(orbit, unitExponent, deltaMax)) : null;

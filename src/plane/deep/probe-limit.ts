@@ -27,7 +27,7 @@
  * `--json` (precision.memory).
  */
 import { buildBlaTable } from './bla-table.js';
-import { deepFrame, startViewReference, type DeepReference, type DeepView } from './job.js';
+import { checkNucleus, deepFrame, startViewReference, type DeepReference, type DeepView } from './job.js';
 import { fillDeepOffsets } from './offsets.js';
 import { createDeepStats, sampleDeep } from './sample-deep.js';
 import { createSampleSet, PERIOD_UNDECIDED } from '../sample-set.js';
@@ -100,7 +100,8 @@ export function probeDeepLimit(
   const tolerance = Math.floor(rule.tolerance * count);
   const levels: ProbeLevel[] = [];
   for (let limit = Math.min(rule.start, ceiling); ; limit = Math.min(2 * limit, ceiling)) {
-    const orbit = orbitSnapshot(extendReferenceOrbit(builder, limit));
+    checkNucleus(extendReferenceOrbit(builder, limit));
+    const orbit = orbitSnapshot(builder);
     const bla = skip ? buildBlaTable(orbit, unitExponent, plateDelta) : null;
     sampleDeep(orbit, bla, dcRe, dcIm, count, { maxIterations: limit, escapeRadius, unitExponent }, out, stats);
     let undecided = 0;
