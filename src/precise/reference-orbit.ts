@@ -186,21 +186,13 @@ export function orbitComplete(b: ReferenceBuilder): boolean {
 /**
  * Extends the orbit to Z_0..Z_length (or to its escape, or to Z_p for a
  * periodic reference, whichever comes first). Array capacity grows by
- * doubling, capped at the length asked for, so memory follows the orbit
- * computed, not the limit it might reach.
+ * doubling as iterates are computed (chunks of at least 1024), capped at the
+ * length asked for, so memory follows the orbit computed, not the limit it
+ * might reach.
  */
 export function extendReferenceOrbit(b: ReferenceBuilder, length: number): ReferenceBuilder {
   const steps = b.period > 0 ? Math.min(b.period, length) : length;
   if (orbitComplete(b) || b.length >= steps) return b;
-  if (b.re.length < steps + 1) {
-    const capacity = Math.min(steps + 1, Math.max(b.re.length * 2, 1025));
-    const re = new Float64Array(capacity);
-    const im = new Float64Array(capacity);
-    re.set(b.re.subarray(0, b.length + 1));
-    im.set(b.im.subarray(0, b.length + 1));
-    b.re = re;
-    b.im = im;
-  }
   const bits = b.bits;
   const s: FixedScale = fixedScale(bits);
   const shift = s.shift;
@@ -208,7 +200,8 @@ export function extendReferenceOrbit(b: ReferenceBuilder, length: number): Refer
   // |Z|^2 > R^2 in fixed point: compare zr^2 + zi^2 (scale 2^(2 bits)) with R^2 2^(2 bits)
   const r2 = BigInt(Math.ceil(b.escapeRadius * b.escapeRadius)) << (2n * shift);
   const shift120 = BigInt(Math.max(0, bits - 120));
-  const { re, im, cr, ci } = b;
+  const { cr, ci } = b;
+  let { re, im } = b;
   let zr = b.zr;
   let zi = b.zi;
   let m = b.length;
@@ -220,6 +213,16 @@ export function extendReferenceOrbit(b: ReferenceBuilder, length: number): Refer
     zr = ((rr - ii + halfUp) >> shift) + cr;
     zi = ((ri + (halfUp >> 1n)) >> (shift - 1n)) + ci;
     m += 1;
+    if (m >= re.length) {
+      // grow by doubling in chunks of at least 1024, never beyond the length asked for
+      const capacity = Math.min(steps + 1, Math.max(2 * re.length, 1025));
+      const nre = new Float64Array(capacity);
+      const nim = new Float64Array(capacity);
+      nre.set(re);
+      nim.set(im);
+      re = nre;
+      im = nim;
+    }
     const x = toDouble(zr, bits, shift120);
     const y = toDouble(zi, bits, shift120);
     re[m] = x;
@@ -238,6 +241,8 @@ export function extendReferenceOrbit(b: ReferenceBuilder, length: number): Refer
       break;
     }
   }
+  b.re = re;
+  b.im = im;
   b.zr = zr;
   b.zi = zi;
   b.length = m;
