@@ -45,8 +45,8 @@ export interface PlateSummary {
   readonly precision: Record<string, unknown>;
   readonly iterations: number;
   readonly iterationsRule: 'auto' | 'given';
-  /** How `auto` was resolved: the depth rule, or the probe of the view with its passes (methods B9). */
-  readonly iterationsChoice?: { rule: 'given' | 'depth' | 'probe'; probe?: IterationChoice['probe']; probeSeconds: number };
+  /** How the limit was found: given, or `auto` by the probe of the view with its passes (methods B9). */
+  readonly iterationsChoice?: { rule: 'given' | 'probe'; probe?: IterationChoice['probe']; probeSeconds: number };
   /** Deep arithmetic: iterations stepped one at a time and covered by bilinear-approximation skips. */
   readonly deepIterations: { stepped: number; skipped: number; skips: number; skippedFraction: number } | null;
   readonly samples: number;

@@ -4,9 +4,10 @@
  * by the deep kernel at limits L = 1024, 2048, 4096, ... and stops at the
  * first L where some probe pixel is decided (escaped or interior) and at most
  * `tolerance` more probe pixels were decided than at L / 2: the fraction of
- * undecided probe pixels has stopped changing. The plate's limit is then
- * `margin` L (2 L), never above the ceiling (the caller's depth rule, kept
- * as a bound on the probe's own cost for views where nothing is decided).
+ * undecided probe pixels has stopped changing (plane/probe-rule.ts). The
+ * plate's limit is then `margin` L (2 L), never above the ceiling (the
+ * caller's depth rule, kept as a bound on the probe's own cost for views
+ * where nothing is decided).
  *
  * The probe is part of the render, not of the machine: it runs once on the
  * main thread before any tile, over a fixed grid derived from the view, so
@@ -31,44 +32,14 @@ import { checkNucleus, deepFrame, startViewReference, type DeepReference, type D
 import { fillDeepOffsets } from './offsets.js';
 import { createDeepStats, sampleDeep } from './sample-deep.js';
 import { createSampleSet, PERIOD_UNDECIDED } from '../sample-set.js';
+import { PROBE_RULE, probeSize, raiseLimit, type ProbeOutcome, type ProbeRule } from '../probe-rule.js';
 import { extendReferenceOrbit, orbitSnapshot, type ReferenceBuilder } from '../../precise/reference-orbit.js';
 
-/** The probe's constants, recorded beside the limit they gave. */
-export interface ProbeRule {
-  /** First probe limit. */
-  readonly start: number;
-  /** The probe grid's longer side in pixels (never more than the plate's). */
-  readonly side: number;
-  /** The plate's limit is margin x the probe limit at which the count stopped changing. */
-  readonly margin: number;
-  /** "Stopped changing": at most this fraction of probe pixels decided over one doubling (at least 0 pixels). */
-  readonly tolerance: number;
-}
-
-export const PROBE_RULE: ProbeRule = { start: 1024, side: 64, margin: 2, tolerance: 1e-3 };
-
-/** One probe pass: its limit and how many probe pixels stayed undecided. */
-export interface ProbeLevel {
-  readonly limit: number;
-  readonly undecided: number;
-}
-
-export interface ProbeResult {
-  /** The plate's iteration limit. */
-  readonly limit: number;
-  /** Why the probe stopped: the count stopped changing, or the ceiling was reached. */
-  readonly stop: 'stable' | 'ceiling';
+export interface ProbeResult extends ProbeOutcome {
   readonly width: number;
   readonly height: number;
-  readonly levels: ProbeLevel[];
   /** The reference orbit as far as the probe computed it (continued by the plate's job). */
   readonly builder: ReferenceBuilder;
-}
-
-/** The probe grid for a plate of width x height: the same view at most `side` pixels on its longer side. */
-export function probeSize(width: number, height: number, side: number): { width: number; height: number } {
-  const scale = Math.min(1, side / Math.max(width, height));
-  return { width: Math.max(1, Math.round(width * scale)), height: Math.max(1, Math.round(height * scale)) };
 }
 
 /**
@@ -97,20 +68,14 @@ export function probeDeepLimit(
   fillDeepOffsets(probe.geometry, 0, 0, size.width, size.height, dcRe, dcIm);
   const out = createSampleSet(count);
   const stats = createDeepStats();
-  const tolerance = Math.floor(rule.tolerance * count);
-  const levels: ProbeLevel[] = [];
-  for (let limit = Math.min(rule.start, ceiling); ; limit = Math.min(2 * limit, ceiling)) {
+  const outcome = raiseLimit(count, ceiling, (limit) => {
     checkNucleus(extendReferenceOrbit(builder, limit));
     const orbit = orbitSnapshot(builder);
     const bla = skip ? buildBlaTable(orbit, unitExponent, plateDelta) : null;
     sampleDeep(orbit, bla, dcRe, dcIm, count, { maxIterations: limit, escapeRadius, unitExponent }, out, stats);
     let undecided = 0;
     for (let k = 0; k < count; k++) if (out.period[k] === PERIOD_UNDECIDED) undecided += 1;
-    levels.push({ limit, undecided });
-    const previous = levels.length >= 2 ? levels[levels.length - 2]! : null;
-    if (previous !== null && undecided < count && previous.undecided - undecided <= tolerance) {
-      return { limit: Math.min(ceiling, rule.margin * limit), stop: 'stable', ...size, levels, builder };
-    }
-    if (limit >= ceiling) return { limit: ceiling, stop: 'ceiling', ...size, levels, builder };
-  }
+    return undecided;
+  }, rule);
+  return { ...outcome, ...size, builder };
 }
