@@ -143,6 +143,25 @@ describe.runIf(havePython)('plate --iterations auto at span 1e-1000 near c = i (
   });
 });
 
+// The period-79 copy beside c = i (nucleus located by `quadatlas locate --period 79`, as in deep-plate.test.ts).
+const RE79 = '0.0000000000000000000000000000056601783822120579436465436167707854399762373350100776036003776325215751641144544769727625509114596865';
+const IM79 = '0.9999999999999999999999999999971756386712434047927096950958000911478774441797251960078428535562965546474977099556868901645866371002';
+
+describe('plate --reference RE,IM,79 --iterations auto', () => {
+  it('stores one cycle of the nucleus (80 iterates, Z_0..Z_79) whatever the limit, and states the bound for it', () => {
+    const dir = tempDir();
+    const r = runCli(['plate', '--center', `${RE79},${IM79}`, '--span', '3e-58', '--size', '32x24', '--iterations', 'auto', '--samples', '1',
+      '--reference', `${RE79},${IM79},79`, '--out', path.join(dir, 'p.png'), '--json']);
+    expect(r.status, r.stderr).toBe(0);
+    const json = JSON.parse(r.stdout) as Summary;
+    expect(json.iterations).toBeGreaterThan(79);
+    expect(json.precision.memory.referenceIterates).toBe(79);
+    // bound: (79 + 1) iterates x (40 orbit + 168 table) bytes (render-sheet.ts deepBound)
+    expect(json.precision.memory.bound).toBe(80 * 208);
+    expect(json.precision.memory.referenceBytes + json.precision.memory.tableBytes).toBeLessThanOrEqual(json.precision.memory.bound);
+  });
+});
+
 describe('plate --iterations and --reference, bad input', () => {
   const cases: Array<[string, string[], RegExp]> = [
     ['limit that is neither a number nor auto', ['--iterations', 'autox'], /for --iterations \(sheet field iterations\) but received "autox"/],
