@@ -47,8 +47,11 @@ function render(workers: number): { dir: string; json: Summary; png: Buffer; smo
  * Direct iteration of z -> z^2 + c in Python's arbitrary-precision integers
  * (fixed point with 3600 fractional bits, floor rounding; an implementation
  * outside the project's BigInt code) at every pixel centre
- * c = i + ((2i + 1 - W) / 2W + i (H - 2j - 1) / 2W) 1e-1000 (docs/checks.md:
- * pixel centres), returning escape counts (first n with |z_n| > R) row-major.
+ * c = i + ((2i + 1 - W) / 2W + i (H - 2j - 1) / 2W) 1e-1000 (pixel (i, j)
+ * samples the centre of its cell, j downwards: docs/architecture.md
+ * conventions), returning escape counts (first n with |z_n| > R) row-major.
+ * Near the Misiurewicz point c = i (docs/checks.md: orbit i, -1+i, -i, ...)
+ * every pixel escapes.
  * The c are exact rationals rounded once to 2^-3600 ~ 1e-1084, 84 digits
  * below the span; the count of 2700 iterations multiplies rounding errors
  * by about |4 (1 + i)|^1350 ~ 1e1016 relative to 2^-3600, so an escape count
