@@ -9,6 +9,7 @@ import type { BenchRow, BenchSection } from './bench-section.js';
 import { kernelSection } from './kernel-section.js';
 import { plateSection } from './plate-section.js';
 import { deepSection } from './deep-section.js';
+import { deepAutoSection } from './deep-auto-section.js';
 import { pyramidSection } from './pyramid-section.js';
 import { componentsSection } from './components-section.js';
 import { sliceSection } from './slice-section.js';
@@ -27,6 +28,7 @@ export const SECTIONS: readonly BenchSection[] = [
   plateSection,
   juliaSection,
   deepSection,
+  deepAutoSection,
   componentsSection,
   certifySection,
   sliceSection,

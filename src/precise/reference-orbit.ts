@@ -125,6 +125,157 @@ function exactToDouble(n: bigint, bits: number): number {
 }
 
 /**
+ * A reference orbit being computed: the BigInt state after the last stored
+ * iterate and growable arrays, so that the orbit can be extended in chunks
+ * as the iteration limit is raised (the probe of an `auto` limit,
+ * plane/deep/probe-limit.ts) and never computed further than asked. The
+ * iterates do not depend on how the length was reached: extending 0..a then
+ * a..b gives the same doubles as computing 0..b at once (tested).
+ * Main-thread only (BigInts do not cross to workers); snapshot with
+ * {@link orbitSnapshot}.
+ */
+export interface ReferenceBuilder {
+  readonly centre: { readonly re: string; readonly im: string };
+  readonly bits: number;
+  readonly escapeRadius: number;
+  /** p > 0: stop at Z_p (one cycle of a nucleus), else 0. */
+  readonly period: number;
+  /** Iterates computed so far (Z_0..Z_length). */
+  length: number;
+  escaped: boolean;
+  re: Float64Array;
+  im: Float64Array;
+  readonly tinyIndex: number[];
+  readonly tinyRe: number[];
+  readonly tinyIm: number[];
+  readonly tinyExp: number[];
+  zr: bigint;
+  zi: bigint;
+  readonly cr: bigint;
+  readonly ci: bigint;
+}
+
+/** A builder holding only Z_0 = 0 for the reference point `centre` at `bits` fractional bits. */
+export function startReferenceOrbit(centre: { readonly re: string; readonly im: string }, bits: number, options: ReferenceOptions = {}): ReferenceBuilder {
+  const s: FixedScale = fixedScale(bits);
+  return {
+    centre: { re: centre.re, im: centre.im },
+    bits,
+    escapeRadius: options.escapeRadius ?? 2 ** 10,
+    period: options.period ?? 0,
+    length: 0,
+    escaped: false,
+    re: new Float64Array(1),
+    im: new Float64Array(1),
+    tinyIndex: [],
+    tinyRe: [],
+    tinyIm: [],
+    tinyExp: [],
+    zr: 0n,
+    zi: 0n,
+    cr: fromDecimal(centre.re, s, 'centre'),
+    ci: fromDecimal(centre.im, s, 'centre'),
+  };
+}
+
+/** Whether the builder can give no more iterates (escaped, or one full cycle of a periodic reference). */
+export function orbitComplete(b: ReferenceBuilder): boolean {
+  return b.escaped || (b.period > 0 && b.length >= b.period);
+}
+
+/**
+ * Extends the orbit to Z_0..Z_length (or to its escape, or to Z_p for a
+ * periodic reference, whichever comes first). Array capacity grows by
+ * doubling as iterates are computed (chunks of at least 1024), capped at the
+ * length asked for, so memory follows the orbit computed, not the limit it
+ * might reach.
+ */
+export function extendReferenceOrbit(b: ReferenceBuilder, length: number): ReferenceBuilder {
+  const steps = b.period > 0 ? Math.min(b.period, length) : length;
+  if (orbitComplete(b) || b.length >= steps) return b;
+  const bits = b.bits;
+  const s: FixedScale = fixedScale(bits);
+  const shift = s.shift;
+  const halfUp = s.half;
+  // |Z|^2 > R^2 in fixed point: compare zr^2 + zi^2 (scale 2^(2 bits)) with R^2 2^(2 bits)
+  const r2 = BigInt(Math.ceil(b.escapeRadius * b.escapeRadius)) << (2n * shift);
+  const shift120 = BigInt(Math.max(0, bits - 120));
+  const { cr, ci } = b;
+  let { re, im } = b;
+  let zr = b.zr;
+  let zi = b.zi;
+  let m = b.length;
+  let escaped = false;
+  while (m < steps) {
+    const rr = zr * zr;
+    const ii = zi * zi;
+    const ri = zr * zi;
+    zr = ((rr - ii + halfUp) >> shift) + cr;
+    zi = ((ri + (halfUp >> 1n)) >> (shift - 1n)) + ci;
+    m += 1;
+    if (m >= re.length) {
+      // grow by doubling in chunks of at least 1024, never beyond the length asked for
+      const capacity = Math.min(steps + 1, Math.max(2 * re.length, 1025));
+      const nre = new Float64Array(capacity);
+      const nim = new Float64Array(capacity);
+      nre.set(re);
+      nim.set(im);
+      re = nre;
+      im = nim;
+    }
+    const x = toDouble(zr, bits, shift120);
+    const y = toDouble(zi, bits, shift120);
+    re[m] = x;
+    im[m] = y;
+    if (Math.abs(x) + Math.abs(y) < TINY_ITERATE && (zr !== 0n || zi !== 0n)) {
+      // full-range copy with a shared exponent for both parts
+      const big = (zr < 0n ? -zr : zr) > (zi < 0n ? -zi : zi) ? zr : zi;
+      const e = bitLength(big) - bits; // 2^(e-1) <= |big| 2^-bits < 2^e
+      b.tinyIndex.push(m);
+      b.tinyRe.push(exactToDouble(zr, bits + e));
+      b.tinyIm.push(exactToDouble(zi, bits + e));
+      b.tinyExp.push(e);
+    }
+    if (zr * zr + zi * zi > r2) {
+      escaped = true;
+      break;
+    }
+  }
+  b.re = re;
+  b.im = im;
+  b.zr = zr;
+  b.zi = zi;
+  b.length = m;
+  b.escaped = escaped;
+  return b;
+}
+
+/** The orbit computed so far as plain data (arrays copied to their length). */
+export function orbitSnapshot(b: ReferenceBuilder): ReferenceOrbit {
+  const m = b.length;
+  return {
+    centreRe: b.centre.re,
+    centreIm: b.centre.im,
+    bits: b.bits,
+    length: m,
+    re: b.re.slice(0, m + 1),
+    im: b.im.slice(0, m + 1),
+    escaped: b.escaped,
+    escapeRadius: b.escapeRadius,
+    period: b.period > 0 && !b.escaped && m === b.period ? b.period : 0,
+    tinyIndex: Int32Array.from(b.tinyIndex),
+    tinyRe: Float64Array.from(b.tinyRe),
+    tinyIm: Float64Array.from(b.tinyIm),
+    tinyExp: Int32Array.from(b.tinyExp),
+  };
+}
+
+/** Bytes an orbit of this many stored iterates holds (two doubles each, plus its tiny iterates). */
+export function orbitBytes(orbit: ReferenceOrbit): number {
+  return 16 * (orbit.length + 1) + 24 * orbit.tinyIndex.length;
+}
+
+/**
  * Computes Z_0..Z_M for the reference point `centre` at `bits` fractional
  * bits, stopping at escape (|Z_M| > escapeRadius), after `maxIterations`
  * steps, or after `options.period` steps. Decimal strings are parsed
@@ -136,67 +287,7 @@ export function computeReferenceOrbit(
   maxIterations: number,
   options: ReferenceOptions = {},
 ): ReferenceOrbit {
-  const escapeRadius = options.escapeRadius ?? 2 ** 10;
-  const period = options.period ?? 0;
-  const steps = period > 0 ? Math.min(period, maxIterations) : maxIterations;
-  const s: FixedScale = fixedScale(bits);
-  const cr = fromDecimal(centre.re, s, 'centre');
-  const ci = fromDecimal(centre.im, s, 'centre');
-  const shift = s.shift;
-  const halfUp = s.half;
-  // |Z|^2 > R^2 in fixed point: compare zr^2 + zi^2 (scale 2^(2 bits)) with R^2 2^(2 bits)
-  const r2 = BigInt(Math.ceil(escapeRadius * escapeRadius)) << (2n * shift);
-  const shift120 = BigInt(Math.max(0, bits - 120));
-  const re = new Float64Array(steps + 1);
-  const im = new Float64Array(steps + 1);
-  const tinyIndex: number[] = [];
-  const tinyRe: number[] = [];
-  const tinyIm: number[] = [];
-  const tinyExp: number[] = [];
-  let zr = 0n;
-  let zi = 0n;
-  let m = 0;
-  let escaped = false;
-  while (m < steps) {
-    const rr = zr * zr;
-    const ii = zi * zi;
-    const ri = zr * zi;
-    zr = ((rr - ii + halfUp) >> shift) + cr;
-    zi = ((ri + (halfUp >> 1n)) >> (shift - 1n)) + ci;
-    m += 1;
-    const x = toDouble(zr, bits, shift120);
-    const y = toDouble(zi, bits, shift120);
-    re[m] = x;
-    im[m] = y;
-    if (Math.abs(x) + Math.abs(y) < TINY_ITERATE && (zr !== 0n || zi !== 0n)) {
-      // full-range copy with a shared exponent for both parts
-      const big = (zr < 0n ? -zr : zr) > (zi < 0n ? -zi : zi) ? zr : zi;
-      const e = bitLength(big) - bits; // 2^(e-1) <= |big| 2^-bits < 2^e
-      tinyIndex.push(m);
-      tinyRe.push(exactToDouble(zr, bits + e));
-      tinyIm.push(exactToDouble(zi, bits + e));
-      tinyExp.push(e);
-    }
-    if (zr * zr + zi * zi > r2) {
-      escaped = true;
-      break;
-    }
-  }
-  return {
-    centreRe: centre.re,
-    centreIm: centre.im,
-    bits,
-    length: m,
-    re: m === steps ? re : re.slice(0, m + 1),
-    im: m === steps ? im : im.slice(0, m + 1),
-    escaped,
-    escapeRadius,
-    period: period > 0 && !escaped && m === period ? period : 0,
-    tinyIndex: Int32Array.from(tinyIndex),
-    tinyRe: Float64Array.from(tinyRe),
-    tinyIm: Float64Array.from(tinyIm),
-    tinyExp: Int32Array.from(tinyExp),
-  };
+  return orbitSnapshot(extendReferenceOrbit(startReferenceOrbit(centre, bits, options), maxIterations));
 }
 
 /**
@@ -233,7 +324,7 @@ export function shareReferenceOrbit(orbit: ReferenceOrbit): ReferenceOrbit {
  * from the reference; `bits` must resolve 2^exponent (e.g. the orbit's bits).
  */
 export function referenceOffset(
-  orbit: ReferenceOrbit,
+  orbit: Pick<ReferenceOrbit, 'centreRe' | 'centreIm' | 'bits'>,
   point: { readonly re: string; readonly im: string },
   exponent: number,
   bits: number = orbit.bits,

@@ -19,11 +19,11 @@
  * base's pixels) but makes each coarse tile wait for four finished finer
  * tiles and read them back; see docs/pyramids.md for the measured difference.
  */
-import { resolveIterations, parseSheet, type Sheet } from '../view/sheet.js';
+import { parseSheet, type Sheet } from '../view/sheet.js';
 import type { PyramidSpec } from '../view/pyramid-spec.js';
 import { doubleGrid, type DoubleGrid } from '../view/view.js';
 import type { PlateJob } from './plate-job.js';
-import { sheetArithmetic, sheetJob, type SheetArithmetic } from './sheet-job.js';
+import { sheetArithmetic, sheetIterations, sheetJob, type IterationChoice, type SheetArithmetic } from './sheet-job.js';
 import { planPyramid, type PyramidPlan } from '../view/pyramid-plan.js';
 
 /** Everything a renderer needs, derived once from a spec. */
@@ -34,12 +34,21 @@ export interface PyramidSetup {
   readonly baseGrid: DoubleGrid;
   /** Arithmetic for every level, decided at the base (the finest level); deep levels share its precision. */
   readonly arithmetic: SheetArithmetic;
+  /**
+   * The iteration limit of every level, found once from the base sheet (for
+   * `auto` of a deep view by the probe of the base view, methods B9), so
+   * that every process working on the spec agrees; computed on first use.
+   */
+  readonly iterations: () => IterationChoice;
 }
 
 export function pyramidSetup(spec: PyramidSpec): PyramidSetup {
   const sheet = parseSheet(spec.sheet, 'pyramid');
   const view = { centerRe: sheet.view.re, centerIm: sheet.view.im, span: sheet.view.span, width: sheet.width, height: sheet.height, rotation: sheet.view.rotation };
-  return { spec, sheet, plan: planPyramid(sheet.width, sheet.height, spec.tileSize), baseGrid: doubleGrid(view), arithmetic: sheetArithmetic(sheet) };
+  const arithmetic = sheetArithmetic(sheet);
+  let choice: IterationChoice | undefined;
+  const iterations = (): IterationChoice => (choice ??= sheetIterations(sheet, arithmetic));
+  return { spec, sheet, plan: planPyramid(sheet.width, sheet.height, spec.tileSize), baseGrid: doubleGrid(view), arithmetic, iterations };
 }
 
 /**
@@ -53,5 +62,7 @@ export function levelJob(setup: PyramidSetup, scale: number): PlateJob {
   const { sheet, baseGrid } = setup;
   const grid: DoubleGrid = { ...baseGrid, spacing: baseGrid.spacing * scale, width: baseGrid.width / scale, height: baseGrid.height / scale };
   // Deep levels: the same reference and precision as the base, the level's own pixel geometry.
-  return sheetJob(sheet, grid, resolveIterations(sheet), setup.arithmetic, { depth: 8, withData: false }).job;
+  // The probe's reference orbit is continued once and shared by the levels (extending a complete orbit does nothing).
+  const choice = setup.iterations();
+  return sheetJob(sheet, grid, choice.iterations, setup.arithmetic, { depth: 8, withData: false }, choice.builder).job;
 }

@@ -21,8 +21,8 @@ import { DEFAULT_ESCAPE_RADIUS } from '../plane/sample-parameters.js';
 import type { PlateJob, TileStats } from './plate-job.js';
 import { createProgress } from './progress.js';
 import { bytesPerPixel, DEFAULT_STRIP_BUDGET, DEFAULT_TILE_SIZE, renderPlate, type DataSink, type PlateSinks } from './render-plate.js';
-import { renderRecord, resolveIterations, type Sheet } from '../view/sheet.js';
-import { sheetArithmetic, sheetJob } from './sheet-job.js';
+import { renderRecord, type Sheet } from '../view/sheet.js';
+import { sheetArithmetic, sheetIterations, sheetJob, type IterationChoice } from './sheet-job.js';
 import { cToPixel, doubleGrid, fitsDouble, pixelToC, type DoubleGrid, type View } from '../view/view.js';
 import { componentsInBox } from '../components/components-in-box.js';
 import type { Legend } from '../colour/legend.js';
@@ -45,6 +45,8 @@ export interface PlateSummary {
   readonly precision: Record<string, unknown>;
   readonly iterations: number;
   readonly iterationsRule: 'auto' | 'given';
+  /** How the limit was found: given, or `auto` by the probe of the view with its passes (methods B9). */
+  readonly iterationsChoice?: { rule: 'given' | 'probe'; probe?: IterationChoice['probe']; probeSeconds: number };
   /** Deep arithmetic: iterations stepped one at a time and covered by bilinear-approximation skips. */
   readonly deepIterations: { stepped: number; skipped: number; skips: number; skippedFraction: number } | null;
   readonly samples: number;
@@ -69,8 +71,40 @@ export interface PlateSummary {
  * fixes the pixels, plus what was derived from it (arithmetic, reference
  * precision, the resolved iteration limit) for the reader's information.
  */
-export function plateMetadata(sheet: Sheet, derived: { arithmetic: 'double' | 'deep'; bits: number; iterations: number }): string {
-  return JSON.stringify({ tool: 'quadatlas', version: toolVersion(), arithmetic: derived.arithmetic, referenceBits: derived.arithmetic === 'deep' ? derived.bits : 53, iterations: derived.iterations, sheet: renderRecord(sheet, toolVersion()) });
+export function plateMetadata(sheet: Sheet, derived: { arithmetic: 'double' | 'deep'; bits: number; iterations: number; iterationsRule?: IterationChoice['rule']; probe?: IterationChoice['probe'] }): string {
+  return JSON.stringify({
+    tool: 'quadatlas',
+    version: toolVersion(),
+    arithmetic: derived.arithmetic,
+    referenceBits: derived.arithmetic === 'deep' ? derived.bits : 53,
+    iterations: derived.iterations,
+    // recorded for `auto` only, so that a plate with a given limit keeps its bytes
+    ...(derived.iterationsRule === undefined || derived.iterationsRule === 'given' ? {} : { iterationsRule: derived.iterationsRule }),
+    ...(derived.probe === undefined ? {} : { iterationsProbe: derived.probe }),
+    sheet: renderRecord(sheet, toolVersion()),
+  });
+}
+
+/** Bytes a deep plate's orbit and table hold, at most, for this limit (see deepBound). */
+const ORBIT_BYTES = 40;
+const TABLE_BYTES = 2 * 84;
+export const DEEP_BOUND_RULE = `reference ${ORBIT_BYTES} bytes an iterate (two doubles, and room for a full-range copy of a tiny one), table ${TABLE_BYTES} bytes an iterate (two entries of 84 bytes), over min(limit, period) iterates`;
+
+/**
+ * The memory bound of a deep plate's reference orbit and table: they hold
+ * min(limit, period) iterates (one cycle for a nucleus reference, the orbit
+ * to its escape otherwise, never beyond the limit) and the table about two
+ * entries an iterate; 40 bytes an iterate for the orbit leave room for a
+ * full-range copy (24 bytes) of every iterate below 2^-500, though such
+ * iterates are rare.
+ */
+export function deepBound(iterations: number, sheet: Pick<Sheet, 'reference' | 'skip'>): number {
+  const iterates = (sheet.reference === null || sheet.reference === undefined ? iterations : Math.min(iterations, sheet.reference.period)) + 1;
+  return iterates * (ORBIT_BYTES + (sheet.skip ? TABLE_BYTES : 0));
+}
+
+function mostDeepIterations(sheet: Pick<Sheet, 'skip'>): number {
+  return Math.floor(os.totalmem() / 2 / (ORBIT_BYTES + (sheet.skip ? TABLE_BYTES : 0)));
 }
 
 function round3(x: number): number {
@@ -146,36 +180,47 @@ export async function renderSheet(sheet: Sheet, options: RenderSheetOptions = {}
   const started = process.hrtime.bigint();
   const view = { centerRe: sheet.view.re, centerIm: sheet.view.im, span: sheet.view.span, width: sheet.width, height: sheet.height, rotation: sheet.view.rotation };
   const grid = doubleGrid(view);
-  const iterations = resolveIterations(sheet);
   const arith = sheetArithmetic(sheet);
   const { arithmetic, plan, bits } = arith;
   if (arithmetic === 'double' && !fitsDouble(grid)) {
     process.stderr.write('quadatlas: note: doubles cannot resolve this view; the plate is forced to double arithmetic and will be wrong\n');
   }
-  if (arithmetic === 'deep') {
-    // Reference orbit (16 bytes an iteration) and table (about 170 bytes an iteration) live in memory.
-    const perIteration = 16 + (sheet.skip ? 170 : 0);
-    const most = Math.floor(os.totalmem() / 2 / perIteration);
-    if (iterations > most) throw new UserError('iterations', `at most ${most} iterations for the deep arithmetic on this machine`, iterations);
-  }
   if (arithmetic === 'deep' && sheet.labels > 0) {
     throw new UserError('labels', '0 for a deep view (labels are placed from nuclei located in double precision)', sheet.labels);
+  }
+  if (arithmetic === 'deep' && sheet.iterations !== 'auto' && deepBound(sheet.iterations, sheet) > os.totalmem() / 2) {
+    throw new UserError('iterations', `at most ${mostDeepIterations(sheet)} iterations for the deep arithmetic on this machine`, sheet.iterations);
+  }
+  const choice = sheetIterations(sheet, arith);
+  const iterations = choice.iterations;
+  if (arithmetic === 'deep' && deepBound(iterations, sheet) > os.totalmem() / 2) {
+    throw new UserError('iterations', `at most ${mostDeepIterations(sheet)} iterations for the deep arithmetic on this machine (auto chose ${iterations})`, sheet.iterations);
   }
   const workers = options.workers ?? os.availableParallelism();
   const tileSize = options.tileSize ?? DEFAULT_TILE_SIZE;
   // Periods never exceed the iteration limit, which bounds the legend's number width.
   const bounds = legendBounds(sheet.colour, sheet.width, sheet.height, sheet.dpi, String(iterations).length);
-  const { job, referenceSeconds, tableSeconds } = sheetJob(sheet, grid, iterations, arith, {
+  const { job, referenceSeconds, tableSeconds, memory } = sheetJob(sheet, grid, iterations, arith, {
     ...(bounds === null ? {} : { legendBounds: bounds }),
     depth: sheet.depth,
     withData: sheet.output.data !== null,
     labels: sheet.labels > 0 ? await periodLabels(grid, sheet.labels, sheet.dpi, workers) : [],
-  });
+  }, choice.builder);
   const deepTimes = { reference: referenceSeconds, table: tableSeconds };
 
-  const metadata = plateMetadata(sheet, { arithmetic, bits, iterations });
-  const precision = arithmetic === 'deep' ? { referenceBits: bits, unitExponent: plan.unitExponent, reference: sheet.reference ?? { re: sheet.view.re, im: sheet.view.im, period: 0 }, referenceSeconds: round3(deepTimes.reference), tableSeconds: round3(deepTimes.table) } : { referenceBits: 53 };
-  return writePlate(sheet, job, { started, workers, tileSize, metadata, arithmetic, precision, iterations, ...(options.label === undefined ? {} : { label: options.label }) });
+  const metadata = plateMetadata(sheet, { arithmetic, bits, iterations, iterationsRule: choice.rule, ...(choice.probe === undefined ? {} : { probe: choice.probe }) });
+  const precision = arithmetic === 'deep'
+    ? {
+        referenceBits: bits,
+        unitExponent: plan.unitExponent,
+        reference: sheet.reference ?? { re: sheet.view.re, im: sheet.view.im, period: 0 },
+        referenceSeconds: round3(deepTimes.reference),
+        tableSeconds: round3(deepTimes.table),
+        ...(memory === undefined ? {} : { memory: { ...memory, bound: deepBound(iterations, sheet), boundRule: DEEP_BOUND_RULE } }),
+      }
+    : { referenceBits: 53 };
+  const iterationsChoice = { rule: choice.rule, ...(choice.probe === undefined ? {} : { probe: choice.probe }), probeSeconds: round3(choice.probeSeconds) };
+  return writePlate(sheet, job, { started, workers, tileSize, metadata, arithmetic, precision, iterations, iterationsChoice, ...(options.label === undefined ? {} : { label: options.label }) });
 }
 
 /** How a plate job is run and recorded: everything writePlate needs beyond the sheet and the job. */
@@ -191,6 +236,8 @@ export interface PlateRun {
   readonly label?: string;
   /** Julia plates: recorded in the summary as `julia`. */
   readonly julia?: Record<string, unknown>;
+  /** How the iteration limit was found (plates of the c-plane). */
+  readonly iterationsChoice?: PlateSummary['iterationsChoice'];
 }
 
 /**
@@ -278,6 +325,7 @@ export async function writePlate(sheet: Sheet, job: PlateJob, run: PlateRun): Pr
       precision: run.precision,
       iterations,
       iterationsRule: sheet.iterations === 'auto' ? 'auto' : 'given',
+      ...(run.iterationsChoice === undefined ? {} : { iterationsChoice: run.iterationsChoice }),
       deepIterations: arithmetic === 'deep' ? { stepped: stats.stepped, skipped: stats.skipped, skips: stats.skips, skippedFraction: stats.stepped + stats.skipped > 0 ? stats.skipped / (stats.stepped + stats.skipped) : 0 } : null,
       samples: sheet.samples,
       seconds: Math.round(seconds * 1000) / 1000,

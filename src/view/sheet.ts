@@ -41,7 +41,11 @@ export interface Sheet {
   readonly width: number;
   readonly height: number;
   readonly dpi: number;
-  /** Iteration limit, or 'auto' (chosen from the depth of the view; see autoIterations). */
+  /**
+   * Iteration limit, or 'auto': plates and pyramids find it from a probe of
+   * the view (render/sheet-job.ts sheetIterations, docs/methods.md B9) under
+   * autoIterations as a ceiling; Julia plates take autoIterations.
+   */
   readonly iterations: number | 'auto';
   readonly samples: number;
   readonly depth: 8 | 16;
@@ -202,7 +206,9 @@ function parseReference(value: unknown): Sheet['reference'] {
 }
 
 /**
- * The iteration limit for 'auto': 1000 at the whole set, growing as the
+ * The depth rule: the ceiling of the probe that resolves 'auto' for plates
+ * and pyramids (methods B9), and the limit itself for Julia plates. 1000 at
+ * the whole set, growing as the
  * 1.5th power of the magnification in bits, zoom = log2(3 / span):
  * 19 000 at a span of 1e-13, 370 000 at 1e-100, capped at 10^7. Common
  * practice (deeper views need more iterations), not a published rule.
@@ -212,7 +218,7 @@ export function autoIterations(span: string): number {
   return Math.min(10_000_000, Math.round(1000 + 40 * zoom ** 1.5));
 }
 
-/** The iteration limit a sheet asks for, with 'auto' resolved from its span. */
+/** The iteration limit a sheet asks for, with 'auto' resolved by the depth rule alone (Julia plates). */
 export function resolveIterations(sheet: Pick<Sheet, 'iterations' | 'view'>): number {
   return sheet.iterations === 'auto' ? autoIterations(sheet.view.span) : sheet.iterations;
 }

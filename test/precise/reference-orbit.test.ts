@@ -1,7 +1,7 @@
 import { describe, expect, it } from 'vitest';
 import { Decimal } from 'decimal.js';
 import {
-  computeReferenceOrbit, referenceBits, referenceOffset, shareReferenceOrbit, TINY_ITERATE,
+  computeReferenceOrbit, extendReferenceOrbit, orbitComplete, orbitSnapshot, referenceBits, referenceOffset, shareReferenceOrbit, startReferenceOrbit, TINY_ITERATE,
 } from '../../src/precise/reference-orbit.js';
 
 // decimal.js (npm) is the independent reference for every orbit value here.
@@ -73,6 +73,44 @@ describe('computeReferenceOrbit', () => {
     expect(shared.re.buffer).toBeInstanceOf(SharedArrayBuffer);
     expect(Array.from(shared.re)).toEqual(Array.from(orbit.re));
     expect(shared.length).toBe(orbit.length);
+  });
+});
+
+describe('extendReferenceOrbit', () => {
+  it('gives the same iterates extended in chunks (1, 700, 2047, 5000) as computed at once (c = i: Z_3 = -i, Z_4 = -1 + i by exact algebra)', () => {
+    // c = i: orbit 0, i, -1+i, -i, -1+i, ... (exact algebra); bits as for a span of 1e-300 at 16 pixels
+    const bits = referenceBits('1e-300', 16);
+    const once = computeReferenceOrbit({ re: '0', im: '1' }, bits, 5000);
+    const b = startReferenceOrbit({ re: '0', im: '1' }, bits);
+    for (const n of [1, 700, 2047, 5000]) {
+      extendReferenceOrbit(b, n);
+      expect(b.length).toBe(n);
+      const snap = orbitSnapshot(b);
+      expect(Array.from(snap.re)).toEqual(Array.from(once.re.subarray(0, n + 1)));
+      expect(Array.from(snap.im)).toEqual(Array.from(once.im.subarray(0, n + 1)));
+    }
+    expect(orbitComplete(b)).toBe(false);
+    expect([once.re[3], once.im[3], once.re[4], once.im[4]]).toEqual([0, -1, -1, 1]);
+  });
+
+  it('stops at escape and at Z_p for a periodic reference, however far it is asked to go', () => {
+    const esc = startReferenceOrbit({ re: '0.26', im: '0.0015' }, 256, { escapeRadius: 1024 });
+    extendReferenceOrbit(esc, 10);
+    extendReferenceOrbit(esc, 1_000_000);
+    const once = computeReferenceOrbit({ re: '0.26', im: '0.0015' }, 256, 1_000_000, { escapeRadius: 1024 });
+    expect(esc.escaped).toBe(true);
+    expect(esc.length).toBe(once.length);
+    expect(orbitComplete(esc)).toBe(true);
+    // memory follows the orbit: capacity never beyond what was computed, rounded up to a chunk
+    expect(esc.re.length).toBeLessThanOrEqual(Math.max(1025, 2 * (once.length + 1)));
+    // c = -1 is the period-2 nucleus (0 -> -1 -> 0, exact algebra): one cycle is stored
+    const per = startReferenceOrbit({ re: '-1', im: '0' }, 128, { period: 2 });
+    extendReferenceOrbit(per, 1_000_000);
+    const snap = orbitSnapshot(per);
+    expect(snap.length).toBe(2);
+    expect(snap.period).toBe(2);
+    expect(Array.from(snap.re)).toEqual([0, -1, 0]);
+    expect(per.re.length).toBe(3);
   });
 });
 

@@ -69,3 +69,22 @@ describe('levelJob', () => {
     expect(misplaced.mean).toBeGreaterThan(2 * agreed.mean);
   });
 });
+
+describe('levelJob with iterations auto on a deep view', () => {
+  it('gives every level the limit of the probe of the base view, the same from a second setup of the same spec', () => {
+    // span 1e-30 at c = i: deep (doubles resolve ~1e-13 there, methods B7); pixels escape by ~100 iterations
+    const deep = parseSheet({ view: { re: '0', im: '1', span: '1e-30' }, pixels: { width: 256, height: 192 }, iterations: 'auto', samples: 1 });
+    const spec = pyramidSpec(deep, 64, 'png', 90, 'test');
+    const a = pyramidSetup(spec);
+    const b = pyramidSetup(spec);
+    const choice = a.iterations();
+    expect(choice.rule).toBe('probe');
+    expect(choice.probe?.stop).toBe('stable');
+    const limits = [1, 2, 4].map((s) => levelJob(a, s).iterations);
+    expect(limits).toEqual([choice.iterations, choice.iterations, choice.iterations]);
+    expect(levelJob(b, 2).iterations).toBe(choice.iterations);
+    expect(levelJob(b, 2).deep?.reference.length).toBe(levelJob(a, 1).deep?.reference.length);
+    // the depth rule would have asked for more (autoIterations: 1000 + 40 zoom^1.5 at zoom ~ 101 bits)
+    expect(choice.iterations).toBeLessThan(choice.probe!.ceiling);
+  });
+});
