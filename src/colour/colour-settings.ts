@@ -55,7 +55,7 @@ export interface ColourSettings {
    * delta = exterior distance estimate / pixel spacing, the exterior colour is
    * blended toward `edgeColour` by 1 - tanh(delta / k): full ink on the
    * boundary, half-way near delta = 0.55 k, gone by delta = 3 k
-   * (methods.md F2). Keeps filaments visible and crisp at any zoom.
+   * (docs/methods.md F2). Keeps filaments visible and crisp at any zoom.
    */
   readonly edge: number;
   /** Ink the edges fade to, '#rrggbb' (sRGB). Black darkens the boundary; white lightens it. */
@@ -76,7 +76,7 @@ export interface ColourSettings {
   readonly interiorColour: string;
   /**
    * Interior edge width in pixels (>= 0; 0 turns it off): like `edge` but from
-   * the interior distance estimate (methods.md A6), so component outlines
+   * the interior distance estimate (docs/methods.md A6), so component outlines
    * stay sharp from inside as well.
    */
   readonly interiorEdge: number;

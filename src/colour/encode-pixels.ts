@@ -22,7 +22,7 @@ export function mix32(x: number): number {
  * halves of one hash. Triangular rather than uniform dither makes the mean and
  * the variance of the quantisation error independent of the signal
  * (Lipshitz, Wannamaker & Vanderkooy, "Quantization and dither: a theoretical
- * survey", J. Audio Eng. Soc. 40(5), 1992); methods.md F4. The seed is the
+ * survey", J. Audio Eng. Soc. 40(5), 1992); docs/methods.md F4. The seed is the
  * absolute coordinate, so a pixel gets the same dither in any tiling.
  */
 export function ditherAt(x: number, y: number, ch: number): number {

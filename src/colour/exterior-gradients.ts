@@ -2,12 +2,12 @@ import { oklabToLinear, oklchToOklab, type Vec3 } from './oklab.js';
 
 /**
  * Exterior gradients: cyclic colour ramps for escaped samples, indexed by the
- * smooth escape count mu (methods.md A1) through a periodic transform.
+ * smooth escape count mu (docs/methods.md A1) through a periodic transform.
  *
  * Each gradient is a handful of OKLCh stops spaced evenly around one cycle;
  * between stops the colour is interpolated linearly in OKLab (Ottosson 2020),
  * where equal steps look roughly equally large, so bands stay even
- * (methods.md F3). The last stop blends back into the first, so a cycle has no
+ * (docs/methods.md F3). The last stop blends back into the first, so a cycle has no
  * seam. Interpolating in OKLCh was dropped: its hue path swings through
  * unrelated hues between distant stops. Stops were chosen by hand for this
  * project; the coloured ones keep lightness mostly below 0.6 so the light

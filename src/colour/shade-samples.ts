@@ -7,7 +7,7 @@ import { periodLinear } from './period-palette.js';
 
 /**
  * The fraction of a sample's own colour kept at distance `delta` pixels from
- * the boundary, for edge width k pixels: tanh(delta / k) (methods.md F2, after
+ * the boundary, for edge width k pixels: tanh(delta / k) (docs/methods.md F2, after
  * Chéritat, "Techniques for computer generated pictures in complex dynamics",
  * and Quilez, "distance rendering for fractals"). 0 on the boundary, rising
  * monotonically to 1; k = 0 turns shading off. A clamp(delta / k, 0, 1) ramp
@@ -35,7 +35,7 @@ export function edgeKeep(distance: number, pixelSpacing: number, k: number): num
  *   `interiorEdge`.
  * - Undecided (period -1): `undecidedColour`.
  *
- * All blending is in linear light (methods.md F3), so averaging sub-samples
+ * All blending is in linear light (docs/methods.md F3), so averaging sub-samples
  * afterwards is physically meaningful. Pure and deterministic: the same inputs
  * give the same doubles (see oklab.ts on the transcendental functions); each
  * sample is coloured exactly once, in the worker, through this one path.

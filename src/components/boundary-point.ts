@@ -2,7 +2,7 @@
  * Points of a component's boundary (or interior) by multiplier: the root
  * (multiplier 1), the period-doubling point (-1), or any t = r e^{2 pi i theta}.
  *
- * Method (methods.md C3): Newton on the 2x2 complex system
+ * Method (docs/methods.md C3): Newton on the 2x2 complex system
  *   F^p(w, b) = w,  D_z F^p(w, b) = t
  * in (w, b), Jacobian [[D_z - 1, D_c], [D_zz, D_cz]] with the A6 recurrences.
  * Start from (w, b) = (0, nucleus) (0 lies on the superattracting cycle) and

@@ -1,14 +1,14 @@
 /**
  * The census of a period: every hyperbolic component of exact period p,
  * located by landing a parameter ray of each of its period-p external angle
- * pairs on its nucleus (methods.md C5(c) with D1, D2 and D4; see land-rays.ts).
+ * pairs on its nucleus (docs/methods.md C5(c) with D1, D2 and D4; see land-rays.ts).
  *
  * The pairs come from Lavaurs' algorithm (lavaurs-sweep.ts), so one ray per
  * component is traced: the lower angle of each pair. The set is symmetric
  * about the real axis, so only pairs with lo + hi <= 2^p - 1 are traced (the
  * others are mirror images; lo + hi = 2^p - 1 exactly for real components).
  *
- * Checks built in (methods.md C5 "counting checks"): the located nuclei and
+ * Checks built in (docs/methods.md C5 "counting checks"): the located nuclei and
  * their mirror images are sorted and compared with their neighbours, so a
  * nucleus reached by two pairs is counted once; a pair whose ray was lost,
  * whose nucleus another pair also reached, or whose nucleus is real when the

@@ -2,7 +2,7 @@
  * The boundary of one hyperbolic component as a closed curve, in double
  * precision: the points where the attracting cycle's multiplier is
  * e^{2 pi i theta}, theta = j / n, by Newton on the 2 x 2 system of
- * methods.md C3 (cycle point w and parameter b):
+ * docs/methods.md C3 (cycle point w and parameter b):
  *   F^p(w, b) = w,  D_z F^p(w, b) = t,  t = r e^{2 pi i theta}.
  * The walk starts at the nucleus (w = 0, t = 0), raises r to 1 at
  * theta = 1/2 (away from the root, where a satellite's system is singular),

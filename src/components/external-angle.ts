@@ -1,6 +1,6 @@
 /**
  * Rational external angles: parsing, period and preperiod under doubling,
- * as exact BigInt fractions (methods.md D1).
+ * as exact BigInt fractions (docs/methods.md D1).
  */
 import { UserError } from '../check/user-error.js';
 

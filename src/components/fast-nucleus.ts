@@ -4,7 +4,7 @@
  * periods). The high-precision path for one component is findNucleus in
  * nucleus.ts.
  *
- * Method (methods.md C2): Newton on G(c) = F^p(0,c) / prod_{q | p, q < p} F^q(0,c),
+ * Method (docs/methods.md C2): Newton on G(c) = F^p(0,c) / prod_{q | p, q < p} F^q(0,c),
  * whose step is 1 / (D_c F^p / F^p - sum_q D_c F^q / F^q); the recurrence
  * D_c <- 2 z D_c + 1 runs beside z. Sources: mathr.co.uk/web/m-nucleus.html;
  * C. Heiland-Allen, "Newton's method for periodic points" (mathr blog,
@@ -23,7 +23,7 @@ export interface FastNucleus {
   size: number;
 }
 
-/** |s| of the size estimate at c (methods.md C4, Hunt & Ott 1997), in double. */
+/** |s| of the size estimate at c (docs/methods.md C4, Hunt & Ott 1997), in double. */
 export function sizeModulusDouble(period: number, cr: number, ci: number): number {
   let zr = 0;
   let zi = 0;

@@ -1,5 +1,5 @@
 /**
- * Kneading sequences and internal addresses of external angles (methods.md D3).
+ * Kneading sequences and internal addresses of external angles (docs/methods.md D3).
  *
  * Kneading sequence of t: symbol k (k >= 1) is 1 when 2^(k-1) t lies in the
  * open arc (t/2, (t+1)/2), 0 on the complementary open arc, and * at an

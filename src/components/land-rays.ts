@@ -2,9 +2,9 @@
  * The census kernel: land the parameter rays of a list of period-p angles on
  * their components' nuclei.
  *
- * For each angle n/(2^p - 1): trace the ray inward to depth min(2p, p + 14) (methods.md
+ * For each angle n/(2^p - 1): trace the ray inward to depth min(2p, p + 14) (docs/methods.md
  * D4), then run deflated Newton for the period-p nucleus from the ray's end
- * (methods.md C2 and C5(c)). The trace is in double precision; when the
+ * (docs/methods.md C2 and C5(c)). The trace is in double precision; when the
  * component is smaller than {@link DD_SIZE} (too few doubles across it to tell
  * neighbours apart), Newton is continued in double-double from the double
  * nucleus (from the ray end when double Newton failed): the double result lies
@@ -17,7 +17,7 @@
  * and sharpness 8.
  *
  * Alternatives measured and dropped (period 16, one core): Newton from the
- * Hubbard-Schleicher-Sutherland start points (methods.md C5(b)) needs about
+ * Hubbard-Schleicher-Sutherland start points (docs/methods.md C5(b)) needs about
  * d ln(R/2) steps per start to come in from radius R, i.e. tens of thousands
  * of steps each for d = 2^15; Aberth (C5(a)) is O(d^2) per sweep. Ray landing
  * costs about 2400 iterations of z -> z^2 + c per ray at period 18 (2 sub-steps

@@ -3,7 +3,7 @@
  * for the census (periods up to 20 and beyond, where the quadratic
  * lavaursPairs in lavaurs.ts is too slow).
  *
- * Method (methods.md D2): P. Lavaurs, C. R. Acad. Sci. Paris 303 (1986)
+ * Method (docs/methods.md D2): P. Lavaurs, C. R. Acad. Sci. Paris 303 (1986)
  * 143-146. The chords of periods below p are disjoint, so they cut the disk
  * into regions (gaps). Lavaurs' rule "pair the smallest unpaired angle a with
  * the smallest unpaired b > a whose chord crosses no earlier chord" then pairs

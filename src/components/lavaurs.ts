@@ -1,6 +1,6 @@
 /**
  * Lavaurs' algorithm: the pairs of period-p external angles that land
- * together at component roots, without numerics (methods.md D2).
+ * together at component roots, without numerics (docs/methods.md D2).
  * For p = 2, 3, ... in order: list the exact-period-p angles ascending; pair
  * the smallest unpaired angle a with the smallest unpaired b > a whose chord
  * crosses no chord drawn earlier (all periods); repeat.

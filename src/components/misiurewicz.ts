@@ -3,9 +3,9 @@
  * fixed point: solve G(c) = F^{k+p}(0,c) - F^k(0,c) = 0 with
  * G' = D_c F^{k+p} - D_c F^k, with k = (preperiod of the angle) + 1 and p the
  * period (c = -2: angle 1/2, orbit 0, -2, 2, 2, so z_2 = z_3). The start
- * comes from tracing the ray of a preperiodic angle (methods.md D4).
+ * comes from tracing the ray of a preperiodic angle (docs/methods.md D4).
  * Source: mathr.co.uk/web/m-misiurewicz.html (C. Heiland-Allen); the same
- * Newton as methods.md C2 applied to the preperiodic equation.
+ * Newton as docs/methods.md C2 applied to the preperiodic equation.
  */
 import { bitLength, bitsForDigits, cdiv, fixedScale, fromNumber, rescale } from '../precise/fixed.js';
 import type { FixedComplex } from '../precise/fixed.js';

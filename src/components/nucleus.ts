@@ -2,18 +2,18 @@
  * The nucleus (centre) of a hyperbolic component of period p, to any number
  * of digits, by Newton's method in BigInt fixed point.
  *
- * Method (methods.md C2): Newton on G(c) = F^p(0,c) / prod_{q | p, q < p} F^q(0,c),
+ * Method (docs/methods.md C2): Newton on G(c) = F^p(0,c) / prod_{q | p, q < p} F^q(0,c),
  * step 1 / (D_c F^p / F^p - sum_q D_c F^q / F^q), with D_c <- 2 z D_c + 1
- * (methods.md A2). Sources: mathr.co.uk/web/m-nucleus.html; C. Heiland-Allen,
+ * (docs/methods.md A2). Sources: mathr.co.uk/web/m-nucleus.html; C. Heiland-Allen,
  * "Newton's method for periodic points" (mathr blog, 2018-11-17).
  * When the orbit escapes (|z| > 2^32) the step is estimated as
  * (z_k / D_c F^k) 2^-(p-k), since each further squaring halves the Newton
- * ratio (methods.md C5(a)); this keeps far start points from building
+ * ratio (docs/methods.md C5(a)); this keeps far start points from building
  * enormous integers.
  *
  * Precision: bits = max(digits, -log10(size) + 12 digits) * log2(10) + guard,
  * raised after a first convergence once the size estimate is known
- * (methods.md C2: at least -log2(size) + guard bits). A result is reported
+ * (docs/methods.md C2: at least -log2(size) + guard bits). A result is reported
  * only after Newton, restarted from it at more bits, moves it by less than
  * half a unit of the last reported digit, and after its exact period is
  * checked (|F^q(0,c)| for every proper divisor q of p must stay away from 0).
@@ -108,7 +108,7 @@ function bitsNeeded(period: number, c: { re: bigint; im: bigint }, s: FixedScale
   return bitsForDigits(Math.max(digits, depthDigits + 12), 32);
 }
 
-/** log2 |size estimate| at c (methods.md C4), from the fixed-point orbit with scaled doubles. */
+/** log2 |size estimate| at c (docs/methods.md C4), from the fixed-point orbit with scaled doubles. */
 export function log2SizeAt(period: number, c: { re: bigint; im: bigint }, s: FixedScale): number {
   let zr = 0n;
   let zi = 0n;

@@ -12,7 +12,7 @@ export function properDivisors(p: number): number[] {
 
 /**
  * Numerators n of the angles n/(2^p - 1) of exact period p under doubling
- * (methods.md D1), ascending; with `upperHalf`, only those below 1/2.
+ * (docs/methods.md D1), ascending; with `upperHalf`, only those below 1/2.
  * An angle has a lower period k | p exactly when (2^p-1)/(2^k-1) divides n.
  */
 export function periodicNumerators(p: number, upperHalf: boolean): Float64Array {

@@ -1,13 +1,13 @@
 /**
  * Size, orientation and shape of a hyperbolic component from its nucleus.
  *
- * Size (methods.md C4): z = 0, lambda = 1, beta = 1; for k = 1..p-1:
+ * Size (docs/methods.md C4): z = 0, lambda = 1, beta = 1; for k = 1..p-1:
  * z <- z^2 + c, lambda <- 2 z lambda, beta <- beta + 1/lambda; s = 1/(beta lambda^2).
  * |s| is the scale, arg s the rotation. Sources: B. Hunt & E. Ott, J. Phys. A
  * 30 (1997) 7067-7076; mathr.co.uk/web/m-size-estimate.html and the mathr
  * blog 2016-12-24 "Deriving the size estimate".
  *
- * Shape (methods.md C4): s' = -(D_cc/(2 D_c) + D_cz/D_z) / (D_c D_z) from
+ * Shape (docs/methods.md C4): s' = -(D_cc/(2 D_c) + D_cz/D_z) / (D_c D_z) from
  * the derivatives of F^p at the nucleus; |s'| < |s' - 1| means cardioid-like,
  * otherwise disk-like. Source: V. Dolotin & A. Morozov (2008) eq. 5.8;
  * mathr.co.uk/web/m-shape-estimate.html.

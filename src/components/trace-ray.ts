@@ -2,7 +2,7 @@
  * Tracing a parameter ray of rational external angle inward, in double and in
  * double-double precision.
  *
- * Method (methods.md D4): T. Kawahira, "An algorithm to draw external rays of
+ * Method (docs/methods.md D4): T. Kawahira, "An algorithm to draw external rays of
  * the Mandelbrot set" (2009); mathr.co.uk/web "External ray in". The k-th
  * level solves F^k(0, c) = rho * e^{2 pi i 2^{k-1} theta} by Newton in c, with
  * rho stepping down the potential, rho = R^{2^-u} for u in (0, 1]; after each

@@ -4,7 +4,7 @@ import { parabolicPetals, type ParabolicPetals } from './parabolic-petals.js';
  * What the critical orbit of z -> z^2 + c settles on, found once per plate:
  *
  * - `attracting`: a cycle w_0 .. w_{p-1} (w_{j+1} = f(w_j)) confirmed by
- *   Newton on f^p(w) = w with |multiplier| < 1 (methods.md A5), and a trap
+ *   Newton on f^p(w) = w with |multiplier| < 1 (docs/methods.md A5), and a trap
  *   disk |z - w_0| < trapRadius that f^p maps into itself, so every orbit
  *   entering it converges to the cycle;
  * - `parabolic`: a cycle of period k whose multiplier is e^{2 pi i s/q}; its
@@ -90,7 +90,7 @@ function iterate(cr: number, ci: number, wr: number, wi: number, p: number, out:
 }
 
 /**
- * Newton on f^p(w) = w from a guess (methods.md A5), keeping the iterate with
+ * Newton on f^p(w) = w from a guess (docs/methods.md A5), keeping the iterate with
  * the smallest residual: near a parabolic cycle the root is multiple and
  * Newton converges only linearly, down to about the square root of the
  * rounding error, so no step tolerance is demanded.

@@ -15,16 +15,16 @@ export interface JuliaReferences {
 
 /**
  * The dynamical-plane kernel of sample-julia.ts by perturbation, for views
- * doubles cannot resolve (methods.md B1, with z in place of c): a sample at
+ * doubles cannot resolve (docs/methods.md B1, with z in place of c): a sample at
  * z = Z_0 + delta carries only its offset from a reference orbit,
  *   delta_{n+1} = 2 Z_m delta_n + delta_n^2      (c is fixed: no c term),
  * and its derivative in full, d_{n+1} = 2 (Z_m + delta_n) d_n, d_0 = 1
- * (methods.md B8: the derivative of the full orbit needs no reference
+ * (docs/methods.md B8: the derivative of the full orbit needs no reference
  * derivative). The reference starts at the view centre; the first time the
  * full value w = Z_m + delta is smaller than delta (or the reference ends),
  * the sample rebases onto the critical orbit C (C_0 = 0): delta <- w, m <- 0,
  * and it rebases onto C_0 again whenever |C_m + delta| < |delta| (Zhuoran's
- * rebasing, methods.md B3; the critical orbit plays the role Z_0 = 0 plays in
+ * rebasing, docs/methods.md B3; the critical orbit plays the role Z_0 = 0 plays in
  * the parameter plane, since it starts where rebased values are small).
  * Escape, the trap and the distance estimate use the full value w, so the
  * results mean what they mean in sample-julia.ts.

@@ -49,7 +49,7 @@ export interface JuliaSettings {
  * z'_0 = 1, updated before z.
  *
  * - Escaped at step n (|z_n| > R): smooth count mu = n - log2(ln|z_n| / ln R)
- *   (methods.md A1) and the distance estimate b = 2 |z_n| ln|z_n| / |z'_n| in
+ *   (docs/methods.md A1) and the distance estimate b = 2 |z_n| ln|z_n| / |z'_n| in
  *   z units (the dynamical-plane form of A2: G(z) / |grad G| with the Green
  *   function of the filled Julia set; Milnor, Dynamics in One Complex
  *   Variable, App. G). b = 0 when z' overflowed (the pixel touches the set).

@@ -1,7 +1,7 @@
 /**
  * The outlines of every component of one period in a view, for figures:
  * nuclei from the census (components-in-box.ts), each boundary walked at
- * multipliers e^{2 pi i j/n} (component-outline.ts, methods.md C3), closed
+ * multipliers e^{2 pi i j/n} (component-outline.ts, docs/methods.md C3), closed
  * through the root (componentRoot, which handles a satellite's singular
  * root). Points per outline follow the component's size in pixels, so the
  * polyline is smooth at print size.

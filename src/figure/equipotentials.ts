@@ -5,7 +5,7 @@
  * each point solves
  *   F^k(0, c) = e^{2^(k-1) (G + 2 pi i theta)}
  * for k chosen so that |z_k| lies between R and R^2 (R = RAY_RADIUS, the ray
- * tracer's radius, methods.md D4, Kawahira 2009): then log|z_k| / 2^(k-1)
+ * tracer's radius, docs/methods.md D4, Kawahira 2009): then log|z_k| / 2^(k-1)
  * differs from G by about |c| / |z_k|^2, under 1e-9 of G. theta runs over
  * [0, 1) in STEPS_PER_TURN steps per turn of the target, i.e.
  * STEPS_PER_TURN * 2^(k-1) steps in all, each continuing from the last by

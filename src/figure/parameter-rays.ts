@@ -1,9 +1,9 @@
 /**
  * Parameter rays for figures: each external angle p/q traced inward as a
- * polyline (trace-ray.ts, methods.md D4) and finished at its landing point,
+ * polyline (trace-ray.ts, docs/methods.md D4) and finished at its landing point,
  * found by Newton rather than by any formula:
  * - a periodic angle of period n lands at the root of a period-n component
- *   (Douady-Hubbard; methods.md D). Near a parabolic root the ray closes in
+ *   (Douady-Hubbard; docs/methods.md D). Near a parabolic root the ray closes in
  *   only like 1/depth (measured: 1/3 is 0.38 from c = -3/4 at depth 10, 0.064
  *   at depth 50, and doubles end near depth 60), so the polyline is finished
  *   by a segment to the root. The root comes from the nucleus, which Newton

@@ -4,7 +4,7 @@
  * to hold a label, as marks in plate pixels; the layout sets each in the
  * figure font where it covers no curve and no other label. The size test is
  * the raster labels' (render-sheet.ts): the size estimate |s| is about twice
- * a disk's radius (methods.md C4), so |s| / 2 >= the label's height.
+ * a disk's radius (docs/methods.md C4), so |s| / 2 >= the label's height.
  */
 import { componentsInBox } from '../components/components-in-box.js';
 import type { DoubleGrid } from '../view/view.js';

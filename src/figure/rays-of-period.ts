@@ -2,7 +2,7 @@
  * The external angles of the roots of every period-p component in a view
  * (`--rays-of P`): from the census of the period (components/census.ts),
  * which pairs each component with the two angles landing at its root
- * (Lavaurs; methods.md D2), one for the main cardioid. A component counts as
+ * (Lavaurs; docs/methods.md D2), one for the main cardioid. A component counts as
  * in view when its nucleus is, and it is at least OUTLINE_MIN_PIXELS across.
  */
 import { census } from '../components/census.js';

@@ -28,7 +28,7 @@ const STEP_TOLERANCE = 1e-13;
 const ORBIT_BOUND2 = 64;
 
 /**
- * Derivative-based attracting-cycle test (methods.md A5; C. Heiland-Allen,
+ * Derivative-based attracting-cycle test (docs/methods.md A5; C. Heiland-Allen,
  * mathr blog "Practical interior distance rendering", and mathr.co.uk/web
  * "Interior coordinates"): solve F^p(w, c) = w by Newton from the guess,
  * w <- w - (F^p(w) - w) / (D_z F^p(w) - 1); the cycle through w attracts iff

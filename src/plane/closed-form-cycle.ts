@@ -2,8 +2,8 @@ import type { CycleResult } from './attracting-cycle.js';
 
 /**
  * Closed-form interior test for the two components with exact formulas
- * (methods.md A3, cheap tests from Wikipedia "Plotting algorithms for the
- * Mandelbrot set", cardioid / bulb checking; multipliers as in checks.md):
+ * (docs/methods.md A3, cheap tests from Wikipedia "Plotting algorithms for the
+ * Mandelbrot set", cardioid / bulb checking; multipliers as in docs/checks.md):
  *
  * - main cardioid: inside iff q (q + (x - 1/4)) <= y^2 / 4 with
  *   q = (x - 1/4)^2 + y^2; the fixed point is w = m / 2 with multiplier

@@ -39,7 +39,7 @@ function decodeBase64(text: string): Uint8Array<ArrayBuffer> {
  * The WebAssembly SIMD twin of `escapeLoop` (escape-loop.ts): the same loop,
  * with the same operation order and results bit for bit, run on 8 samples
  * at a time as 4 vectors of f64x2 in lock-step (wasm/escape-loop-simd.as).
- * Brent's periodicity check (BIT 20 (1980) 176-184; methods.md A4) keeps one
+ * Brent's periodicity check (BIT 20 (1980) 176-184; docs/methods.md A4) keeps one
  * save schedule per group of 8, which is every lane's own schedule because
  * the lanes' counters advance together.
  *

@@ -47,7 +47,7 @@ export type EscapeLoop = (
 
 /**
  * The hot loop: escape time of z -> z^2 + c from z_0 = 0 with Brent-style
- * periodicity checking (methods.md A4: R. Brent, BIT 20 (1980) 176-184).
+ * periodicity checking (docs/methods.md A4: R. Brent, BIT 20 (1980) 176-184).
  *
  * The operation order is part of the contract (the WebAssembly twin must
  * reproduce it bit for bit; every operation is an IEEE double operation, no
@@ -70,7 +70,7 @@ export type EscapeLoop = (
  * ```
  *
  * With escapeRadius2 = 4 and tolerance2 = 0 it counts iterations exactly like
- * the plain C reference loop in shared/bench-ref/escape-ref.c. A cycle hit
+ * the plain C reference loop that `npm run bench` compiles (bench/c-reference.ts). A cycle hit
  * whose iterate has also escaped reports ESCAPED (escape wins).
  */
 export const escapeLoop: EscapeLoop = (cr, ci, count, maxIterations, escapeRadius2, tolerance2, out) => {

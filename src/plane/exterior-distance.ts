@@ -1,5 +1,5 @@
 /**
- * Exterior distance estimate (methods.md A2; Peitgen & Saupe (eds.), The
+ * Exterior distance estimate (docs/methods.md A2; Peitgen & Saupe (eds.), The
  * Science of Fractal Images (1988) p. 198; Wikibooks "Fractals/Iterations in
  * the complex plane/demm"; bounds from Milnor, Dynamics in One Complex
  * Variable, App. G): re-run the orbit of 0 for `iterations` steps carrying the

@@ -1,5 +1,5 @@
 /**
- * Interior distance estimate (methods.md A6; Wikipedia "Plotting algorithms
+ * Interior distance estimate (docs/methods.md A6; Wikipedia "Plotting algorithms
  * for the Mandelbrot set", interior distance estimation; Wikibooks
  * "Fractals/Iterations in the complex plane/demm"; C. Heiland-Allen, mathr
  * blog "Practical interior distance rendering"). From a point w of the
@@ -11,7 +11,7 @@
  *
  * then b = (1 - |D_z|^2) / |D_cz + D_zz D_c / (1 - D_z)|, in c units
  * (claimed b/4 <= dist(c, boundary) <= b). At c = -1 (p = 2) b = 0.25, the
- * radius of the period-2 disk [checked in methods.md]. Returns NaN if the
+ * radius of the period-2 disk [checked in docs/methods.md]. Returns NaN if the
  * denominator vanishes or w is not on an attracting cycle.
  */
 export function interiorDistance(cRe: number, cIm: number, wRe: number, wIm: number, period: number): number {

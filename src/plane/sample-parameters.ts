@@ -10,7 +10,7 @@ import type { EscapeSettings, SampleSet } from './sample-set.js';
 import { smoothCount } from './smooth-count.js';
 
 /**
- * Default escape radius R = 2^16. methods.md A1/A2: R >= 2^8, larger is more
+ * Default escape radius R = 2^16. docs/methods.md A1/A2: R >= 2^8, larger is more
  * accurate (forum rule of thumb: 10^4 gives about 2 digits of the distance
  * estimate, 10^6 about 3). Each squaring of R costs about one iteration more
  * per escaped sample, so 2^16 (4 more than R = 2) buys a smooth count whose
@@ -76,7 +76,7 @@ export function createSampleScratch(capacity: number): SampleScratch {
  * Everything the plate needs per parameter c = (cr[k], ci[k]), k < count,
  * written into `out` (field meanings in sample-set.ts):
  *
- * 1. closed-form interior (methods.md A3): main cardioid -> period 1,
+ * 1. closed-form interior (docs/methods.md A3): main cardioid -> period 1,
  *    period-2 disk -> period 2, multiplier in closed form, interior distance
  *    by A6 from the closed-form cycle point (the same formula the iterated
  *    path uses), smooth = 0 (no iteration was needed);

@@ -8,7 +8,7 @@
  *   exact period p was found and confirmed (|multiplier| < 1); -1 if the
  *   iteration limit was reached without a decision ("undecided").
  * - `smooth[k]`: smooth (continuous) escape count mu in (n-1, n] for escaped
- *   samples (methods.md A1); for interior samples the iteration at which the
+ *   samples (docs/methods.md A1); for interior samples the iteration at which the
  *   cycle was confirmed (0 when a closed-form test for the main cardioid or
  *   the period-2 disk decided it without iterating); for undecided samples
  *   the iteration limit.
@@ -45,7 +45,7 @@ export interface EscapeSettings {
   readonly escapeRadius: number;
   /**
    * Periodicity tolerance in c-plane units scale: a cycle is suspected when
-   * |z_n - saved| < periodTolerance (methods.md A4); tie it to pixel spacing.
+   * |z_n - saved| < periodTolerance (docs/methods.md A4); tie it to pixel spacing.
    */
   readonly periodTolerance: number;
 }

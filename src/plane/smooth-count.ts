@@ -1,5 +1,5 @@
 /**
- * Smooth (continuous) escape count (methods.md A1; L. Vepstas, "Renormalizing
+ * Smooth (continuous) escape count (docs/methods.md A1; L. Vepstas, "Renormalizing
  * the Mandelbrot escape" (1997)): mu = n - log2(ln|z_n| / ln R) for the first
  * n with |z_n| > R. It lies in (n - 1, n] up to |c|/R^2 and is continuous
  * across bands because ln|z_{n+1}| ~ 2 ln|z_n| once |z| is large; a larger R

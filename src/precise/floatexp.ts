@@ -1,5 +1,5 @@
 /**
- * Extended-exponent floats ("floatexp", methods.md B6a; R. Munafo,
+ * Extended-exponent floats ("floatexp", docs/methods.md B6a; R. Munafo,
  * mrob.com/pub/muency/floatexp.html): a double mantissa m with 0.5 <= |m| < 1
  * (or m = 0) and an integer exponent e, standing for m * 2^e. The exponent is
  * a plain JS number (exact integer), so the range is far beyond 1e+-1e15.

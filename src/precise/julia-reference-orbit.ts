@@ -1,5 +1,5 @@
 /**
- * A reference orbit in the dynamical plane for perturbation (methods.md B1,
+ * A reference orbit in the dynamical plane for perturbation (docs/methods.md B1,
  * B7, transposed to fixed c): Z_0 = a start point z, Z_{m+1} = Z_m^2 + c,
  * iterated in BigInt fixed point at `bits` fractional bits from the exact
  * decimal strings, each iterate rounded once to a double. Two are used per

@@ -1,5 +1,5 @@
 /**
- * The reference orbit for perturbation (methods.md B1, B7): Z_0 = 0,
+ * The reference orbit for perturbation (docs/methods.md B1, B7): Z_0 = 0,
  * Z_{m+1} = Z_m^2 + C iterated in BigInt fixed point at a precision chosen
  * from the span, each iterate rounded once to a double for the per-pixel
  * kernels.
@@ -62,7 +62,7 @@ export interface ReferenceOptions {
   /**
    * Compute a periodic reference: C is (to the given digits) a nucleus of
    * this period, so only Z_0..Z_p are stored and the kernel rebases at m = p
-   * (methods.md B3). Z_p is kept as computed (tiny, not forced to 0), so the
+   * (docs/methods.md B3). Z_p is kept as computed (tiny, not forced to 0), so the
    * rebase stays exact even when C is only close to the nucleus.
    */
   readonly period?: number;
@@ -72,7 +72,7 @@ const LOG2_10 = Math.log2(10);
 
 /**
  * Fractional bits for a reference at this span and pixel count
- * (methods.md B7): ceil(-log2(span / pixels)) + guard, at least 64.
+ * (docs/methods.md B7): ceil(-log2(span / pixels)) + guard, at least 64.
  * `span` is a positive decimal string (validated by the caller).
  *
  * Guard 64 (the top of B7's 16-64): C is rounded to 2^-bits, which moves

@@ -12,7 +12,7 @@ export interface PlateJob {
   readonly grid: DoubleGrid;
   readonly iterations: number;
   readonly escapeRadius: number;
-  /** Periodicity tolerance in z units (methods.md A4), tied to the pixel spacing. */
+  /** Periodicity tolerance in z units (docs/methods.md A4), tied to the pixel spacing. */
   readonly periodTolerance: number;
   /** Samples per refined pixel (a square number; 1 turns refinement off). */
   readonly samples: number;

@@ -135,7 +135,7 @@ async function prepareDirectory(dir: string, field: string): Promise<void> {
 /**
  * Label sprites for the nuclei of periods 1..maxPeriod in view whose
  * component is large enough to hold its label: the size estimate |s| is about
- * twice a disk's radius (methods.md C4: p = 2 gives 0.5 for radius 1/4), so we
+ * twice a disk's radius (docs/methods.md C4: p = 2 gives 0.5 for radius 1/4), so we
  * ask for |s| / 2 >= the label's height in pixels.
  */
 async function periodLabels(grid: DoubleGrid, maxPeriod: number, dpi: number, workers: number): Promise<Legend[]> {

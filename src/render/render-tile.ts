@@ -7,7 +7,7 @@
  *    apron around it (the apron samples are the neighbours' own centre
  *    samples, computed again here from the same coordinates, so they are
  *    bit-identical to what the neighbouring tile computes).
- * 2. Adaptive refinement (methods.md F1): a pixel gets `samples` stratified,
+ * 2. Adaptive refinement (docs/methods.md F1): a pixel gets `samples` stratified,
  *    jittered samples when one of its 8 neighbours differs in kind (escaped,
  *    interior, undecided) or period, when its distance estimate is below
  *    REFINE_DISTANCE_PIXELS pixels, or when its colour differs from a 4-neighbour
@@ -35,7 +35,7 @@ import type { Tile } from '../view/tile-plan.js';
 import { emptyStats, type PlateJob, type TileStats } from './plate-job.js';
 import { pixelsToC } from '../view/view.js';
 
-/** Refine where the distance estimate is below this many pixels (methods.md F1: "DE < ~2 px"). */
+/** Refine where the distance estimate is below this many pixels (docs/methods.md F1: "DE < ~2 px"). */
 export const REFINE_DISTANCE_PIXELS = 2;
 /**
  * A decided pixel counts as wholly on its centre's side of the boundary when

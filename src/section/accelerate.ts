@@ -2,7 +2,7 @@
  * Convergence acceleration of a geometrically converging sequence by
  * repeated Aitken delta-squared (A. C. Aitken, Proc. Roy. Soc. Edinburgh 46
  * (1926) 289-305; repeated application as in C. Brezinski & M. Redivo
- * Zaglia, Extrapolation Methods, 1991, ch. 2). methods.md E3: delta_n and
+ * Zaglia, Extrapolation Methods, 1991, ch. 2). docs/methods.md E3: delta_n and
  * alpha_n converge like delta^-n, and one Aitken pass already gains about
  * three digits; each further pass removes the next geometric error term.
  *

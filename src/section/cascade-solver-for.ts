@@ -2,10 +2,10 @@
  * Picks the cascade solver of a family. The logistic family is the real
  * slice of z -> z^2 + c, so its superstable parameters are nuclei of the
  * plane: they come from the components code's BigInt Newton (findNucleus,
- * methods.md C2) in c and are converted to r (methods.md E1); that is far
+ * docs/methods.md C2) in c and are converted to r (docs/methods.md E1); that is far
  * faster than decimal.js at periods 2^14 and beyond. Likewise the
  * doubling points of the logistic family come from findBoundaryPoint
- * (multiplier -1, methods.md C3). Every other family uses the generic real Newton of
+ * (multiplier -1, docs/methods.md C3). Every other family uses the generic real Newton of
  * ./real-newton.ts in the family's own parameter.
  */
 import type { Decimal } from 'decimal.js';

@@ -5,7 +5,7 @@
  *   delta_n = (s_{n-1} - s_{n-2}) / (s_n - s_{n-1}),
  *   alpha_n = -d_{n-1} / d_n,  d_n = f^(2^(n-1))(x_c) - x_c at s_n
  * (the distance from the critical point to its nearest cycle point), their
- * accelerated limits and the accumulation point (methods.md E2, E3; M.
+ * accelerated limits and the accumulation point (docs/methods.md E2, E3; M.
  * Feigenbaum, J. Stat. Phys. 19 (1978) 25-52).
  *
  * Each new superstable parameter starts from the delta extrapolation

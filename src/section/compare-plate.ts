@@ -2,7 +2,7 @@
  * The comparison plate as an SVG document: a strip of the c-plane along the
  * real axis above the logistic bifurcation diagram, both on one parameter
  * axis linear in c (so the plane keeps its geometry; c grows to the right
- * and therefore r = 1 + sqrt(1 - 4c) grows to the left, methods.md E1).
+ * and therefore r = 1 + sqrt(1 - 4c) grows to the left, docs/methods.md E1).
  * Ticks in c run along the top, ticks in r along the bottom. Each marked
  * parameter is a vertical line through both panels: the period doublings of
  * the cascade, and each window's nucleus, labelled by its period, where the

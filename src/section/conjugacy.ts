@@ -4,7 +4,7 @@
  *
  * With z = r (1/2 - x) the logistic step becomes z -> z^2 + c where
  *   c = r/2 - r^2/4 = r (2 - r) / 4,      r = 1 + sqrt(1 - 4c).
- * (methods.md E1; checked by expanding (r(1/2 - x))^2 + c = r(1/2 - r x (1 - x)).)
+ * (docs/methods.md E1; checked by expanding (r(1/2 - x))^2 + c = r(1/2 - r x (1 - x)).)
  *
  * Orientation flip: z = r (1/2 - x) with r > 0 reverses the order of the
  * line, so x > 1/2 exactly when z < 0. In the kneading letters of the
@@ -32,7 +32,7 @@ export function toDigits(value: Decimal, digits: number): string {
   return s === '-0' ? '0' : s;
 }
 
-/** c = r/2 - r^2/4 (methods.md E1). */
+/** c = r/2 - r^2/4 (docs/methods.md E1). */
 export function rToC(r: string, digits: number): string {
   const D = decimalAt(digits);
   const rr = new D(r);
@@ -40,7 +40,7 @@ export function rToC(r: string, digits: number): string {
 }
 
 /**
- * r = 1 + sqrt(1 - 4c), the branch r >= 1 (methods.md E1).
+ * r = 1 + sqrt(1 - 4c), the branch r >= 1 (docs/methods.md E1).
  * Throws RangeError for c > 1/4, where no real r exists.
  */
 export function cToR(c: string, digits: number): string {
@@ -50,7 +50,7 @@ export function cToR(c: string, digits: number): string {
   return toDigits(disc.sqrt().plus(1), digits);
 }
 
-/** z = r (1/2 - x): logistic state x at parameter r to the quadratic state z (methods.md E1). */
+/** z = r (1/2 - x): logistic state x at parameter r to the quadratic state z (docs/methods.md E1). */
 export function xToZ(x: string, r: string, digits: number): string {
   const D = decimalAt(digits);
   return toDigits(new D(r).times(new D('0.5').minus(new D(x))), digits);

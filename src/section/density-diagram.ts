@@ -1,5 +1,5 @@
 /**
- * The bifurcation diagram as a density image (methods.md E7). Per pixel
+ * The bifurcation diagram as a density image (docs/methods.md E7). Per pixel
  * column: `samples` parameter values, stratified and jittered inside the
  * column (horizontal anti-aliasing); each runs `transient` steps from a fixed
  * start and then `iterations` steps whose states are splatted into the two

@@ -5,7 +5,7 @@
  * (x = x_c). The MSS word of a superstable orbit of period p is the
  * itinerary of x_1 .. x_{p-1}, the orbit of the critical value, before it
  * returns to C (N. Metropolis, M. Stein, P. Stein, J. Combin. Theory A 15
- * (1973) 25-44; methods.md E5).
+ * (1973) 25-44; docs/methods.md E5).
  *
  * Order: itineraries compare lexicographically with L < C < R, except that
  * after a common prefix holding an odd number of R's the comparison is
@@ -80,7 +80,7 @@ export function satelliteParent(word: string): string | undefined {
   return word === v + x + v ? v : undefined;
 }
 
-/** Writes a word in the compact form of checks.md: RLR^2 for RLRR. */
+/** Writes a word in the compact form of docs/checks.md: RLR^2 for RLRR. */
 export function compactWord(word: string): string {
   return word.replace(/(R{2,}|L{2,})/g, (run) => `${run[0]}^${run.length}`);
 }

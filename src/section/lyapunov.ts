@@ -1,7 +1,7 @@
 /**
  * Lyapunov exponent of a unimodal family along its parameter line:
  * lambda = (1/N) sum ln |f'(x_n)| over N iterates after T transient steps
- * (methods.md E6). Superstable orbits pass through f' = 0, so each log is
+ * (docs/methods.md E6). Superstable orbits pass through f' = 0, so each log is
  * clamped below at ln(1e-300) rather than taken at -infinity; the result is
  * then very negative but finite there. The spread over `starts` initial
  * points (evenly spaced inside the state interval) is returned beside the

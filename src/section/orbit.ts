@@ -2,7 +2,7 @@
  * Orbits x_0, x_1 = f(x_0), ... of a unimodal family in double precision, and
  * what they do: land on a cycle at once, settle on an attracting cycle, or
  * show no period up to a limit (then the Lyapunov exponent says how fast
- * nearby orbits separate, methods.md E6).
+ * nearby orbits separate, docs/methods.md E6).
  */
 import type { UnimodalFamily } from './unimodal-family.js';
 

@@ -2,7 +2,7 @@
  * A strip of the c-plane along the real axis for the comparison plate:
  * width x height pixels covering re c in [from, to] and im c symmetric about
  * 0 at the same scale, sampled once per pixel centre by the plane kernel
- * (sampleParameters, methods.md A1-A6) and coloured by the plate colouring
+ * (sampleParameters, docs/methods.md A1-A6) and coloured by the plate colouring
  * (shadeSamples, encodePixels) with its default settings. Returns 8-bit sRGB.
  */
 import { DEFAULT_COLOUR_SETTINGS } from '../colour/colour-settings.js';

@@ -3,7 +3,7 @@
  * steps whose printed digits are right.
  *
  * A chaotic orbit multiplies an error by about e^lambda a step (lambda the
- * Lyapunov exponent, methods.md E6), so it loses one decimal digit every
+ * Lyapunov exponent, docs/methods.md E6), so it loses one decimal digit every
  * ln 10 / lambda steps. To print n steps to D digits the orbit is therefore
  * computed with D + G significant digits, G = 10 + ceil(n max(lambda, 0) / ln 10)
  * guard digits, and the whole run is repeated with 20 more digits: a printed

@@ -1,9 +1,9 @@
 /**
  * Newton's method on the real parameter line of a unimodal family, at high
  * precision with decimal.js: superstable parameters (the critical point is
- * periodic, methods.md C2 / E2 and E8) and parameters where a cycle has a
+ * periodic, docs/methods.md C2 / E2 and E8) and parameters where a cycle has a
  * given real multiplier, +1 at a saddle-node onset and -1 at a period doubling
- * (the real form of methods.md C3).
+ * (the real form of docs/methods.md C3).
  *
  * Why this is not the complex BigInt Newton of src/components/: that one is
  * written for z -> z^2 + c only (its derivative recurrences are those of the
@@ -123,7 +123,7 @@ export function iterateFamily(family: UnimodalFamily, x: Decimal, r: Decimal, n:
 /**
  * The local quadratic renormalisation at a superstable parameter r_s of
  * period p: with u = x - x_c and e = r - r_s, f^p(x_c + u) ~ x_c + K u^2 + L e,
- * and v = K u turns it into v -> v^2 + C with C = K L e (methods.md C4, the
+ * and v = K u turns it into v -> v^2 + C with C = K L e (docs/methods.md C4, the
  * same renormalisation as the Hunt-Ott size estimate, read in the family's
  * own coordinates). Returns K, half the second x-derivative of the p-th
  * iterate at x_c, and L, the r-derivative of that iterate at x_c.
@@ -146,7 +146,7 @@ export function localRenormalisation(family: UnimodalFamily, period: number, r: 
 /**
  * Newton on h(r) = f_r^m(x_c) - f_r^n(x_c) (m > n) from `guess`, with
  * h' from the B recurrence. Used for the end of a window, where the
- * critical orbit lands on the repelling cycle (methods.md E4).
+ * critical orbit lands on the repelling cycle (docs/methods.md E4).
  */
 export function orbitCoincidence(family: UnimodalFamily, m: number, n: number, guess: string, digits: number): RealNewtonResult {
   const D = workingDecimal(digits);

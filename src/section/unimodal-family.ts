@@ -1,12 +1,12 @@
 /**
  * A one-parameter family of unimodal interval maps x -> f(x, r) with a single
  * maximum at the critical point. The real slice of z -> z^2 + c is the
- * logistic member; others show which constants are universal (methods.md E8).
+ * logistic member; others show which constants are universal (docs/methods.md E8).
  *
  * Each family is one small module in ./families/ exporting one value of this
  * type, listed in ./families/index.ts. Conventions every family keeps:
  * - the critical point is a maximum, and the kneading letter of a point is
- *   R when x > critical, L when x < critical (methods.md E5);
+ *   R when x > critical, L when x < critical (docs/methods.md E5);
  * - `range` runs from the parameter where the critical point is a
  *   superstable fixed point to the parameter of full chaos (the critical
  *   orbit lands on the repelling fixed point), so it holds the whole cascade

@@ -2,7 +2,7 @@
  * Which periodic window of the logistic family holds a real c: the window
  * of smallest width (the innermost, e.g. a period-6 window inside the
  * period-3 one) among those of period <= maxPeriod whose onset..end range
- * contains c (methods.md E4; windows from ./windows.ts). Returns undefined
+ * contains c (docs/methods.md E4; windows from ./windows.ts). Returns undefined
  * when c lies in none, e.g. in the chaotic band outside every listed window.
  */
 import { cToR } from './conjugacy.js';

@@ -1,6 +1,6 @@
 /**
  * The periodic windows of a unimodal family on its parameter line, one per
- * MSS word of period p (methods.md E4, E5): the onset (saddle-node,
+ * MSS word of period p (docs/methods.md E4, E5): the onset (saddle-node,
  * multiplier +1; for a period-doubled window the parent's doubling point),
  * the superstable parameter, the first period doubling (multiplier -1) and
  * the end of the whole window, the interior crisis where the critical orbit
@@ -8,12 +8,12 @@
  *
  * Each superstable parameter is found first by bisection on the kneading
  * order (the kneading sequence increases with the parameter, so the word
- * fixes the parameter; methods.md E5 and Milnor-Thurston 1988), then refined
+ * fixes the parameter; docs/methods.md E5 and Milnor-Thurston 1988), then refined
  * by Newton at full precision. The other three points start from the local
  * renormalisation v -> v^2 + C of localRenormalisation: onset at C = 1/4,
- * doubling at C = -3/4, end at C = -2 (methods.md C4, E4). The end is
+ * doubling at C = -3/4, end at C = -2 (docs/methods.md C4, E4). The end is
  * bracketed by walking outward from the doubling point and bisecting,
- * because the nucleus solves the crisis equation trivially (methods.md E4).
+ * because the nucleus solves the crisis equation trivially (docs/methods.md E4).
  * Families with a maximum of order other than 2 are refused: their windows
  * renormalise to v -> v^m + C, with other landmarks.
  */

@@ -37,7 +37,7 @@ export interface DoubleGrid {
  * Relative pixel spacing below which doubles no longer resolve the view well:
  * neighbouring pixels must differ by many ulps of |c| for the escape-time
  * iteration to tell them apart (double precision runs out near a span of
- * 1e-13 at about a thousand pixels; methods.md B). Common practice, not a
+ * 1e-13 at about a thousand pixels; docs/methods.md B). Common practice, not a
  * published figure: 2^-42 leaves ~11 bits of headroom per pixel.
  */
 export const DOUBLE_MIN_RELATIVE_SPACING = 2 ** -42;

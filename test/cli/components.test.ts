@@ -21,7 +21,7 @@ describe('quadatlas components / locate / describe', () => {
     expect(run('components', '--period', '10', '--count').out.trim()).toBe('495');
     expect(run('components', '--period', '10', '--count', '--real').out.trim()).toBe('51');
   });
-  it('components --period 3 --json lists 3 components with the period-3 angle pairs of checks.md', () => {
+  it('components --period 3 --json lists 3 components with the period-3 angle pairs of docs/checks.md', () => {
     const rows = JSON.parse(run('components', '--period', '3', '--json').out) as Array<{ externalAngles: string[] }>;
     expect(rows.map((r) => r.externalAngles.join(' '))).toEqual(['1/7 2/7', '3/7 4/7', '5/7 6/7']);
   });

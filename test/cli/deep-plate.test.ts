@@ -59,7 +59,7 @@ function directCount(v: DeepView, i: number, j: number, digits: number): number 
   return 0;
 }
 
-// Views near the Misiurewicz point c = i (checks.md: orbit i, -1+i, -i, -1+i, ...), where every
+// Views near the Misiurewicz point c = i (docs/checks.md: orbit i, -1+i, -i, -1+i, ...), where every
 // pixel escapes after a number of iterations that grows with the depth, so decimal.js can follow them.
 const VIEWS: Array<[string, DeepView, number]> = [
   ['1e-20', { re: '0.0000000000000000000001', im: '1.0000000000000000000037', span: '1e-20', width: 24, height: 18, iterations: 20000 }, 45],

@@ -184,7 +184,7 @@ describe('plate --rays', () => {
     expect(r.status, r.stderr).toBe(0);
     const out = JSON.parse(r.stdout) as { rays: Array<{ angle: string; kind: string; landing: { re: string; im: string } }> };
     // exact landings: -3/4 (root of the period-2 disk); -1/8 + (3 sqrt 3/8) i (cardioid formula at internal
-    // angle 1/3, methods.md C3); c = i (Misiurewicz, preperiod 1, period 2), by the Douady-Hubbard landing theorem
+    // angle 1/3, docs/methods.md C3); c = i (Misiurewicz, preperiod 1, period 2), by the Douady-Hubbard landing theorem
     const exact: Record<string, [number, number]> = { '1/3': [-0.75, 0], '2/3': [-0.75, 0], '1/7': [-1 / 8, (3 * Math.sqrt(3)) / 8], '2/7': [-1 / 8, (3 * Math.sqrt(3)) / 8], '1/6': [0, 1] };
     const pixel = VIEW.span / VIEW.width;
     expect(out.rays.map((x) => x.angle)).toEqual(['1/3', '2/3', '1/7', '2/7', '1/6']);

@@ -41,7 +41,7 @@ describe('section option parsing', () => {
   });
 
   it('convertTable converts r = 4, x = 3/4 exactly and states the orientation flip', () => {
-    // checks.md "Conversion": r = 4 -> c = -2; x > 1/2 exactly when z < 0.
+    // docs/checks.md "Conversion": r = 4 -> c = -2; x > 1/2 exactly when z < 0.
     const t = convertTable({ r: '4', x: '0.75', digits: '20' });
     expect(t.rows[0]).toEqual(['-2', '4', '0.75', '-1']);
     expect(t.summary[0]!.note).toContain('x > 1/2 exactly when z < 0');
@@ -52,7 +52,7 @@ describe('section option parsing', () => {
   it('convertTable --digits counts places after the point, rounding ties to even', () => {
     // Exact: c = 3.83 (2 - 3.83) / 4 = -1.752225; at 5 places the tie goes to the even -1.75222.
     expect(convertTable({ r: '3.83', digits: '5' }).rows[0]![0]).toBe('-1.75222');
-    // checks.md: c = -7/4 -> r = 1 + sqrt 8; at 40 places every digit is checked by exact BigInt algebra.
+    // docs/checks.md: c = -7/4 -> r = 1 + sqrt 8; at 40 places every digit is checked by exact BigInt algebra.
     const r = convertTable({ c: '-1.75', digits: '40' }).rows[0]![1] as string;
     expect(r.split('.')[1]!.length).toBeLessThanOrEqual(40);
     expect(isOnePlusSqrt(r, 8, 40)).toBe(true);
@@ -118,14 +118,14 @@ describe.skipIf(!existsSync(path.resolve('dist/src/cli/main.js')))('quadatlas se
     expect(j.rows.map((w) => w['word'])).toEqual(['(C)', 'R', 'RLR', 'RL', 'RLL']);
     // One row per MSS word by construction, so the count is no check; the order in r and the numbers are.
     expect(j.countsByPeriod).toEqual([1, 2, 3, 4].map((p) => j.rows.filter((w) => w['period'] === p).length));
-    // checks.md "superstable period-2 logistic parameter": r = 1 + sqrt 5 (exact).
+    // docs/checks.md "superstable period-2 logistic parameter": r = 1 + sqrt 5 (exact).
     expect(isOnePlusSqrt(j.rows.find((w) => w['word'] === 'R')!['superstableR'] as string, 5, 10)).toBe(true);
     const p3 = j.rows.find((w) => w['word'] === 'RL')!;
     expect(p3['period']).toBe(3);
-    // checks.md: the period-3 window opens at c = -7/4, r = 1 + sqrt 8 (exact).
+    // docs/checks.md: the period-3 window opens at c = -7/4, r = 1 + sqrt 8 (exact).
     expect(p3['onsetC']).toBe('-1.75');
     expect(isOnePlusSqrt(p3['onsetR'] as string, 8, 12)).toBe(true);
-    // checks.md: |s| = 0.019035515913132 for the real period-3 component (Hunt-Ott 1997); a double, so a JSON number.
+    // docs/checks.md: |s| = 0.019035515913132 for the real period-3 component (Hunt-Ott 1997); a double, so a JSON number.
     expect(p3['size']).toBeCloseTo(0.019035515913132, 13);
     expect(typeof p3['stableWidthR']).toBe('string');
     expect(p3['stableWidthR']).toMatch(/^\d\.\d{11}e-\d+$/); // 12 significant digits with an exponent
@@ -138,7 +138,7 @@ describe.skipIf(!existsSync(path.resolve('dist/src/cli/main.js')))('quadatlas se
     expect(lines[0]).toBe('n,period,doubling_r,doubling_c,superstable_r,superstable_c,delta_n,alpha_n');
     expect(lines).toHaveLength(7);
     const level1 = lines[2]!.split(',');
-    // checks.md: first doubling r = 3, c = -3/4 (exact); superstable period 2 at r = 1 + sqrt 5, c = -1 (exact).
+    // docs/checks.md: first doubling r = 3, c = -3/4 (exact); superstable period 2 at r = 1 + sqrt 5, c = -1 (exact).
     expect(level1.slice(2, 4)).toEqual(['3', '-0.75']);
     expect(isOnePlusSqrt(level1[4]!, 5, 15)).toBe(true);
     expect(level1[4]!.split('.')[1]!.length).toBeLessThanOrEqual(15); // a trailing zero is dropped
@@ -152,7 +152,7 @@ describe.skipIf(!existsSync(path.resolve('dist/src/cli/main.js')))('quadatlas se
     expect(j.rows.map((row) => row.r)).toEqual(['2.8', '3', '3.2', '3.4', '3.6', '3.8', '4']);
     // Exact: c = r (2 - r) / 4; r = 3.2 gives -0.96.
     expect(j.rows[2]!.c).toBe('-0.96');
-    // checks.md: ln|2 - r| on the stable fixed point, (1/2) ln|4 + 2r - r^2| on the 2-cycle.
+    // docs/checks.md: ln|2 - r| on the stable fixed point, (1/2) ln|4 + 2r - r^2| on the 2-cycle.
     expect(j.rows[0]!.lyapunov).toBeCloseTo(Math.log(0.8), 9);
     expect(j.rows[2]!.lyapunov).toBeCloseTo(0.5 * Math.log(Math.abs(4 + 6.4 - 3.2 * 3.2)), 9);
     const text = runCli(['section', 'lyapunov', '--r-from', '2.8', '--r-to', '4', '--steps', '7', '--digits', '4']);

@@ -5,7 +5,7 @@ import { findNucleus } from '../../src/components/nucleus.js';
 import { sizeEstimate } from '../../src/components/size-estimate.js';
 
 describe('findBoundaryPoint', () => {
-  it('period 3 real: multiplier 1 gives -7/4 exactly (checks.md window onset), -1 gives -1.768529152467685015118... (mpmath)', () => {
+  it('period 3 real: multiplier 1 gives -7/4 exactly (docs/checks.md window onset), -1 gives -1.768529152467685015118... (mpmath)', () => {
     const n = { re: '-1.7548776662466927600', im: '0' };
     expect(findBoundaryPoint(3, n, { re: 1, im: 0 }, 25)).toEqual({ re: '-1.7500000000000000000000000', im: '0' });
     // mpmath 1.2.1 findroot on (F^3(w,c) - w, D_z F^3 + 1) at 40 digits from (-0.1, -1.7685):
@@ -17,10 +17,10 @@ describe('findBoundaryPoint', () => {
     const c = new Decimal(ref);
     expect(c.pow(3).times(64).plus(c.pow(2).times(128)).plus(c.times(72)).plus(81).abs().toNumber()).toBeLessThan(1e-36);
   });
-  it('period 2: multiplier -1 gives -5/4 (checks.md first period doublings)', () => {
+  it('period 2: multiplier -1 gives -5/4 (docs/checks.md first period doublings)', () => {
     expect(findBoundaryPoint(2, { re: '-1', im: '0' }, { re: -1, im: 0 }, 20).re).toBe('-1.25000000000000000000');
   });
-  it('main cardioid at multiplier m gives m/2 - m^2/4 (checks.md cardioid formula)', () => {
+  it('main cardioid at multiplier m gives m/2 - m^2/4 (docs/checks.md cardioid formula)', () => {
     const m = { re: Math.cos(1), im: Math.sin(1) };
     const b = findBoundaryPoint(1, { re: '0', im: '0' }, m, 15);
     expect(Number(b.re)).toBeCloseTo(m.re / 2 - (m.re * m.re - m.im * m.im) / 4, 14);
@@ -60,7 +60,7 @@ describe('componentRoot near the tip c = -2', () => {
     // The full-step walk used to fail on the last step here (the system is nearly singular near a root).
     const { root, parent } = componentRoot(16, { re: '-1.99796304079807759274', im: '0' }, 20);
     expect(parent).toMatchObject({ period: 8, num: 1, den: 2 });
-    // Independent path: the logistic 8-cycle with multiplier -1 (decimal.js, x-space; conjugacy c = r/2 - r^2/4, checks.md).
+    // Independent path: the logistic 8-cycle with multiplier -1 (decimal.js, x-space; conjugacy c = r/2 - r^2/4, docs/checks.md).
     const guessR = String(1 + Math.sqrt(1 - 4 * Number(parent!.nucleus.re)));
     const s = multiplierParameter(logistic, 8, -1, guessR, '0.5', 30);
     expect(s.converged).toBe(true);

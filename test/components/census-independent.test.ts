@@ -1,6 +1,6 @@
 // The census held against computations that share no code with it: decimal.js
 // iteration of F_p and F_p' written here, an Aberth-Ehrlich solver written here
-// (methods.md C5(a); O. Aberth, Math. Comp. 27 (1973) 339-344; L. W. Ehrlich,
+// (docs/methods.md C5(a); O. Aberth, Math. Comp. 27 (1973) 339-344; L. W. Ehrlich,
 // Comm. ACM 10 (1967) 107-108), and mpmath's polyroots on the integer
 // coefficients of F_p (Debian python3-mpmath).
 import { describe, expect, it } from 'vitest';
@@ -32,7 +32,7 @@ function newtonStep(q: number, re: Decimal, im: Decimal): Decimal {
   return j.fr.pow(2).plus(j.fi.pow(2)).div(j.dr.pow(2).plus(j.di.pow(2))).sqrt();
 }
 
-/** Hunt & Ott's size estimate |1 / (beta lambda^2)| (methods.md C4) in doubles, written here. */
+/** Hunt & Ott's size estimate |1 / (beta lambda^2)| (docs/methods.md C4) in doubles, written here. */
 function size(p: number, cr: number, ci: number): number {
   let zr = 0, zi = 0, lr = 1, li = 0, br = 1, bi = 0;
   for (let k = 1; k < p; k += 1) {

@@ -4,9 +4,9 @@ import { periodicNumerators } from '../../src/components/periodic-angles.js';
 import { landRays, RAY_RECORD } from '../../src/components/land-rays.js';
 import { lavaursSweep } from '../../src/components/lavaurs-sweep.js';
 
-// OEIS A000740: number of components of exact period n (also methods.md C5, checks.md "Counts").
+// OEIS A000740: number of components of exact period n (also docs/methods.md C5, docs/checks.md "Counts").
 const A000740 = [1, 1, 3, 6, 15, 27, 63, 120, 252, 495, 1023, 2010];
-// OEIS A000048: real components of exact period n (Metropolis, Stein & Stein 1973; checks.md).
+// OEIS A000048: real components of exact period n (Metropolis, Stein & Stein 1973; docs/checks.md).
 const A000048 = [1, 1, 1, 2, 3, 5, 9, 16, 28, 51, 93, 170];
 
 /**
@@ -47,7 +47,7 @@ describe('census', () => {
       expect(r.unpaired).toBe(0);
       expect(r.raysLost).toBe(0);
       if (p > 1) expectAnglePairs(p, r.components.map((c) => c.angles));
-      // every nucleus lies in |c| <= 2 (methods.md C5)
+      // every nucleus lies in |c| <= 2 (docs/methods.md C5)
       for (const c of r.components) expect(Math.hypot(c.reHi, c.imHi)).toBeLessThanOrEqual(2);
     }
   });
@@ -61,7 +61,7 @@ describe('census', () => {
       expect(r.unpaired + r.raysLost).toBe(0);
     }
   });
-  it('census(2) lands 1/3 and 2/3 on c = -1; census(3) lands 3/7 and 4/7 on the real nucleus (checks.md external angles)', async () => {
+  it('census(2) lands 1/3 and 2/3 on c = -1; census(3) lands 3/7 and 4/7 on the real nucleus (docs/checks.md external angles)', async () => {
     const two = (await census(2)).components;
     expect(two).toHaveLength(1);
     expect(two[0]!.angles).toEqual([1, 2]); // over 2^2 - 1 = 3
@@ -70,7 +70,7 @@ describe('census', () => {
     expect(three[0]!.angles).toEqual([3, 4]); // over 7
     expect(three[0]!.reHi).toBeCloseTo(-1.7548776662466927, 14); // OEIS A060006: -rho^2
   });
-  it('sum over d | p of N(d) = 2^(p-1) (degree of F^p(0,c); methods.md C5)', async () => {
+  it('sum over d | p of N(d) = 2^(p-1) (degree of F^p(0,c); docs/methods.md C5)', async () => {
     for (const p of [6, 8, 9]) {
       let total = 0;
       for (let d = 1; d <= p; d += 1) if (p % d === 0) total += (await census(d)).components.length;

@@ -24,7 +24,7 @@ describe('componentOutline', () => {
     }
   });
 
-  it('period 3, the real cardioid at -1.7549: ends next to its cusp -1.75 (root of the window, methods.md C3 [checked]) from both sides', () => {
+  it('period 3, the real cardioid at -1.7549: ends next to its cusp -1.75 (root of the window, docs/methods.md C3 [checked]) from both sides', () => {
     const n = 400;
     const pts = componentOutline(3, -1.7548776662466927, 0, n)!;
     const first = Math.hypot(pts[0]! + 1.75, pts[1]!);

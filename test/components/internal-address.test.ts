@@ -5,7 +5,7 @@ import { findMisiurewicz } from '../../src/components/misiurewicz.js';
 import { traceRayDD } from '../../src/components/trace-ray.js';
 
 describe('kneadingSequence and internalAddress', () => {
-  // methods.md D3 table [checked]; Schleicher, arXiv math/9411238.
+  // docs/methods.md D3 table [checked]; Schleicher, arXiv math/9411238.
   const table: Array<[string, number, string, number[]]> = [
     ['1/7', 3, '11*', [1, 3]],
     ['3/7', 3, '10*', [1, 2, 3]],
@@ -30,7 +30,7 @@ describe('kneadingSequence and internalAddress', () => {
 });
 
 describe('findMisiurewicz', () => {
-  it('the ray of 1/6 lands at c = i and the ray of 1/2 at c = -2 (checks.md Misiurewicz points)', () => {
+  it('the ray of 1/6 lands at c = i and the ray of 1/2 at c = -2 (docs/checks.md Misiurewicz points)', () => {
     const i = findMisiurewicz(1, 2, traceRayDD(1n, 6n, 14, 8), 20);
     expect(Number(i.re)).toBeCloseTo(0, 19);
     expect(i.im).toBe('1.00000000000000000000');

@@ -3,7 +3,7 @@ import { lavaursPairs } from '../../src/components/lavaurs.js';
 import { lavaursSweep } from '../../src/components/lavaurs-sweep.js';
 import { landRays, RAY_RECORD } from '../../src/components/land-rays.js';
 
-// OEIS A000740 (as published; p = 13 is 4095; checked below against its Moebius definition): components of exact period n, i.e. Lavaurs pairs of period n (methods.md C5, D2).
+// OEIS A000740 (as published; p = 13 is 4095; checked below against its Moebius definition): components of exact period n, i.e. Lavaurs pairs of period n (docs/methods.md C5, D2).
 const A000740 = [1, 1, 3, 6, 15, 27, 63, 120, 252, 495, 1023, 2010, 4095, 8127, 16365, 32640];
 // OEIS A000048: real components of period n, i.e. pairs symmetric about 1/2.
 const A000048 = [1, 1, 1, 2, 3, 5, 9, 16, 28, 51, 93, 170, 315, 585, 1091, 2048];
@@ -51,7 +51,7 @@ describe('lavaursSweep', () => {
       expect(Array.from(s.hi), `period ${p}`).toEqual(ref.map((x) => x.hi));
     }
   });
-  it('lavaursSweep(4) gives the period-4 pairs of methods.md D2', () => {
+  it('lavaursSweep(4) gives the period-4 pairs of docs/methods.md D2', () => {
     const s = lavaursSweep(4);
     expect(Array.from(s.lo, (lo, i) => [lo, s.hi[i]])).toEqual([[1, 2], [3, 4], [6, 9], [7, 8], [11, 12], [13, 14]]); // over 15
   });

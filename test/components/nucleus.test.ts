@@ -5,7 +5,7 @@ import { NewtonError } from '../../src/components/newton-error.js';
 
 const D = Decimal.clone({ precision: 120 });
 
-/** c^3 + 2c^2 + c + 1 evaluated exactly enough in decimal.js (checks.md: period-3 nuclei are its roots). */
+/** c^3 + 2c^2 + c + 1 evaluated exactly enough in decimal.js (docs/checks.md: period-3 nuclei are its roots). */
 function cubic(re: string, im: string): number {
   const cr = new D(re), ci = new D(im);
   // (a+bi)^2, ^3
@@ -31,12 +31,12 @@ function newtonStep(p: number, cr: Decimal, ci: Decimal): Decimal {
 describe('findNucleus', () => {
   it('findNucleus(3, -1.8) gives -1.7548776662466927600... (OEIS A060006, real root of c^3+2c^2+c+1)', () => {
     const r = findNucleus(3, { re: '-1.8', im: '0' }, 19);
-    expect(r.nucleus.re).toBe('-1.7548776662466927600'); // checks.md: -1.7548776662466927600
+    expect(r.nucleus.re).toBe('-1.7548776662466927600'); // docs/checks.md: -1.7548776662466927600
     expect(r.nucleus.im).toBe('0');
   });
-  it('the complex period-3 nuclei match checks.md and are roots of c^3+2c^2+c+1 to 60 digits', () => {
+  it('the complex period-3 nuclei match docs/checks.md and are roots of c^3+2c^2+c+1 to 60 digits', () => {
     const r = findNucleus(3, { re: '-0.1', im: '0.7' }, 60).nucleus;
-    expect(r.re.slice(0, 22)).toBe('-0.12256116687665361998'.slice(0, 22)); // checks.md
+    expect(r.re.slice(0, 22)).toBe('-0.12256116687665361998'.slice(0, 22)); // docs/checks.md
     expect(r.im.slice(0, 22)).toBe('0.74486176661974423659'.slice(0, 22));
     expect(cubic(r.re, r.im)).toBeLessThan(1e-58);
   });
@@ -49,9 +49,9 @@ describe('findNucleus', () => {
   it('findNucleus(1000, near the 1/1000 bulb, 100 digits) converges to a nucleus of exact period 1000', () => {
     const q = 1000;
     const th = (2 * Math.PI) / q;
-    const rr = Math.cos(th) / 2 - Math.cos(2 * th) / 4; // cardioid formula, checks.md
+    const rr = Math.cos(th) / 2 - Math.cos(2 * th) / 4; // cardioid formula, docs/checks.md
     const ri = Math.sin(th) / 2 - Math.sin(2 * th) / 4;
-    const rad = Math.sin(Math.PI / q) / q ** 2; // bulb radius rule, checks.md
+    const rad = Math.sin(Math.PI / q) / q ** 2; // bulb radius rule, docs/checks.md
     const m = Math.hypot(rr, ri);
     const r = findNucleus(q, { re: String(rr + (rad * rr) / m), im: String(ri + (rad * ri) / m) }, 100);
     // The guess already shares the first 7 digits, so the digits prove nothing; checked instead in

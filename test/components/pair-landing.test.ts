@@ -1,8 +1,8 @@
 // Both rays of a census pair land on one nucleus. The census traces only the lower angle of each
 // Lavaurs pair (src/components/census.ts); the upper one is its partner in Lavaurs' pairing
-// (methods.md D2), combinatorics rather than a landed ray. Here the upper ray of a seeded sample
-// of rows at periods 11..16 is traced (methods.md D4, src/components/trace-ray.ts through
-// landRays) and Newton run from its end (methods.md C2); it must reach the row's nucleus. A wrong
+// (docs/methods.md D2), combinatorics rather than a landed ray. Here the upper ray of a seeded sample
+// of rows at periods 11..16 is traced (docs/methods.md D4, src/components/trace-ray.ts through
+// landRays) and Newton run from its end (docs/methods.md C2); it must reach the row's nucleus. A wrong
 // pairing would send the upper ray to another component: distinct nuclei of one period lie more
 // than a fraction of a size apart, far beyond the 1e-6 sizes allowed here.
 import { describe, expect, it } from 'vitest';

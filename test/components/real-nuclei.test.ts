@@ -10,7 +10,7 @@ import { findWindows } from '../../src/section/windows.js';
  * bisection on the MSS word (kneading order) and then Newton on
  * f_r^p(1/2) = 1/2 for the logistic map in x-space with decimal.js. Neither
  * is seeded from the other. The conjugacy c = r/2 - r^2/4 (exact algebra,
- * checks.md) must carry one set onto the other, one to one.
+ * docs/checks.md) must carry one set onto the other, one to one.
  */
 describe('real nuclei of the census equal the superstable logistic parameters', () => {
   it('for every real component of periods 3..9 (counts 1, 2, 3, 5, 9, 16, 28: OEIS A000048)', async () => {

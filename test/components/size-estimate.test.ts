@@ -2,12 +2,12 @@ import { describe, expect, it } from 'vitest';
 import { sizeEstimate, sizeEstimateScaled } from '../../src/components/size-estimate.js';
 
 describe('sizeEstimate', () => {
-  it('the real period-3 component has |s| = 0.019035515913132 (checks.md, Hunt & Ott 1997 formula) and is cardioid-like', () => {
+  it('the real period-3 component has |s| = 0.019035515913132 (docs/checks.md, Hunt & Ott 1997 formula) and is cardioid-like', () => {
     const s = sizeEstimate(3, { re: '-1.7548776662466927600', im: '0' });
     expect(s.size).toBeCloseTo(0.019035515913132, 14);
     expect(s.shape).toBe('cardioid');
   });
-  it('period 1 gives 1 (cardioid), period 2 gives 0.5 (disk) (methods.md C4 [checked])', () => {
+  it('period 1 gives 1 (cardioid), period 2 gives 0.5 (disk) (docs/methods.md C4 [checked])', () => {
     expect(sizeEstimate(1, { re: '0', im: '0' })).toEqual({ size: 1, orientation: 0, shape: 'cardioid' });
     const two = sizeEstimate(2, { re: '-1', im: '0' });
     expect([two.size, two.shape]).toEqual([0.5, 'disk']);

@@ -208,7 +208,7 @@ describe('sampleJulia: interiors against exact facts', () => {
     expect(Math.hypot(p.mRe, p.mIm)).toBeCloseTo(1, 15);
     expect(Math.atan2(p.mIm, p.mRe) / (2 * Math.PI) + 1).toBeCloseTo(GOLDEN_MEAN, 14);
     // c = m/2 - m^2/4 with m = e^(2 pi i theta), theta = (sqrt 5 - 1)/2 (the main cardioid formula,
-    // checks.md; exact algebra), evaluated here apart from cardioidPoint: -0.3905408702 - 0.5867879073 i.
+    // docs/checks.md; exact algebra), evaluated here apart from cardioidPoint: -0.3905408702 - 0.5867879073 i.
     const th = 2 * Math.PI * ((Math.sqrt(5) - 1) / 2);
     expect(p.cRe).toBeCloseTo(Math.cos(th) / 2 - Math.cos(2 * th) / 4, 14);
     expect(p.cIm).toBeCloseTo(Math.sin(th) / 2 - Math.sin(2 * th) / 4, 14);

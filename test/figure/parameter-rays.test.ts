@@ -16,7 +16,7 @@ function escapeTime(cr: number, ci: number, limit: number): number {
 
 // Exact landing points. 1/3, 2/3: the root c = -3/4 of the period-2 disk (1/3 -> 2/3 -> 1/3 has period 2).
 // 1/7, 2/7: the root of the period-3 bulb on the cardioid at internal angle 1/3, c = m/2 - m^2/4 with
-// m = e^{2 pi i/3} (cardioid formula; methods.md C3), = -1/8 + (3 sqrt 3 / 8) i.
+// m = e^{2 pi i/3} (cardioid formula; docs/methods.md C3), = -1/8 + (3 sqrt 3 / 8) i.
 // 1/6: preperiod 1, period 2, lands at the Misiurewicz point c = i (0 -> i -> -1+i -> -i -> -1+i).
 const EXACT: Array<[string, number, number, string]> = [
   ['1/3', -0.75, 0, 'root'],

@@ -9,7 +9,7 @@ function iterate(cRe: number, cIm: number, zRe: number, zIm: number, p: number):
 
 // Period-3 nuclei: roots of c^3 + 2c^2 + c + 1 = 0 (exact polynomial; the
 // real root is -rho^2 with rho the plastic number, OEIS A060006), digits as in
-// checks.md.
+// docs/checks.md.
 const NUCLEI3: [number, number][] = [
   [-1.75487766624669276, 0],
   [-0.12256116687665361998, 0.74486176661974423659],
@@ -30,7 +30,7 @@ describe('attractingCycle', () => {
     }
   });
 
-  it('attractingCycle(c = m/2 - m^2/4, p = 1) returns the multiplier m (main cardioid formula, checks.md)', () => {
+  it('attractingCycle(c = m/2 - m^2/4, p = 1) returns the multiplier m (main cardioid formula, docs/checks.md)', () => {
     for (const [mr, mi] of [[0.5, 0], [0.3, -0.6], [-0.9, 0.1], [0.05, 0.95], [-0.2, -0.2]] as const) {
       const cRe = mr / 2 - (mr * mr - mi * mi) / 4, cIm = mi / 2 - (2 * mr * mi) / 4;
       const r = attractingCycle(cRe, cIm, 1, 0, 0);
@@ -50,7 +50,7 @@ describe('attractingCycle', () => {
   });
 
   it('attractingCycle(c = i, p = 2) finds the repelling 2-cycle {-1+i, -i} of the Misiurewicz point and rejects it', () => {
-    // Orbit of 0 under z^2 + i: i, -1+i, -i, -1+i, ... (checks.md); multiplier
+    // Orbit of 0 under z^2 + i: i, -1+i, -i, -1+i, ... (docs/checks.md); multiplier
     // 4 (-1+i)(-i) = 4 + 4i, modulus 4 sqrt 2 (exact algebra).
     const r = attractingCycle(0, 1, 2, -1, 1);
     expect(r.converged).toBe(true);

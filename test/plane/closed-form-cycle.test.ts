@@ -2,13 +2,13 @@ import { describe, expect, it } from 'vitest';
 import { attractingCycle, createCycleResult } from '../../src/plane/attracting-cycle.js';
 import { closedFormCycle } from '../../src/plane/closed-form-cycle.js';
 
-/** c = m/2 - m^2/4 for a multiplier m = r e^{i t} (main cardioid formula, checks.md). */
+/** c = m/2 - m^2/4 for a multiplier m = r e^{i t} (main cardioid formula, docs/checks.md). */
 function cardioidPoint(r: number, t: number): [number, number] {
   const mr = r * Math.cos(t), mi = r * Math.sin(t);
   return [mr / 2 - (mr * mr - mi * mi) / 4, mi / 2 - (mr * mi) / 2];
 }
 
-/** c = -1 + m/4 for a multiplier m = r e^{i t} (period-2 disk, multiplier 4(c + 1), checks.md). */
+/** c = -1 + m/4 for a multiplier m = r e^{i t} (period-2 disk, multiplier 4(c + 1), docs/checks.md). */
 function diskPoint(r: number, t: number): [number, number] {
   return [-1 + (r * Math.cos(t)) / 4, (r * Math.sin(t)) / 4];
 }

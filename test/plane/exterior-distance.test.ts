@@ -3,7 +3,7 @@ import { exteriorDistance } from '../../src/plane/exterior-distance.js';
 
 describe('exteriorDistance', () => {
   it('exteriorDistance(c = 1, n = 3, z_3 = 5) is 2 * 5 * ln 5 / 13 (hand iteration with d updated before z)', () => {
-    // Exact hand computation (methods.md A2 recurrence d_{k+1} = 2 z_k d_k + 1, d_0 = 0):
+    // Exact hand computation (docs/methods.md A2 recurrence d_{k+1} = 2 z_k d_k + 1, d_0 = 0):
     // z: 0, 1, 2, 5;  d: 0, 1, 2*1*1 + 1 = 3, 2*2*3 + 1 = 13.
     expect(exteriorDistance(1, 0, 3, 5, 0)).toBeCloseTo((2 * 5 * Math.log(5)) / 13, 15);
     // Updating z before d (the pitfall noted in A2) would give d: 0, 1, 5, 51 and fail here.

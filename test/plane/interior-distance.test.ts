@@ -4,19 +4,19 @@ import { interiorDistance } from '../../src/plane/interior-distance.js';
 
 describe('interiorDistance', () => {
   it('interiorDistance(c = -1, w = 0, p = 2) is 0.25, the radius of the period-2 disk', () => {
-    // methods.md A6 [checked]: c = -1 (p = 2) gives b = 0.25; checks.md: the disk is |c + 1| < 1/4.
+    // docs/methods.md A6 [checked]: c = -1 (p = 2) gives b = 0.25; docs/checks.md: the disk is |c + 1| < 1/4.
     expect(interiorDistance(-1, 0, 0, 0, 2)).toBe(0.25);
     // The other cycle point gives the same value (hand computation of A6 from w = -1).
     expect(interiorDistance(-1, 0, -1, 0, 2)).toBe(0.25);
   });
 
   it('interiorDistance(c = 0, w = 0, p = 1) is 0.5', () => {
-    // methods.md A6 [checked]: c = 0 gives 0.5 (true distance to the boundary 0.25).
+    // docs/methods.md A6 [checked]: c = 0 gives 0.5 (true distance to the boundary 0.25).
     expect(interiorDistance(0, 0, 0, 0, 1)).toBe(0.5);
   });
 
   it('interiorDistance(c = -1.76, p = 3) is 0.0106 to three digits', () => {
-    // methods.md A6 [checked]: c = -1.76 (p = 3) gives 0.0106 (true 0.0085).
+    // docs/methods.md A6 [checked]: c = -1.76 (p = 3) gives 0.0106 (true 0.0085).
     const r = attractingCycle(-1.76, 0, 3, 0, 0);
     expect(r.ok).toBe(true);
     expect(interiorDistance(-1.76, 0, r.wRe, r.wIm, 3)).toBeCloseTo(0.0106, 4);

@@ -15,13 +15,13 @@ function run(points: readonly (readonly [number, number])[], settings: EscapeSet
   return sampleParameters(cr, ci, points.length, settings, createSampleSet(points.length), loop);
 }
 
-/** c = m/2 - m^2/4 for m = r e^{i t} (main cardioid formula, checks.md). */
+/** c = m/2 - m^2/4 for m = r e^{i t} (main cardioid formula, docs/checks.md). */
 function cardioidPoint(r: number, t: number): [number, number] {
   const mr = r * Math.cos(t), mi = r * Math.sin(t);
   return [mr / 2 - (mr * mr - mi * mi) / 4, mi / 2 - (mr * mi) / 2];
 }
 
-/** c = -1 + m/4 for m = r e^{i t} (period-2 disk, multiplier 4(c + 1), checks.md). */
+/** c = -1 + m/4 for m = r e^{i t} (period-2 disk, multiplier 4(c + 1), docs/checks.md). */
 function diskPoint(r: number, t: number): [number, number] {
   return [-1 + (r * Math.cos(t)) / 4, (r * Math.sin(t)) / 4];
 }
@@ -43,7 +43,7 @@ function distanceToCardioid(x: number, y: number): number {
 }
 
 // Period-3 nuclei: roots of c^3 + 2c^2 + c + 1 (exact polynomial; OEIS A060006
-// gives the plastic number rho, real root -rho^2), digits from checks.md.
+// gives the plastic number rho, real root -rho^2), digits from docs/checks.md.
 const NUCLEI3 = [
   [-1.75487766624669276, 0],
   [-0.12256116687665361998, 0.74486176661974423659],
@@ -64,8 +64,8 @@ describe('sampleParameters', () => {
   });
 
   it('sampleParameters reports period 1, 2, 3 and 4 well inside the cardioid, period-2 disk, 1/3 bulb and period-doubling disk', () => {
-    // c4 = -1.31070264133683288356: superstable period 4 (methods.md E2 [checked]);
-    // the period-4 disk spans about [-1.3681, -1.25] (checks.md: a_3 = 1.3680989, -5/4).
+    // c4 = -1.31070264133683288356: superstable period 4 (docs/methods.md E2 [checked]);
+    // the period-4 disk spans about [-1.3681, -1.25] (docs/checks.md: a_3 = 1.3680989, -5/4).
     const [n1r, n1i] = NUCLEI3[1];
     const cases: [number, number, number][] = [
       [0, 0, 1], [0.1, 0.3, 1], [-0.5, -0.4, 1],
@@ -132,7 +132,7 @@ describe('sampleParameters', () => {
     expect(escaped).toBeGreaterThan(100);
   });
 
-  it('sampleParameters exterior distance b brackets the true distance: b/4 < dist < b (Milnor, methods.md A2)', () => {
+  it('sampleParameters exterior distance b brackets the true distance: b/4 < dist < b (Milnor, docs/methods.md A2)', () => {
     // Left of -2: M lies in |c| <= 2 and contains -2, so dist(-2 - t, M) = t exactly.
     const ts = [0.5, 0.1, 0.05, 0.01, 1e-3, 1e-4];
     const left = run(ts.map((t) => [-2 - t, 0]));
@@ -156,7 +156,7 @@ describe('sampleParameters', () => {
   });
 
   it('sampleParameters interior distance at c = -1 is 0.25 and agrees with the Newton path inside the cardioid and disk', () => {
-    // methods.md A6 [checked]: c = -1, p = 2 gives b = 0.25, the disk radius.
+    // docs/methods.md A6 [checked]: c = -1, p = 2 gives b = 0.25, the disk radius.
     expect(run([[-1, 0]]).distance[0]).toBe(0.25);
     const pts = [...ANGLES.map((t) => cardioidPoint(0.7, t)), ...ANGLES.map((t) => diskPoint(0.7, t))];
     const out = run(pts);
@@ -170,7 +170,7 @@ describe('sampleParameters', () => {
   });
 
   it('sampleParameters smooth count is continuous along lines outside M (max neighbour jump << 1), unlike with R = 2', () => {
-    // methods.md A1: with a large R the bands join; R = 2 leaves seams.
+    // docs/methods.md A1: with a large R the bands join; R = 2 leaves seams.
     const lines = [[0.3, 0, 1.0, 0], [0.5, -1, 0.5, 1]] as const;
     for (const [x0, y0, x1, y1] of lines) {
       const K = 3001;
@@ -206,7 +206,7 @@ describe('sampleParameters', () => {
     });
   });
 
-  it('sampleParameters never gives a period to the Misiurewicz points c = i and c = -2 (checks.md)', () => {
+  it('sampleParameters never gives a period to the Misiurewicz points c = i and c = -2 (docs/checks.md)', () => {
     for (const tolerance of [1e-10, 1e-3, 0]) {
       const out = run([[0, 1], [-2, 0], [0, -1]], { ...SETTINGS, periodTolerance: tolerance });
       for (let k = 0; k < 3; k++) expect(out.period[k]).toBeLessThanOrEqual(0);
@@ -264,7 +264,7 @@ describe('sampleParameters', () => {
 
   it('sampleParameters on a 256 x 256 grid: period-1 and period-2 cells add up to the cardioid and disk areas, all non-escaped cells to the area of M', () => {
     // Exact areas: main cardioid 3 pi / 8, period-2 disk pi / 16 (exact geometry).
-    // Area of M: 1.5065918849 +/- 2.8e-9 (T. Forstemann 2012, checks.md). Cell
+    // Area of M: 1.5065918849 +/- 2.8e-9 (T. Forstemann 2012, docs/checks.md). Cell
     // counting at spacing h = 2.5/256 errs by a fraction of perimeter * h; the
     // tolerances below (0.005 for the smooth curves of perimeter 4 and pi/2,
     // 0.02 for M, whose undecided boundary cells count as inside) are that bound.

@@ -12,7 +12,7 @@ function escape(cRe: number, cIm: number, R: number): [number, number, number] {
 }
 
 describe('smoothCount', () => {
-  it('smoothCount lies in (n - 1, n] for escaped orbits (methods.md A1)', () => {
+  it('smoothCount lies in (n - 1, n] for escaped orbits (docs/methods.md A1)', () => {
     const R = 1024, logR = Math.log(R);
     for (const [a, b] of [[0.3, 0], [-0.75, 0.1], [0.4, 0.6], [-2.1, 0], [1, 1], [0.45, 0.35]]) {
       const [n, x, y] = escape(a!, b!, R);
@@ -22,7 +22,7 @@ describe('smoothCount', () => {
     }
   });
 
-  it('smoothCount barely depends on which escaped iterate it is given (band continuity, methods.md A1)', () => {
+  it('smoothCount barely depends on which escaped iterate it is given (band continuity, docs/methods.md A1)', () => {
     // mu(n, z_n) and mu(n + 1, z_{n+1}) differ by log2(ln|z^2 + c| / (2 ln|z|)) = O(|c| / |z|^2 / ln|z|).
     for (const [a, b] of [[0.3, 0], [-0.75, 0.1], [0.4, 0.6]]) {
       const R = 1e4, logR = Math.log(R);

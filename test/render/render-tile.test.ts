@@ -56,7 +56,7 @@ describe('renderTile', () => {
     }
   });
 
-  it('finds period 1 at the centre of the main cardioid and period 2 at c = -1 (checks.md: cardioid, period-2 disk)', () => {
+  it('finds period 1 at the centre of the main cardioid and period 2 at c = -1 (docs/checks.md: cardioid, period-2 disk)', () => {
     const grid = doubleGrid({ centerRe: '-0.75', centerIm: '0', span: '1', width: 2, height: 1, rotation: 0 });
     // Pixel centres at c = -0.75 +/- 0.25: -1 (period-2 disk centre) and -0.5 (inside the cardioid).
     const r = renderTile(job({ grid, samples: 1 }), { index: 0, x0: 0, y0: 0, w: 2, h: 1 }, createTileScratch(2));

@@ -8,7 +8,7 @@ import { haveMpmath, runMpmath } from '../oracles/mpmath.js';
 import { requireInCi } from '../helpers/require-in-ci.js';
 
 const D = Decimal.clone({ precision: 60 });
-// OEIS A006890 (Briggs, Math. Comp. 57 (1991) 435-439), as in checks.md.
+// OEIS A006890 (Briggs, Math. Comp. 57 (1991) 435-439), as in docs/checks.md.
 const DELTA = new D('4.669201609102990671853203820466201617258');
 // OEIS A006891 (Briggs 1991).
 const ALPHA = new D('2.502907875095892822283902873218215786381');
@@ -29,7 +29,7 @@ function logisticLevels(): Cascade {
 
 describe('computeCascade on the logistic family', () => {
   it('computeCascade gives the exact first doublings r = 3 and 1 + sqrt 6 and superstable r = 2, 1 + sqrt 5', () => {
-    // checks.md "first period doublings" and "superstable period-2 logistic parameter" (exact algebra).
+    // docs/checks.md "first period doublings" and "superstable period-2 logistic parameter" (exact algebra).
     const lv = logisticLevels().levels;
     expectDigits(lv[1]!.doubling!, new D(3), 35);
     expectDigits(lv[2]!.doubling!, new D(6).sqrt().plus(1), 35);
@@ -71,7 +71,7 @@ describe('computeCascade on the logistic family', () => {
 
 describe('computeCascade on other families', () => {
   it('computeCascade on the sine map gives the logistic delta within its claimed digits (universality)', () => {
-    // methods.md E8: r sin(pi x) has a quadratic maximum, so delta is Feigenbaum's (OEIS A006890).
+    // docs/methods.md E8: r sin(pi x) has a quadratic maximum, so delta is Feigenbaum's (OEIS A006890).
     const c = computeCascade(familySolver(sine, 16), 8, 16);
     expect(c.delta.digits).toBeGreaterThanOrEqual(4);
     expectDigits(c.delta.value, DELTA, c.delta.digits);

@@ -21,7 +21,7 @@ describe('comparePlateSvg', () => {
     const svg = comparePlateSvg(spec);
     // c = -1.25 sits at 60 + (0.75 / 1.25) * 1000 = 660 px (left margin 60).
     expect(svg).toMatch(/<line x1="660.00"[^>]*stroke="#c0392b"/);
-    // r = 3.5 maps to c = 3.5/2 - 3.5^2/4 = -1.3125 (methods.md E1): x = 60 + 0.6875 / 1.25 * 1000 = 610.
+    // r = 3.5 maps to c = 3.5/2 - 3.5^2/4 = -1.3125 (docs/methods.md E1): x = 60 + 0.6875 / 1.25 * 1000 = 610.
     expect(svg).toMatch(/<text x="610.00"[^>]*>3.5<\/text>/);
     expect(svg).toContain('data:image/png;base64,AAAA');
     expect(svg).toContain('data:image/png;base64,BBBB');

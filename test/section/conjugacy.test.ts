@@ -3,7 +3,7 @@ import { Decimal } from 'decimal.js';
 import { cToR, rToC, xToZ, zToX } from '../../src/section/conjugacy.js';
 
 describe('conjugacy', () => {
-  // Exact algebra (checks.md "Conversion"): c = r/2 - r^2/4.
+  // Exact algebra (docs/checks.md "Conversion"): c = r/2 - r^2/4.
   it('rToC maps r = 3 and r = 4 to c = -3/4 and -2 exactly', () => {
     expect(rToC('3', 30)).toBe('-0.75');
     expect(rToC('4', 30)).toBe('-2');
@@ -18,7 +18,7 @@ describe('conjugacy', () => {
   });
 
   it('cToR(rToC(r)) returns r on the branch r >= 1 at 60 digits', () => {
-    // Round trip through the exact algebra of methods.md E1.
+    // Round trip through the exact algebra of docs/methods.md E1.
     const r = '3.56994567187094490184200515138649893676';
     expect(cToR(rToC(r, 70), 39)).toBe(r);
     // r and 2 - r share c; the inverse picks r >= 1.
@@ -30,7 +30,7 @@ describe('conjugacy', () => {
   });
 
   it('xToZ flips orientation: x > 1/2 gives z < 0 and zToX inverts it', () => {
-    // checks.md "Conversion": x > 1/2 exactly when z < 0.
+    // docs/checks.md "Conversion": x > 1/2 exactly when z < 0.
     expect(xToZ('0.75', '4', 20)).toBe('-1');
     expect(xToZ('0.25', '4', 20)).toBe('1');
     expect(xToZ('0.5', '3.7', 20)).toBe('0');
@@ -39,7 +39,7 @@ describe('conjugacy', () => {
   });
 
   it('xToZ conjugates one logistic step to one quadratic step', () => {
-    // z' = z^2 + c must equal r(1/2 - r x(1 - x)) (methods.md E1).
+    // z' = z^2 + c must equal r(1/2 - r x(1 - x)) (docs/methods.md E1).
     const D = Decimal.clone({ precision: 60 });
     const r = '3.7';
     const x = '0.3';

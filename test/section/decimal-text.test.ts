@@ -64,7 +64,7 @@ describe('toPlaces', () => {
 
 describe('toExponent', () => {
   it('toExponent writes D significant digits, keeping trailing zeros', () => {
-    // checks.md: |s| of the real period-3 component 0.019035515913132 (Hunt-Ott 1997).
+    // docs/checks.md: |s| of the real period-3 component 0.019035515913132 (Hunt-Ott 1997).
     expect(toExponent(0.019035515913132, 6)).toBe('1.90355e-2');
     expect(toExponent(new Decimal('0.00125'), 2)).toBe('1.2e-3'); // tie to even
     expect(toExponent(2, 3)).toBe('2.00e+0');

@@ -27,7 +27,7 @@ describe('diagramColumns', () => {
   });
 
   it('axisParameter on a c axis returns r = 1 + sqrt(1 - 4c)', () => {
-    // Conjugacy, methods.md E1 (exact): c = -2 -> r = 4, c = -3/4 -> r = 3.
+    // Conjugacy, docs/methods.md E1 (exact): c = -2 -> r = 4, c = -3/4 -> r = 3.
     expect(axisParameter({ kind: 'c', from: -2, to: -0.75 }, 0)).toBe(4);
     expect(axisParameter({ kind: 'c', from: -2, to: -0.75 }, 1)).toBe(3);
   });

@@ -1,7 +1,7 @@
 import { describe, expect, it } from 'vitest';
 import { compactWord, compareItineraries, isAdmissibleWord, mssWords, satelliteParent } from '../../src/section/kneading.js';
 
-// Real components of exact period n: OEIS A000048 (Metropolis, Stein & Stein 1973), checks.md "Counts".
+// Real components of exact period n: OEIS A000048 (Metropolis, Stein & Stein 1973), docs/checks.md "Counts".
 const A000048 = [1, 1, 1, 2, 3, 5, 9, 16, 28, 51, 93, 170];
 
 describe('mssWords', () => {
@@ -10,7 +10,7 @@ describe('mssWords', () => {
   });
 
   it('mssWords orders periods 4 to 7 as in Metropolis-Stein-Stein 1973', () => {
-    // methods.md E5 (MSS 1973 table): period 4 RLR, RLL; 5 RLRR, RLLR, RLLL;
+    // docs/methods.md E5 (MSS 1973 table): period 4 RLR, RLL; 5 RLRR, RLLR, RLLL;
     // 6 RLRRR, RLLRL, RLLRR, RLLLR, RLLLL; 7 from RLRRRR to RLLLLL (9 words).
     expect(mssWords(4)).toEqual(['RLR', 'RLL']);
     expect(mssWords(5)).toEqual(['RLRR', 'RLLR', 'RLLL']);
@@ -19,8 +19,8 @@ describe('mssWords', () => {
     expect([w7[0], w7[8], w7.length]).toEqual(['RLRRRR', 'RLLLLL', 9]);
   });
 
-  it('mssWords of periods 2..5 merged in parameter order match the checks.md row', () => {
-    // checks.md (Metropolis-Stein-Stein 1973): R; RLR; RLR^2 (5); RL; RL^2R (5); RL^2 (4); RL^3 (5).
+  it('mssWords of periods 2..5 merged in parameter order match the docs/checks.md row', () => {
+    // docs/checks.md (Metropolis-Stein-Stein 1973): R; RLR; RLR^2 (5); RL; RL^2R (5); RL^2 (4); RL^3 (5).
     const all = [2, 3, 4, 5].flatMap((p) => mssWords(p));
     all.sort((a, b) => compareItineraries(`${a}C`.padEnd(12, 'L'), `${b}C`.padEnd(12, 'L')));
     expect(all.map(compactWord)).toEqual(['R', 'RLR', 'RLR^2', 'RL', 'RL^2R', 'RL^2', 'RL^3']);

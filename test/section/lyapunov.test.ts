@@ -11,24 +11,24 @@ function lyap(r: number, iterations: number): { value: number; spread: number } 
 
 describe('lyapunovExponents', () => {
   it('lyapunovExponents at r = 4 gives ln 2 within the sampling error', () => {
-    // checks.md: exact ln 2 (conjugacy to the tent map); 2e5 samples give about 1e-3 sampling error.
+    // docs/checks.md: exact ln 2 (conjugacy to the tent map); 2e5 samples give about 1e-3 sampling error.
     const l = lyap(4, 200_000);
     expect(Math.abs(l.value - Math.LN2)).toBeLessThan(5e-3);
   });
 
   it('lyapunovExponents on the stable fixed point gives ln |2 - r|', () => {
-    // checks.md "Lyapunov exponent on a stable fixed point": exact.
+    // docs/checks.md "Lyapunov exponent on a stable fixed point": exact.
     expect(lyap(2.8, 2000).value).toBeCloseTo(Math.log(0.8), 9);
   });
 
   it('lyapunovExponents on the stable 2-cycle gives (1/2) ln |4 + 2r - r^2|', () => {
-    // checks.md "... / 2-cycle": exact.
+    // docs/checks.md "... / 2-cycle": exact.
     const r = 3.2;
     expect(lyap(r, 2000).value).toBeCloseTo(0.5 * Math.log(Math.abs(4 + 2 * r - r * r)), 9);
   });
 
   it('lyapunovExponents is negative in the period-3 window and positive in chaos', () => {
-    // methods.md E6 [checked there]: r = 3.83 gives -0.370.
+    // docs/methods.md E6 [checked there]: r = 3.83 gives -0.370.
     expect(lyap(3.83, 20_000).value).toBeCloseTo(-0.370, 2);
     expect(lyap(3.7, 20_000).value).toBeGreaterThan(0);
   });

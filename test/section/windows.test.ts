@@ -34,25 +34,25 @@ describe('findWindows on the logistic family', () => {
   });
 
   it('findWindows puts the period-3 onset at r = 1 + sqrt 8 (c = -7/4)', () => {
-    // checks.md "period-3 real window onset" (classical, exact).
+    // docs/checks.md "period-3 real window onset" (classical, exact).
     expect(period3.onset.minus(new D(8).sqrt().plus(1)).abs().toNumber()).toBeLessThan(1e-28);
     expect(rToC(period3.onset.toString(), 25)).toBe('-1.75');
   });
 
   it('findWindows puts the period-3 nucleus at the real root of c^3 + 2c^2 + c + 1', () => {
-    // checks.md "period-3 nuclei" (exact polynomial; OEIS A060006): -1.7548776662466927600.
+    // docs/checks.md "period-3 nuclei" (exact polynomial; OEIS A060006): -1.7548776662466927600.
     const c = new D(rToC(period3.superstable.toString(), 40));
     expect(c.minus('-1.7548776662466927600').abs().toNumber()).toBeLessThan(1e-19);
     expect(c.pow(3).plus(c.pow(2).times(2)).plus(c).plus(1).abs().toNumber()).toBeLessThan(1e-28);
   });
 
-  it('findWindows puts the period-3 doubling and crisis at the methods.md E4 values', () => {
+  it('findWindows puts the period-3 doubling and crisis at the docs/methods.md E4 values', () => {
     // Doubling: -1.768529152467685015118... (mpmath 1.2.1 findroot on the period-3 cycle-and-multiplier system at
     // 40 digits; the real root of 64c^3 + 128c^2 + 72c + 81, test/components/boundary-point.test.ts). Crisis:
-    // methods.md E4, -1.7903274919993457 (re-checked below).
+    // docs/methods.md E4, -1.7903274919993457 (re-checked below).
     expect(new D(rToC(period3.doubling.toString(), 30)).minus('-1.768529152467685015118134998577843403365').abs().toNumber()).toBeLessThan(1e-14);
     expect(Number(rToC(period3.end.toString(), 20)) - -1.7903274919993457).toBeCloseTo(0, 14);
-    // The crisis: f^(3p)(x_c) = f^(2p)(x_c) (methods.md E4), re-checked here in double precision.
+    // The crisis: f^(3p)(x_c) = f^(2p)(x_c) (docs/methods.md E4), re-checked here in double precision.
     const r = period3.end.toNumber();
     let x = 0.5;
     const orbit: number[] = [];
@@ -90,8 +90,8 @@ describe('findWindows on the logistic family', () => {
 
   it.skipIf(!requireInCi(haveMpmath, 'python3-mpmath'))('findWindows puts the period-3 crisis where mpmath finds F^9(0, c) = F^6(0, c)', () => {
     // The oracle, written only here: the crisis is the tip of the small copy, renormalised parameter -2
-    // (methods.md E4), so it lies near nucleus - 2 |s| with the Hunt-Ott size |s| = 0.019035515913132
-    // (checks.md); the bracket [nucleus - 2.2|s|, nucleus - 1.8|s|] holds one sign change of
+    // (docs/methods.md E4), so it lies near nucleus - 2 |s| with the Hunt-Ott size |s| = 0.019035515913132
+    // (docs/checks.md); the bracket [nucleus - 2.2|s|, nucleus - 1.8|s|] holds one sign change of
     // F^9 - F^6 (a 400-point scan found one), which mpmath's bracketing solver pins at 40 digits.
     const out = runMpmath(`
 from mpmath import mp, mpf, findroot, nstr
@@ -110,7 +110,7 @@ print(nstr(findroot(lambda c: F(c, 9) - F(c, 6), (c0 - mpf('2.2') * s, c0 - mpf(
   });
 
   it('componentOf gives the Hunt-Ott size 0.019035515913132 for the period-3 window', () => {
-    // checks.md "size estimate of the real period-3 component" (Hunt & Ott 1997).
+    // docs/checks.md "size estimate of the real period-3 component" (Hunt & Ott 1997).
     const comp = componentOf(3, rToC(period3.superstable.toString(), 30));
     expect(comp.size).toBeCloseTo(0.019035515913132, 12);
     expect(comp.shape).toBe('cardioid');
@@ -130,7 +130,7 @@ describe('findWindows on the sine family', () => {
 describe('windowOf', () => {
   it('windowOf finds RL at c = -1.76, R at -1.5 and no window of period <= 5 at -1.6', async () => {
     const { windowOf } = await import('../../src/section/window-of.js');
-    // -1.76 lies between the period-3 onset -7/4 (checks.md) and its crisis -1.7903 (methods.md E4).
+    // -1.76 lies between the period-3 onset -7/4 (docs/checks.md) and its crisis -1.7903 (docs/methods.md E4).
     expect(windowOf('-1.76', 5)?.word).toBe('RL');
     // c = -1.5 (r = 1 + sqrt 7 = 3.6458) lies inside the period-2 window R: onset r = 3, end (band merging) c = -1.5437 (r = 3.6786).
     // c = -1.6 (r = 3.7203) lies between the windows of period <= 5.

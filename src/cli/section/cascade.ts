@@ -1,7 +1,7 @@
 /**
  * `quadatlas section cascade`: the period-doubling cascade of a family, its
  * Feigenbaum ratios, their accelerated limits with trusted digits, and the
- * accumulation point (methods.md E2, E3); with --window, the cascade inside
+ * accumulation point (docs/methods.md E2, E3); with --window, the cascade inside
  * that periodic window (src/section/window-cascade.ts). Parameters are written to
  * `--digits` places after the decimal point.
  */

@@ -1,6 +1,6 @@
 /**
  * `quadatlas section convert`: between c and the logistic r, and between the
- * states z and x, at any precision (methods.md E1). Values are written to
+ * states z and x, at any precision (docs/methods.md E1). Values are written to
  * `--digits` places after the decimal point; given values are echoed as given.
  */
 import type { Command } from 'commander';

@@ -1,6 +1,6 @@
 /**
  * `quadatlas section diagram [SHEET]`: the bifurcation diagram as a density
- * image (methods.md E7), a grey PNG of 8 or 16 bits carrying its sheet.
+ * image (docs/methods.md E7), a grey PNG of 8 or 16 bits carrying its sheet.
  * Flags override the sheet; `--again FILE` takes the sheet from a diagram
  * (or its sidecar) written before, and gives the same bytes.
  */

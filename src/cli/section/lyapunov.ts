@@ -1,6 +1,6 @@
 /**
  * `quadatlas section lyapunov [SHEET]`: the Lyapunov exponent along the
- * family parameter r (methods.md E6) as a table, and with an output file an
+ * family parameter r (docs/methods.md E6) as a table, and with an output file an
  * SVG or PNG plot that carries its sheet. Flags override the sheet;
  * `--again FILE` takes the sheet from a plot (or its sidecar) written before.
  */

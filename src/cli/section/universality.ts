@@ -2,7 +2,7 @@
  * `quadatlas section universality`: Feigenbaum's alpha and delta by order of
  * the maximum for the family x -> r - |x|^Z, from the renormalisation fixed
  * point (docs/methods.md E9), with the cascade's own estimate beside them
- * where the project has a family of that order (methods.md E2, E3, E8):
+ * where the project has a family of that order (docs/methods.md E2, E3, E8):
  * the logistic map for Z = 2 (affinely conjugate to x -> r - x^2) and the
  * quartic family x -> r - x^4 for Z = 4. Odd orders use |x|^Z (Z = 3 is the
  * class of |x|^3, not of x^3, which has no maximum).

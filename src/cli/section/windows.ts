@@ -1,7 +1,7 @@
 /**
  * `quadatlas section windows`: the periodic windows of a family up to a
  * period, each with its MSS word, onset, superstable parameter, first
- * doubling and end (methods.md E4, E5), and for the logistic family the
+ * doubling and end (docs/methods.md E4, E5), and for the logistic family the
  * same points in c and the window's component in the plane. Points are
  * written to `--digits` places; widths and sizes with an exponent and
  * `--digits` significant digits.

@@ -6,7 +6,7 @@
  * The printed point is rounded to the nearest multiple of 2^-bits (an error
  * of at most one unit in modulus, added to the radius), with bits enough to
  * resolve both the printed digits and the component (its size estimate,
- * methods.md C4).
+ * docs/methods.md C4).
  */
 import { bitsForDigits, fixedScale, fromDecimal } from '../../precise/fixed.js';
 import { log2SizeAt } from '../nucleus.js';

@@ -10,7 +10,7 @@
  * then g(c) = c - Y F_p(c) maps X into itself and contracts it, so X holds
  * exactly one zero of F_p, and that zero lies within |Y F_p(m)| + kappa R of
  * m. The supremum is bounded by evaluating the recurrences
- *   d <- 2 z d + 1,  z <- z^2 + c   (z_0 = 0, d_0 = 0; methods.md A2)
+ *   d <- 2 z d + 1,  z <- z^2 + c   (z_0 = 0, d_0 = 0; docs/methods.md A2)
  * in midpoint-radius ball arithmetic over X with every radius rounded up
  * (src/precise/ball.ts). Exact period: F_{p/q} excludes 0 on X for every
  * prime q dividing p; a zero of F_d with d | p, d < p is a zero of one of

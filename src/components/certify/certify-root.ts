@@ -4,7 +4,7 @@
  *   F^k(w, c) = w,  D_z F^k(w, c) = t,
  * a parameter c where a cycle of exact period k has multiplier t.
  * - Primitive components: k = p and t = 1. The Jacobian
- *   [[D_z - 1, D_c], [D_zz, D_cz]] (methods.md C3) is non-singular there.
+ *   [[D_z - 1, D_c], [D_zz, D_cz]] (docs/methods.md C3) is non-singular there.
  * - Satellites of a period-k parent at internal angle j/q: t = e^{2 pi i j/q}
  *   on the parent's k-cycle (the period-p system is singular at a
  *   satellite's root, p = kq; the parent's is not). t enters as a ball whose
@@ -50,7 +50,7 @@ interface Jet {
   periodOk: boolean;
 }
 
-/** G = (F^k - w, D_z F^k - t) and its Jacobian over the balls w, c (methods.md C3 and A6 recurrences). */
+/** G = (F^k - w, D_z F^k - t) and its Jacobian over the balls w, c (docs/methods.md C3 and A6 recurrences). */
 function jet(k: number, w: Ball, c: Ball, t: Ball, bits: number): Jet {
   const one = exactBall(1n << BigInt(bits), 0n);
   let z = w;
@@ -152,7 +152,7 @@ export function unitRootBall(j: number, q: number, bits: number): Ball | null {
  */
 export function certifyRootDecimal(period: number, nucleus: ComplexDecimal, root: ComplexDecimal, digits: number): { ok: boolean; radius: string | null; reason: string | null; satellite: boolean } {
   // a root lies on its component's boundary, about a quarter to a half of the size estimate from the
-  // nucleus (methods.md C4); one much farther away belongs to another component
+  // nucleus (docs/methods.md C4); one much farther away belongs to another component
   const probe = fixedScale(bitsForDigits(digits, 32));
   const log2size = log2SizeAt(period, { re: fromDecimal(nucleus.re, probe), im: fromDecimal(nucleus.im, probe) }, probe);
   const far = Math.log2(Math.hypot(Number(root.re) - Number(nucleus.re), Number(root.im) - Number(nucleus.im))) - log2size;

@@ -1,5 +1,5 @@
 /**
- * Bivariate linear approximation table (methods.md B5): skip l iterations of
+ * Bivariate linear approximation table (docs/methods.md B5): skip l iterations of
  * the perturbation z -> 2 Z_m z + z^2 + c at once with z_{m+l} = A z_m + B c,
  * valid while |z_m| < R.
  *

@@ -18,7 +18,7 @@ const NEWTON_TOLERANCE = 1e-12;
 const NEWTON_TOLERANCE_SKIPPING = 1e-9;
 
 /**
- * Newton on F^p(w, c) = w by perturbation from w0 = (r, i) 2^k (methods.md
+ * Newton on F^p(w, c) = w by perturbation from w0 = (r, i) 2^k (docs/methods.md
  * A5). On success writes w (r, i, k) and the multiplier (re, im) into
  * `res` = [wr, wi, wk, mulRe, mulIm] and returns true (|multiplier| < 1).
  */

@@ -8,7 +8,7 @@ import { run } from './step-loop.js';
 import { type DeepSettings, type DeepStats, EV_ESCAPED, FI, FK, FR, type Orbit, startState, type DeepWork } from './state.js';
 
 /**
- * Interior distance estimate (methods.md A6) along one period from the
+ * Interior distance estimate (docs/methods.md A6) along one period from the
  * cycle point w = (r, i) 2^k by plain perturbation, in tile units; NaN when
  * the values leave the double range (very deep tiles).
  */
@@ -89,7 +89,7 @@ function mulAdd(
 }
 
 /**
- * Interior distance estimate (methods.md A6) in full range, for tiles whose
+ * Interior distance estimate (docs/methods.md A6) in full range, for tiles whose
  * unit is below the double range: the pixel is single-stepped by the same
  * perturbation loop (rescaled where tiny) and the four derivatives carried
  * as (re, im, exponent). Slower than interiorDistanceDeep (a call and a few

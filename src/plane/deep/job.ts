@@ -104,7 +104,7 @@ export function startViewReference(view: DeepView, bits: number, escapeRadius: n
 
 /**
  * A periodic reference must be a nucleus: the kernel rebases at m = p
- * (methods.md B3), indexing one stored cycle modulo the period, which is
+ * (docs/methods.md B3), indexing one stored cycle modulo the period, which is
  * exact when Z_p = 0 and loses the pixel's digits when |Z_p| is of order 1.
  * 2^-64 is the lenient side of that (the deep path's fewest bits); nuclei
  * from `quadatlas locate` give |Z_p| below 1e-50 at the spans they are

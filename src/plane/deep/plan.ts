@@ -7,7 +7,7 @@
  *   magnitude (at least 1): that leaves ~10 bits of a double's 53 below a
  *   pixel for the orbit's rounding. The issue's "double runs out near a span
  *   of 1e-13" is the same rule at ~1000 pixels. [common practice]
- * - Deep otherwise: reference bits from referenceBits (methods.md B7), and a
+ * - Deep otherwise: reference bits from referenceBits (docs/methods.md B7), and a
  *   tile unit U = 0 while the span is above 2^-900 (~1e-271), so that
  *   offsets and distances stay in c units like the shallow kernel; below,
  *   U = floor(log2 span) - 8, so offsets are at most ~2^8 in tile units.

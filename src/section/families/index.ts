@@ -10,7 +10,7 @@
  * fixed point's onset and the state interval of the diagram. Add it to the
  * map below; cascade, lyapunov and diagram then work for it, and windows if
  * its maximum is quadratic. Test it in test/section/ against a published
- * value (e.g. its delta, methods.md E8).
+ * value (e.g. its delta, docs/methods.md E8).
  */
 import type { UnimodalFamily } from '../unimodal-family.js';
 import { logistic } from './logistic.js';

@@ -1,6 +1,6 @@
 /**
  * The logistic family x -> r x (1 - x), conjugate to z -> z^2 + c on the real
- * axis by z = r (1/2 - x), c = r/2 - r^2/4 (methods.md E1).
+ * axis by z = r (1/2 - x), c = r/2 - r^2/4 (docs/methods.md E1).
  * Superstable fixed point r = 2 (c = 0); full chaos r = 4 (c = -2).
  */
 import type { UnimodalFamily } from '../unimodal-family.js';

@@ -2,7 +2,7 @@
  * The quartic family x -> r - x^4: a maximum of order 4 at x = 0, so it sits
  * in a different universality class and its delta differs from the logistic
  * one: 7.2846862170733... (K. Briggs, Math. Comp. 57 (1991) 435-439, order-4
- * value; methods.md E8, checks.md).
+ * value; docs/methods.md E8, docs/checks.md).
  * Superstable fixed point r = 0; full chaos r = 2^(1/3), where the critical
  * value r lands on the fixed point r - r^4 = -r.
  */
@@ -18,7 +18,7 @@ export const quartic: UnimodalFamily = {
   stateRange: [-1.26, 1.26],
   cascadeSeed: ['0', '1'],
   fixedPointOnset: '-0.47247039371057743678770397772933563146384429926307', // -(3/4) 4^(-1/3): saddle-node where -4x^3 = 1
-  deltaGuess: '7.28', // Briggs (1991), 7.2846862...; only the start of the extrapolation (methods.md E8)
+  deltaGuess: '7.28', // Briggs (1991), 7.2846862...; only the start of the extrapolation (docs/methods.md E8)
   f: (x, r) => r - x * x * x * x,
   dfdx: (x) => -4 * x * x * x,
   jet(x, r, D) {

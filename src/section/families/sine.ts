@@ -1,7 +1,7 @@
 /**
  * The sine family x -> r sin(pi x) on [0, 1]: a quadratic maximum at x = 1/2
  * that is not a polynomial, so its Feigenbaum delta and alpha must equal the
- * logistic ones (universality; methods.md E8).
+ * logistic ones (universality; docs/methods.md E8).
  * Superstable fixed point r = 1/2; full chaos r = 1.
  */
 import type { UnimodalFamily } from '../unimodal-family.js';

@@ -26,7 +26,7 @@ function orbit(p: number, re: Decimal, im: Decimal): { fr: Decimal; fi: Decimal;
   return { fr: zr, fi: zi, dr, di };
 }
 
-// The period-3 nuclei are the roots of c^3 + 2c^2 + c + 1 (checks.md "period-3 nuclei", exact polynomial;
+// The period-3 nuclei are the roots of c^3 + 2c^2 + c + 1 (docs/checks.md "period-3 nuclei", exact polynomial;
 // OEIS A060006 for the real one); these 40-digit values are from mpmath 1.2.1
 // polyroots([1, 2, 1, 1], maxsteps=200, extraprec=200) at mp.dps = 45.
 const CUBIC_ROOTS = [
@@ -53,7 +53,7 @@ describe('certifyNucleusFixed', () => {
       const f = orbit(4, c, new D(0));
       c = c.minus(f.fr.div(f.dr));
     }
-    const size = 0.0033; // Hunt-Ott size of this component, to 2 digits (methods.md C4)
+    const size = 0.0033; // Hunt-Ott size of this component, to 2 digits (docs/methods.md C4)
     const shifted = c.plus(0.01 * size);
     const cert = certifyNucleusFixed(4, fromDecimal(shifted.toFixed(60), S), 0n, BITS);
     expect(cert.ok).toBe(true);

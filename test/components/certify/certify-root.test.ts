@@ -7,14 +7,14 @@ import { fixedScale, fromDecimal } from '../../../src/precise/fixed.js';
 const D = Decimal.clone({ precision: 60 });
 
 describe('certifyRootDecimal', () => {
-  it('certifies the real period-3 root -7/4 (checks.md, exact) from a printed value 1e-22 off, with a radius covering the offset', () => {
+  it('certifies the real period-3 root -7/4 (docs/checks.md, exact) from a printed value 1e-22 off, with a radius covering the offset', () => {
     const r = certifyRootDecimal(3, { re: '-1.754877666246692760049509', im: '0' }, { re: '-1.7500000000000000000001', im: '0' }, 25);
     expect(r.ok, r.reason ?? '').toBe(true);
     expect(r.satellite).toBe(false);
     expect(new D(r.radius!).gte('1e-22')).toBe(true);
     expect(new D(r.radius!).lt('2e-22')).toBe(true);
   });
-  it('certifies the satellite roots -3/4 (1/2 bulb) and -1/8 + (3 sqrt 3/8) i (1/3 bulb), checks.md exact values', () => {
+  it('certifies the satellite roots -3/4 (1/2 bulb) and -1/8 + (3 sqrt 3/8) i (1/3 bulb), docs/checks.md exact values', () => {
     const half = certifyRootDecimal(2, { re: '-1', im: '0' }, { re: '-0.75', im: '0' }, 20);
     expect(half.ok && half.satellite).toBe(true);
     const im = new D(3).sqrt().times(3).div(8);
@@ -37,7 +37,7 @@ describe('certifyCycleParameter', () => {
     expect(certifyCycleParameter(2, { re: 0n, im: 0n }, { re: 0n, im: 0n }, one, bits).ok).toBe(false);
     // c = -1 has no parabolic 3-cycle near it
     expect(certifyCycleParameter(3, { re: 0n, im: 0n }, { re: -s.one, im: 0n }, one, bits).ok).toBe(false);
-    // the cusp 1/4 with w = 1/2: the fixed point with multiplier 1 (checks.md main cardioid, m = 1)
+    // the cusp 1/4 with w = 1/2: the fixed point with multiplier 1 (docs/checks.md main cardioid, m = 1)
     expect(certifyCycleParameter(1, { re: fromDecimal('0.5', s), im: 0n }, { re: fromDecimal('0.25', s), im: 0n }, one, bits).ok).toBe(true);
   });
 });

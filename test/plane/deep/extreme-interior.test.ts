@@ -56,7 +56,7 @@ describe('sampleDeep around a period-427 minibrot at span 3e-320 (rescaled itera
     }
     expect(interior.length).toBeGreaterThan(10);
     // interior distances (full-range A6, tile units): positive and below the
-    // span; their bound is b/4 <= dist <= b (methods.md A6), so no interior
+    // span; their bound is b/4 <= dist <= b (docs/methods.md A6), so no interior
     // pixel is farther than 4b from the boundary, which lies in view
     const spanTile = new D(SPAN).div(unit).toNumber();
     for (const k of interior) {

@@ -33,7 +33,7 @@ export function decimalEscapeCount(D: typeof Decimal, cr: Dec, ci: Dec, maxItera
 
 /**
  * Escape count n (or -1) and the smooth count mu = n - log2(ln|z_n| / ln R)
- * (methods.md A1) from decimal.js iteration; mu is NaN when not escaped.
+ * (docs/methods.md A1) from decimal.js iteration; mu is NaN when not escaped.
  */
 export function decimalEscape(D: typeof Decimal, cr: Dec, ci: Dec, maxIterations: number, escapeRadius: number): { n: number; mu: number } {
   return decimalEscapeDistance(D, cr, ci, maxIterations, escapeRadius, false);
@@ -41,7 +41,7 @@ export function decimalEscape(D: typeof Decimal, cr: Dec, ci: Dec, maxIterations
 
 /**
  * As decimalEscape, and with `withDistance` also the exterior distance
- * estimate b = 2|z_n| ln|z_n| / |dz_n/dc| (methods.md A2, derivative updated
+ * estimate b = 2|z_n| ln|z_n| / |dz_n/dc| (docs/methods.md A2, derivative updated
  * before z) as a Decimal (undefined when not asked or not escaped).
  */
 export function decimalEscapeDistance(
@@ -134,7 +134,7 @@ export function atomPeriod(D: typeof Decimal, cr: Dec, ci: Dec, maxIterations: n
 
 /**
  * Newton's method for a nucleus of period p (z_p(c) = 0, dz_{n+1}/dc =
- * 2 z_n dz_n/dc + 1; methods.md C), in decimal.js from the guess.
+ * 2 z_n dz_n/dc + 1; docs/methods.md C), in decimal.js from the guess.
  */
 export function decimalNucleus(D: typeof Decimal, period: number, gr: Dec, gi: Dec, steps = 60): { re: Dec; im: Dec } {
   let cr = gr;
@@ -162,7 +162,7 @@ export function decimalNucleus(D: typeof Decimal, period: number, gr: Dec, gi: D
 
 /**
  * Multiplier of the p-cycle through the point near 0 at c, by Newton on
- * F^p(w) = w in decimal.js from w = 0 (methods.md A5): at most `steps`
+ * F^p(w) = w in decimal.js from w = 0 (docs/methods.md A5): at most `steps`
  * steps, stopping once a step is below 10^-stopDigits.
  */
 export function decimalMultiplier(D: typeof Decimal, cr: Dec, ci: Dec, p: number, steps: number, stopDigits: number): [number, number] {
@@ -195,7 +195,7 @@ export function decimalMultiplier(D: typeof Decimal, cr: Dec, ci: Dec, p: number
 
 /**
  * |z_p(c) / (dz_p/dc)(c)| in decimal.js: the size of one Newton step for a
- * nucleus of period p at c (methods.md C2); tiny when c is a nucleus.
+ * nucleus of period p at c (docs/methods.md C2); tiny when c is a nucleus.
  */
 export function decimalNucleusStep(D: typeof Decimal, re: string, im: string, period: number): Dec {
   let x = new D(0), y = new D(0), dx = new D(0), dy = new D(0);

@@ -12,7 +12,7 @@ const R = 65536; // the shallow kernel's default escape radius (sample-parameter
 describe('sampleDeep against the shallow kernel (span 0.1, double offsets)', () => {
   it('gives the same periods, escape counts, smooth counts and distances as sampleParameters on a 32x32 grid near -1.3+0.05i', () => {
     // Perturbation about one reference equals direct double iteration up to
-    // rounding (methods.md B1/B3); the colour-relevant fields must agree.
+    // rounding (docs/methods.md B1/B3); the colour-relevant fields must agree.
     const size = 32;
     const D = decimalAt(40);
     const centre = { re: '-1.3', im: '0.05' };

@@ -31,7 +31,7 @@ function agreesTo(a: string, b: string, places: number): boolean {
 
 /**
  * The independent reference: alpha and delta of order Z from `terms` power-series terms at `digits` digits;
- * `near` picks delta among the pencil's eigenvalues (a rough value: 4.67 for Z = 2, 7.28 for Z = 4, methods.md E8).
+ * `near` picks delta among the pencil's eigenvalues (a rough value: 4.67 for Z = 2, 7.28 for Z = 4, docs/methods.md E8).
  */
 function mpmathConstants(order: number, terms: number, digits: number, near: string): { alpha: string; delta: string } {
   const program = `import sys
@@ -171,7 +171,7 @@ describe('Feigenbaum constants of order 4 from the fixed point', () => {
 describe('Feigenbaum constants of order 3 (the class of |x|^3)', () => {
   it.runIf(requireInCi(haveMpmath, 'python3-mpmath'))('delta(3) agrees with the mpmath cascade of x -> r - |x|^3 (periods to 2^11, Aitken) to 2e-6', () => {
     // An independent route: superstable parameters of r - |x|^3 by mpmath Newton in r, their ratios delta_n and
-    // Aitken's extrapolation of the last three (methods.md E2, E3); it gives 6.0846894 against our 6.0846891.
+    // Aitken's extrapolation of the last three (docs/methods.md E2, E3); it gives 6.0846894 against our 6.0846891.
     const out = runMpmath(`from mpmath import mp, mpf, sign
 mp.dps = 60
 def F(r, n):
