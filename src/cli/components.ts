@@ -16,6 +16,8 @@ import { certifyListing, MAX_CERTIFY_PERIOD, reportCensusCertificate } from './c
 import { UserError } from '../check/user-error.js';
 import { parseInteger } from '../check/fields.js';
 import { addOptions, type OptionSpec } from './option-spec.js';
+import { TABLE_EXTENSIONS, writeTableFile, type ColumnType } from '../io/table-file.js';
+import { prepareOutputFile } from '../io/check-writable-directory.js';
 
 /** Longest listing period (the listing refines every nucleus and root to D digits). */
 export const MAX_LIST_PERIOD = 16;
@@ -30,6 +32,7 @@ export const COMPONENTS_OPTIONS: readonly OptionSpec[] = [
   { flags: '--certify', description: 'prove each nucleus (a disk holding exactly one, of exact period P) and the census complete (default: computed, not proved)' },
   { flags: '--json', description: 'JSON output (default: aligned text)' },
   { flags: '--csv', description: 'CSV output with snake_case columns (default: aligned text)' },
+  { flags: '--out <file>', description: 'also write the rows to FILE: .csv, .json or .parquet (typed columns), by its extension (default: stdout only)' },
 ];
 
 export function register(program: Command): void {
@@ -45,6 +48,12 @@ export function register(program: Command): void {
       const workers = o['workers'] === undefined ? availableParallelism() : parseInteger(o['workers'], '--workers', 0, 256);
       const box = o['within'] === undefined ? null : parseBox(o['within'], '--within');
       if (o['json'] === true && o['csv'] === true) throw new UserError('--json, --csv', 'one of --json or --csv', '--json --csv');
+      const out = typeof o['out'] === 'string' ? o['out'] : null;
+      if (out !== null) {
+        if (count) throw new UserError('--out', 'a listing (without --count) to write', '--count');
+        if (!TABLE_EXTENSIONS.some((e) => out.toLowerCase().endsWith(e))) throw new UserError('--out', 'a file name ending in .csv, .json or .parquet', out);
+        await prepareOutputFile(out, '--out');
+      }
       const t0 = performance.now();
       const progress = process.stderr.isTTY
         ? (done: number, total: number): void => {
@@ -78,6 +87,12 @@ export function register(program: Command): void {
       const rows = await listComponents(period, comps, digits, workers, listing);
       if (listing !== undefined) process.stderr.write('\n');
       const radii = certify ? certifyListing(period, rows, digits) : null;
+      if (out !== null) {
+        const head = radii === null ? HEADER : [...HEADER, 'certified_radius'];
+        await writeTableFile(out, head.map((name) => ({ name, type: COLUMN_TYPES[name] ?? 'string' })), rows.map((r, i) => (radii === null ? flat(r) : [...flat(r), radii[i]!])));
+        process.stderr.write(`quadatlas: wrote ${out} (${rows.length} rows)\n`);
+        return;
+      }
       if (o['json'] === true) process.stdout.write(`${JSON.stringify(rows.map((r, i) => (radii === null ? componentJson(r) : { ...componentJson(r), certifiedRadius: radii[i] })), null, 2)}\n`);
       else if (o['csv'] === true) process.stdout.write(toCsv(rows, radii));
       else process.stdout.write(toTable(rows, radii));
@@ -89,6 +104,9 @@ function inBox(c: CensusComponent, b: { re0: number; im0: number; re1: number; i
   const im = c.imHi + c.imLo;
   return re >= b.re0 && re <= b.re1 && im >= b.im0 && im <= b.im1;
 }
+
+/** Parquet and JSON column types of the listing (the others are strings: decimals kept as printed, exact fractions). */
+const COLUMN_TYPES: Record<string, ColumnType> = { period: 'int', size: 'double', orientation_deg: 'double', parent_period: 'int' };
 
 const HEADER = ['period', 'nucleus_re', 'nucleus_im', 'root_re', 'root_im', 'size', 'orientation_deg', 'shape', 'parent_period', 'internal_angle', 'angle_lo', 'angle_hi', 'address'];
 

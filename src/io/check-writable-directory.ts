@@ -29,3 +29,16 @@ export async function checkWritableDirectory(dir: string, field: string): Promis
   await rm(probe, { force: true });
   releaseTemp(probe);
 }
+
+/**
+ * Checks, before any work, that `file` can be written: it is not an existing
+ * directory, and its directory exists and takes a new file.
+ */
+export async function prepareOutputFile(file: string, field: string): Promise<void> {
+  const isDir = await stat(file).then(
+    (s) => s.isDirectory(),
+    () => false,
+  );
+  if (isDir) throw new UserError(field, 'a file name (not an existing directory)', file);
+  await checkWritableDirectory(path.dirname(path.resolve(file)), field);
+}
