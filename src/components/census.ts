@@ -22,7 +22,7 @@
  */
 import { mapOnWorkers } from '../threads/map-on-workers.js';
 import { landRays, RAY_RECORD } from './land-rays.js';
-import { lavaursSweep } from './lavaurs-sweep.js';
+import { lavaursStream } from './lavaurs-stream.js';
 import { periodicNumerators, properDivisors } from './periodic-angles.js';
 import { builtWorkerUrl } from '../threads/built-worker.js';
 
@@ -78,7 +78,7 @@ export async function census(period: number, options: CensusOptions = {}): Promi
     };
   }
   const den = 2 ** period - 1;
-  const pairs = lavaursSweep(period);
+  const pairs = lavaursStream(period);
   // One pair of each mirror couple: lo + hi < den (upper half plane) or = den (real).
   const keep: number[] = [];
   for (let i = 0; i < pairs.lo.length; i += 1) if (pairs.lo[i]! + pairs.hi[i]! <= den) keep.push(i);

@@ -94,3 +94,23 @@ describe('lavaursSweep', () => {
     }
   });
 });
+
+describe('lavaursStream (bounded memory)', () => {
+  it('gives the pairs of Lavaurs\' rule itself (lavaursPairs, quadratic) for periods 2..10, and of the sweep for 11..16', async () => {
+    const { lavaursStream } = await import('../../src/components/lavaurs-stream.js');
+    for (let p = 2; p <= 16; p += 1) {
+      const s = lavaursStream(p);
+      expect(s.lo.length, `period ${p}`).toBe(A000740[p - 1]);
+      if (p <= 10) {
+        const byRule = lavaursPairs(p).filter((q) => q.period === p).map((q) => [q.lo, q.hi]);
+        expect(Array.from(s.lo).map((l, i) => [l, s.hi[i]])).toEqual(byRule.sort((x, y) => x[0]! - y[0]!));
+      } else {
+        const w = lavaursSweep(p);
+        expect(Array.from(s.lo)).toEqual(Array.from(w.lo));
+        expect(Array.from(s.hi)).toEqual(Array.from(w.hi));
+      }
+      // A000048: the pairs symmetric about 1/2 (lo + hi = 2^p - 1) are the real components.
+      expect(Array.from(s.lo).filter((l, i) => l + s.hi[i]! === 2 ** p - 1).length, `period ${p}`).toBe(A000048[p - 1]);
+    }
+  });
+});
