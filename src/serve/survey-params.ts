@@ -104,7 +104,10 @@ export function tileRect(t: TileRequest): { x0: number; y0: number; w: number; h
   const y0 = t.frame.height / 2 + t.ty * t.size;
   const cx0 = Math.max(0, x0);
   const cy0 = Math.max(0, y0);
-  return { x0: cx0, y0: cy0, w: Math.min(t.frame.width, x0 + t.size) - cx0, h: Math.min(t.frame.height, y0 + t.size) - cy0 };
+  const w = Math.min(t.frame.width, x0 + t.size) - cx0;
+  const h = Math.min(t.frame.height, y0 + t.size) - cy0;
+  if (w <= 0 || h <= 0) throw new UserError('tx', 'a tile that meets the frame', `${t.tx},${t.ty}`);
+  return { x0: cx0, y0: cy0, w, h };
 }
 
 /** "RE,IM" for the probe. */
