@@ -51,6 +51,7 @@ export function register(program: Command): void {
     const port = parseInteger(values['port'], '--port', 0, 65535);
     const host = String(values['host']);
     if (!/^[0-9A-Za-z.:-]{1,64}$/.test(host)) throw new UserError('--host', 'an IP address or host name', host);
+    if (/^(0\.0\.0\.0|::|\[::\])$/.test(host)) throw new UserError('--host', 'one address of this machine (the Host check needs the name browsers will use), not a wildcard', host);
     const remote = !LOOPBACK.test(host);
     if (remote && values['allowRemote'] !== true) throw new UserError('--host', 'a loopback address (127.0.0.1, ::1), or --allow-remote as well', host);
     const workers = optionalInteger(values['workers'], '--workers', 1, 256) ?? Math.max(1, os.availableParallelism());

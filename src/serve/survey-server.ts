@@ -27,7 +27,7 @@ import { createServer, type IncomingMessage, type Server, type ServerResponse } 
 import type { AddressInfo } from 'node:net';
 import path from 'node:path';
 import { ConvergenceError } from '../check/fields.js';
-import { UserError } from '../check/user-error.js';
+import { Received, UserError } from '../check/user-error.js';
 import { parseDecimalPair } from '../precise/decimal-string.js';
 import { renderSheet } from '../render/render-sheet.js';
 import { probePoint } from '../section/probe-point.js';
@@ -226,6 +226,8 @@ export async function startSurvey(o: SurveyOptions): Promise<SurveyServer> {
     }
     if (typeof body !== 'object' || body === null || Array.isArray(body)) throw new UserError('body', 'a JSON object { re, im, span, width, height, samples }', body);
     const b = body as Record<string, unknown>;
+    // No other field (a file name, say) is ever read; naming one is an error, so nobody believes it was honoured.
+    for (const k of Object.keys(b)) if (!['re', 'im', 'span', 'width', 'height', 'samples'].includes(k)) throw new UserError(`body.${k.slice(0, 40)}`, 'only the fields re, im, span, width, height, samples (the server names the file)', new Received(`a field "${k.slice(0, 40)}"`));
     const str = (k: string): string | null => (typeof b[k] === 'string' ? (b[k] as string) : typeof b[k] === 'number' ? String(b[k]) : null);
     const re = decimalParam(str('re'), 're', 4);
     const im = decimalParam(str('im'), 'im', 4);
