@@ -31,7 +31,14 @@ interface SurveyHooks {
   idle(): boolean;
   places(): number;
 }
-type WithSurvey = typeof globalThis & { survey: SurveyHooks };
+/** What the callbacks run in the page see (this project compiles without the DOM types). */
+interface PageElement {
+  textContent: string | null;
+  width: number;
+  height: number;
+  getContext(kind: '2d'): { getImageData(x: number, y: number, w: number, h: number): { data: Uint8ClampedArray } };
+}
+type WithSurvey = typeof globalThis & { survey: SurveyHooks; document: { getElementById(id: string): PageElement }; location: { hash: string } };
 
 beforeAll(async () => {
   if (!haveChromium) return;
@@ -78,7 +85,7 @@ async function settled(page: Page, timeout = 90_000): Promise<void> {
 /** The canvas's pixels (RGBA) as the page drew them. */
 async function canvasPixels(page: Page): Promise<{ width: number; height: number; data: Buffer }> {
   const got = await page.evaluate(() => {
-    const c = document.getElementById('canvas') as HTMLCanvasElement;
+    const c = (globalThis as WithSurvey).document.getElementById('canvas');
     const d = c.getContext('2d')!.getImageData(0, 0, c.width, c.height).data;
     let s = '';
     for (let k = 0; k < d.length; k += 8192) s += String.fromCharCode(...d.subarray(k, k + 8192));
@@ -101,13 +108,13 @@ describe.skipIf(!haveChromium)('survey page', () => {
     expect(distinct(first.data), 'tiles drawn (a blank canvas has one colour)').toBeGreaterThan(500);
     // Recentre on the nucleus by the address, then click the pixel at its centre.
     await page.evaluate(() => {
-      location.hash = 're=-0.12256116687665361998&im=0.74486176661974423659&span=0.4';
+      (globalThis as WithSurvey).location.hash = 're=-0.12256116687665361998&im=0.74486176661974423659&span=0.4';
     });
     await settled(page);
     const v = await page.evaluate(() => (globalThis as WithSurvey).survey.view());
     const box = (await page.locator('#plane').boundingBox())!;
     await page.mouse.click(box.x + v.width / 2, box.y + v.height / 2);
-    await page.waitForFunction(() => document.getElementById('point-facts')!.textContent!.includes('period'), null, { timeout: 30_000 });
+    await page.waitForFunction(() => (globalThis as WithSurvey).document.getElementById('point-facts')!.textContent!.includes('period'), null, { timeout: 30_000 });
     const facts = await page.locator('#point-facts').innerText();
     // The period-3 "rabbit" component: external angles 1/7 and 2/7 (Douady and Hubbard; from memory).
     expect(facts).toMatch(/period\s+3\b/);
@@ -125,7 +132,7 @@ describe.skipIf(!haveChromium)('survey page', () => {
     const re = '-1.7400623825793399052343';
     const im = '0.0281753397792110489924';
     const page = await open(`#re=${re}&im=${im}&span=1e-20`);
-    await page.waitForFunction(() => (globalThis as WithSurvey).survey?.view !== undefined && document.getElementById('centre-re')!.textContent !== '', null, { timeout: 20_000 });
+    await page.waitForFunction(() => (globalThis as WithSurvey).survey?.view !== undefined && (globalThis as WithSurvey).document.getElementById('centre-re')!.textContent !== '', null, { timeout: 20_000 });
     const v = await page.evaluate(() => (globalThis as WithSurvey).survey.view());
     // The view centre is the address's centre, digit for digit.
     expect(new Decimal(v.re).eq(re) && new Decimal(v.im).eq(im)).toBe(true);
@@ -190,11 +197,11 @@ describe.skipIf(!haveChromium)('survey page', () => {
     expect(differ, 'channels that differ between the plate and the screen').toBe(0);
     // The screenshot for the README: the period-3 bulb and its neighbours, the probe panel filled in at its nucleus.
     await page.evaluate(() => {
-      location.hash = 're=-0.1225611668766536&im=0.7448617666197442&span=0.62';
+      (globalThis as WithSurvey).location.hash = 're=-0.1225611668766536&im=0.7448617666197442&span=0.62';
     });
     await settled(page);
     await page.mouse.click(box.x + v.width / 2, box.y + v.height / 2);
-    await page.waitForFunction(() => document.getElementById('point-facts')!.textContent!.includes('angles'), null, { timeout: 30_000 });
+    await page.waitForFunction(() => (globalThis as WithSurvey).document.getElementById('point-facts')!.textContent!.includes('angles'), null, { timeout: 30_000 });
     await page.mouse.move(box.x + v.width * 0.3, box.y + v.height * 0.62);
     mkdirSync(path.join(ROOT, 'docs/images'), { recursive: true });
     await page.screenshot({ path: path.join(ROOT, 'docs/images/survey.png') });
