@@ -71,6 +71,8 @@ export const DEFAULT_MAX_QUEUE = 256;
 export const DEFAULT_PER_CLIENT = 96;
 export const DEFAULT_CACHE_BYTES = 64 * 1024 * 1024;
 const MAX_URL = 4096;
+const MIN_JULIA_SIZE = 16;
+const MAX_JULIA_SIZE = 512;
 const MAX_BODY = 8192;
 
 /** The page: exact request path -> file in ./page/ and its type. Nothing else is ever read from disk. */
@@ -203,6 +205,21 @@ export async function startSurvey(o: SurveyOptions): Promise<SurveyServer> {
     }
   };
 
+  const handleJulia = async (res: ServerResponse, q: URLSearchParams): Promise<void> => {
+    const c = pointParam(q.get('c'), 'c');
+    const size = integerParam(q.get('size'), 'size', MIN_JULIA_SIZE, MAX_JULIA_SIZE);
+    const gone = new AbortController();
+    const onClose = (): void => {
+      if (!res.writableEnded) gone.abort();
+    };
+    res.on('close', onClose);
+    try {
+      send(res, 200, 'image/png', await tiles.julia(c, size, gone.signal), { 'cache-control': 'private, max-age=3600' });
+    } finally {
+      res.off('close', onClose);
+    }
+  };
+
   const handlePrint = async (req: IncomingMessage, res: ServerResponse): Promise<void> => {
     if (!sameToken(req.headers['x-survey-token'] as string | undefined, token)) {
       fail(res, 403, 'Expected the X-Survey-Token header of this run for print');
@@ -287,7 +304,7 @@ export async function startSurvey(o: SurveyOptions): Promise<SurveyServer> {
       send(res, 200, file.type, file.body);
       return;
     }
-    if (route !== '/tile' && route !== '/probe' && route !== '/base') {
+    if (route !== '/tile' && route !== '/probe' && route !== '/julia' && route !== '/base') {
       fail(res, 404, `Expected one of the page's own paths but received ${JSON.stringify(route.slice(0, 80))}`);
       return;
     }
@@ -297,6 +314,7 @@ export async function startSurvey(o: SurveyOptions): Promise<SurveyServer> {
     }
     if (route === '/tile') await handleTile(req, res, q);
     else if (route === '/probe') await handleProbe(res, q);
+    else if (route === '/julia') await handleJulia(res, q);
     else sendJson(res, 200, { sheet: renderRecord(o.base, toolVersion()), version: toolVersion() });
   };
 

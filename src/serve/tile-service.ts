@@ -19,6 +19,8 @@ import { UserError } from '../check/user-error.js';
 import { doubleGrid } from '../view/view.js';
 import { resolveIterations, type Sheet } from '../view/sheet.js';
 import { spanAtLevel, tileRect, type Frame, type TileRequest } from './survey-params.js';
+import { juliaSheetJob } from '../render/render-julia.js';
+import { parseJuliaSheet, type JuliaSheet } from '../view/julia-sheet.js';
 import { TilePool } from './tile-pool.js';
 
 /** Prepared jobs kept (a deep job holds its reference orbit and table). */
@@ -42,6 +44,27 @@ export function frameSheet(base: Sheet, frame: Frame, level: number): Sheet {
 /** The survey's base sheet: the given sheet made fit for tiles (8 bits, no legend, no labels, no rotation). */
 export function surveyBase(sheet: Sheet): Sheet {
   return { ...sheet, depth: 8, labels: 0, colour: { ...sheet.colour, legend: 'none' }, view: { ...sheet.view, rotation: 0 }, output: { ...sheet.output, data: null } };
+}
+
+/** Iterations of the Julia inset: enough for the sets near the boundary a click lands on, cheap at inset size. */
+export const JULIA_INSET_ITERATIONS = 2000;
+
+/**
+ * The Julia sheet of the page's inset for c: the whole filled Julia set
+ * (centre 0, span 3.6) at size x size pixels, with the base sheet's colouring
+ * and samples, in doubles. `quadatlas julia` of this sheet gives the same bytes.
+ */
+export function juliaInsetSheet(base: Sheet, c: { re: string; im: string }, size: number): JuliaSheet {
+  return parseJuliaSheet({
+    kind: 'julia',
+    c: { re: c.re, im: c.im },
+    view: { re: '0', im: '0', span: '3.6' },
+    pixels: { width: size, height: size },
+    iterations: JULIA_INSET_ITERATIONS,
+    samples: base.samples,
+    arithmetic: 'double',
+    colour: base.colour,
+  });
 }
 
 class Lru<V> {
@@ -170,6 +193,22 @@ export class TileService {
       signal?.removeEventListener('abort', leave);
       if (signal?.aborted !== true) mine.waiters--;
     }
+  }
+
+  /** The Julia inset of c as PNG (rendered by the same pool, cached with the tiles). */
+  async julia(c: { re: string; im: string }, size: number, signal?: AbortSignal): Promise<Buffer> {
+    const key = JSON.stringify(['julia', c.re, c.im, size]);
+    const hit = this.tiles.get(key);
+    if (hit !== undefined) return hit;
+    let known = this.jobs.get(key);
+    if (known === undefined) {
+      known = { key, job: juliaSheetJob(juliaInsetSheet(this.base, c, size)).job };
+      this.jobs.set(key, known, 0);
+    }
+    const done = await this.pool.render(key, known.job, { index: 0, x0: 0, y0: 0, w: size, h: size }, signal);
+    const png = encodePngTile(done.pixels as Uint8Array, size, size);
+    this.tiles.set(key, png, png.length);
+    return png;
   }
 
   async close(): Promise<void> {

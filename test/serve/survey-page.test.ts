@@ -34,6 +34,8 @@ interface SurveyHooks {
 /** What the callbacks run in the page see (this project compiles without the DOM types). */
 interface PageElement {
   textContent: string | null;
+  complete: boolean;
+  naturalWidth: number;
   width: number;
   height: number;
   getContext(kind: '2d'): { getImageData(x: number, y: number, w: number, h: number): { data: Uint8ClampedArray } };
@@ -120,6 +122,12 @@ describe.skipIf(!haveChromium)('survey page', () => {
     expect(facts).toMatch(/period\s+3\b/);
     expect(facts).toMatch(/angles\s+1\/7, 2\/7/);
     await expect(page.locator('#to-nucleus').isVisible()).resolves.toBe(true);
+    // The Julia inset of the clicked c arrives beside the facts.
+    await page.waitForFunction(() => {
+      const img = (globalThis as WithSurvey).document.getElementById('julia');
+      return img.complete && img.naturalWidth === 240;
+    }, null, { timeout: 30_000 });
+    expect(await page.locator('#julia-cmd').innerText()).toMatch(/^quadatlas julia --c -0\.122\d*,0\.744\d*$/);
     // Recentre on the nucleus: the view centre becomes the nucleus the probe reported, exactly.
     await page.click('#to-nucleus');
     await settled(page);

@@ -92,7 +92,7 @@ describe('survey server', () => {
   });
 
   it('needs the run token for tiles, probes and the base sheet', async () => {
-    for (const p of [`/tile?${FRAME}&tx=0&ty=0`, `/tile?${FRAME}&tx=0&ty=0&t=${'0'.repeat(32)}`, '/probe?c=0,0', `/base?t=${server.token.slice(1)}`]) {
+    for (const p of [`/tile?${FRAME}&tx=0&ty=0`, `/tile?${FRAME}&tx=0&ty=0&t=${'0'.repeat(32)}`, '/probe?c=0,0', '/julia?c=0,0&size=64', `/base?t=${server.token.slice(1)}`]) {
       const r = await send(p);
       expect(r.status, p).toBe(403);
       expect(errorOf(r)).toMatch(/token/);
@@ -123,6 +123,8 @@ describe('survey server', () => {
       [`/probe?c=1,2,3&${t}`, 'for c'],
       [`/probe?c=${long},0&${t}`, 'characters for c'],
       [`/probe?c=-0.5,0&digits=1000&${t}`, 'for digits'],
+      [`/julia?c=-0.5,0&size=100000&${t}`, 'for size'],
+      [`/julia?c=-0.5&size=64&${t}`, 'for c'],
     ];
     for (const [p, wanted] of cases) {
       const r = await send(p);

@@ -11,7 +11,8 @@ import path from 'node:path';
 import { PNG } from 'pngjs';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { renderSheet } from '../../src/render/render-sheet.js';
-import { frameSheet, surveyBase, TileService } from '../../src/serve/tile-service.js';
+import { frameSheet, juliaInsetSheet, surveyBase, TileService } from '../../src/serve/tile-service.js';
+import { renderJuliaSheet } from '../../src/render/render-julia.js';
 import type { Frame } from '../../src/serve/survey-params.js';
 import { parseSheet, type Sheet } from '../../src/view/sheet.js';
 import { tempDir } from '../helpers/run-cli.js';
@@ -79,4 +80,23 @@ describe('survey tiles', () => {
     const frame: Frame = { re: '0.000000000000000000003', im: '1', span: '4e-19', width: 96, height: 64 };
     await checkFrame(base, frame, 4, 32, [[0, 0], [-1, -1], [-2, 0], [1, -1]], 'deep', true);
   }, 180_000);
+
+  it('draw the Julia inset as quadatlas julia renders its sheet, byte for byte', async () => {
+    const base = surveyBase(parseSheet({ iterations: 300, samples: 4 }));
+    const service = new TileService(base, { workers: 2, maxQueue: 8, cacheBytes: 1 << 22 });
+    try {
+      // The period-3 nucleus (the "rabbit"), whose Julia set has a three-cycle of basins.
+      const c = { re: '-0.12256116687665', im: '0.74486176661974' };
+      const inset = decode(await service.julia(c, 96));
+      const file = path.join(dir, 'julia.png');
+      const sheet = juliaInsetSheet(base, c, 96);
+      await renderJuliaSheet({ ...sheet, output: { file, data: null, sidecar: false } }, { workers: 2, tileSize: 40 });
+      const plate = decode(readFileSync(file));
+      expect(inset.data.equals(plate.data)).toBe(true);
+      const other = decode(await service.julia({ re: '-1', im: '0' }, 96));
+      expect(other.data.equals(plate.data), 'another c, another picture').toBe(false);
+    } finally {
+      await service.close();
+    }
+  }, 120_000);
 });

@@ -428,6 +428,7 @@ async function probe(i, j) {
   const dl = $('point-facts');
   $('point-hint').textContent = 'asking...';
   $('to-nucleus').hidden = true;
+  $('julia-box').hidden = true;
   dl.replaceChildren();
   const r = await fetch(`/probe?${new URLSearchParams({ c, t: token })}`);
   const j2 = await r.json().catch(() => ({ error: r.statusText }));
@@ -459,6 +460,10 @@ async function probe(i, j) {
     $('to-nucleus').hidden = false;
   }
   if (j2.logistic) fact(dl, 'logistic r', j2.logistic.r);
+  // The dynamical plane of the same c, rendered like `quadatlas julia` (serve/tile-service.ts, juliaInsetSheet).
+  $('julia').src = `/julia?${new URLSearchParams({ c, size: '240', t: token })}`;
+  $('julia-cmd').textContent = `quadatlas julia --c ${c}`;
+  $('julia-box').hidden = false;
   if (j2.window) fact(dl, 'window', `period ${j2.window.period} (${j2.window.word}), r ${j2.window.onsetR} to ${j2.window.endR}`);
 }
 
