@@ -209,6 +209,38 @@ describe('survey server', () => {
   }, 180_000);
 });
 
+describe('survey server, one client', () => {
+  it('holds one client to its limit of tiles in flight (503 beyond it)', async () => {
+    // Slow tiles (a boundary view at 20000 iterations) so that the first two are still rendering when the rest arrive.
+    const slow = await startSurvey({ host: '127.0.0.1', port: 0, base: surveyBase(parseSheet({ iterations: 20000, samples: 1 })), outDir, workers: 1, perClient: 2, log: () => {} });
+    try {
+      const frame = 're=-0.7453&im=0.1127&span=0.002&w=1024&h=1024&level=0&size=256';
+      const asks = [];
+      for (let k = 0; k < 8; k++) {
+        asks.push(
+          new Promise<Reply>((resolve, reject) => {
+            const req = request({ host: '127.0.0.1', port: slow.port, path: `/tile?${frame}&tx=${(k % 4) - 2}&ty=${Math.floor(k / 4) - 2}&t=${slow.token}`, headers: { host: `127.0.0.1:${slow.port}` }, agent }, (res) => {
+              const parts: Buffer[] = [];
+              res.on('data', (d: Buffer) => parts.push(d));
+              res.on('end', () => resolve({ status: res.statusCode ?? 0, headers: res.headers, body: Buffer.concat(parts) }));
+            });
+            req.on('error', reject);
+            req.end();
+          }),
+        );
+      }
+      const replies = await Promise.all(asks);
+      const shed = replies.filter((r) => r.status === 503);
+      expect(replies.filter((r) => r.status === 200).length).toBeGreaterThanOrEqual(2);
+      expect(shed.length).toBeGreaterThan(0);
+      for (const r of shed) expect(errorOf(r)).toMatch(/per client/);
+      expect(shed.length + replies.filter((r) => r.status === 200).length).toBe(8);
+    } finally {
+      await slow.close();
+    }
+  }, 120_000);
+});
+
 describe('quadatlas survey', () => {
   it('refuses a host that is not loopback without --allow-remote, and a wildcard, in one line with exit 2', () => {
     for (const args of [['--host', '192.0.2.1'], ['--host', '0.0.0.0', '--allow-remote']]) {
