@@ -22,7 +22,7 @@
  *   at a time, and request bodies and URLs have a size limit.
  */
 import { randomBytes, timingSafeEqual } from 'node:crypto';
-import { readFileSync } from 'node:fs';
+import { existsSync, readFileSync } from 'node:fs';
 import { createServer, type IncomingMessage, type Server, type ServerResponse } from 'node:http';
 import type { AddressInfo } from 'node:net';
 import path from 'node:path';
@@ -245,14 +245,16 @@ export async function startSurvey(o: SurveyOptions): Promise<SurveyServer> {
     const b = body as Record<string, unknown>;
     // No other field (a file name, say) is ever read; naming one is an error, so nobody believes it was honoured.
     for (const k of Object.keys(b)) if (!['re', 'im', 'span', 'width', 'height', 'samples'].includes(k)) throw new UserError(`body.${k.slice(0, 40)}`, 'only the fields re, im, span, width, height, samples (the server names the file)', new Received(`a field "${k.slice(0, 40)}"`));
-    const str = (k: string): string | null => (typeof b[k] === 'string' ? (b[k] as string) : typeof b[k] === 'number' ? String(b[k]) : null);
+    // Decimals as strings (a JSON number would already have lost digits), sizes as numbers.
+    const str = (k: string): string | null => (typeof b[k] === 'string' ? (b[k] as string) : null);
+    const num = (k: string): string | null => (typeof b[k] === 'number' ? String(b[k]) : null);
     const re = decimalParam(str('re'), 're', 4);
     const im = decimalParam(str('im'), 'im', 4);
     const span = spanParam(str('span'), 'span');
-    const width = evenSideParam(str('width'), 'width');
-    const height = evenSideParam(str('height'), 'height');
+    const width = evenSideParam(num('width'), 'width');
+    const height = evenSideParam(num('height'), 'height');
     if (width > MAX_PRINT_SIDE || height > MAX_PRINT_SIDE) throw new UserError('width', `sides of at most ${MAX_PRINT_SIDE} pixels`, `${width}x${height}`);
-    const samples = b['samples'] === undefined ? o.base.samples : integerParam(str('samples'), 'samples', 1, 64);
+    const samples = b['samples'] === undefined ? o.base.samples : integerParam(num('samples'), 'samples', 1, 64);
     if (!Number.isInteger(Math.sqrt(samples))) throw new UserError('samples', 'a square number of samples (1, 4, 9, 16, 25, 36, 49, 64)', samples);
     if (printing) {
       fail(res, 503, 'busy: one print at a time', { 'retry-after': '5' });
@@ -260,8 +262,13 @@ export async function startSurvey(o: SurveyOptions): Promise<SurveyServer> {
     }
     printing = true;
     try {
-      const name = `survey-${stamp(new Date())}-${++prints}.png`;
-      const file = path.join(o.outDir, name);
+      // A name no earlier print (of this run or another) holds.
+      let name = '';
+      let file = '';
+      do {
+        name = `survey-${stamp(new Date())}-${++prints}.png`;
+        file = path.join(o.outDir, name);
+      } while (existsSync(file));
       const sheet: Sheet = { ...o.base, title: o.base.title === '' ? 'survey print' : o.base.title, view: { re, im, span, rotation: 0 }, width, height, samples, output: { file, data: null, sidecar: true } };
       const summary = await renderSheet(sheet, { workers: o.workers, label: name });
       log(`quadatlas survey: printed ${summary.file} in ${summary.seconds} s`);

@@ -166,6 +166,7 @@ describe('survey server', () => {
       [{ ...json, origin, 'x-survey-token': server.token }, JSON.stringify({ re: '-0.75', im: '0', span: '3', width: 20000, height: 24 }), 400],
       [{ ...json, origin, 'x-survey-token': server.token }, `{"re":"${'1'.repeat(9000)}"}`, 400],
       [{ ...json, origin, 'x-survey-token': server.token }, '{not json', 400],
+      [{ ...json, origin, 'x-survey-token': server.token }, JSON.stringify({ re: -0.75, im: '0', span: '3', width: 32, height: 24 }), 400],
     ];
     for (const [headers, body, status] of refused) {
       const r = await send('/print', { method: 'POST', headers, body });
