@@ -35,6 +35,8 @@ import { renderRecord, type Sheet } from '../view/sheet.js';
 import { toolVersion } from '../io/tool-version.js';
 import { evenSideParam, decimalParam, integerParam, MAX_PRINT_SIDE, pointParam, spanParam, tileParams } from './survey-params.js';
 import { TileService } from './tile-service.js';
+import { realStrip } from './real-strip.js';
+import { encodePngTile } from '../io/iiif-tile-file.js';
 import { QueueFull, Withdrawn } from './tile-pool.js';
 
 export interface SurveyOptions {
@@ -71,6 +73,8 @@ export const DEFAULT_MAX_QUEUE = 256;
 export const DEFAULT_PER_CLIENT = 96;
 export const DEFAULT_CACHE_BYTES = 64 * 1024 * 1024;
 const MAX_URL = 4096;
+const MAX_STRIP_WIDTH = 4096;
+const MAX_STRIP_HEIGHT = 400;
 const MIN_JULIA_SIZE = 16;
 const MAX_JULIA_SIZE = 512;
 const MAX_BODY = 8192;
@@ -220,6 +224,17 @@ export async function startSurvey(o: SurveyOptions): Promise<SurveyServer> {
     }
   };
 
+  const handleStrip = (res: ServerResponse, q: URLSearchParams): void => {
+    const from = decimalParam(q.get('re0'), 're0', 4);
+    const to = decimalParam(q.get('re1'), 're1', 4);
+    const width = integerParam(q.get('w'), 'w', 2, MAX_STRIP_WIDTH);
+    const height = integerParam(q.get('h'), 'h', 8, MAX_STRIP_HEIGHT);
+    const a = Number(from);
+    const b = Number(to);
+    if (!(b - a > 1e-12 * Math.max(1, Math.abs(a)))) throw new UserError('re1', 'a right end above re0 by more than doubles resolve (1e-12 relative)', to);
+    send(res, 200, 'image/png', encodePngTile(realStrip(a, b, width, height), width, height), { 'cache-control': 'private, max-age=3600' });
+  };
+
   const handlePrint = async (req: IncomingMessage, res: ServerResponse): Promise<void> => {
     if (!sameToken(req.headers['x-survey-token'] as string | undefined, token)) {
       fail(res, 403, 'Expected the X-Survey-Token header of this run for print');
@@ -311,7 +326,7 @@ export async function startSurvey(o: SurveyOptions): Promise<SurveyServer> {
       send(res, 200, file.type, file.body);
       return;
     }
-    if (route !== '/tile' && route !== '/probe' && route !== '/julia' && route !== '/base') {
+    if (route !== '/tile' && route !== '/probe' && route !== '/julia' && route !== '/strip' && route !== '/base') {
       fail(res, 404, `Expected one of the page's own paths but received ${JSON.stringify(route.slice(0, 80))}`);
       return;
     }
@@ -322,6 +337,7 @@ export async function startSurvey(o: SurveyOptions): Promise<SurveyServer> {
     if (route === '/tile') await handleTile(req, res, q);
     else if (route === '/probe') await handleProbe(res, q);
     else if (route === '/julia') await handleJulia(res, q);
+    else if (route === '/strip') handleStrip(res, q);
     else sendJson(res, 200, { sheet: renderRecord(o.base, toolVersion()), version: toolVersion() });
   };
 

@@ -92,7 +92,7 @@ describe('survey server', () => {
   });
 
   it('needs the run token for tiles, probes and the base sheet', async () => {
-    for (const p of [`/tile?${FRAME}&tx=0&ty=0`, `/tile?${FRAME}&tx=0&ty=0&t=${'0'.repeat(32)}`, '/probe?c=0,0', '/julia?c=0,0&size=64', `/base?t=${server.token.slice(1)}`]) {
+    for (const p of [`/tile?${FRAME}&tx=0&ty=0`, `/tile?${FRAME}&tx=0&ty=0&t=${'0'.repeat(32)}`, '/probe?c=0,0', '/julia?c=0,0&size=64', '/strip?re0=-2&re1=0&w=100&h=50', `/base?t=${server.token.slice(1)}`]) {
       const r = await send(p);
       expect(r.status, p).toBe(403);
       expect(errorOf(r)).toMatch(/token/);
@@ -125,6 +125,9 @@ describe('survey server', () => {
       [`/probe?c=-0.5,0&digits=1000&${t}`, 'for digits'],
       [`/julia?c=-0.5,0&size=100000&${t}`, 'for size'],
       [`/julia?c=-0.5&size=64&${t}`, 'for c'],
+      [`/strip?re0=0&re1=-1&w=100&h=50&${t}`, 'for re1'],
+      [`/strip?re0=-1&re1=0&w=100000&h=50&${t}`, 'for w'],
+      [`/strip?re0=-1&re1=0&w=100&h=5000&${t}`, 'for h'],
     ];
     for (const [p, wanted] of cases) {
       const r = await send(p);

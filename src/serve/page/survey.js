@@ -244,6 +244,49 @@ function showWhere() {
   $('scale-text').textContent = D.toText(D.roundSignificant(D.mulInt(s, bar), 3));
 }
 
+// ---- the real slice ----------------------------------------------------------------
+
+const STRIP_HEIGHT = 110;
+let stripAt = null;
+
+/** The bifurcation diagram under the plane while the view meets the real axis and doubles resolve it. */
+function updateStrip() {
+  const c = centre();
+  const s = viewSpacing();
+  const halfH = D.mulInt(s, vh / 2);
+  const meets = D.compare(D.sub(c.im, halfH), D.dec(0)) <= 0 && D.compare(D.add(c.im, halfH), D.dec(0)) >= 0;
+  const wide = D.magnitude(s) + Math.log10(vw) > -11;
+  const slice = $('slice');
+  if (!meets || !wide) {
+    slice.hidden = true;
+    stripAt = null;
+    return;
+  }
+  const halfW = D.mulInt(s, vw / 2);
+  const re0 = D.toText(D.roundSignificant(D.sub(c.re, halfW), 17));
+  const re1 = D.toText(D.roundSignificant(D.add(c.re, halfW), 17));
+  // Keep the strip away from the axis: at the top when the axis is in the lower half of the screen.
+  const axisLow = D.compare(c.im, D.dec(0)) > 0;
+  slice.className = axisLow ? 'top' : 'bottom';
+  const strip = $('strip');
+  strip.width = vw;
+  strip.height = STRIP_HEIGHT;
+  strip.style.transform = '';
+  strip.src = `/strip?${new URLSearchParams({ re0, re1, w: String(vw), h: String(STRIP_HEIGHT), t: token })}`;
+  slice.hidden = false;
+  stripAt = { anchor, level, ox };
+}
+
+/** While dragging, the strip moves with the plane; after a zoom it waits for the next settle. */
+function followStrip() {
+  if (stripAt === null) return;
+  if (stripAt.anchor !== anchor || stripAt.level !== level) {
+    $('slice').hidden = true;
+    return;
+  }
+  $('strip').style.transform = `translateX(${stripAt.ox - ox}px)`;
+}
+
 // ---- the view in the address --------------------------------------------------------
 
 function writeFragment() {
@@ -271,6 +314,7 @@ function goTo(v) {
   draw();
   schedule();
   writeFragment();
+  updateStrip();
 }
 
 // ---- moving about -------------------------------------------------------------------
@@ -290,6 +334,7 @@ function settle() {
     }
     schedule();
     writeFragment();
+    updateStrip();
   }, 220);
 }
 
@@ -311,6 +356,7 @@ function zoomAt(px, py, dir) {
     ox = Math.round((ox - dx) / 2);
     oy = Math.round((oy - dy) / 2);
   }
+  followStrip();
   draw();
   schedule();
   settle();
@@ -319,6 +365,7 @@ function zoomAt(px, py, dir) {
 function panBy(dx, dy) {
   ox -= Math.round(dx);
   oy -= Math.round(dy);
+  followStrip();
   draw();
   schedule();
 }
