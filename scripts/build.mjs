@@ -1,6 +1,6 @@
 // Compiles the TypeScript sources into dist/ (and the WebAssembly kernels, when present).
 import { spawnSync } from 'node:child_process';
-import { chmodSync, existsSync, rmSync } from 'node:fs';
+import { chmodSync, cpSync, existsSync, rmSync } from 'node:fs';
 import { fileURLToPath } from 'node:url';
 import path from 'node:path';
 
@@ -11,6 +11,8 @@ const run = (cmd, args) => {
 };
 rmSync(path.join(root, 'dist'), { recursive: true, force: true });
 run(process.execPath, [path.join(root, 'node_modules/typescript/bin/tsc'), '-p', 'tsconfig.build.json']);
+// The survey page's own files (served from a fixed list) sit beside the server module.
+cpSync(path.join(root, 'src/serve/page'), path.join(root, 'dist/src/serve/page'), { recursive: true });
 const wasmBuild = path.join(root, 'scripts/build-wasm.mjs');
 if (existsSync(wasmBuild)) run(process.execPath, [wasmBuild]);
 // The bin must stay executable: npx links it once and runs it directly after every rebuild.

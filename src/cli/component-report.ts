@@ -4,8 +4,11 @@
  */
 import { UserError } from '../check/user-error.js';
 import type { ComponentInfo } from '../components/component-info.js';
+import { componentJson, componentLines, significant, sizeText } from '../components/component-json.js';
 import { angleText } from '../components/external-angle.js';
 import { addressText } from '../components/internal-address.js';
+
+export { componentJson, componentLines, significant, sizeText };
 
 /** Parses "RE0,IM0,RE1,IM1" into a box with re0 < re1, im0 < im1. */
 export function parseBox(value: unknown, field: string): { re0: number; im0: number; re1: number; im1: number } {
@@ -19,55 +22,4 @@ export function parseBox(value: unknown, field: string): { re0: number; im0: num
   return { re0, im0, re1, im1 };
 }
 
-/**
- * A double quantity printed with an exponent's worth of meaning (size,
- * distance, multiplier, radius) to D significant digits, at most the 17 a
- * double holds (docs/cli.md: digits).
- */
-export function significant(x: number, digits: number): string {
-  return x.toPrecision(Math.min(17, Math.max(1, digits)));
-}
 
-/** Size as text: a double to D significant digits, or m e x where it underflows the double range. */
-export function sizeText(info: { size: number; log10Size: number }, digits = 6): string {
-  if (info.size > 0) return significant(info.size, digits);
-  const e = Math.floor(info.log10Size);
-  return `${(10 ** (info.log10Size - e)).toFixed(Math.min(14, Math.max(0, digits - 1)))}e${e}`;
-}
-
-/** Size in JSON: a number where it is a double, a decimal string below the double range. */
-function sizeJson(info: { size: number; log10Size: number }): number | string {
-  return info.size > 0 ? info.size : sizeText(info, 6);
-}
-
-/** One component as plain JSON-able data. */
-export function componentJson(info: ComponentInfo): Record<string, unknown> {
-  return {
-    period: info.period,
-    nucleus: info.nucleus,
-    root: info.root,
-    size: sizeJson(info),
-    orientationDegrees: Number(((info.orientation * 180) / Math.PI).toFixed(6)),
-    shape: info.shape,
-    parent: info.parent === null ? null : { period: info.parent.period, nucleus: info.parent.nucleus, internalAngle: `${info.parent.num}/${info.parent.den}` },
-    externalAngles: info.angles === null ? null : info.angles.map(angleText),
-    internalAddress: info.address === null ? null : addressText(info.address),
-  };
-}
-
-/** One component as aligned "key  value" lines. */
-export function componentLines(info: ComponentInfo, digits = 6): string[] {
-  const j = componentJson(info);
-  const parent = info.parent === null ? '-' : `period ${info.parent.period} at internal angle ${info.parent.num}/${info.parent.den} (nucleus ${info.parent.nucleus.re}, ${info.parent.nucleus.im})`;
-  return [
-    `period            ${info.period}`,
-    `nucleus           ${info.nucleus.re}, ${info.nucleus.im}`,
-    `root              ${info.root.re}, ${info.root.im}`,
-    `size              ${sizeText(info, digits)}`,
-    `orientation       ${String(j['orientationDegrees'])} degrees`,
-    `shape             ${info.shape}`,
-    `parent            ${parent}`,
-    `external angles   ${info.angles === null ? `not computed (period above 12; use --angle)` : info.angles.map(angleText).join(', ')}`,
-    `internal address  ${info.address === null ? '-' : addressText(info.address)}`,
-  ];
-}

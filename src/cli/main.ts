@@ -28,6 +28,7 @@ const COMMANDS: ReadonlyArray<readonly [string, string, () => Promise<CommandMod
   ['components', 'list or count the hyperbolic components of a period', () => import('./components.js')],
   ['locate', 'Newton to one nucleus from a guess, an external angle or an internal address', () => import('./locate.js')],
   ['probe', 'everything known about one parameter c', () => import('./probe.js')],
+  ['survey', 'explore the c-plane live in a browser, probe points, save the view as a sheet', () => import('./survey.js')],
   ['sheet', 'print the sheet stored in an image, plot or sidecar quadatlas wrote', () => import('./sheet.js')],
   ['palettes', 'list and show the exterior gradients, interior styles and period colours', () => import('./palettes.js')],
 ];
@@ -154,7 +155,7 @@ function invokedDirectly(): boolean {
 }
 
 /** Commands that stop cleanly on a signal by themselves (they finish the job in hand first). */
-const OWN_SIGNAL_HANDLING = new Set(['worker']);
+const OWN_SIGNAL_HANDLING = new Set(['worker', 'survey']);
 
 /** Sweeps of the temporary files after a signal, 20 ms apart, before the process exits. */
 const SIGNAL_SWEEPS = 5;

@@ -68,8 +68,20 @@ export function cycleRecord(cycle: JuliaCycle): Record<string, unknown> {
   };
 }
 
-export async function renderJuliaSheet(sheet: JuliaSheet, options: RenderSheetOptions = {}): Promise<PlateSummary> {
-  const started = process.hrtime.bigint();
+/** A Julia sheet's plate job, with what the summary records about it. */
+export interface PreparedJuliaJob {
+  readonly job: PlateJob;
+  readonly arithmetic: 'double' | 'deep';
+  readonly bits: number;
+  readonly iterations: number;
+  readonly referenceSeconds: number;
+  readonly deep: JuliaReferences | undefined;
+  /** The summary's `julia` record: c, the cycle, the fixed points, the marks. */
+  readonly julia: Record<string, unknown>;
+}
+
+/** Builds the plate job of a checked Julia sheet (written once for `julia` and the survey page's inset). */
+export function juliaSheetJob(sheet: JuliaSheet): PreparedJuliaJob {
   const view = { centerRe: sheet.view.re, centerIm: sheet.view.im, span: sheet.view.span, width: sheet.width, height: sheet.height, rotation: sheet.view.rotation };
   const grid = doubleGrid(view);
   const iterations = resolveIterations(sheet);
@@ -109,6 +121,12 @@ export async function renderJuliaSheet(sheet: JuliaSheet, options: RenderSheetOp
     fixedPoints: { alpha: { re: f.alphaRe, im: f.alphaIm }, beta: { re: f.betaRe, im: f.betaIm } },
     marks: marks.record,
   };
+  return { job, arithmetic, bits, iterations, referenceSeconds, deep, julia };
+}
+
+export async function renderJuliaSheet(sheet: JuliaSheet, options: RenderSheetOptions = {}): Promise<PlateSummary> {
+  const started = process.hrtime.bigint();
+  const { job, arithmetic, bits, iterations, referenceSeconds, deep, julia } = juliaSheetJob(sheet);
   return writePlate(sheet, job, {
     started,
     workers: options.workers ?? os.availableParallelism(),
