@@ -14,8 +14,8 @@ import { Received, UserError } from '../check/user-error.js';
 
 export const SHEET_SCHEMA = 1;
 
-export type SheetKind = 'plate' | 'julia' | 'section-diagram' | 'section-lyapunov' | 'section-compare' | 'section-orbit' | 'section-cobweb';
-export const SHEET_KINDS: readonly SheetKind[] = ['plate', 'julia', 'section-diagram', 'section-lyapunov', 'section-compare', 'section-orbit', 'section-cobweb'];
+export type SheetKind = 'plate' | 'julia' | 'section-diagram' | 'section-lyapunov' | 'section-compare' | 'section-orbit' | 'section-cobweb' | 'section-entropy';
+export const SHEET_KINDS: readonly SheetKind[] = ['plate', 'julia', 'section-diagram', 'section-lyapunov', 'section-compare', 'section-orbit', 'section-cobweb', 'section-entropy'];
 
 /** The command that renders a sheet of each kind. */
 export const COMMAND_OF_KIND: Readonly<Record<SheetKind, string>> = {
@@ -26,6 +26,7 @@ export const COMMAND_OF_KIND: Readonly<Record<SheetKind, string>> = {
   'section-compare': 'quadatlas section compare',
   'section-orbit': 'quadatlas section orbit',
   'section-cobweb': 'quadatlas section cobweb',
+  'section-entropy': 'quadatlas section entropy',
 };
 
 /**

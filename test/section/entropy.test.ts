@@ -120,5 +120,12 @@ describe('quadatlas section entropy', () => {
     expect(svg).toMatch(/<svg/);
     expect(svg).toContain('section-entropy');
     expect(JSON.parse(readFileSync(`${file}.json`, 'utf8'))).toBeTruthy();
+    // The sheet comes back out of the plot, and --again renders the same bytes.
+    const sheet = runCli(['sheet', file]);
+    expect(sheet.status, sheet.stderr).toBe(0);
+    expect(JSON.parse(sheet.stdout)).toMatchObject({ kind: 'section-entropy', schema: 1, r: { from: '3.6' }, steps: 12 });
+    const again = runCli(['section', 'entropy', '--again', file]);
+    expect(again.status, again.stderr).toBe(0);
+    expect(readFileSync(path.join(dir, 'h-again.svg')).equals(readFileSync(file))).toBe(true);
   });
 });

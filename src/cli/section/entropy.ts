@@ -13,8 +13,11 @@ import { parameterGrid } from '../../section/parameter-grid.js';
 import { formatTable, numberCell, type Cell, type SectionTable } from '../../section/section-table.js';
 import type { UnimodalFamily } from '../../section/unimodal-family.js';
 import { reportWrote } from '../wrote.js';
+import { againOutput, loadSectionSheet } from './load-section-sheet.js';
+import { SHEET_SCHEMA } from '../../view/sheet-kind.js';
+import { toolVersion } from '../../io/tool-version.js';
 import { prepareOutput, sectionMetadata, writeOutput, writeSidecar } from './section-output.js';
-import { addOptions, clearProgress, CSV_OPTION, digitsOption, FAMILY_OPTION, guarded, JSON_OPTION, NO_SIDECAR_OPTION, parseFamily, progressLine, tableFormat, type SectionOption, type Values, writeStdout } from './section-options.js';
+import { addOptions, againOption, clearProgress, CSV_OPTION, digitsOption, FAMILY_OPTION, guarded, JSON_OPTION, NO_SIDECAR_OPTION, parseFamily, progressLine, tableFormat, type SectionOption, type Values, writeStdout } from './section-options.js';
 
 const DEFAULT_DIGITS = 8;
 /** Letters per parameter: BigInt arithmetic makes the logistic family cheap; decimal.js sin and powers are not. */
@@ -29,6 +32,7 @@ export const ENTROPY_OPTIONS: readonly SectionOption[] = [
   digitsOption(DEFAULT_DIGITS, 'the entropy, 1 to 15'),
   { flags: '--out <file>', description: 'also write the plot to this file, .svg or .png (default: table only)' },
   NO_SIDECAR_OPTION,
+  againOption('section entropy'),
   JSON_OPTION,
   CSV_OPTION,
 ];
@@ -73,7 +77,7 @@ export async function entropyRun(values: Values, progress: (s: string) => void):
     }
   }
   const p = family.parameter;
-  const record = { kind: 'section-entropy', family: family.name, r: { from, to }, steps, letters };
+  const record = { kind: 'section-entropy', schema: SHEET_SCHEMA, writtenBy: `quadatlas ${toolVersion()}`, family: family.name, r: { from, to }, steps, letters };
   const table: SectionTable = {
     title: `topological entropy of the ${family.name} family ${family.formula} from ${letters} kneading letters (Milnor-Thurston kneading determinant)`,
     columns: [p, 'entropy', 'basis', 'period', 'letters'],
@@ -97,12 +101,27 @@ export async function entropyRun(values: Values, progress: (s: string) => void):
   return { table, svg, record };
 }
 
+/**
+ * The settings of an earlier run, from the sheet in its plot or sidecar
+ * (`--again FILE`), under the flags given now; the plot goes to FILE-again
+ * unless --out is given.
+ */
+async function againValues(values: Values): Promise<Values> {
+  const { raw, again } = await loadSectionSheet('section-entropy', undefined, values['again']);
+  const r = (raw['r'] ?? {}) as { from?: unknown; to?: unknown };
+  const from: Values = { family: raw['family'], rFrom: r.from, rTo: r.to, steps: raw['steps'] === undefined ? undefined : String(raw['steps']), letters: raw['letters'] === undefined ? undefined : String(raw['letters']) };
+  const out = typeof values['out'] === 'string' ? {} : { out: againOutput(again!, ['.svg', '.png']) };
+  const given = Object.fromEntries(Object.entries(values).filter(([k, v]) => v !== undefined && k !== 'again'));
+  return { ...from, ...out, ...given };
+}
+
 export function register(section: Command): void {
   const cmd = section.command('entropy').description('topological entropy along the parameter, from the kneading sequence (table; an SVG or PNG plot with --out)');
   addOptions(cmd, ENTROPY_OPTIONS);
   cmd.action(
     guarded(async (values: Values) => {
       const format = tableFormat(values);
+      if (values['again'] !== undefined) Object.assign(values, await againValues(values));
       const file = typeof values['out'] === 'string' ? values['out'] : null;
       if (file !== null) {
         if (!/\.(svg|png)$/i.test(file)) throw new UserError('--out', 'a file name ending in .svg or .png', file);
