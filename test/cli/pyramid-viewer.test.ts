@@ -123,6 +123,12 @@ describe.skipIf(!requireInCi(haveChromium, 'chromium'))('the pyramid viewer page
     expect(panel).toContain('2.9');
     expect(panel).toContain('400 × 256');
     const at = { x: 200, y: 300 };
+    // Under load the zoom animation may still run: wait until the viewport's current zoom equals its target.
+    await page.waitForFunction(() => {
+      const v = (globalThis as unknown as { quadatlasViewer: { viewport: { getZoom(c: boolean): number } } }).quadatlasViewer.viewport;
+      return Math.abs(v.getZoom(true) - v.getZoom(false)) < 1e-9 * v.getZoom(false);
+    }, undefined, { timeout: 30_000 });
+    await page.mouse.move(at.x - 1, at.y);
     await page.mouse.move(at.x, at.y);
     const text = (await page.textContent('#pointer')) ?? '';
     const image = await page.evaluate(({ x, y }) => {
