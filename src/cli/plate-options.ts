@@ -76,6 +76,7 @@ export const PLATE_OPTIONS: readonly OptionSpec[] = [
   { flags: '--label-periods <n>', description: 'mark and label the nuclei of periods 1..n that are large enough, n from 0 (none) to 14 (default 0; sheet labels)', apply: (s, v) => void (s['labels'] = integer(v, '--label-periods')) },
   { flags: '--title <text>', description: 'title recorded in the metadata (default none; sheet title)', apply: (s, v) => void (s['title'] = v) },
   { flags: '--axes', description: 'figures: frame, ticks and labels in Re c and Im c outside the image; not with --rotation (default: none; sheet figure.axes)' },
+  { flags: '--scale-bar', description: 'figures: a bar of a round length in c, labelled with it, in the lower left corner of the plate (default: none; sheet figure.scaleBar)' },
   { flags: '--caption <text>', description: 'figures: text drawn below the figure (default none; sheet figure.caption)', apply: (s, v) => void (sub(s, 'figure')['caption'] = v) },
   {
     flags: '--rays <angles>',
@@ -105,6 +106,7 @@ export function applyPlateOptions(sheet: Record<string, unknown>, values: Record
   if (values['sidecar'] === false) sub(sheet, 'output')['sidecar'] = false;
   if (values['skip'] === false) sheet['skip'] = false;
   if (values['axes'] === true) sub(sheet, 'figure')['axes'] = true;
+  if (values['scaleBar'] === true) sub(sheet, 'figure')['scaleBar'] = true;
   return sheet;
 }
 
@@ -159,5 +161,6 @@ export function nameTheFlag(err: unknown, values: Record<string, unknown>): unkn
   const flag = flagForField(err.field, values);
   if (err.field === 'figure' && typeof values['out'] === 'string') return err.withField('--out (sheet field output.file)');
   if (flag === undefined && err.field === 'figure.axes' && values['axes'] === true) return err.withField('--axes (sheet field figure.axes)');
+  if (flag === undefined && err.field === 'figure.scaleBar' && values['scaleBar'] === true) return err.withField('--scale-bar (sheet field figure.scaleBar)');
   return flag === undefined ? err : err.withField(`${flag} (sheet field ${err.field})`);
 }

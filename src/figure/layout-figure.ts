@@ -73,6 +73,8 @@ export function layoutFigure(model: FigureModel, dpi: number, font: FigureFont):
     below = TICK_PT + GAP + cap(LABEL_PT) + font.descent * LABEL_PT + 1.5 * GAP + cap(TITLE_PT) + font.descent * TITLE_PT;
   }
   const plate: Rect = { x: left, y: top, width: pw, height: ph };
+  const legend = legendColumns(font, model, ph);
+  if (legend !== null) right = Math.max(right, LEGEND_GAP + legend.width + PAD);
   const pageWidth = Math.max(left + pw + right, left + pw / 2 + reTitleWidth / 2 + PAD);
   const captionLines = model.caption === '' ? [] : wrap(font, model.caption, CAPTION_PT, pageWidth - 2 * PAD);
   const lineHeight = 1.25 * CAPTION_PT;
@@ -91,6 +93,23 @@ export function layoutFigure(model: FigureModel, dpi: number, font: FigureFont):
     return clipPolyline(pts, plate.x - pw / 10, plate.y - ph / 10, plate.x + pw * 1.1, plate.y + ph * 1.1);
   });
   const allRuns = curveRuns.flat();
+  // The scale bar first, so that no label covers it.
+  const bar = model.scaleBar;
+  if (bar !== null) {
+    const len = bar.pixels * sx;
+    const w = font.width(bar.label, LABEL_PT);
+    const h = font.capHeight * LABEL_PT;
+    const pad = 2;
+    const boxW = Math.max(len, w) + 2 * pad;
+    const boxH = h + GAP + SCALE_BAR_PT + 2 * pad;
+    const box = { x: plate.x + SCALE_BAR_INSET, y: plate.y + ph - SCALE_BAR_INSET - boxH, width: boxW, height: boxH };
+    if (box.x + box.width <= plate.x + pw && box.y >= plate.y) {
+      placed.push(box);
+      fills.push({ ...box, colour: RAY_HALO, opacity: RAY_LABEL_BACKING });
+      fills.push({ x: box.x + (boxW - len) / 2, y: box.y + boxH - pad - SCALE_BAR_PT, width: len, height: SCALE_BAR_PT, colour: RAY_INK, opacity: 1 });
+      texts.push({ text: bar.label, x: box.x + (boxW - w) / 2, y: box.y + pad + h, size: LABEL_PT, rotate: 0, role: 'scale-bar', colour: RAY_INK });
+    }
+  }
   // halos first, so a curve crossing another stays unbroken
   const widthOf = (kind: string): number => (kind === 'outline' ? OUTLINE_PT : kind === 'equipotential' ? LEVEL_PT : RAY_PT);
   const inkOf = (kind: string): string => (kind === 'outline' ? OUTLINE_INK : kind === 'equipotential' ? LEVEL_INK : RAY_INK);
@@ -150,10 +169,48 @@ export function layoutFigure(model: FigureModel, dpi: number, font: FigureFont):
     // Turned to read upwards, the text runs from the bottom: its start sits below the middle by half its length.
     texts.push({ text: axes.im.title, x: imTitleX, y: y0 + ph / 2 + font.width(axes.im.title, TITLE_PT) / 2, size: TITLE_PT, rotate: -90, role: 'title', colour: INK });
   }
+  if (legend !== null) {
+    const x0 = plate.x + pw + LEGEND_GAP;
+    texts.push({ text: LEGEND_HEADING, x: x0, y: plate.y + cap(TITLE_PT), size: TITLE_PT, rotate: 0, role: 'legend-title', colour: INK });
+    legend.rows.forEach((entry, i) => {
+      const column = Math.floor(i / legend.perColumn);
+      const row = i % legend.perColumn;
+      const x = x0 + column * legend.columnWidth;
+      const y = plate.y + legend.headingHeight + row * LEGEND_ROW_PT;
+      fills.push({ x, y, width: LEGEND_SWATCH_PT, height: LEGEND_SWATCH_PT, colour: entry.colour, opacity: 1 });
+      strokes.push({ points: [x, y, x + LEGEND_SWATCH_PT, y, x + LEGEND_SWATCH_PT, y + LEGEND_SWATCH_PT, x, y + LEGEND_SWATCH_PT, x, y], width: LEGEND_SWATCH_LINE_PT, colour: INK, clip: false });
+      texts.push({ text: String(entry.period), x: x + LEGEND_SWATCH_PT + GAP, y: y + LEGEND_SWATCH_PT / 2 + cap(LABEL_PT) / 2, size: LABEL_PT, rotate: 0, role: 'legend', colour: INK });
+    });
+  }
   captionLines.forEach((line, i) => {
     texts.push({ text: line, x: PAD, y: captionTop + cap(CAPTION_PT) + i * lineHeight, size: CAPTION_PT, rotate: 0, role: 'caption', colour: INK });
   });
   return { width: pageWidth, height: pageHeight, plate, strokes, fills, texts, drawnMarks };
+}
+
+/** The legend's heading: the legend lists the interior periods present in the plate. */
+export const LEGEND_HEADING = 'Period';
+const LEGEND_GAP = 10;
+const LEGEND_SWATCH_PT = 6;
+const LEGEND_SWATCH_LINE_PT = 0.25;
+const LEGEND_ROW_PT = 9;
+/** The scale bar: a white bar this thick, its label above it, on a backing in the plate's lower left corner. */
+const SCALE_BAR_PT = 1.5;
+const SCALE_BAR_INSET = 6;
+
+/**
+ * The legend beside the frame in columns of rows (swatch, period) as tall
+ * as the plate holds, top aligned with the plate; null for no legend.
+ */
+function legendColumns(font: FigureFont, model: FigureModel, plateHeight: number): { rows: FigureModel['legend']; perColumn: number; columnWidth: number; width: number; headingHeight: number } | null {
+  if (model.legend.length === 0) return null;
+  const headingHeight = font.capHeight * TITLE_PT + font.descent * TITLE_PT + GAP;
+  const perColumn = Math.max(1, Math.floor((plateHeight - headingHeight) / LEGEND_ROW_PT));
+  const widest = Math.max(...model.legend.map((e) => font.width(String(e.period), LABEL_PT)));
+  const columnWidth = LEGEND_SWATCH_PT + GAP + widest + 2 * GAP;
+  const columns = Math.ceil(model.legend.length / perColumn);
+  const width = Math.max(font.width(LEGEND_HEADING, TITLE_PT), columns * columnWidth - 2 * GAP);
+  return { rows: model.legend, perColumn, columnWidth, width, headingHeight };
 }
 
 function overlaps(a: Rect, b: Rect): boolean {

@@ -28,6 +28,7 @@ import { periodMarks, type PeriodMark } from '../figure/period-marks.js';
 import { plateMetadata, refuseDirectory, renderSheet, type PlateSummary, type RenderSheetOptions } from './render-sheet.js';
 import { Received, UserError } from '../check/user-error.js';
 import { toolVersion } from '../io/tool-version.js';
+import { presentPeriods } from '../colour/legend.js';
 
 /**
  * Largest PNG (bytes) an SVG figure carries inside itself as a data URL:
@@ -43,6 +44,9 @@ export interface FigureSummary {
   readonly plate: { x: number; y: number; width: number; height: number };
   readonly page: { width: number; height: number };
   readonly axes: { re: { title: string; ticks: Array<{ value: string; label: string }> }; im: { title: string; ticks: Array<{ value: string; label: string }> } } | null;
+  readonly scaleBar: { length: string; label: string; pixels: number } | null;
+  /** The periods the legend beside the frame lists ([] without one). */
+  readonly legend: number[];
   /** The PNG beside an SVG too large to inline, else null. */
   readonly image: string | null;
 }
@@ -102,14 +106,14 @@ async function traceCurves(sheet: Sheet, view: View, workers: number): Promise<{
 export async function renderFigure(sheet: Sheet, options: RenderSheetOptions = {}): Promise<PlateSummary & { figure: FigureSummary; rays: RaySummary[]; outlines: Array<{ period: number; nucleus: { re: number; im: number }; points: number }>; labels: Array<{ period: number; c: { re: number; im: number } }>; equipotentials: Array<{ potential: number }> }> {
   const spec = sheet.figure;
   if (spec === null) throw new Error('renderFigure: the sheet has no figure');
-  if (sheet.colour.legend === 'beside') throw new UserError('colour.legend', 'none or inset on a figure (a legend beside the plate is a separate file)', sheet.colour.legend);
   const file = sheet.output.file;
   const pdf = /\.pdf$/i.test(file);
   const besideName = file.replace(/\.(pdf|svg)$/i, '-plate.png');
   for (const f of [file, besideName, ...(sheet.output.sidecar ? [`${file}.json`] : [])]) await refuseDirectory(f, 'output.file');
   const rasterFile = tempPathFor(besideName);
   // Period labels are set in the figure font over the plate, not drawn into its pixels.
-  const raster: Sheet = { ...sheet, depth: pdf ? 16 : sheet.depth, labels: 0, output: { file: rasterFile, data: sheet.output.data, sidecar: false }, figure: null };
+  // A legend beside is set in the figure font beside the frame, not written as a file of its own.
+  const raster: Sheet = { ...sheet, depth: pdf ? 16 : sheet.depth, labels: 0, colour: sheet.colour.legend === 'beside' ? { ...sheet.colour, legend: 'none' } : sheet.colour, output: { file: rasterFile, data: sheet.output.data, sidecar: false }, figure: null };
   const view: View = { centerRe: sheet.view.re, centerIm: sheet.view.im, span: sheet.view.span, width: sheet.width, height: sheet.height, rotation: sheet.view.rotation };
   // Rays first: an angle Newton cannot land is refused before the plate is rendered.
   const { rays, outlines, levels, curves } = await traceCurves(sheet, view, options.workers ?? os.availableParallelism());
@@ -123,7 +127,8 @@ export async function renderFigure(sheet: Sheet, options: RenderSheetOptions = {
   try {
     const summary = await renderSheet(raster, { ...options, label: options.label ?? path.basename(file) });
     const png = await readFile(rasterFile);
-    const model = figureModel(view, sheet.dpi, { axes: spec.axes, caption: spec.caption }, curves, marks);
+    const legendPeriods = sheet.colour.legend === 'beside' ? presentPeriods(summary.periods, sheet.colour) : [];
+    const model = figureModel(view, sheet.dpi, { axes: spec.axes, caption: spec.caption, scaleBar: spec.scaleBar, legendPeriods }, curves, marks);
     const font = figureFont();
     const scene = layoutFigure(model, sheet.dpi, font);
     const metadata = plateMetadata(sheet, { arithmetic: summary.arithmetic, bits: Number(summary.precision['referenceBits'] ?? 53), iterations: summary.iterations });
@@ -154,6 +159,8 @@ export async function renderFigure(sheet: Sheet, options: RenderSheetOptions = {
         re: { title: model.axes.re.title, ticks: model.axes.re.ticks.map((t) => ({ value: t.value, label: t.label })) },
         im: { title: model.axes.im.title, ticks: model.axes.im.ticks.map((t) => ({ value: t.value, label: t.label })) },
       },
+      scaleBar: model.scaleBar === null ? null : { length: model.scaleBar.length, label: model.scaleBar.label, pixels: round(model.scaleBar.pixels) },
+      legend: model.legend.map((e) => e.period),
       image,
     };
     const raySummaries: RaySummary[] = rays.map((r, i) => {

@@ -21,7 +21,7 @@
  *   "skip": true,                            // deep: bilinear-approximation skipping
  *   "reference": { "re": "...", "im": "...", "period": 79 },   // deep: a nucleus as periodic reference (default: the centre)
  *   "output": { "file": "out/name.png", "data": "out/name-data", "sidecar": true },   // or .pdf / .svg: a figure
- *   "figure": { "axes": true, "caption": "...", "rays": ["1/3", "2/3"], "raysOf": 4, "equipotentials": 6, "outlines": 3 },   // with a .pdf or .svg output
+ *   "figure": { "axes": true, "caption": "...", "rays": ["1/3", "2/3"], "raysOf": 4, "equipotentials": 6, "outlines": 3, "scaleBar": true },   // with a .pdf or .svg output
  *   "startup": true                           // rendered by `npm start`
  * }
  * ```
@@ -74,6 +74,8 @@ export interface FigureSpec {
   readonly raysOf: number;
   /** Draw this many equipotentials, G_k = G_0 / 2^k for k = 0..n-1 with G_0 the largest potential in view (0: none). */
   readonly equipotentials: number;
+  /** A bar of a round length in c in the plate's lower left corner. */
+  readonly scaleBar: boolean;
 }
 
 /** A figure's output file: vector PDF or SVG with the plate inside. */
@@ -106,7 +108,7 @@ function parseFigure(value: unknown, file: string, rotation: number): FigureSpec
   }
   const v = value ?? {};
   if (!isObject(v)) throw new UserError('figure', 'an object { "axes": ..., "caption": ..., "rays": [...] }', v);
-  noUnknownKeys(v, ['axes', 'caption', 'rays', 'raysOf', 'equipotentials', 'outlines'], 'figure');
+  noUnknownKeys(v, ['axes', 'caption', 'rays', 'raysOf', 'equipotentials', 'outlines', 'scaleBar'], 'figure');
   const axes = parseBoolean(v['axes'] ?? false, 'figure.axes');
   if (axes && rotation !== 0) throw new UserError('figure.axes', 'a view without rotation (the axes run along Re c and Im c)', new Received(`rotation ${rotation}`));
   const caption = v['caption'] ?? '';
@@ -118,7 +120,8 @@ function parseFigure(value: unknown, file: string, rotation: number): FigureSpec
   const outlines = parseInteger(v['outlines'] ?? 0, 'figure.outlines', 0, MAX_LABEL_PERIOD);
   const raysOf = parseInteger(v['raysOf'] ?? 0, 'figure.raysOf', 0, MAX_RAYS_OF_PERIOD);
   const equipotentials = parseInteger(v['equipotentials'] ?? 0, 'figure.equipotentials', 0, MAX_EQUIPOTENTIALS);
-  return { axes, caption, rays, raysOf, equipotentials, outlines };
+  const scaleBar = parseBoolean(v['scaleBar'] ?? false, 'figure.scaleBar');
+  return { axes, caption, rays, raysOf, equipotentials, outlines, scaleBar };
 }
 
 /** Largest side in pixels: beyond it a plate is refused before any work. */
@@ -319,7 +322,7 @@ export function renderRecord(sheet: Sheet, version: string): Json {
     arithmetic: sheet.arithmetic,
     skip: sheet.skip,
     reference: sheet.reference === null ? null : { ...sheet.reference },
-    ...(sheet.figure === null ? {} : { figure: { axes: sheet.figure.axes, caption: sheet.figure.caption, rays: [...sheet.figure.rays], raysOf: sheet.figure.raysOf, equipotentials: sheet.figure.equipotentials, outlines: sheet.figure.outlines } }),
+    ...(sheet.figure === null ? {} : { figure: { axes: sheet.figure.axes, caption: sheet.figure.caption, rays: [...sheet.figure.rays], raysOf: sheet.figure.raysOf, equipotentials: sheet.figure.equipotentials, outlines: sheet.figure.outlines, scaleBar: sheet.figure.scaleBar } }),
   };
 }
 
