@@ -50,6 +50,13 @@ export interface FigureMark {
   readonly y: number;
 }
 
+/** A labelled point from the sheet's marks, in continuous plate pixels: a ring at the point, its label beside it. */
+export interface FigurePoint {
+  readonly label: string;
+  readonly x: number;
+  readonly y: number;
+}
+
 export interface FigureModel {
   readonly view: View;
   readonly axes: { readonly re: AxisTicks; readonly im: AxisTicks } | null;
@@ -58,6 +65,8 @@ export interface FigureModel {
   /** Placed after the curves' labels, each only where it covers no curve and no other label. */
   readonly marks: readonly FigureMark[];
   readonly scaleBar: ScaleBar | null;
+  /** Labelled points, placed before every other label. */
+  readonly points: readonly FigurePoint[];
   /** Empty for no legend. */
   readonly legend: readonly LegendEntry[];
 }
@@ -71,7 +80,7 @@ export const MIN_TICKS = 5;
  * The model of a figure of `view` printed at `dpi`. Axes need a view
  * without rotation: their ticks run along Re c and Im c.
  */
-export function figureModel(view: View, dpi: number, options: FigureOptions, curves: readonly FigureCurve[] = [], marks: readonly FigureMark[] = []): FigureModel {
+export function figureModel(view: View, dpi: number, options: FigureOptions, curves: readonly FigureCurve[] = [], marks: readonly FigureMark[] = [], points: readonly FigurePoint[] = []): FigureModel {
   let axes: FigureModel['axes'] = null;
   if (options.axes) {
     if (view.rotation !== 0) throw new Error('figureModel: axes need a view without rotation');
@@ -86,7 +95,7 @@ export function figureModel(view: View, dpi: number, options: FigureOptions, cur
   }
   const scaleBar = options.scaleBar === true ? scaleBarFor(view.span, view.width) : null;
   const legend = (options.legendPeriods ?? []).map((period) => ({ period, colour: periodHex(period) }));
-  return { view, axes, caption: options.caption, curves, marks, scaleBar, legend };
+  return { view, axes, caption: options.caption, curves, marks, scaleBar, points, legend };
 }
 
 /** A scale bar covers at most this fraction of the plate's width. */

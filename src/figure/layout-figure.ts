@@ -26,6 +26,10 @@ export const RAY_PT = 0.75;
 /** Component outlines: a thinner warm yellow, told apart from the white rays. */
 export const OUTLINE_PT = 0.5;
 const OUTLINE_INK = '#ffd84a';
+/** Internal rays: as thin as outlines, in a pale blue told apart from both rays and outlines. */
+const INTERNAL_INK = '#9ee7ff';
+/** A labelled point: a ring this wide (radius) in white over a black halo. */
+const POINT_RADIUS_PT = 1.8;
 /** Equipotentials: pale hairlines, under the rays and outlines. */
 export const LEVEL_PT = 0.35;
 const LEVEL_INK = '#e6eeff';
@@ -111,8 +115,8 @@ export function layoutFigure(model: FigureModel, dpi: number, font: FigureFont):
     }
   }
   // halos first, so a curve crossing another stays unbroken
-  const widthOf = (kind: string): number => (kind === 'outline' ? OUTLINE_PT : kind === 'equipotential' ? LEVEL_PT : RAY_PT);
-  const inkOf = (kind: string): string => (kind === 'outline' ? OUTLINE_INK : kind === 'equipotential' ? LEVEL_INK : RAY_INK);
+  const widthOf = (kind: string): number => (kind === 'outline' || kind === 'internal-ray' ? OUTLINE_PT : kind === 'equipotential' ? LEVEL_PT : RAY_PT);
+  const inkOf = (kind: string): string => (kind === 'outline' ? OUTLINE_INK : kind === 'internal-ray' ? INTERNAL_INK : kind === 'equipotential' ? LEVEL_INK : RAY_INK);
   curveRuns.forEach((runs, k) => {
     const kind = model.curves[k]!.kind;
     if (kind === 'equipotential') return; // hairlines over the exterior need no halo
@@ -122,6 +126,25 @@ export function layoutFigure(model: FigureModel, dpi: number, font: FigureFont):
     const kind = model.curves[k]!.kind;
     for (const run of runs) strokes.push({ points: run, width: widthOf(kind), colour: inkOf(kind), clip: true });
   });
+  const drawnPoints: Array<{ index: number; labelled: boolean }> = [];
+  for (const [index, point] of model.points.entries()) {
+    const cx = plate.x + point.x * sx;
+    const cy = plate.y + point.y * sy;
+    if (cx < plate.x || cy < plate.y || cx > plate.x + pw || cy > plate.y + ph) continue;
+    const ring: number[] = [];
+    for (let k = 0; k <= 16; k += 1) ring.push(cx + POINT_RADIUS_PT * Math.cos((k * Math.PI) / 8), cy + POINT_RADIUS_PT * Math.sin((k * Math.PI) / 8));
+    strokes.push({ points: ring, width: 3 * LINE_PT, colour: RAY_HALO, clip: true });
+    strokes.push({ points: ring, width: 1.2 * LINE_PT, colour: RAY_INK, clip: true });
+    const ringBox = { x: cx - POINT_RADIUS_PT - 1, y: cy - POINT_RADIUS_PT - 1, width: 2 * POINT_RADIUS_PT + 2, height: 2 * POINT_RADIUS_PT + 2 };
+    placed.push(ringBox);
+    const label = placePointLabel(font, point.label, cx, cy, plate, placed, allRuns);
+    if (label !== null) {
+      placed.push(label.box);
+      fills.push({ ...label.box, colour: RAY_HALO, opacity: RAY_LABEL_BACKING });
+      texts.push({ text: point.label, x: label.x, y: label.y, size: LABEL_PT, rotate: 0, role: 'mark', colour: RAY_INK });
+    }
+    drawnPoints.push({ index, labelled: label !== null });
+  }
   for (const [k, curve] of model.curves.entries()) {
     const runs = curveRuns[k]!;
     const label = curve.label === '' ? null : placeRayLabel(font, curve.label, runs, plate, placed, allRuns);
@@ -185,7 +208,7 @@ export function layoutFigure(model: FigureModel, dpi: number, font: FigureFont):
   captionLines.forEach((line, i) => {
     texts.push({ text: line, x: PAD, y: captionTop + cap(CAPTION_PT) + i * lineHeight, size: CAPTION_PT, rotate: 0, role: 'caption', colour: INK });
   });
-  return { width: pageWidth, height: pageHeight, plate, strokes, fills, texts, drawnMarks };
+  return { width: pageWidth, height: pageHeight, plate, strokes, fills, texts, drawnMarks, drawnPoints };
 }
 
 /** The legend's heading: the legend lists the interior periods present in the plate. */
@@ -261,6 +284,30 @@ function placeRayLabel(font: FigureFont, text: string, runs: readonly number[][]
         return { x: box.x + pad, y: box.y + pad + h, box };
       }
     }
+  }
+  return null;
+}
+
+/** Where a point's label goes: right of the ring, then left, above, below; null when none of those is free. */
+function placePointLabel(font: FigureFont, text: string, cx: number, cy: number, plate: Rect, placed: readonly Rect[], allRuns: readonly number[][]): { x: number; y: number; box: Rect } | null {
+  const w = font.width(text, LABEL_PT);
+  const h = font.capHeight * LABEL_PT;
+  const pad = 1.2;
+  const bw = w + 2 * pad;
+  const bh = h + 2 * pad;
+  const off = POINT_RADIUS_PT + 2;
+  const candidates = [
+    { x: cx + off, y: cy - bh / 2 },
+    { x: cx - off - bw, y: cy - bh / 2 },
+    { x: cx - bw / 2, y: cy - off - bh },
+    { x: cx - bw / 2, y: cy + off },
+  ];
+  for (const c of candidates) {
+    const box = { x: c.x, y: c.y, width: bw, height: bh };
+    if (box.x < plate.x || box.y < plate.y || box.x + bw > plate.x + plate.width || box.y + bh > plate.y + plate.height) continue;
+    if (placed.some((b) => overlaps(b, box))) continue;
+    if (allRuns.some((r) => hitsRun(r, box))) continue;
+    return { x: box.x + pad, y: box.y + pad + h, box };
   }
   return null;
 }

@@ -28,6 +28,8 @@ import { periodMarks, type PeriodMark } from '../figure/period-marks.js';
 import { plateMetadata, refuseDirectory, renderSheet, type PlateSummary, type RenderSheetOptions } from './render-sheet.js';
 import { Received, UserError } from '../check/user-error.js';
 import { toolVersion } from '../io/tool-version.js';
+import { Decimal } from 'decimal.js';
+import { internalRaysInView, type FigureInternalRay } from '../figure/internal-rays.js';
 import { presentPeriods } from '../colour/legend.js';
 
 /**
@@ -67,12 +69,12 @@ function toPixels(grid: DoubleGrid, c: Float64Array): Float64Array {
 }
 
 /** The rays and outlines of the sheet, computed in c, with their polylines in plate pixels. */
-async function traceCurves(sheet: Sheet, view: View, workers: number): Promise<{ rays: ParameterRay[]; outlines: ComponentOutline[]; levels: number[]; curves: FigureCurve[] }> {
+async function traceCurves(sheet: Sheet, view: View, workers: number): Promise<{ rays: ParameterRay[]; outlines: ComponentOutline[]; internal: FigureInternalRay[]; levels: number[]; curves: FigureCurve[] }> {
   const spec = sheet.figure!;
-  if (spec.rays.length === 0 && spec.raysOf === 0 && spec.outlines === 0 && spec.equipotentials === 0) return { rays: [], outlines: [], levels: [], curves: [] };
+  if (spec.rays.length === 0 && spec.raysOf === 0 && spec.outlines === 0 && spec.equipotentials === 0 && spec.internalRays === null) return { rays: [], outlines: [], internal: [], levels: [], curves: [] };
   const grid = doubleGrid(view);
-  const field = spec.rays.length > 0 ? 'figure.rays' : spec.raysOf > 0 ? 'figure.raysOf' : spec.outlines > 0 ? 'figure.outlines' : 'figure.equipotentials';
-  if (!fitsDouble(grid)) throw new UserError(field, `a view that doubles resolve (${field === 'figure.outlines' ? 'outlines are followed' : field === 'figure.equipotentials' ? 'equipotentials are followed' : 'rays are traced'} in double precision)`, `span ${sheet.view.span}`);
+  const field = spec.rays.length > 0 ? 'figure.rays' : spec.raysOf > 0 ? 'figure.raysOf' : spec.outlines > 0 ? 'figure.outlines' : spec.internalRays !== null ? 'figure.internalRays' : 'figure.equipotentials';
+  if (!fitsDouble(grid)) throw new UserError(field, `a view that doubles resolve (${field === 'figure.outlines' || field === 'figure.internalRays' ? 'components are followed' : field === 'figure.equipotentials' ? 'equipotentials are followed' : 'rays are traced'} in double precision)`, `span ${sheet.view.span}`);
   const levels: number[] = [];
   const levelCurves: FigureCurve[] = [];
   if (spec.equipotentials > 0) {
@@ -95,12 +97,31 @@ async function traceCurves(sheet: Sheet, view: View, workers: number): Promise<{
     for (const a of await raysOfPeriod(spec.raysOf, grid, workers, MAX_RAYS - spec.rays.length)) if (!given.has(a)) rays.push(parameterRay(a, 'figure.raysOf'));
   }
   const outlines = spec.outlines > 0 ? await outlinesInView(spec.outlines, grid, workers) : [];
+  const internal = spec.internalRays === null ? [] : await internalRaysInView(spec.internalRays.period, spec.internalRays.angles, grid, workers);
   const curves: FigureCurve[] = [
     ...levelCurves,
     ...outlines.map((o) => ({ kind: 'outline', label: '', points: toPixels(grid, o.points) })),
+    ...internal.map((r) => ({ kind: 'internal-ray', label: '', points: toPixels(grid, r.points) })),
     ...rays.map((r) => ({ kind: 'ray', label: r.angle, points: toPixels(grid, r.points) })),
   ];
-  return { rays, outlines, levels, curves };
+  return { rays, outlines, internal, levels, curves };
+}
+
+/**
+ * Plate pixel coordinates of a point given in decimal strings, from the
+ * exact decimal offsets to the view's centre (so marks sit right at any
+ * depth); the inverse of pixelToC (view.ts).
+ */
+function pinPixels(view: View, re: string, im: string): { x: number; y: number } {
+  const D = Decimal.clone({ precision: Math.max(view.centerRe.length, view.centerIm.length, re.length, im.length, view.span.length) + 30 });
+  const spacing = new D(view.span).div(view.width);
+  const u = new D(re).minus(view.centerRe).div(spacing);
+  const v = new D(im).minus(view.centerIm).div(spacing);
+  const a = (view.rotation * Math.PI) / 180;
+  const [cos, sin] = view.rotation === 0 ? [1, 0] : [Math.cos(a), Math.sin(a)];
+  const un = u.toNumber();
+  const vn = v.toNumber();
+  return { x: view.width / 2 + (un * cos + vn * sin), y: view.height / 2 - (-un * sin + vn * cos) };
 }
 
 export async function renderFigure(sheet: Sheet, options: RenderSheetOptions = {}): Promise<PlateSummary & { figure: FigureSummary; rays: RaySummary[]; outlines: Array<{ period: number; nucleus: { re: number; im: number }; points: number }>; labels: Array<{ period: number; c: { re: number; im: number } }>; equipotentials: Array<{ potential: number }> }> {
@@ -116,7 +137,8 @@ export async function renderFigure(sheet: Sheet, options: RenderSheetOptions = {
   const raster: Sheet = { ...sheet, depth: pdf ? 16 : sheet.depth, labels: 0, colour: sheet.colour.legend === 'beside' ? { ...sheet.colour, legend: 'none' } : sheet.colour, output: { file: rasterFile, data: sheet.output.data, sidecar: false }, figure: null };
   const view: View = { centerRe: sheet.view.re, centerIm: sheet.view.im, span: sheet.view.span, width: sheet.width, height: sheet.height, rotation: sheet.view.rotation };
   // Rays first: an angle Newton cannot land is refused before the plate is rendered.
-  const { rays, outlines, levels, curves } = await traceCurves(sheet, view, options.workers ?? os.availableParallelism());
+  const { rays, outlines, internal, levels, curves } = await traceCurves(sheet, view, options.workers ?? os.availableParallelism());
+  const points = spec.marks.map((m) => ({ label: m.label, ...pinPixels(view, m.re, m.im) }));
   const rayCurves = curves.filter((c) => c.kind === 'ray');
   let marks: PeriodMark[] = [];
   if (sheet.labels > 0) {
@@ -128,7 +150,7 @@ export async function renderFigure(sheet: Sheet, options: RenderSheetOptions = {
     const summary = await renderSheet(raster, { ...options, label: options.label ?? path.basename(file) });
     const png = await readFile(rasterFile);
     const legendPeriods = sheet.colour.legend === 'beside' ? presentPeriods(summary.periods, sheet.colour) : [];
-    const model = figureModel(view, sheet.dpi, { axes: spec.axes, caption: spec.caption, scaleBar: spec.scaleBar, legendPeriods }, curves, marks);
+    const model = figureModel(view, sheet.dpi, { axes: spec.axes, caption: spec.caption, scaleBar: spec.scaleBar, legendPeriods }, curves, marks, points);
     const font = figureFont();
     const scene = layoutFigure(model, sheet.dpi, font);
     const metadata = plateMetadata(sheet, { arithmetic: summary.arithmetic, bits: Number(summary.precision['referenceBits'] ?? 53), iterations: summary.iterations });
@@ -182,7 +204,12 @@ export async function renderFigure(sheet: Sheet, options: RenderSheetOptions = {
       };
     });
     const files = [path.resolve(file), ...(image === null ? [] : [image]), ...summary.files.filter((f) => f !== summary.file)];
-    const result = { ...summary, file: path.resolve(file), files, figure, rays: raySummaries, equipotentials: levels.map((g) => ({ potential: g })), labels: scene.drawnMarks.map((m) => ({ period: marks[m]!.period, c: { re: marks[m]!.re, im: marks[m]!.im } })), outlines: outlines.map((o) => ({ period: o.period, nucleus: o.nucleus, points: o.points.length / 2 })) };
+    const result = { ...summary, file: path.resolve(file), files, figure, rays: raySummaries, equipotentials: levels.map((g) => ({ potential: g })), labels: scene.drawnMarks.map((m) => ({ period: marks[m]!.period, c: { re: marks[m]!.re, im: marks[m]!.im } })), outlines: outlines.map((o) => ({ period: o.period, nucleus: o.nucleus, points: o.points.length / 2 })),
+      internalRays: internal.map((r) => ({ period: r.period, nucleus: r.nucleus, angle: r.angle, end: { re: r.end.re, im: r.end.im }, points: r.points.length / 2 })),
+      marks: spec.marks.map((m, i) => {
+        const drawn = scene.drawnPoints.find((d) => d.index === i);
+        return { re: m.re, im: m.im, label: m.label, inView: drawn !== undefined, labelled: drawn?.labelled ?? false };
+      }) };
     if (sheet.output.sidecar) {
       const sidecar = `${file}.json`;
       await writeFileAtomic(sidecar, `${JSON.stringify({ metadata: JSON.parse(metadata) as unknown, summary: result }, null, 2)}\n`);

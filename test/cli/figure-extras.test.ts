@@ -5,7 +5,7 @@
  * back by pdftotext (Debian poppler-utils).
  */
 import { spawnSync } from 'node:child_process';
-import { readFileSync } from 'node:fs';
+import { existsSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
 import path from 'node:path';
 import { describe, expect, it } from 'vitest';
 import { requireInCi } from '../helpers/require-in-ci.js';
@@ -86,5 +86,117 @@ describe('plate --legend beside on a figure', () => {
       const colour = new RegExp(`<g id="period-${p}">\\s*<rect [^>]*fill="(#[0-9a-f]{6})"`).exec(separate)![1]!;
       expect(svg, `period ${p}`).toMatch(new RegExp(`fill="${colour}" fill-opacity="1"`));
     }
+  });
+});
+
+/** Points of the polylines drawn in `stroke`, per polyline, on the page (points). */
+function polylines(svg: string, stroke: string): Array<Array<[number, number]>> {
+  return [...svg.matchAll(new RegExp(`<polyline points="([^"]+)" fill="none" stroke="${stroke}"`, 'g'))].map((m) => m[1]!.trim().split(' ').map((p) => p.split(',').map(Number) as [number, number]));
+}
+
+/** c at a page point of a plate showing centre (re, im) and span across. */
+function cAt(plate: { x: number; y: number; width: number; height: number }, view: { re: number; im: number; span: number }, px: number, py: number): [number, number] {
+  const scale = view.span / plate.width;
+  return [view.re + (px - plate.x - plate.width / 2) * scale, view.im - (py - plate.y - plate.height / 2) * scale];
+}
+
+describe('plate --internal-rays', () => {
+  it('draws the cardioid\'s internal rays 0 and 1/2 along the real axis from the nucleus 0 to the cusp 1/4 and to the root -3/4 (the cardioid formula c = t/2 - t^2/4 at t = 1 and t = -1)', () => {
+    const file = path.join(tempDir(), 'i.svg');
+    const r = runCli(['plate', ...FLAGS, '--internal-rays', '1:0,1/2', '--out', file, '--json']);
+    expect(r.status, r.stderr).toBe(0);
+    const out = JSON.parse(r.stdout) as { internalRays: Array<{ period: number; angle: string; end: { re: string; im: string } }> };
+    expect(out.internalRays.map((x) => [x.period, x.angle])).toEqual([[1, '0'], [1, '1/2']]);
+    expect(out.internalRays[0]!.end.re).toBe('0.25000000000000000000');
+    expect(Math.abs(Number(out.internalRays[1]!.end.re) + 0.75)).toBeLessThan(1e-19);
+    expect(Math.abs(Number(out.internalRays[1]!.end.im))).toBeLessThan(1e-19);
+    const svg = readFileSync(file, 'utf8');
+    const plate = plateOf(svg);
+    const view = { re: -0.75, im: 0, span: 3 };
+    const lines = polylines(svg, '#9ee7ff');
+    expect(lines).toHaveLength(2);
+    const pixel = view.span / 450;
+    for (const [line, [endRe]] of [[lines[0]!, [0.25]], [lines[1]!, [-0.75]]] as const) {
+      const [sr, si] = cAt(plate, view, ...line[0]!);
+      expect(Math.hypot(sr, si), 'starts at the nucleus 0').toBeLessThan(pixel / 2);
+      const [er, ei] = cAt(plate, view, ...line.at(-1)!);
+      expect(Math.hypot(er - endRe, ei), `ends at ${endRe}`).toBeLessThan(pixel / 2);
+      for (const p of line) expect(Math.abs(cAt(plate, view, ...p)[1]), 'on the real axis').toBeLessThan(pixel / 2);
+    }
+  });
+
+  for (const [what, flags, field] of [
+    ['an angle not 0 or p/q with p < q', ['--internal-rays', '1:0,3/2'], '--internal-rays (sheet field figure.internalRays.angles[1])'],
+    ['no period', ['--internal-rays', '0,1/2'], '--internal-rays'],
+    ['a period with no component in view', ['--center', '2,2', '--span', '0.5', '--internal-rays', '2:0'], '--internal-rays (sheet field figure.internalRays.period)'],
+  ] as const) {
+    it(`refuses ${what} in one line naming the field, exit 2, no file`, () => {
+      const dir = tempDir();
+      const file = path.join(dir, 'bad.svg');
+      const r = runCli(['plate', ...FLAGS, ...flags, '--out', file]);
+      expect(r.status).toBe(2);
+      expect(r.stderr.trimEnd().split('\n')).toHaveLength(1);
+      expect(r.stderr).toContain(`for ${field} but received`);
+      expect(existsSync(file)).toBe(false);
+    });
+  }
+});
+
+describe('plate --marks FILE.csv', () => {
+  const CSV = 're,im,label\n-0.75,0,root\n# a comment\n\n"-1.7548776662466927",0,"airplane, period 3"\n0,1,c = i\n5,5,far away\n';
+
+  it('rings each point where the view puts it, labels it beside the ring, records the rows in the sheet so --again needs no file, and the bytes agree across workers', () => {
+    const dir = tempDir();
+    const csv = path.join(dir, 'm.csv');
+    writeFileSync(csv, CSV);
+    const file = path.join(dir, 'm.svg');
+    const r = runCli(['plate', ...FLAGS, '--marks', csv, '--workers', '1', '--out', file, '--json']);
+    expect(r.status, r.stderr).toBe(0);
+    const out = JSON.parse(r.stdout) as { marks: Array<{ re: string; label: string; inView: boolean; labelled: boolean }> };
+    expect(out.marks.map((m) => [m.label, m.inView])).toEqual([['root', true], ['airplane, period 3', true], ['c = i', true], ['far away', false]]);
+    const svg = readFileSync(file, 'utf8');
+    const plate = plateOf(svg);
+    const view = { re: -0.75, im: 0, span: 3 };
+    // rings: 17-point closed white polylines; their centres are the marks
+    const rings = polylines(svg, '#ffffff').filter((l) => l.length === 17);
+    const centres = rings.map((l) => cAt(plate, view, l.slice(0, 16).reduce((a, p) => a + p[0], 0) / 16, l.slice(0, 16).reduce((a, p) => a + p[1], 0) / 16));
+    const pixel = view.span / 450;
+    for (const [re, im] of [[-0.75, 0], [-1.7548776662466927, 0], [0, 1]]) expect(centres.some(([a, b]) => Math.hypot(a - re!, b - im!) < pixel / 4), `${re} ${im}`).toBe(true);
+    const labels = [...svg.matchAll(/class="mark" aria-label="([^"]+)"/g)].map((m) => m[1]);
+    expect(labels).toEqual(out.marks.filter((m) => m.labelled).map((m) => m.label));
+    expect(labels).toContain('airplane, period 3');
+    const b = path.join(dir, 'b.svg');
+    expect(runCli(['plate', ...FLAGS, '--marks', csv, '--workers', '2', '--out', b]).status).toBe(0);
+    expect(readFileSync(b).equals(readFileSync(file))).toBe(true);
+    rmSync(csv);
+    const again = runCli(['plate', '--again', file]);
+    expect(again.status, again.stderr).toBe(0);
+    expect(readFileSync(path.join(dir, 'm-again.svg')).equals(readFileSync(file))).toBe(true);
+  });
+
+  for (const [what, text, row] of [
+    ['a row whose re is not a number', 're,im,label\n-0.75,0,root\nabc,0,x\n', 3],
+    ['a row with two fields', '-0.75,0,root\n\n0.25,cusp\n', 3],
+    ['a row with an open quote', '"-0.75,0,root\n', 1],
+    ['a row with an empty label', '-0.75,0,root\n0,0,  \n', 2],
+  ] as const) {
+    it(`refuses ${what} in one line naming the file and row ${row}, exit 2, no file`, () => {
+      const dir = tempDir();
+      const csv = path.join(dir, 'bad.csv');
+      writeFileSync(csv, text);
+      const file = path.join(dir, 'bad.svg');
+      const r = runCli(['plate', ...FLAGS, '--marks', csv, '--out', file]);
+      expect(r.status).toBe(2);
+      expect(r.stderr.trimEnd().split('\n')).toHaveLength(1);
+      expect(r.stderr).toContain(`for ${csv} row ${row} but received`);
+      expect(existsSync(file)).toBe(false);
+    });
+  }
+
+  it('refuses a missing file in one line naming --marks', () => {
+    const r = runCli(['plate', ...FLAGS, '--marks', '/nonexistent/m.csv', '--out', path.join(tempDir(), 'x.svg')]);
+    expect(r.status).toBe(2);
+    expect(r.stderr.trimEnd().split('\n')).toHaveLength(1);
+    expect(r.stderr).toContain('for --marks but received');
   });
 });

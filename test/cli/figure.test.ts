@@ -169,7 +169,7 @@ describe('figure bytes', () => {
       expect(readFileSync(path.join(dir, `a-again.${ext}`)).equals(readFileSync(a)), `${ext} --again`).toBe(true);
       const sheet = runCli(['sheet', a]);
       expect(sheet.status, sheet.stderr).toBe(0);
-      expect((JSON.parse(sheet.stdout) as { figure: unknown }).figure).toEqual({ axes: true, caption: 'Ünïcode (caption) \\ test', rays: ['1/3', '2/3'], raysOf: 0, equipotentials: 3, outlines: 2, scaleBar: false });
+      expect((JSON.parse(sheet.stdout) as { figure: unknown }).figure).toEqual({ axes: true, caption: 'Ünïcode (caption) \\ test', rays: ['1/3', '2/3'], raysOf: 0, equipotentials: 3, outlines: 2, scaleBar: false, internalRays: null, marks: [] });
     }
     // nothing but the figures and their sidecars is left (no temporary plate)
     expect(readdirSync(dir).sort()).toEqual(['a-again.pdf', 'a-again.pdf.json', 'a-again.svg', 'a-again.svg.json', 'a.pdf', 'a.pdf.json', 'a.svg', 'a.svg.json', 'b.pdf', 'b.pdf.json', 'b.svg', 'b.svg.json']);
