@@ -1,9 +1,13 @@
 /**
- * Renders a sheet whose output is a figure (.pdf or .svg): the plate is
- * rendered as a PNG under a temporary name (16 bits a channel for PDF, the
- * sheet's depth for SVG), then the figure model (src/figure/) is laid out
- * around it and written. The SVG inlines the PNG as a data URL up to
- * SVG_INLINE_LIMIT bytes and links `NAME-plate.png` beside it above that.
+ * Renders a sheet whose output is a figure: a .pdf or .svg, or a .png or
+ * .tif with annotations. The plate is rendered as a PNG under a temporary
+ * name (16 bits a channel for PDF, the sheet's depth otherwise), then the
+ * figure model (src/figure/) is laid out around it and written: PDF by
+ * pdfkit, SVG with the PNG inlined as a data URL up to SVG_INLINE_LIMIT
+ * bytes (`NAME-plate.png` beside it above that), PNG and TIFF as the page
+ * rasterised at the plate's dpi with the plate copied in pixel for pixel
+ * (figure/write-figure-raster.ts) and written by the io/ sinks with the
+ * sheet in their metadata.
  */
 import { readFile, rename, rm } from 'node:fs/promises';
 import path from 'node:path';
@@ -31,6 +35,9 @@ import { toolVersion } from '../io/tool-version.js';
 import { Decimal } from 'decimal.js';
 import { internalRaysInView, type FigureInternalRay } from '../figure/internal-rays.js';
 import { presentPeriods } from '../colour/legend.js';
+import { MAX_RASTER_FIGURE_PIXELS, rasterFigure, rasterPlacement } from '../figure/write-figure-raster.js';
+import { openPngSink } from '../io/png-sink.js';
+import { openTiffSink } from '../io/tiff-sink.js';
 
 /**
  * Largest PNG (bytes) an SVG figure carries inside itself as a data URL:
@@ -41,7 +48,9 @@ import { presentPeriods } from '../colour/legend.js';
 export const SVG_INLINE_LIMIT = 4 * 1024 * 1024;
 
 export interface FigureSummary {
-  readonly format: 'pdf' | 'svg';
+  readonly format: 'pdf' | 'svg' | 'png' | 'tif';
+  /** PNG and TIFF figures: the page's size in pixels and where the plate's top left pixel sits on it; else null. */
+  readonly raster: { width: number; height: number; plateX: number; plateY: number } | null;
   /** The plate's rectangle on the page, in points from the top left. */
   readonly plate: { x: number; y: number; width: number; height: number };
   readonly page: { width: number; height: number };
@@ -129,7 +138,8 @@ export async function renderFigure(sheet: Sheet, options: RenderSheetOptions = {
   if (spec === null) throw new Error('renderFigure: the sheet has no figure');
   const file = sheet.output.file;
   const pdf = /\.pdf$/i.test(file);
-  const besideName = file.replace(/\.(pdf|svg)$/i, '-plate.png');
+  const format: FigureSummary['format'] = pdf ? 'pdf' : /\.svg$/i.test(file) ? 'svg' : /\.tiff?$/i.test(file) ? 'tif' : 'png';
+  const besideName = file.replace(/\.(pdf|svg|png|tiff?)$/i, '-plate.png');
   for (const f of [file, besideName, ...(sheet.output.sidecar ? [`${file}.json`] : [])]) await refuseDirectory(f, 'output.file');
   const rasterFile = tempPathFor(besideName);
   // Period labels are set in the figure font over the plate, not drawn into its pixels.
@@ -155,8 +165,31 @@ export async function renderFigure(sheet: Sheet, options: RenderSheetOptions = {
     const scene = layoutFigure(model, sheet.dpi, font);
     const metadata = plateMetadata(sheet, { arithmetic: summary.arithmetic, bits: Number(summary.precision['referenceBits'] ?? 53), iterations: summary.iterations });
     let image: string | null = null;
+    let page: { width: number; height: number; plateX: number; plateY: number } | null = null;
     if (pdf) {
       await writeFileAtomic(file, await figurePdf(scene, png, font, { title: sheet.title, creator: `quadatlas ${toolVersion()}`, metadata }));
+      await rm(rasterFile, { force: true });
+    } else if (format === 'png' || format === 'tif') {
+      const place = rasterPlacement(scene, sheet.dpi, sheet.width, sheet.height);
+      if (place.width * place.height > MAX_RASTER_FIGURE_PIXELS) {
+        throw new UserError('output.file', `a .pdf or .svg figure for a page over ${MAX_RASTER_FIGURE_PIXELS} pixels (annotations are rasterised in one piece)`, new Received(`${place.width}x${place.height} pixels`));
+      }
+      const raster = await rasterFigure(scene, png, sheet.dpi, font);
+      page = { width: raster.width, height: raster.height, plateX: raster.plateX, plateY: raster.plateY };
+      const spec = { width: raster.width, height: raster.height, depth: sheet.depth, channels: 3 as const, dpi: sheet.dpi, metadata, software: `quadatlas ${toolVersion()}` };
+      const sink = format === 'tif' ? await openTiffSink(file, spec) : await openPngSink(file, spec);
+      try {
+        const rowSamples = raster.width * 3;
+        const band = Math.max(1, Math.floor(4_000_000 / rowSamples));
+        for (let y = 0; y < raster.height; y += band) {
+          const rows = Math.min(band, raster.height - y);
+          await sink.writeRows(raster.pixels.subarray(y * rowSamples, (y + rows) * rowSamples), rows);
+        }
+        await sink.finish();
+      } catch (err) {
+        await sink.abort();
+        throw err;
+      }
       await rm(rasterFile, { force: true });
     } else {
       let href: string;
@@ -174,7 +207,8 @@ export async function renderFigure(sheet: Sheet, options: RenderSheetOptions = {
     releaseTemp(rasterFile);
     const round = (v: number): number => Math.round(v * 1000) / 1000;
     const figure: FigureSummary = {
-      format: pdf ? 'pdf' : 'svg',
+      format,
+      raster: page,
       plate: { x: round(scene.plate.x), y: round(scene.plate.y), width: round(scene.plate.width), height: round(scene.plate.height) },
       page: { width: round(scene.width), height: round(scene.height) },
       axes: model.axes === null ? null : {

@@ -147,10 +147,8 @@ export function parseAngleText(value: unknown, field: string): string {
 }
 
 function parseFigure(value: unknown, file: string, rotation: number): FigureSpec | null {
-  if (!isFigureFile(file)) {
-    if (value !== undefined && value !== null) throw new UserError('figure', 'an output file ending in .pdf or .svg (axes, captions and rays are drawn on figures)', new Received(file));
-    return null;
-  }
+  // A .pdf or .svg output is always a figure; a .png or .tif plate is one when it has annotations.
+  if (!isFigureFile(file) && (value === undefined || value === null)) return null;
   const v = value ?? {};
   if (!isObject(v)) throw new UserError('figure', 'an object { "axes": ..., "caption": ..., "rays": [...] }', v);
   noUnknownKeys(v, ['axes', 'caption', 'rays', 'raysOf', 'equipotentials', 'outlines', 'scaleBar', 'internalRays', 'marks'], 'figure');

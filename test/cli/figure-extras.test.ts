@@ -200,3 +200,113 @@ describe('plate --marks FILE.csv', () => {
     expect(r.stderr).toContain('for --marks but received');
   });
 });
+
+interface Raster { width: number; height: number; channels: number; data: Uint8Array }
+
+async function decode(file: string): Promise<Raster> {
+  const sharp = (await import('sharp')).default;
+  const { data, info } = await sharp(file).removeAlpha().raw().toBuffer({ resolveWithObject: true });
+  return { width: info.width, height: info.height, channels: info.channels, data };
+}
+
+/** Darkness (255 - mean of R, G, B) of pixel (x, y). */
+function dark(r: Raster, x: number, y: number): number {
+  const o = (y * r.width + x) * r.channels;
+  return 255 - (r.data[o]! + r.data[o + 1]! + r.data[o + 2]!) / 3;
+}
+
+describe('plate --axes on PNG and TIFF', () => {
+  const SIZE = { width: 450, height: 300, dpi: 150 };
+  const ARGS = ['--center', '-0.75,0', '--span', '3', '--size', `${SIZE.width}x${SIZE.height}`, '--iterations', '300', '--samples', '1', '--dpi', String(SIZE.dpi)];
+
+  it('copies the plate pixel for pixel (the plain plate\'s own pixels away from the frame) and draws each tick where the view geometry puts its value', async () => {
+    const dir = tempDir();
+    const fig = path.join(dir, 'f.png');
+    const plain = path.join(dir, 'p.png');
+    const r = runCli(['plate', ...ARGS, '--axes', '--out', fig, '--json']);
+    expect(r.status, r.stderr).toBe(0);
+    expect(runCli(['plate', ...ARGS, '--out', plain]).status).toBe(0);
+    const out = JSON.parse(r.stdout) as { figure: { raster: { width: number; height: number; plateX: number; plateY: number }; axes: { re: { ticks: Array<{ value: string }> }; im: { ticks: Array<{ value: string }> } } } };
+    const { plateX, plateY } = out.figure.raster;
+    const a = await decode(fig);
+    const p = await decode(plain);
+    expect([a.width, a.height]).toEqual([out.figure.raster.width, out.figure.raster.height]);
+    let differ = 0;
+    for (let y = 2; y < SIZE.height - 2; y += 1) {
+      for (let x = 2; x < SIZE.width - 2; x += 1) {
+        for (let c = 0; c < 3; c += 1) if (a.data[((plateY + y) * a.width + plateX + x) * 3 + c] !== p.data[(y * p.width + x) * 3 + c]) differ += 1;
+      }
+    }
+    expect(differ, 'plate samples changed').toBe(0);
+    // ticks: 3.5 pt long outside the frame; the darkest column just below the plate sits at the tick's value
+    const scale = SIZE.width / 3;
+    const row = plateY + SIZE.height + 3;
+    for (const t of out.figure.axes.re.ticks) {
+      const at = plateX + (Number(t.value) - (-0.75 - 1.5)) * scale; // continuous pixel coordinate
+      let best = -1;
+      for (let x = Math.floor(at) - 3; x <= Math.floor(at) + 3; x += 1) if (best < 0 || dark(a, x, row) > dark(a, best, row)) best = x;
+      expect(Math.abs(best + 0.5 - at), `Re tick ${t.value}`).toBeLessThanOrEqual(0.5);
+      expect(dark(a, best, row)).toBeGreaterThan(100);
+    }
+    const col = plateX - 3;
+    for (const t of out.figure.axes.im.ticks) {
+      const at = plateY + (1 - Number(t.value)) * scale;
+      let best = -1;
+      for (let y = Math.floor(at) - 3; y <= Math.floor(at) + 3; y += 1) if (best < 0 || dark(a, col, y) > dark(a, col, best)) best = y;
+      expect(Math.abs(best + 0.5 - at), `Im tick ${t.value}`).toBeLessThanOrEqual(0.5);
+    }
+  });
+
+  it.runIf(havePoppler)('sets each tick label where the PDF of the same sheet has it (pdftotext\'s word boxes, an outside reader): the ends of the ink within the side bearings of the glyphs from the ends of the box', async () => {
+    const dir = tempDir();
+    const png = path.join(dir, 'f.png');
+    const pdf = path.join(dir, 'f.pdf');
+    const r = runCli(['plate', ...ARGS, '--axes', '--out', png, '--json']);
+    expect(r.status, r.stderr).toBe(0);
+    expect(runCli(['plate', ...ARGS, '--axes', '--out', pdf]).status).toBe(0);
+    const { plateX } = (JSON.parse(r.stdout) as { figure: { raster: { plateX: number } } }).figure.raster;
+    const pdfPlateX = (JSON.parse(runCli(['plate', ...ARGS, '--axes', '--out', path.join(dir, 'g.pdf'), '--json']).stdout) as { figure: { plate: { x: number } } }).figure.plate.x;
+    const a = await decode(png);
+    const k = SIZE.dpi / 72;
+    // the raster puts the plate at a whole pixel: the page is shifted by this much against the PDF's
+    const shift = plateX - pdfPlateX * k;
+    const words = pdfWords(pdf).filter((w) => /^[\u2212\d.]+$/.test(w.text));
+    expect(words.length).toBeGreaterThanOrEqual(8);
+    for (const w of words) {
+      const x0 = Math.floor(w.x0 * k + shift) - 1;
+      const x1 = Math.ceil(w.x1 * k + shift) + 1;
+      const y0 = Math.floor(w.y0 * k);
+      const y1 = Math.ceil(w.y1 * k);
+      // the ink's extent (columns with any ink) lies inside the box, the box's ends within the glyphs' side bearings
+      // (DejaVu Sans digits, point and minus: at most 0.11 em, 1.6 px at 7 pt and 150 dpi, read from the font by fontkit) of the ink's ends, half a pixel either way for antialiasing
+      let left = Infinity;
+      let right = -Infinity;
+      for (let y = y0; y < y1; y += 1) for (let x = x0; x < x1; x += 1) if (dark(a, x, y) > 64) {
+        left = Math.min(left, x);
+        right = Math.max(right, x + 1);
+      }
+      expect(right, w.text).toBeGreaterThan(left);
+      expect(left - (w.x0 * k + shift), w.text).toBeGreaterThan(-0.5);
+      expect(left - (w.x0 * k + shift), w.text).toBeLessThan(2);
+      expect((w.x1 * k + shift) - right, w.text).toBeGreaterThan(-0.5);
+      expect((w.x1 * k + shift) - right, w.text).toBeLessThan(2);
+    }
+  });
+
+  it('gives the same bytes for --workers 1 and 2 and --again, for PNG and 16-bit TIFF with rays, outlines and labels', async () => {
+    const dir = tempDir();
+    for (const ext of ['png', 'tif']) {
+      const a = path.join(dir, `a.${ext}`);
+      const b = path.join(dir, `b.${ext}`);
+      const flags = [...ARGS, '--depth', ext === 'tif' ? '16' : '8', '--axes', '--rays', '1/3,2/3', '--outlines', '2', '--label-periods', '2', '--scale-bar'];
+      expect(runCli(['plate', ...flags, '--workers', '1', '--out', a]).status).toBe(0);
+      expect(runCli(['plate', ...flags, '--workers', '2', '--out', b]).status).toBe(0);
+      expect(readFileSync(a).equals(readFileSync(b)), ext).toBe(true);
+      const again = runCli(['plate', '--again', a]);
+      expect(again.status, again.stderr).toBe(0);
+      expect(readFileSync(path.join(dir, `a-again.${ext}`)).equals(readFileSync(a)), `${ext} --again`).toBe(true);
+    }
+    const sharp = (await import('sharp')).default;
+    expect((await sharp(path.join(dir, 'a.tif')).metadata()).depth).toBe('ushort');
+  });
+});
