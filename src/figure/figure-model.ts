@@ -59,7 +59,8 @@ export interface FigurePoint {
 
 export interface FigureModel {
   readonly view: View;
-  readonly axes: { readonly re: AxisTicks; readonly im: AxisTicks } | null;
+  /** re along the bottom, im at the left, and an optional second scale along the top (the real slice's c). */
+  readonly axes: { readonly re: AxisTicks; readonly im: AxisTicks; readonly top?: AxisTicks } | null;
   readonly caption: string;
   readonly curves: readonly FigureCurve[];
   /** Placed after the curves' labels, each only where it covers no curve and no other label. */

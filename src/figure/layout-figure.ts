@@ -74,6 +74,7 @@ export function layoutFigure(model: FigureModel, dpi: number, font: FigureFont):
     const overhang = lastRe === undefined ? 0 : font.width(lastRe.label, LABEL_PT) / 2 - (view.width - lastRe.at) * (pw / view.width);
     right = Math.max(PAD, overhang + 4);
     top = PAD + imTitleOver;
+    if (axes.top !== undefined) top = Math.max(top, PAD + cap(TITLE_PT) + font.descent * TITLE_PT + 1.5 * GAP + cap(LABEL_PT) + font.descent * LABEL_PT + GAP + TICK_PT);
     below = TICK_PT + GAP + cap(LABEL_PT) + font.descent * LABEL_PT + 1.5 * GAP + cap(TITLE_PT) + font.descent * TITLE_PT;
   }
   const plate: Rect = { x: left, y: top, width: pw, height: ph };
@@ -185,6 +186,15 @@ export function layoutFigure(model: FigureModel, dpi: number, font: FigureFont):
       const y = y0 + t.at * sy;
       strokes.push({ points: [x0 - TICK_PT, y, x0, y], width: LINE_PT, colour: INK, clip: false });
       texts.push({ text: t.label, x: x0 - TICK_PT - GAP - font.width(t.label, LABEL_PT), y: y + cap(LABEL_PT) / 2, size: LABEL_PT, rotate: 0, role: 'im-tick', colour: INK });
+    }
+    if (axes.top !== undefined) {
+      for (const t of axes.top.ticks) {
+        const x = x0 + t.at * sx;
+        strokes.push({ points: [x, y0, x, y0 - TICK_PT], width: LINE_PT, colour: INK, clip: false });
+        texts.push({ text: t.label, x: x - font.width(t.label, LABEL_PT) / 2, y: y0 - TICK_PT - GAP - font.descent * LABEL_PT, size: LABEL_PT, rotate: 0, role: 'top-tick', colour: INK });
+      }
+      const topTitleY = y0 - TICK_PT - GAP - font.descent * LABEL_PT - cap(LABEL_PT) - 1.5 * GAP - font.descent * TITLE_PT;
+      texts.push({ text: axes.top.title, x: x0 + pw / 2 - font.width(axes.top.title, TITLE_PT) / 2, y: topTitleY, size: TITLE_PT, rotate: 0, role: 'title', colour: INK });
     }
     const reTitleY = y1 + TICK_PT + GAP + cap(LABEL_PT) + font.descent * LABEL_PT + 1.5 * GAP + cap(TITLE_PT);
     texts.push({ text: axes.re.title, x: x0 + pw / 2 - font.width(axes.re.title, TITLE_PT) / 2, y: reTitleY, size: TITLE_PT, rotate: 0, role: 'title', colour: INK });

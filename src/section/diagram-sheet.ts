@@ -30,10 +30,12 @@ export interface DiagramSheet {
   readonly iterations: number;
   /** Bits per channel of the PNG. */
   readonly depth: 8 | 16;
+  /** Text drawn below a figure (.pdf, .svg output); '' for none. */
+  readonly caption: string;
   readonly output: { readonly file: string; readonly sidecar: boolean };
 }
 
-const TOP_KEYS = ['kind', 'schema', 'version', 'family', 'r', 'x', 'pixels', 'samples', 'transient', 'iterations', 'depth', 'output'];
+const TOP_KEYS = ['kind', 'schema', 'version', 'family', 'r', 'x', 'pixels', 'samples', 'transient', 'iterations', 'depth', 'caption', 'output'];
 
 /** The default parameter window of each family's diagram and Lyapunov plot (the cascade and the chaotic band). */
 export function defaultParameterRange(family: UnimodalFamily): readonly [string, string] {
@@ -68,13 +70,16 @@ export function parseDiagramSheet(raw: Json, origin: FieldOrigin = {}): DiagramS
   const iterations = fields.integer('iterations', 1, 10_000_000, Math.max(1000, 2 * pixels.height));
   const depth = fields.choice('depth', [8, 16] as const, 16);
   fields.only('output', ['file', 'sidecar'], 'an object { "file": "...", "sidecar": true }');
-  const file = fields.file('output.file', ['.png'], `out/${family.name}-diagram.png`)!;
+  // .pdf or .svg: a figure with labelled axes (r below, c on top for the logistic family, x at the left)
+  const file = fields.file('output.file', ['.png', '.pdf', '.svg'], `out/${family.name}-diagram.png`)!;
   const sidecar = fields.boolean('output.sidecar', true);
-  return { kind: 'section-diagram', schema: SHEET_SCHEMA, family: family.name, r, x, pixels, samples, transient, iterations, depth, output: { file, sidecar } };
+  const caption = fields.get('caption') ?? '';
+  if (typeof caption !== 'string') throw new UserError(fields.name('caption'), 'a string', caption);
+  return { kind: 'section-diagram', schema: SHEET_SCHEMA, family: family.name, r, x, pixels, samples, transient, iterations, depth, caption, output: { file, sidecar } };
 }
 
 /** Everything that fixes the image, in a fixed key order (the sheet embedded in the file). */
 export function diagramRecord(sheet: DiagramSheet): Json {
-  const { kind, schema, family, r, x, pixels, samples, transient, iterations, depth } = sheet;
-  return { kind, schema, family, r: { ...r }, x: { ...x }, pixels: { ...pixels }, samples, transient, iterations, depth };
+  const { kind, schema, family, r, x, pixels, samples, transient, iterations, depth, caption } = sheet;
+  return { kind, schema, family, r: { ...r }, x: { ...x }, pixels: { ...pixels }, samples, transient, iterations, depth, ...(caption === '' ? {} : { caption }) };
 }
