@@ -105,7 +105,7 @@ export function comparePlateSvg(spec: CompareSpec): string {
   // Im c of the strip (square pixels, the real axis through its middle, planeStrip) and the diagram's state x, at the left.
   const imHalf = ((to - from) / W) * (hs / 2);
   const yIm = (v: number): number => top + hs / 2 - (v / imHalf) * (hs / 2);
-  for (const t of niceTicks(-imHalf, imHalf, Math.max(2, Math.floor(hs / 30)))) {
+  for (const t of niceTicks(-imHalf, imHalf, Math.max(2, Math.floor(hs / 45)))) {
     if (Math.abs(t) > imHalf) continue;
     out.push(`<line class="im-tick" x1="${left - 6}" y1="${f(yIm(t))}" x2="${left}" y2="${f(yIm(t))}" stroke="black"/>`);
     if (labels.take(String(t), left - 9, yIm(t) + 4, 12, 'end')) out.push(`<text class="im-label" x="${left - 9}" y="${f(yIm(t) + 4)}" text-anchor="end" font-size="12">${t}</text>`);
@@ -113,7 +113,7 @@ export function comparePlateSvg(spec: CompareSpec): string {
   const s0 = spec.stateFrom ?? 0;
   const s1 = spec.stateTo ?? 1;
   const yX = (v: number): number => top + hs + hd - ((v - s0) / (s1 - s0)) * hd;
-  for (const t of niceTicks(Math.min(s0, s1), Math.max(s0, s1), Math.max(2, Math.floor(hd / 40)))) {
+  for (const t of niceTicks(Math.min(s0, s1), Math.max(s0, s1), Math.max(2, Math.floor(hd / 60)))) {
     out.push(`<line class="x-tick" x1="${left - 6}" y1="${f(yX(t))}" x2="${left}" y2="${f(yX(t))}" stroke="black"/>`);
     if (labels.take(String(t), left - 9, yX(t) + 4, 12, 'end')) out.push(`<text class="x-label" x="${left - 9}" y="${f(yX(t) + 4)}" text-anchor="end" font-size="12">${t}</text>`);
   }

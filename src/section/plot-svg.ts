@@ -84,7 +84,11 @@ export function niceTicks(lo: number, hi: number, count: number): number[] {
   const mag = 10 ** Math.floor(Math.log10(raw));
   const step = [1, 2, 5, 10].map((m) => m * mag).find((s) => s >= raw) ?? 10 * mag;
   const ticks: number[] = [];
-  for (let t = Math.ceil(lo / step) * step; t <= hi + step * 1e-9; t += step) ticks.push(Number(t.toPrecision(12)));
+  // Multiples k * step, not a running sum: a sum drifts (0.1 + 0.1 + 0.1 ...), and near 0 would print as -1.7e-17.
+  for (let k = Math.ceil(lo / step - 1e-9); k * step <= hi + step * 1e-9; k++) {
+    const t = Number((k * step).toPrecision(12));
+    ticks.push(k === 0 ? 0 : t);
+  }
   return ticks;
 }
 

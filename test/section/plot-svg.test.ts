@@ -78,3 +78,20 @@ describe('plotSvg', () => {
     expect(plain).not.toContain('class="clip');
   });
 });
+
+describe('niceTicks', () => {
+  it('gives exact multiples of a 1, 2 or 5 step, 0 itself where the range holds it (never -1.7e-17)', async () => {
+    const { niceTicks } = await import('../../src/section/plot-svg.js');
+    for (const [lo, hi, n] of [[-0.125, 0.125, 5], [-0.3, 0.7, 10], [2.8, 4, 10], [-1e-3, 3e-3, 4]] as const) {
+      const ticks = niceTicks(lo, hi, n);
+      const step = ticks[1]! - ticks[0]!;
+      const mant = step / 10 ** Math.floor(Math.log10(step) + 1e-9);
+      expect([1, 2, 5].some((m) => Math.abs(mant - m) < 1e-9)).toBe(true);
+      // each tick printed is the decimal k * step (shortest round trip of the double)
+      for (const t of ticks) expect(String(t)).toMatch(/^-?\d+(\.\d{1,6})?(e-\d+)?$/);
+      if (lo < 0 && hi > 0) expect(ticks).toContain(0);
+      expect(ticks[0]!).toBeGreaterThanOrEqual(lo - 1e-12);
+      expect(ticks.at(-1)!).toBeLessThanOrEqual(hi + 1e-12);
+    }
+  });
+});
