@@ -13,6 +13,8 @@ import { scaleLinear } from 'd3-scale';
 import { cToR, rToC } from '../section/conjugacy.js';
 import { axisTicks, printDecimal, type AxisTicks } from './axis-ticks.js';
 import { MIN_TICKS, TICK_SPACING_PT, type FigureModel } from './figure-model.js';
+import { figureFont } from './figure-font.js';
+import { LABEL_PT } from './layout-figure.js';
 
 export interface DiagramFigureOptions {
   readonly width: number;
@@ -24,6 +26,10 @@ export interface DiagramFigureOptions {
   /** Draw the c axis on top (the logistic family, with r.from >= 1). */
   readonly cAxis: boolean;
   readonly caption: string;
+  /** Periodic windows to shade (onset to end, in the parameter) with their period, labelled at the top. */
+  readonly windows?: ReadonlyArray<{ readonly from: number; readonly to: number; readonly period: number }>;
+  /** Period-doubling points of the cascade to mark with a line each, labelled beside it where there is room. */
+  readonly doublings?: ReadonlyArray<{ readonly at: number; readonly label: string }>;
 }
 
 function mid(a: string, b: string): { centre: string; extent: string } {
@@ -61,5 +67,23 @@ export function diagramFigureModel(o: DiagramFigureOptions): FigureModel {
   const top = o.cAxis ? cAxisTicks(o.r.from, o.r.to, o.width, countW) : null;
   // the view only carries the page's pixel size and the plot's centre here (layout-figure.ts reads width and height)
   const view = { centerRe: r.centre, centerIm: x.centre, span: r.extent, width: o.width, height: o.height, rotation: 0 };
-  return { view, axes: { re, im, ...(top === null ? {} : { top }) }, caption: o.caption, curves: [], marks: [], scaleBar: null, points: [], legend: [] };
+  const r0 = Number(o.r.from);
+  const r1 = Number(o.r.to);
+  const px = (v: number): number => ((v - r0) / (r1 - r0)) * o.width;
+  const bands = (o.windows ?? []).map((w) => ({ x0: px(w.from), x1: px(w.to) }));
+  // window labels just below the top edge: half the label's box (capitals and 1.2 pt backing, layout-figure.ts) and 1.5 pt more
+  const labelY = (((figureFont().capHeight * LABEL_PT) / 2 + 1.2 + 1.5) / 72) * o.dpi;
+  const marks = (o.windows ?? []).map((w) => ({ kind: 'window', label: String(w.period), x: px((w.from + w.to) / 2), y: labelY }));
+  const curves = (o.doublings ?? []).filter((d) => d.at >= Math.min(r0, r1) && d.at <= Math.max(r0, r1)).map((d) => ({ kind: 'cascade', label: d.label, points: verticalLine(px(d.at), o.height) }));
+  return { view, axes: { re, im, ...(top === null ? {} : { top }) }, caption: o.caption, curves, marks, scaleBar: null, points: [], legend: [], bands };
+}
+
+/** A vertical line at x from the bottom edge up, in 32 pieces (the label goes beside one of its points, the lowest with room). */
+function verticalLine(x: number, height: number): Float64Array {
+  const pts = new Float64Array(66);
+  for (let k = 0; k <= 32; k += 1) {
+    pts[2 * k] = x;
+    pts[2 * k + 1] = height * (1 - k / 32);
+  }
+  return pts;
 }

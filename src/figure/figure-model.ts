@@ -70,6 +70,8 @@ export interface FigureModel {
   readonly points: readonly FigurePoint[];
   /** Empty for no legend. */
   readonly legend: readonly LegendEntry[];
+  /** Shaded spans across the plate (the real slice's periodic windows), in plate pixels along x; optional. */
+  readonly bands?: ReadonlyArray<{ readonly x0: number; readonly x1: number }>;
 }
 
 /** One tick per this many points of axis length, at most (d3's count is a hint). */

@@ -28,6 +28,10 @@ export const OUTLINE_PT = 0.5;
 const OUTLINE_INK = '#ffd84a';
 /** Internal rays: as thin as outlines, in a pale blue told apart from both rays and outlines. */
 const INTERNAL_INK = '#9ee7ff';
+/** Period doublings on the real slice's diagram: thin red lines; periodic windows a pale blue shading. */
+const CASCADE_INK = '#c0392b';
+const BAND_INK = '#2a7fd4';
+const BAND_OPACITY = 0.15;
 /** A labelled point: a ring this wide (radius) in white over a black halo. */
 const POINT_RADIUS_PT = 1.8;
 /** Equipotentials: pale hairlines, under the rays and outlines. */
@@ -98,6 +102,11 @@ export function layoutFigure(model: FigureModel, dpi: number, font: FigureFont):
     return clipPolyline(pts, plate.x - pw / 10, plate.y - ph / 10, plate.x + pw * 1.1, plate.y + ph * 1.1);
   });
   const allRuns = curveRuns.flat();
+  for (const b of model.bands ?? []) {
+    const a = Math.max(0, Math.min(b.x0, b.x1));
+    const e = Math.min(view.width, Math.max(b.x0, b.x1));
+    if (e > a) fills.push({ x: plate.x + a * sx, y: plate.y, width: Math.max(0.3, (e - a) * sx), height: ph, colour: BAND_INK, opacity: BAND_OPACITY });
+  }
   // The scale bar first, so that no label covers it.
   const bar = model.scaleBar;
   if (bar !== null) {
@@ -116,11 +125,11 @@ export function layoutFigure(model: FigureModel, dpi: number, font: FigureFont):
     }
   }
   // halos first, so a curve crossing another stays unbroken
-  const widthOf = (kind: string): number => (kind === 'outline' || kind === 'internal-ray' ? OUTLINE_PT : kind === 'equipotential' ? LEVEL_PT : RAY_PT);
-  const inkOf = (kind: string): string => (kind === 'outline' ? OUTLINE_INK : kind === 'internal-ray' ? INTERNAL_INK : kind === 'equipotential' ? LEVEL_INK : RAY_INK);
+  const widthOf = (kind: string): number => (kind === 'outline' || kind === 'internal-ray' || kind === 'cascade' ? OUTLINE_PT : kind === 'equipotential' ? LEVEL_PT : RAY_PT);
+  const inkOf = (kind: string): string => (kind === 'cascade' ? CASCADE_INK : kind === 'outline' ? OUTLINE_INK : kind === 'internal-ray' ? INTERNAL_INK : kind === 'equipotential' ? LEVEL_INK : RAY_INK);
   curveRuns.forEach((runs, k) => {
     const kind = model.curves[k]!.kind;
-    if (kind === 'equipotential') return; // hairlines over the exterior need no halo
+    if (kind === 'equipotential' || kind === 'cascade') return; // hairlines need no halo
     for (const run of runs) strokes.push({ points: run, width: 2.5 * widthOf(kind), colour: RAY_HALO, clip: true });
   });
   curveRuns.forEach((runs, k) => {

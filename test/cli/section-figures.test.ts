@@ -85,4 +85,29 @@ describe('section diagram --out fig.pdf', () => {
       expect(readFileSync(path.join(dir, `a-again.${ext}`)).equals(readFileSync(a)), `${ext} --again`).toBe(true);
     }
   });
+
+  it('--windows 3 --cascade: shades the period-3 window from its onset r = 1 + sqrt 8 and marks the doublings r = 3 and 1 + sqrt 6 (exact algebra: the tangent bifurcation of f^3 and the flip of the 2-cycle)', () => {
+    const file = path.join(tempDir(), 'w.svg');
+    const args = ['section', 'diagram', '--r-from', '2.8', '--r-to', '4', '--size', '600x300', '--samples', '1', '--transient', '100', '--iterations', '200', '--windows', '3', '--cascade', '--out', file];
+    const r = runCli(args);
+    expect(r.status, r.stderr).toBe(0);
+    const svg = readFileSync(file, 'utf8');
+    const img = /<image x="([\d.]+)" y="([\d.]+)" width="([\d.]+)" height="([\d.]+)"/.exec(svg)!;
+    const plate = { x: Number(img[1]), width: Number(img[3]) };
+    const at = (rv: number): number => plate.x + ((rv - 2.8) / 1.2) * plate.width;
+    const bands = [...svg.matchAll(/<rect x="([\d.]+)" y="[\d.]+" width="([\d.]+)" height="[\d.]+" fill="#2a7fd4"/g)].map((m) => [Number(m[1]), Number(m[1]) + Number(m[2])] as const);
+    expect(bands).toHaveLength(1);
+    expect(Math.abs(bands[0]![0] - at(1 + Math.sqrt(8)))).toBeLessThan(0.01);
+    // the window ends at its interior crisis near r = 3.8568 (from memory)
+    const end = 2.8 + ((bands[0]![1] - plate.x) / plate.width) * 1.2;
+    expect(end).toBeGreaterThan(3.85);
+    expect(end).toBeLessThan(3.86);
+    expect(svg).toMatch(/class="window" aria-label="3"/);
+    const lines = [...svg.matchAll(/<polyline points="([\d.]+),[^"]*" fill="none" stroke="#c0392b"/g)].map((m) => Number(m[1]));
+    for (const rv of [3, 1 + Math.sqrt(6)]) expect(lines.some((x) => Math.abs(x - at(rv)) < 0.01), `doubling at ${rv}`).toBe(true);
+    const png = runCli([...args.slice(0, -2), '--out', path.join(tempDir(), 'w.png')]);
+    expect(png.status).toBe(2);
+    expect(png.stderr.trimEnd().split('\n')).toHaveLength(1);
+    expect(png.stderr).toMatch(/for --windows .*but received/);
+  });
 });

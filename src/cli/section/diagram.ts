@@ -29,6 +29,8 @@ export const DIAGRAM_OPTIONS: readonly SectionOption[] = [
   { flags: '--depth <bits>', description: 'bits per channel of the PNG: 8 or 16 (default 16)', field: 'depth', value: integerText },
   { flags: '--out <file>', description: 'output file: a PNG (ticks of r marked in the pixels), or a figure .pdf or .svg with labelled axes: r below, c on top (logistic), x at the left (default out/FAMILY-diagram.png)', field: 'output.file' },
   { flags: '--caption <text>', description: 'figures (.pdf, .svg): text drawn below the figure (default none)', field: 'caption' },
+  { flags: '--windows <n>', description: 'figures: shade the periodic windows of period 3 to n (up to 8), onset to end, labelled by period; 0 for none (default 0)', field: 'windows', value: integerText },
+  { flags: '--cascade', description: 'figures: mark the period doublings of the cascade with a line each (default: none)' },
   NO_SIDECAR_OPTION,
   againOption('section diagram'),
   WORKERS_OPTION,
@@ -37,6 +39,7 @@ export const DIAGRAM_OPTIONS: readonly SectionOption[] = [
 /** The sheet of a run: from the positional file or --again, with flags over it. */
 export async function diagramSheet(sheetFile: string | undefined, values: Values): Promise<DiagramSheet> {
   const { raw, again } = await loadSectionSheet('section-diagram', sheetFile, values['again']);
+  if (values['cascade'] === true) raw['cascade'] = true;
   if (again !== undefined && typeof values['out'] !== 'string') raw['output'] = { file: againOutput(again, ['.png', '.pdf', '.svg']) };
   return quickPixels(parseDiagramSheet(raw, applySectionFlags(raw, values, DIAGRAM_OPTIONS)));
 }
@@ -97,7 +100,13 @@ async function writeDiagramFigure(sheet: DiagramSheet, ink: Uint16Array, metadat
   try {
     await writeInkPng(png, ink, width, height, sheet.depth, metadata, field);
     const bytes = await readFile(png);
-    const model = diagramFigureModel({ width, height, dpi: DIAGRAM_FIGURE_DPI, parameter: family.parameter, r: sheet.r, x: sheet.x, cAxis: family.name === 'logistic' && Number(sheet.r.from) >= 1, caption: sheet.caption });
+    const { landmarks } = await import('../../section/landmarks.js');
+    const marks = sheet.windows > 0 || sheet.cascade ? await landmarks(family, sheet.windows) : { doublings: [], windows: [] };
+    const model = diagramFigureModel({
+      width, height, dpi: DIAGRAM_FIGURE_DPI, parameter: family.parameter, r: sheet.r, x: sheet.x,
+      cAxis: family.name === 'logistic' && Number(sheet.r.from) >= 1, caption: sheet.caption,
+      windows: sheet.windows > 0 ? marks.windows : [], doublings: sheet.cascade ? marks.doublings : [],
+    });
     const font = figureFont();
     const scene = layoutFigure(model, DIAGRAM_FIGURE_DPI, font);
     if (/\.pdf$/i.test(file)) {
