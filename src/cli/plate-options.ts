@@ -76,6 +76,7 @@ export const PLATE_OPTIONS: readonly OptionSpec[] = [
   { flags: '--label-periods <n>', description: 'mark and label the nuclei of periods 1..n that are large enough, n from 0 (none) to 14 (default 0; sheet labels)', apply: (s, v) => void (s['labels'] = integer(v, '--label-periods')) },
   { flags: '--title <text>', description: 'title recorded in the metadata (default none; sheet title)', apply: (s, v) => void (s['title'] = v) },
   { flags: '--axes', description: 'figures: frame, ticks and labels in Re c and Im c outside the image; not with --rotation (default: none; sheet figure.axes)' },
+  { flags: '--scale-bar', description: 'figures: a bar of a round length in c, labelled with it, in the lower left corner of the plate (default: none; sheet figure.scaleBar)' },
   { flags: '--caption <text>', description: 'figures: text drawn below the figure (default none; sheet figure.caption)', apply: (s, v) => void (sub(s, 'figure')['caption'] = v) },
   {
     flags: '--rays <angles>',
@@ -85,6 +86,16 @@ export const PLATE_OPTIONS: readonly OptionSpec[] = [
   { flags: '--rays-of <period>', description: 'figures: both rays landing at the root of every component of this period (1 to 12) in view, 0 for none (default 0; sheet figure.raysOf)', apply: (s, v) => void (sub(s, 'figure')['raysOf'] = integer(v, '--rays-of')) },
   { flags: '--equipotentials <n>', description: 'figures: n level curves of the potential, G_0 / 2^k for k = 0..n-1 with G_0 the largest in view, n from 0 (none) to 64 (default 0; sheet figure.equipotentials)', apply: (s, v) => void (sub(s, 'figure')['equipotentials'] = integer(v, '--equipotentials')) },
   { flags: '--outlines <period>', description: 'figures: draw the boundary of every component of this period (1 to 14) in view, 0 for none (default 0; sheet figure.outlines)', apply: (s, v) => void (sub(s, 'figure')['outlines'] = integer(v, '--outlines')) },
+  {
+    flags: '--internal-rays <period:angles>',
+    description: 'figures: internal rays of every component of this period (1 to 14) whose nucleus is in view, at these internal angles (0 or p/q, comma-separated), from the nucleus to the boundary, e.g. 1:0,1/3,1/2 (default none; sheet figure.internalRays)',
+    apply: (s, v) => {
+      const m = /^\s*([^:]*):(.*)$/.exec(v);
+      if (m === null) throw new UserError('--internal-rays', 'PERIOD:ANGLES, a period and internal angles 0 or p/q (e.g. 1:0,1/3,1/2)', v);
+      sub(s, 'figure')['internalRays'] = { period: integer(m[1]!, '--internal-rays'), angles: m[2]!.split(',').map((a) => a.trim()) };
+    },
+  },
+  { flags: '--marks <file.csv>', description: 'figures: labelled points from a CSV file of rows re,im,label; the rows are recorded in the sheet (default none; sheet figure.marks)' },
   { flags: '--out <file>', description: 'output file: an image ending in .png, .tif or .tiff, or a figure ending in .pdf or .svg (default out/<sheet>.png; sheet output.file)', apply: (s, v) => void (sub(s, 'output')['file'] = v) },
   { flags: '--data <dir>', description: 'also write the per-pixel arrays as NPY files into this directory (default none; sheet output.data)', apply: (s, v) => void (sub(s, 'output')['data'] = v) },
   { flags: '--no-sidecar', description: 'do not write the JSON sidecar FILE.json beside the image (default: write it; sheet output.sidecar)' },
@@ -105,6 +116,7 @@ export function applyPlateOptions(sheet: Record<string, unknown>, values: Record
   if (values['sidecar'] === false) sub(sheet, 'output')['sidecar'] = false;
   if (values['skip'] === false) sheet['skip'] = false;
   if (values['axes'] === true) sub(sheet, 'figure')['axes'] = true;
+  if (values['scaleBar'] === true) sub(sheet, 'figure')['scaleBar'] = true;
   return sheet;
 }
 
@@ -137,6 +149,7 @@ const FIELD_FLAGS: ReadonlyArray<readonly [string, string]> = [
   ['figure.outlines', '--outlines'],
   ['figure.raysOf', '--rays-of'],
   ['figure.equipotentials', '--equipotentials'],
+  ['figure.internalRays', '--internal-rays'],
   ['output.data', '--data'],
 ];
 
@@ -159,5 +172,6 @@ export function nameTheFlag(err: unknown, values: Record<string, unknown>): unkn
   const flag = flagForField(err.field, values);
   if (err.field === 'figure' && typeof values['out'] === 'string') return err.withField('--out (sheet field output.file)');
   if (flag === undefined && err.field === 'figure.axes' && values['axes'] === true) return err.withField('--axes (sheet field figure.axes)');
+  if (flag === undefined && err.field === 'figure.scaleBar' && values['scaleBar'] === true) return err.withField('--scale-bar (sheet field figure.scaleBar)');
   return flag === undefined ? err : err.withField(`${flag} (sheet field ${err.field})`);
 }

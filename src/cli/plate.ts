@@ -15,6 +15,8 @@ import { Received, UserError } from '../check/user-error.js';
 import { toolVersion } from '../io/tool-version.js';
 import { optionalInteger } from '../check/fields.js';
 import { addOptions } from './option-spec.js';
+import { readFile } from 'node:fs/promises';
+import { parseMarksCsv } from '../view/marks-csv.js';
 
 /**
  * The sheet recorded in a file quadatlas wrote (PNG, TIFF, SVG or JSON
@@ -34,6 +36,21 @@ export async function sheetFromPlate(file: string, field = '--again'): Promise<R
     process.stderr.write(`quadatlas: note: ${file} was written by quadatlas ${meta.version ?? '?'}; this is ${toolVersion()}, so bytes may differ\n`);
   }
   return meta.sheet;
+}
+
+/** `--marks FILE.csv`: the file's rows become the sheet's figure.marks (so the sheet alone redraws them). */
+async function applyMarksFile(raw: Record<string, unknown>, values: Record<string, unknown>): Promise<Record<string, unknown>> {
+  const file = values['marks'];
+  if (typeof file !== 'string') return raw;
+  let text: string;
+  try {
+    text = await readFile(file, 'utf8');
+  } catch (err) {
+    throw new UserError('--marks', 'a readable CSV file of rows re,im,label', new Received(`${file} (${(err as NodeJS.ErrnoException).code ?? 'unreadable'})`));
+  }
+  const figure = typeof raw['figure'] === 'object' && raw['figure'] !== null ? (raw['figure'] as Record<string, unknown>) : {};
+  raw['figure'] = { ...figure, marks: parseMarksCsv(text, file) };
+  return raw;
 }
 
 export function register(program: Command): void {
@@ -65,7 +82,7 @@ export function register(program: Command): void {
     const tileSize = optionalInteger(values['tileSize'], '--tile-size', 8, 1024);
     let summary;
     try {
-      const sheet: Sheet = quickSheet(parseSheet(applyPlateOptions(raw, values), name));
+      const sheet: Sheet = quickSheet(parseSheet(await applyMarksFile(applyPlateOptions(raw, values), values), name));
       summary = await renderSheet(sheet, { ...(workers === undefined ? {} : { workers }), ...(tileSize === undefined ? {} : { tileSize }) });
     } catch (err) {
       throw nameTheFlag(err, values);

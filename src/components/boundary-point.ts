@@ -35,6 +35,14 @@ export function findBoundaryPoint(period: number, nucleus: ComplexDecimal, multi
   return findBoundaryPointFixed(period, nucleus, multiplier, digits).point;
 }
 
+/**
+ * findBoundaryPoint at the multiplier e^{2 pi i num/den} taken exactly (unitRoot at the working
+ * precision, so no double's rounding of cos and sin enters the digits); num/den = 0 is the root.
+ */
+export function findBoundaryPointAtAngle(period: number, nucleus: ComplexDecimal, num: number, den: number, digits: number): ComplexDecimal {
+  return componentPoint(period, nucleus, { num, den }, digits).result.point;
+}
+
 export interface BoundaryPointFixed {
   point: ComplexDecimal;
   /** b and w at the confirming precision. */

@@ -6,13 +6,32 @@
  */
 import { Decimal } from 'decimal.js';
 import type { View } from '../view/view.js';
-import { axisTicks, offsetExponentFor, type AxisTicks } from './axis-ticks.js';
+import { periodHex } from '../colour/period-palette.js';
+import { axisTicks, offsetExponentFor, PLAIN_DIGITS, type AxisTicks } from './axis-ticks.js';
 
 export interface FigureOptions {
   /** Frame, ticks, tick labels and axis titles outside the image. */
   readonly axes: boolean;
   /** Text drawn below the figure ('' for none). */
   readonly caption: string;
+  /** A bar of a round length in c inside the plate's lower left corner, labelled with that length. */
+  readonly scaleBar?: boolean;
+  /** Periods to list in a legend beside the frame (swatch and number each), [] for none. */
+  readonly legendPeriods?: readonly number[];
+}
+
+/** A bar of `length` (c units, a decimal string) that is `pixels` plate pixels long. */
+export interface ScaleBar {
+  readonly length: string;
+  readonly label: string;
+  readonly pixels: number;
+}
+
+/** One row of the period legend beside the frame. */
+export interface LegendEntry {
+  readonly period: number;
+  /** The period's colour from the palette, '#rrggbb'. */
+  readonly colour: string;
 }
 
 /** A curve of the figure in continuous plate pixel coordinates (x right, y down), with its label. */
@@ -31,13 +50,28 @@ export interface FigureMark {
   readonly y: number;
 }
 
+/** A labelled point from the sheet's marks, in continuous plate pixels: a ring at the point, its label beside it. */
+export interface FigurePoint {
+  readonly label: string;
+  readonly x: number;
+  readonly y: number;
+}
+
 export interface FigureModel {
   readonly view: View;
-  readonly axes: { readonly re: AxisTicks; readonly im: AxisTicks } | null;
+  /** re along the bottom, im at the left, and an optional second scale along the top (the real slice's c). */
+  readonly axes: { readonly re: AxisTicks; readonly im: AxisTicks; readonly top?: AxisTicks } | null;
   readonly caption: string;
   readonly curves: readonly FigureCurve[];
   /** Placed after the curves' labels, each only where it covers no curve and no other label. */
   readonly marks: readonly FigureMark[];
+  readonly scaleBar: ScaleBar | null;
+  /** Labelled points, placed before every other label. */
+  readonly points: readonly FigurePoint[];
+  /** Empty for no legend. */
+  readonly legend: readonly LegendEntry[];
+  /** Shaded spans across the plate (the real slice's periodic windows), in plate pixels along x; optional. */
+  readonly bands?: ReadonlyArray<{ readonly x0: number; readonly x1: number }>;
 }
 
 /** One tick per this many points of axis length, at most (d3's count is a hint). */
@@ -49,7 +83,7 @@ export const MIN_TICKS = 5;
  * The model of a figure of `view` printed at `dpi`. Axes need a view
  * without rotation: their ticks run along Re c and Im c.
  */
-export function figureModel(view: View, dpi: number, options: FigureOptions, curves: readonly FigureCurve[] = [], marks: readonly FigureMark[] = []): FigureModel {
+export function figureModel(view: View, dpi: number, options: FigureOptions, curves: readonly FigureCurve[] = [], marks: readonly FigureMark[] = [], points: readonly FigurePoint[] = []): FigureModel {
   let axes: FigureModel['axes'] = null;
   if (options.axes) {
     if (view.rotation !== 0) throw new Error('figureModel: axes need a view without rotation');
@@ -62,7 +96,30 @@ export function figureModel(view: View, dpi: number, options: FigureOptions, cur
       im: axisTicks('Im c', view.centerIm, spanIm, view.height, Math.max(MIN_TICKS, Math.round(heightPt / TICK_SPACING_PT)), true, exponent),
     };
   }
-  return { view, axes, caption: options.caption, curves, marks };
+  const scaleBar = options.scaleBar === true ? scaleBarFor(view.span, view.width) : null;
+  const legend = (options.legendPeriods ?? []).map((period) => ({ period, colour: periodHex(period) }));
+  return { view, axes, caption: options.caption, curves, marks, scaleBar, points, legend };
+}
+
+/** A scale bar covers at most this fraction of the plate's width. */
+export const SCALE_BAR_FRACTION = 0.25;
+
+/**
+ * The scale bar of a view `span` wide over `width` pixels: the largest
+ * length 1, 2 or 5 times a power of ten not above SCALE_BAR_FRACTION of the
+ * span, its pixel length from the exact decimal span. Labelled as a plain
+ * decimal when that takes at most PLAIN_DIGITS digits, else as "2e−12".
+ */
+export function scaleBarFor(span: string, width: number): ScaleBar {
+  const D = Decimal.clone({ precision: span.length + 40 });
+  const target = new D(span).times(SCALE_BAR_FRACTION);
+  const e = target.log(10).floor().toNumber();
+  const unit = new D(10).pow(e);
+  const mantissa = [5, 2, 1].find((m) => unit.times(m).lte(target)) ?? 1;
+  const length = unit.times(mantissa);
+  const decimals = Math.max(0, -e);
+  const label = decimals + Math.max(1, e + 1) <= PLAIN_DIGITS ? length.toFixed(decimals) : `${mantissa}e${e < 0 ? '\u2212' : ''}${Math.abs(e)}`;
+  return { length: length.toFixed(), label, pixels: length.div(span).times(width).toNumber() };
 }
 
 /** The extent of `pixels` pixels at span/width per pixel, as a decimal string (40 digits beyond the span's). */

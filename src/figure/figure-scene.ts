@@ -52,4 +52,6 @@ export interface FigureScene {
   readonly texts: readonly SceneText[];
   /** Indices into the model's marks of those that found room and were drawn. */
   readonly drawnMarks: readonly number[];
+  /** The model's points inside the plate (indices), and whether each label found room. */
+  readonly drawnPoints: ReadonlyArray<{ readonly index: number; readonly labelled: boolean }>;
 }

@@ -26,6 +26,14 @@ export const RAY_PT = 0.75;
 /** Component outlines: a thinner warm yellow, told apart from the white rays. */
 export const OUTLINE_PT = 0.5;
 const OUTLINE_INK = '#ffd84a';
+/** Internal rays: as thin as outlines, in a pale blue told apart from both rays and outlines. */
+const INTERNAL_INK = '#9ee7ff';
+/** Period doublings on the real slice's diagram: thin red lines; periodic windows a pale blue shading. */
+const CASCADE_INK = '#c0392b';
+const BAND_INK = '#2a7fd4';
+const BAND_OPACITY = 0.15;
+/** A labelled point: a ring this wide (radius) in white over a black halo. */
+const POINT_RADIUS_PT = 1.8;
 /** Equipotentials: pale hairlines, under the rays and outlines. */
 export const LEVEL_PT = 0.35;
 const LEVEL_INK = '#e6eeff';
@@ -70,9 +78,12 @@ export function layoutFigure(model: FigureModel, dpi: number, font: FigureFont):
     const overhang = lastRe === undefined ? 0 : font.width(lastRe.label, LABEL_PT) / 2 - (view.width - lastRe.at) * (pw / view.width);
     right = Math.max(PAD, overhang + 4);
     top = PAD + imTitleOver;
+    if (axes.top !== undefined) top = Math.max(top, PAD + cap(TITLE_PT) + font.descent * TITLE_PT + 1.5 * GAP + cap(LABEL_PT) + font.descent * LABEL_PT + GAP + TICK_PT);
     below = TICK_PT + GAP + cap(LABEL_PT) + font.descent * LABEL_PT + 1.5 * GAP + cap(TITLE_PT) + font.descent * TITLE_PT;
   }
   const plate: Rect = { x: left, y: top, width: pw, height: ph };
+  const legend = legendColumns(font, model, ph);
+  if (legend !== null) right = Math.max(right, LEGEND_GAP + legend.width + PAD);
   const pageWidth = Math.max(left + pw + right, left + pw / 2 + reTitleWidth / 2 + PAD);
   const captionLines = model.caption === '' ? [] : wrap(font, model.caption, CAPTION_PT, pageWidth - 2 * PAD);
   const lineHeight = 1.25 * CAPTION_PT;
@@ -91,18 +102,59 @@ export function layoutFigure(model: FigureModel, dpi: number, font: FigureFont):
     return clipPolyline(pts, plate.x - pw / 10, plate.y - ph / 10, plate.x + pw * 1.1, plate.y + ph * 1.1);
   });
   const allRuns = curveRuns.flat();
+  for (const b of model.bands ?? []) {
+    const a = Math.max(0, Math.min(b.x0, b.x1));
+    const e = Math.min(view.width, Math.max(b.x0, b.x1));
+    if (e > a) fills.push({ x: plate.x + a * sx, y: plate.y, width: Math.max(0.3, (e - a) * sx), height: ph, colour: BAND_INK, opacity: BAND_OPACITY });
+  }
+  // The scale bar first, so that no label covers it.
+  const bar = model.scaleBar;
+  if (bar !== null) {
+    const len = bar.pixels * sx;
+    const w = font.width(bar.label, LABEL_PT);
+    const h = font.capHeight * LABEL_PT;
+    const pad = 2;
+    const boxW = Math.max(len, w) + 2 * pad;
+    const boxH = h + GAP + SCALE_BAR_PT + 2 * pad;
+    const box = { x: plate.x + SCALE_BAR_INSET, y: plate.y + ph - SCALE_BAR_INSET - boxH, width: boxW, height: boxH };
+    if (box.x + box.width <= plate.x + pw && box.y >= plate.y) {
+      placed.push(box);
+      fills.push({ ...box, colour: RAY_HALO, opacity: RAY_LABEL_BACKING });
+      fills.push({ x: box.x + (boxW - len) / 2, y: box.y + boxH - pad - SCALE_BAR_PT, width: len, height: SCALE_BAR_PT, colour: RAY_INK, opacity: 1 });
+      texts.push({ text: bar.label, x: box.x + (boxW - w) / 2, y: box.y + pad + h, size: LABEL_PT, rotate: 0, role: 'scale-bar', colour: RAY_INK });
+    }
+  }
   // halos first, so a curve crossing another stays unbroken
-  const widthOf = (kind: string): number => (kind === 'outline' ? OUTLINE_PT : kind === 'equipotential' ? LEVEL_PT : RAY_PT);
-  const inkOf = (kind: string): string => (kind === 'outline' ? OUTLINE_INK : kind === 'equipotential' ? LEVEL_INK : RAY_INK);
+  const widthOf = (kind: string): number => (kind === 'outline' || kind === 'internal-ray' || kind === 'cascade' ? OUTLINE_PT : kind === 'equipotential' ? LEVEL_PT : RAY_PT);
+  const inkOf = (kind: string): string => (kind === 'cascade' ? CASCADE_INK : kind === 'outline' ? OUTLINE_INK : kind === 'internal-ray' ? INTERNAL_INK : kind === 'equipotential' ? LEVEL_INK : RAY_INK);
   curveRuns.forEach((runs, k) => {
     const kind = model.curves[k]!.kind;
-    if (kind === 'equipotential') return; // hairlines over the exterior need no halo
+    if (kind === 'equipotential' || kind === 'cascade') return; // hairlines need no halo
     for (const run of runs) strokes.push({ points: run, width: 2.5 * widthOf(kind), colour: RAY_HALO, clip: true });
   });
   curveRuns.forEach((runs, k) => {
     const kind = model.curves[k]!.kind;
     for (const run of runs) strokes.push({ points: run, width: widthOf(kind), colour: inkOf(kind), clip: true });
   });
+  const drawnPoints: Array<{ index: number; labelled: boolean }> = [];
+  for (const [index, point] of model.points.entries()) {
+    const cx = plate.x + point.x * sx;
+    const cy = plate.y + point.y * sy;
+    if (cx < plate.x || cy < plate.y || cx > plate.x + pw || cy > plate.y + ph) continue;
+    const ring: number[] = [];
+    for (let k = 0; k <= 16; k += 1) ring.push(cx + POINT_RADIUS_PT * Math.cos((k * Math.PI) / 8), cy + POINT_RADIUS_PT * Math.sin((k * Math.PI) / 8));
+    strokes.push({ points: ring, width: 3 * LINE_PT, colour: RAY_HALO, clip: true });
+    strokes.push({ points: ring, width: 1.2 * LINE_PT, colour: RAY_INK, clip: true });
+    const ringBox = { x: cx - POINT_RADIUS_PT - 1, y: cy - POINT_RADIUS_PT - 1, width: 2 * POINT_RADIUS_PT + 2, height: 2 * POINT_RADIUS_PT + 2 };
+    placed.push(ringBox);
+    const label = placePointLabel(font, point.label, cx, cy, plate, placed, allRuns);
+    if (label !== null) {
+      placed.push(label.box);
+      fills.push({ ...label.box, colour: RAY_HALO, opacity: RAY_LABEL_BACKING });
+      texts.push({ text: point.label, x: label.x, y: label.y, size: LABEL_PT, rotate: 0, role: 'mark', colour: RAY_INK });
+    }
+    drawnPoints.push({ index, labelled: label !== null });
+  }
   for (const [k, curve] of model.curves.entries()) {
     const runs = curveRuns[k]!;
     const label = curve.label === '' ? null : placeRayLabel(font, curve.label, runs, plate, placed, allRuns);
@@ -144,16 +196,63 @@ export function layoutFigure(model: FigureModel, dpi: number, font: FigureFont):
       strokes.push({ points: [x0 - TICK_PT, y, x0, y], width: LINE_PT, colour: INK, clip: false });
       texts.push({ text: t.label, x: x0 - TICK_PT - GAP - font.width(t.label, LABEL_PT), y: y + cap(LABEL_PT) / 2, size: LABEL_PT, rotate: 0, role: 'im-tick', colour: INK });
     }
+    if (axes.top !== undefined) {
+      for (const t of axes.top.ticks) {
+        const x = x0 + t.at * sx;
+        strokes.push({ points: [x, y0, x, y0 - TICK_PT], width: LINE_PT, colour: INK, clip: false });
+        texts.push({ text: t.label, x: x - font.width(t.label, LABEL_PT) / 2, y: y0 - TICK_PT - GAP - font.descent * LABEL_PT, size: LABEL_PT, rotate: 0, role: 'top-tick', colour: INK });
+      }
+      const topTitleY = y0 - TICK_PT - GAP - font.descent * LABEL_PT - cap(LABEL_PT) - 1.5 * GAP - font.descent * TITLE_PT;
+      texts.push({ text: axes.top.title, x: x0 + pw / 2 - font.width(axes.top.title, TITLE_PT) / 2, y: topTitleY, size: TITLE_PT, rotate: 0, role: 'title', colour: INK });
+    }
     const reTitleY = y1 + TICK_PT + GAP + cap(LABEL_PT) + font.descent * LABEL_PT + 1.5 * GAP + cap(TITLE_PT);
     texts.push({ text: axes.re.title, x: x0 + pw / 2 - font.width(axes.re.title, TITLE_PT) / 2, y: reTitleY, size: TITLE_PT, rotate: 0, role: 'title', colour: INK });
     const imTitleX = x0 - TICK_PT - GAP - imLabelWidth - 1.5 * GAP - font.descent * TITLE_PT;
     // Turned to read upwards, the text runs from the bottom: its start sits below the middle by half its length.
     texts.push({ text: axes.im.title, x: imTitleX, y: y0 + ph / 2 + font.width(axes.im.title, TITLE_PT) / 2, size: TITLE_PT, rotate: -90, role: 'title', colour: INK });
   }
+  if (legend !== null) {
+    const x0 = plate.x + pw + LEGEND_GAP;
+    texts.push({ text: LEGEND_HEADING, x: x0, y: plate.y + cap(TITLE_PT), size: TITLE_PT, rotate: 0, role: 'legend-title', colour: INK });
+    legend.rows.forEach((entry, i) => {
+      const column = Math.floor(i / legend.perColumn);
+      const row = i % legend.perColumn;
+      const x = x0 + column * legend.columnWidth;
+      const y = plate.y + legend.headingHeight + row * LEGEND_ROW_PT;
+      fills.push({ x, y, width: LEGEND_SWATCH_PT, height: LEGEND_SWATCH_PT, colour: entry.colour, opacity: 1 });
+      strokes.push({ points: [x, y, x + LEGEND_SWATCH_PT, y, x + LEGEND_SWATCH_PT, y + LEGEND_SWATCH_PT, x, y + LEGEND_SWATCH_PT, x, y], width: LEGEND_SWATCH_LINE_PT, colour: INK, clip: false });
+      texts.push({ text: String(entry.period), x: x + LEGEND_SWATCH_PT + GAP, y: y + LEGEND_SWATCH_PT / 2 + cap(LABEL_PT) / 2, size: LABEL_PT, rotate: 0, role: 'legend', colour: INK });
+    });
+  }
   captionLines.forEach((line, i) => {
     texts.push({ text: line, x: PAD, y: captionTop + cap(CAPTION_PT) + i * lineHeight, size: CAPTION_PT, rotate: 0, role: 'caption', colour: INK });
   });
-  return { width: pageWidth, height: pageHeight, plate, strokes, fills, texts, drawnMarks };
+  return { width: pageWidth, height: pageHeight, plate, strokes, fills, texts, drawnMarks, drawnPoints };
+}
+
+/** The legend's heading: the legend lists the interior periods present in the plate. */
+export const LEGEND_HEADING = 'Period';
+const LEGEND_GAP = 10;
+const LEGEND_SWATCH_PT = 6;
+const LEGEND_SWATCH_LINE_PT = 0.25;
+const LEGEND_ROW_PT = 9;
+/** The scale bar: a white bar this thick, its label above it, on a backing in the plate's lower left corner. */
+const SCALE_BAR_PT = 1.5;
+const SCALE_BAR_INSET = 6;
+
+/**
+ * The legend beside the frame in columns of rows (swatch, period) as tall
+ * as the plate holds, top aligned with the plate; null for no legend.
+ */
+function legendColumns(font: FigureFont, model: FigureModel, plateHeight: number): { rows: FigureModel['legend']; perColumn: number; columnWidth: number; width: number; headingHeight: number } | null {
+  if (model.legend.length === 0) return null;
+  const headingHeight = font.capHeight * TITLE_PT + font.descent * TITLE_PT + GAP;
+  const perColumn = Math.max(1, Math.floor((plateHeight - headingHeight) / LEGEND_ROW_PT));
+  const widest = Math.max(...model.legend.map((e) => font.width(String(e.period), LABEL_PT)));
+  const columnWidth = LEGEND_SWATCH_PT + GAP + widest + 2 * GAP;
+  const columns = Math.ceil(model.legend.length / perColumn);
+  const width = Math.max(font.width(LEGEND_HEADING, TITLE_PT), columns * columnWidth - 2 * GAP);
+  return { rows: model.legend, perColumn, columnWidth, width, headingHeight };
 }
 
 function overlaps(a: Rect, b: Rect): boolean {
@@ -204,6 +303,30 @@ function placeRayLabel(font: FigureFont, text: string, runs: readonly number[][]
         return { x: box.x + pad, y: box.y + pad + h, box };
       }
     }
+  }
+  return null;
+}
+
+/** Where a point's label goes: right of the ring, then left, above, below; null when none of those is free. */
+function placePointLabel(font: FigureFont, text: string, cx: number, cy: number, plate: Rect, placed: readonly Rect[], allRuns: readonly number[][]): { x: number; y: number; box: Rect } | null {
+  const w = font.width(text, LABEL_PT);
+  const h = font.capHeight * LABEL_PT;
+  const pad = 1.2;
+  const bw = w + 2 * pad;
+  const bh = h + 2 * pad;
+  const off = POINT_RADIUS_PT + 2;
+  const candidates = [
+    { x: cx + off, y: cy - bh / 2 },
+    { x: cx - off - bw, y: cy - bh / 2 },
+    { x: cx - bw / 2, y: cy - off - bh },
+    { x: cx - bw / 2, y: cy + off },
+  ];
+  for (const c of candidates) {
+    const box = { x: c.x, y: c.y, width: bw, height: bh };
+    if (box.x < plate.x || box.y < plate.y || box.x + bw > plate.x + plate.width || box.y + bh > plate.y + plate.height) continue;
+    if (placed.some((b) => overlaps(b, box))) continue;
+    if (allRuns.some((r) => hitsRun(r, box))) continue;
+    return { x: box.x + pad, y: box.y + pad + h, box };
   }
   return null;
 }

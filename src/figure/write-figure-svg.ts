@@ -26,6 +26,13 @@ export function figureSvg(scene: FigureScene, href: string, font: FigureFont, ti
   out.push(`<defs><clipPath id="plate"><rect x="${num(p.x)}" y="${num(p.y)}" width="${num(p.width)}" height="${num(p.height)}"/></clipPath></defs>`);
   out.push(`<rect width="100%" height="100%" fill="#ffffff"/>`);
   out.push(`<image x="${num(p.x)}" y="${num(p.y)}" width="${num(p.width)}" height="${num(p.height)}" preserveAspectRatio="none" xlink:href="${escapeAttr(href)}"/>`);
+  annotations(scene, font, out);
+  out.push('</svg>');
+  return `${out.join('\n')}\n`;
+}
+
+/** Strokes, fills and text outlines of the scene, in page points, appended to `out`. */
+function annotations(scene: FigureScene, font: FigureFont, out: string[]): void {
   for (const s of scene.strokes) {
     if (s.points.length < 4) continue;
     const pts: string[] = [];
@@ -41,6 +48,31 @@ export function figureSvg(scene: FigureScene, href: string, font: FigureFont, ti
     const turn = t.rotate === 0 ? '' : ` transform="rotate(${t.rotate} ${num(t.x)} ${num(t.y)})"`;
     out.push(`<path role="img" class="${t.role}" aria-label="${escapeAttr(t.text)}" fill="${fill}"${turn} d="${d}"/>`);
   }
+}
+
+/** Where the overlay of a raster figure sits: `scale` pixels a point, the page's origin at (dx, dy) pixels. */
+export interface OverlayPlacement {
+  readonly width: number;
+  readonly height: number;
+  readonly scale: number;
+  readonly dx: number;
+  readonly dy: number;
+}
+
+/**
+ * The scene's annotations alone (no plate, no page background: transparent
+ * elsewhere) as an SVG of `placement.width` x `placement.height` pixels,
+ * for rasterising over the plate. Text is glyph outlines as in figureSvg, so
+ * the rasteriser never sets type in the machine's fonts.
+ */
+export function figureOverlaySvg(scene: FigureScene, font: FigureFont, placement: OverlayPlacement): string {
+  const p = scene.plate;
+  const out: string[] = [];
+  out.push(`<svg xmlns="http://www.w3.org/2000/svg" width="${placement.width}" height="${placement.height}" viewBox="0 0 ${placement.width} ${placement.height}">`);
+  out.push(`<defs><clipPath id="plate"><rect x="${num(p.x)}" y="${num(p.y)}" width="${num(p.width)}" height="${num(p.height)}"/></clipPath></defs>`);
+  out.push(`<g transform="translate(${placement.dx} ${placement.dy}) scale(${placement.scale})">`);
+  annotations(scene, font, out);
+  out.push('</g>');
   out.push('</svg>');
   return `${out.join('\n')}\n`;
 }

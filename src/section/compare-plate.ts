@@ -9,7 +9,7 @@
  * window's component sits on the real axis in the strip above it.
  * Pure string building: the two rasters arrive as PNG data.
  */
-import { niceTicks } from './plot-svg.js';
+import { niceTicks, textWidth } from './plot-svg.js';
 
 export interface CompareMark {
   /** Position in c. */
@@ -31,6 +31,24 @@ export interface CompareSpec {
   diagramPng: string;
   marks: readonly CompareMark[];
   title: string;
+  /** The diagram's state axis: x at the bottom and top edges (default 0 and 1). */
+  stateFrom?: number;
+  stateTo?: number;
+}
+
+/** Text boxes that may not overlap: each label is drawn only where it covers no earlier one. */
+class Labels {
+  private readonly boxes: Array<[number, number, number, number]> = [];
+
+  /** Reserves the box of `text` at size `size` anchored at (x, baseline y); false (and nothing reserved) when it would overlap. */
+  take(text: string, x: number, y: number, size: number, anchor: 'start' | 'middle' | 'end'): boolean {
+    const w = textWidth(text, size);
+    const x0 = anchor === 'middle' ? x - w / 2 : anchor === 'end' ? x - w : x;
+    const box: [number, number, number, number] = [x0 - 2, y - 0.8 * size, x0 + w + 2, y + 0.25 * size];
+    if (this.boxes.some((b) => b[0] < box[2] && box[0] < b[2] && b[1] < box[3] && box[1] < b[3])) return false;
+    this.boxes.push(box);
+    return true;
+  }
 }
 
 function esc(s: string): string {
@@ -39,7 +57,7 @@ function esc(s: string): string {
 
 export function comparePlateSvg(spec: CompareSpec): string {
   const { from, to, width: W, stripHeight: hs, diagramHeight: hd } = spec;
-  const left = 60;
+  const left = 84;
   const right = 60;
   const top = 116;
   const bottom = 80;
@@ -60,31 +78,47 @@ export function comparePlateSvg(spec: CompareSpec): string {
       out.push(`<rect x="${f(a)}" y="${top + hs}" width="${f(Math.max(0.5, b - a))}" height="${hd}" fill="#2a7fd4" fill-opacity="0.12"/>`);
     }
   }
-  let lastLabel = -Infinity;
+  const labels = new Labels();
   for (const m of [...spec.marks].sort((a, b) => a.c - b.c)) {
     if (m.c < Math.min(from, to) || m.c > Math.max(from, to)) continue;
     const xm = x(m.c);
     const colour = m.kind === 'doubling' ? '#c0392b' : '#1f5f99';
     out.push(`<line x1="${f(xm)}" y1="${top - 8}" x2="${f(xm)}" y2="${top + hs + hd}" stroke="${colour}" stroke-width="0.8" stroke-dasharray="${m.kind === 'window' ? '5 4' : 'none'}"><title>${esc(m.label)}</title></line>`);
-    if (xm - lastLabel >= 18) {
-      out.push(`<text x="${f(xm)}" y="${top - 12}" text-anchor="middle" font-size="12" fill="${colour}">${esc(m.label)}</text>`);
-      lastLabel = xm;
-    }
+    // crowded marks (the cascade accumulates) keep their label in the <title> only
+    if (labels.take(m.label, xm, top - 12, 12, 'middle')) out.push(`<text x="${f(xm)}" y="${top - 12}" text-anchor="middle" font-size="12" fill="${colour}">${esc(m.label)}</text>`);
   }
   out.push(`<rect x="${left}" y="${top}" width="${W}" height="${hs + hd}" fill="none" stroke="black"/>`);
   out.push(`<line x1="${left}" y1="${top + hs}" x2="${left + W}" y2="${top + hs}" stroke="black"/>`);
-  for (const t of niceTicks(Math.min(from, to), Math.max(from, to), 12)) {
+  // Tick counts follow the panel sizes, and a tick label that would overprint another is left out (its tick stays).
+  for (const t of niceTicks(Math.min(from, to), Math.max(from, to), Math.max(2, Math.floor(W / 60)))) {
     out.push(`<line x1="${f(x(t))}" y1="${top - 6}" x2="${f(x(t))}" y2="${top}" stroke="black"/>`);
-    out.push(`<text x="${f(x(t))}" y="${top - 32}" text-anchor="middle" font-size="12">${t}</text>`);
+    if (labels.take(String(t), x(t), top - 32, 12, 'middle')) out.push(`<text x="${f(x(t))}" y="${top - 32}" text-anchor="middle" font-size="12">${t}</text>`);
   }
   const rOf = (c: number): number => 1 + Math.sqrt(Math.max(0, 1 - 4 * c));
   const [rA, rB] = [rOf(to), rOf(from)];
-  for (const r of niceTicks(Math.min(rA, rB), Math.max(rA, rB), 12)) {
+  for (const r of niceTicks(Math.min(rA, rB), Math.max(rA, rB), Math.max(2, Math.floor(W / 60)))) {
     const c = r / 2 - (r * r) / 4;
     const y = top + hs + hd;
     out.push(`<line x1="${f(x(c))}" y1="${y}" x2="${f(x(c))}" y2="${y + 6}" stroke="black"/>`);
-    out.push(`<text x="${f(x(c))}" y="${y + 22}" text-anchor="middle" font-size="12">${r}</text>`);
+    if (labels.take(String(r), x(c), y + 22, 12, 'middle')) out.push(`<text x="${f(x(c))}" y="${y + 22}" text-anchor="middle" font-size="12">${r}</text>`);
   }
+  // Im c of the strip (square pixels, the real axis through its middle, planeStrip) and the diagram's state x, at the left.
+  const imHalf = ((to - from) / W) * (hs / 2);
+  const yIm = (v: number): number => top + hs / 2 - (v / imHalf) * (hs / 2);
+  for (const t of niceTicks(-imHalf, imHalf, Math.max(2, Math.floor(hs / 45)))) {
+    if (Math.abs(t) > imHalf) continue;
+    out.push(`<line class="im-tick" x1="${left - 6}" y1="${f(yIm(t))}" x2="${left}" y2="${f(yIm(t))}" stroke="black"/>`);
+    if (labels.take(String(t), left - 9, yIm(t) + 4, 12, 'end')) out.push(`<text class="im-label" x="${left - 9}" y="${f(yIm(t) + 4)}" text-anchor="end" font-size="12">${t}</text>`);
+  }
+  const s0 = spec.stateFrom ?? 0;
+  const s1 = spec.stateTo ?? 1;
+  const yX = (v: number): number => top + hs + hd - ((v - s0) / (s1 - s0)) * hd;
+  for (const t of niceTicks(Math.min(s0, s1), Math.max(s0, s1), Math.max(2, Math.floor(hd / 60)))) {
+    out.push(`<line class="x-tick" x1="${left - 6}" y1="${f(yX(t))}" x2="${left}" y2="${f(yX(t))}" stroke="black"/>`);
+    if (labels.take(String(t), left - 9, yX(t) + 4, 12, 'end')) out.push(`<text class="x-label" x="${left - 9}" y="${f(yX(t) + 4)}" text-anchor="end" font-size="12">${t}</text>`);
+  }
+  out.push(`<text x="20" y="${f(top + hs / 2)}" text-anchor="middle" transform="rotate(-90 20 ${f(top + hs / 2)})">Im c</text>`);
+  out.push(`<text x="20" y="${f(top + hs + hd / 2)}" text-anchor="middle" transform="rotate(-90 20 ${f(top + hs + hd / 2)})">x</text>`);
   out.push(`<text x="${left + W / 2}" y="${top - 56}" text-anchor="middle">c (the plane z -> z^2 + c; real axis through the middle of the strip)</text>`);
   out.push(`<text x="${left + W / 2}" y="${top + hs + hd + 50}" text-anchor="middle">r (logistic x -> r x (1 - x)), with c = r/2 - r^2/4: r grows to the left</text>`);
   out.push(`<text x="${left + W}" y="${totalH - 8}" text-anchor="end" font-size="11" fill="#555">red: period doublings of the cascade; blue dashed: nucleus of each window's component, labelled by period; shaded: window onset to end</text>`);

@@ -9,7 +9,10 @@
  * decimal strings as given. `output` says where to write and is not part of
  * the record: the same record written to another file gives the same image.
  */
-import { UserError } from '../check/user-error.js';
+import { Received, UserError } from '../check/user-error.js';
+
+/** Windows are located up to this period for a diagram figure (findWindows, seconds). */
+export const MAX_WINDOW_PERIOD = 8;
 import { SHEET_SCHEMA } from '../view/sheet-kind.js';
 import { FAMILIES } from './families/index.js';
 import { type FieldOrigin, type Json, readInterval, SheetFields } from './sheet-fields.js';
@@ -30,10 +33,16 @@ export interface DiagramSheet {
   readonly iterations: number;
   /** Bits per channel of the PNG. */
   readonly depth: 8 | 16;
+  /** Text drawn below a figure (.pdf, .svg output); '' for none. */
+  readonly caption: string;
+  /** Figures: shade the periodic windows of period 3..windows (0: none). */
+  readonly windows: number;
+  /** Figures: mark the period doublings of the cascade. */
+  readonly cascade: boolean;
   readonly output: { readonly file: string; readonly sidecar: boolean };
 }
 
-const TOP_KEYS = ['kind', 'schema', 'version', 'family', 'r', 'x', 'pixels', 'samples', 'transient', 'iterations', 'depth', 'output'];
+const TOP_KEYS = ['kind', 'schema', 'version', 'family', 'r', 'x', 'pixels', 'samples', 'transient', 'iterations', 'depth', 'caption', 'windows', 'cascade', 'output'];
 
 /** The default parameter window of each family's diagram and Lyapunov plot (the cascade and the chaotic band). */
 export function defaultParameterRange(family: UnimodalFamily): readonly [string, string] {
@@ -68,13 +77,21 @@ export function parseDiagramSheet(raw: Json, origin: FieldOrigin = {}): DiagramS
   const iterations = fields.integer('iterations', 1, 10_000_000, Math.max(1000, 2 * pixels.height));
   const depth = fields.choice('depth', [8, 16] as const, 16);
   fields.only('output', ['file', 'sidecar'], 'an object { "file": "...", "sidecar": true }');
-  const file = fields.file('output.file', ['.png'], `out/${family.name}-diagram.png`)!;
+  // .pdf or .svg: a figure with labelled axes (r below, c on top for the logistic family, x at the left)
+  const file = fields.file('output.file', ['.png', '.pdf', '.svg'], `out/${family.name}-diagram.png`)!;
   const sidecar = fields.boolean('output.sidecar', true);
-  return { kind: 'section-diagram', schema: SHEET_SCHEMA, family: family.name, r, x, pixels, samples, transient, iterations, depth, output: { file, sidecar } };
+  const caption = fields.get('caption') ?? '';
+  if (typeof caption !== 'string') throw new UserError(fields.name('caption'), 'a string', caption);
+  const windows = fields.integer('windows', 0, MAX_WINDOW_PERIOD, 0);
+  if (windows === 1 || windows === 2) throw new UserError(fields.name('windows'), `0 (none) or a largest period from 3 to ${MAX_WINDOW_PERIOD}`, windows);
+  const cascade = fields.boolean('cascade', false);
+  const isFigure = /\.(pdf|svg)$/i.test(file);
+  if (!isFigure && (windows > 0 || cascade)) throw new UserError(fields.name(windows > 0 ? 'windows' : 'cascade'), 'an output file ending in .pdf or .svg (windows and the cascade are drawn on figures)', new Received(file));
+  return { kind: 'section-diagram', schema: SHEET_SCHEMA, family: family.name, r, x, pixels, samples, transient, iterations, depth, caption, windows, cascade, output: { file, sidecar } };
 }
 
 /** Everything that fixes the image, in a fixed key order (the sheet embedded in the file). */
 export function diagramRecord(sheet: DiagramSheet): Json {
-  const { kind, schema, family, r, x, pixels, samples, transient, iterations, depth } = sheet;
-  return { kind, schema, family, r: { ...r }, x: { ...x }, pixels: { ...pixels }, samples, transient, iterations, depth };
+  const { kind, schema, family, r, x, pixels, samples, transient, iterations, depth, caption, windows, cascade } = sheet;
+  return { kind, schema, family, r: { ...r }, x: { ...x }, pixels: { ...pixels }, samples, transient, iterations, depth, ...(caption === '' ? {} : { caption }), ...(windows === 0 ? {} : { windows }), ...(cascade ? { cascade } : {}) };
 }

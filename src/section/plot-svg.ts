@@ -29,6 +29,49 @@ export interface PlotSpec {
   yMin?: number;
 }
 
+interface Box {
+  x: number;
+  y: number;
+  width: number;
+  height: number;
+}
+
+function overlap(a: Box, b: Box): boolean {
+  return a.x < b.x + b.width && b.x < a.x + a.width && a.y < b.y + b.height && b.y < a.y + a.height;
+}
+
+/**
+ * A generous estimate of the width of `text` at `size` px in a sans-serif
+ * face: 0.62 em a character (DejaVu Sans digits are 0.636 em, lower-case
+ * letters 0.28 to 0.98 em, averaging about 0.6; a slight overestimate only
+ * drops a label that would have fitted).
+ */
+export function textWidth(text: string, size: number): number {
+  return text.length * 0.62 * size;
+}
+
+/** Height of the strip above the bottom edge kept for the clip marks. */
+const CLIP_STRIP = 8;
+
+/** Runs [i0, i1] of indices whose value lies below `lo` (or is -infinity). */
+export function clippedRuns(ys: Float64Array, lo: number): Array<[number, number]> {
+  const runs: Array<[number, number]> = [];
+  let start = -1;
+  for (let i = 0; i <= ys.length; i++) {
+    const below = i < ys.length && (ys[i]! < lo || ys[i] === -Infinity);
+    if (below && start < 0) start = i;
+    if (!below && start >= 0) {
+      runs.push([start, i - 1]);
+      start = -1;
+    }
+  }
+  return runs;
+}
+
+function fmtTick(v: number): string {
+  return Number(v.toPrecision(6)).toString();
+}
+
 function esc(s: string): string {
   return s.replace(/&/g, '&amp;').replace(/</g, '&lt;').replace(/>/g, '&gt;');
 }
@@ -41,7 +84,11 @@ export function niceTicks(lo: number, hi: number, count: number): number[] {
   const mag = 10 ** Math.floor(Math.log10(raw));
   const step = [1, 2, 5, 10].map((m) => m * mag).find((s) => s >= raw) ?? 10 * mag;
   const ticks: number[] = [];
-  for (let t = Math.ceil(lo / step) * step; t <= hi + step * 1e-9; t += step) ticks.push(Number(t.toPrecision(12)));
+  // Multiples k * step, not a running sum: a sum drifts (0.1 + 0.1 + 0.1 ...), and near 0 would print as -1.7e-17.
+  for (let k = Math.ceil(lo / step - 1e-9); k * step <= hi + step * 1e-9; k++) {
+    const t = Number((k * step).toPrecision(12));
+    ticks.push(k === 0 ? 0 : t);
+  }
   return ticks;
 }
 
@@ -73,12 +120,19 @@ export function plotSvg(spec: PlotSpec): string {
   parts.push(`<svg xmlns="http://www.w3.org/2000/svg" width="${W}" height="${H}" viewBox="0 0 ${W} ${H}" font-family="sans-serif" font-size="12">`);
   parts.push(`<rect width="${W}" height="${H}" fill="white"/>`);
   parts.push(`<text x="${m.l}" y="24" font-size="15">${esc(spec.title)}</text>`);
+  // Labels are placed only where their box (width estimated, see textWidth) meets no other label and no mark line.
+  const placed: Box[] = [];
+  const markXs = spec.marks.filter((mk) => mk.at >= Math.min(x0, x1) && mk.at <= Math.max(x0, x1)).map((mk) => sx(mk.at));
   for (const b of spec.bands) {
     const a = sx(Math.max(x0, Math.min(b.from, b.to)));
     const e = sx(Math.min(x1, Math.max(b.from, b.to)));
     if (e <= a) continue;
     parts.push(`<rect x="${f(a)}" y="${m.t}" width="${f(Math.max(0.5, e - a))}" height="${ph}" fill="#cfe3f7"><title>${esc(b.label)}</title></rect>`);
-    if (e - a > 14) parts.push(`<text x="${f((a + e) / 2)}" y="${m.t + 12}" text-anchor="middle" font-size="10" fill="#2a5a8a">${esc(b.label)}</text>`);
+    const w = textWidth(b.label, 10);
+    const box = { x: (a + e) / 2 - w / 2 - 1, y: m.t + 2, width: w + 2, height: 12 };
+    if (box.x < m.l || box.x + box.width > m.l + pw || placed.some((q) => overlap(q, box)) || markXs.some((x) => x >= box.x && x <= box.x + box.width)) continue;
+    placed.push(box);
+    parts.push(`<text x="${f((a + e) / 2)}" y="${m.t + 12}" text-anchor="middle" font-size="10" fill="#2a5a8a">${esc(b.label)}</text>`);
   }
   for (const t of niceTicks(x0, x1, 10)) {
     parts.push(`<line x1="${f(sx(t))}" y1="${m.t + ph}" x2="${f(sx(t))}" y2="${m.t + ph + 5}" stroke="black"/>`);
@@ -89,14 +143,25 @@ export function plotSvg(spec: PlotSpec): string {
     parts.push(`<text x="${m.l - 8}" y="${f(sy(t) + 4)}" text-anchor="end">${t}</text>`);
   }
   if (yLo < 0 && yHi > 0) parts.push(`<line x1="${m.l}" y1="${f(sy(0))}" x2="${m.l + pw}" y2="${f(sy(0))}" stroke="#888" stroke-dasharray="4 3"/>`);
-  let lastLabel = -Infinity;
   for (const mk of [...spec.marks].sort((a, b) => a.at - b.at)) {
     if (mk.at < Math.min(x0, x1) || mk.at > Math.max(x0, x1)) continue;
     parts.push(`<line x1="${f(sx(mk.at))}" y1="${m.t}" x2="${f(sx(mk.at))}" y2="${m.t + ph}" stroke="#c0392b" stroke-width="0.8"><title>${esc(mk.label)}</title></line>`);
-    // Labels of crowded marks (the cascade accumulates) are left to the <title>.
-    if (sx(mk.at) - lastLabel < 40) continue;
-    lastLabel = sx(mk.at);
-    parts.push(`<text x="${f(sx(mk.at) + 2)}" y="${m.t + ph - 4}" font-size="10" fill="#c0392b">${esc(mk.label)}</text>`);
+  }
+  // Mark labels above the bottom edge, right of their line or else left of it; crowded marks (the cascade
+  // accumulates) keep their label in the <title> only. The bottom strip holds the clip mark, so labels sit above it.
+  const labelY = m.t + ph - 4 - CLIP_STRIP;
+  for (const mk of [...spec.marks].sort((a, b) => a.at - b.at)) {
+    if (mk.at < Math.min(x0, x1) || mk.at > Math.max(x0, x1)) continue;
+    const x = sx(mk.at);
+    const w = textWidth(mk.label, 10);
+    for (const [bx, anchor, tx] of [[x + 1, 'start', x + 2], [x - w - 3, 'end', x - 2]] as const) {
+      const box = { x: bx, y: labelY - 9, width: w + 2, height: 12 };
+      if (box.x < m.l || box.x + box.width > m.l + pw) continue;
+      if (placed.some((q) => overlap(q, box)) || markXs.some((mx) => mx > box.x && mx < box.x + box.width)) continue;
+      placed.push(box);
+      parts.push(`<text x="${f(tx)}" y="${f(labelY)}" font-size="10" fill="#c0392b"${anchor === 'end' ? ' text-anchor="end"' : ''}>${esc(mk.label)}</text>`);
+      break;
+    }
   }
   let d = '';
   for (let i = 0; i < spec.xs.length; i++) {
@@ -104,6 +169,21 @@ export function plotSvg(spec: PlotSpec): string {
     d += `${d === '' ? 'M' : 'L'}${f(sx(spec.xs[i]!))} ${f(sy(spec.ys[i]!))}`;
   }
   parts.push(`<path d="${d}" fill="none" stroke="black" stroke-width="0.7"/>`);
+  // The clip at the bottom, drawn: a downward triangle under each run of values below the axis (or -infinity,
+  // a superstable parameter), and a note of the clip level at the left.
+  if (spec.yMin !== undefined) {
+    const runs = clippedRuns(spec.ys, yLo);
+    for (const [i0, i1] of runs) {
+      const x = (sx(spec.xs[i0]!) + sx(spec.xs[i1]!)) / 2;
+      const yb = m.t + ph;
+      parts.push(`<path class="clip" d="M${f(x - 4)} ${f(yb - 7)}L${f(x + 4)} ${f(yb - 7)}L${f(x)} ${f(yb - 1)}Z" fill="#555555"><title>clipped: below ${yLo}</title></path>`);
+    }
+    if (runs.length > 0) {
+      const ny = m.t + ph + 32;
+      parts.push(`<path d="M${f(m.l)} ${f(ny - 8)}L${f(m.l + 8)} ${f(ny - 8)}L${f(m.l + 4)} ${f(ny - 2)}Z" fill="#555555"/>`);
+      parts.push(`<text class="clip-note" x="${f(m.l + 12)}" y="${f(ny)}" font-size="10" fill="#555555">values below ${fmtTick(yLo)}, clipped</text>`);
+    }
+  }
   parts.push(`<rect x="${m.l}" y="${m.t}" width="${pw}" height="${ph}" fill="none" stroke="black"/>`);
   parts.push(`<text x="${m.l + pw / 2}" y="${H - 18}" text-anchor="middle">${esc(spec.xLabel)}</text>`);
   parts.push(`<text x="18" y="${m.t + ph / 2}" text-anchor="middle" transform="rotate(-90 18 ${m.t + ph / 2})">${esc(spec.yLabel)}</text>`);

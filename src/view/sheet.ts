@@ -21,7 +21,8 @@
  *   "skip": true,                            // deep: bilinear-approximation skipping
  *   "reference": { "re": "...", "im": "...", "period": 79 },   // deep: a nucleus as periodic reference (default: the centre)
  *   "output": { "file": "out/name.png", "data": "out/name-data", "sidecar": true },   // or .pdf / .svg: a figure
- *   "figure": { "axes": true, "caption": "...", "rays": ["1/3", "2/3"], "raysOf": 4, "equipotentials": 6, "outlines": 3 },   // with a .pdf or .svg output
+ *   "figure": { "axes": true, "caption": "...", "rays": ["1/3", "2/3"], "raysOf": 4, "equipotentials": 6, "outlines": 3, "scaleBar": true,
+ *               "internalRays": { "period": 1, "angles": ["0", "1/2"] }, "marks": [{ "re": "-0.75", "im": "0", "label": "root" }] },   // with a .pdf or .svg output
  *   "startup": true                           // rendered by `npm start`
  * }
  * ```
@@ -78,6 +79,52 @@ export interface FigureSpec {
   readonly raysOf: number;
   /** Draw this many equipotentials, G_k = G_0 / 2^k for k = 0..n-1 with G_0 the largest potential in view (0: none). */
   readonly equipotentials: number;
+  /** A bar of a round length in c in the plate's lower left corner. */
+  readonly scaleBar: boolean;
+  /** Internal rays of every component of this period whose nucleus is in view, at these internal angles (p/q, or "0"); null for none. */
+  readonly internalRays: { readonly period: number; readonly angles: readonly string[] } | null;
+  /** Labelled points (from `--marks FILE.csv`), c as decimal strings; the file's rows themselves are recorded, so `--again` needs no file. */
+  readonly marks: readonly FigurePin[];
+}
+
+/** A labelled point of a figure. */
+export interface FigurePin {
+  readonly re: string;
+  readonly im: string;
+  readonly label: string;
+}
+
+/** Most labelled points one figure carries. */
+export const MAX_MARKS = 256;
+/** Longest label of a point, in characters. */
+export const MAX_MARK_LABEL = 60;
+/** Most internal angles one figure draws (per component). */
+export const MAX_INTERNAL_ANGLES = 64;
+
+/** An internal angle: "0" or p/q with integers 0 <= p < q < 2^52, as parseAngleText; returned trimmed. */
+export function parseInternalAngle(value: unknown, field: string): string {
+  if (typeof value === 'string' && /^\s*0\s*$/.test(value)) return '0';
+  if (typeof value === 'string' && /^\s*\d+\s*\/\s*\d+\s*$/.test(value)) {
+    try {
+      return parseAngleText(value, field);
+    } catch {
+      // worded below
+    }
+  }
+  throw new UserError(field, 'an internal angle written 0 or p/q with integers 0 <= p < q < 2^52 (e.g. 1/3)', value);
+}
+
+/** A labelled point: { "re": "...", "im": "...", "label": "..." }. */
+export function parsePin(value: unknown, field: string): FigurePin {
+  if (!isObject(value)) throw new UserError(field, 'an object { "re": "-0.75", "im": "0", "label": "root" }', value);
+  noUnknownKeys(value, ['re', 'im', 'label'], field);
+  const re = parseDecimalString(value['re'], `${field}.re`);
+  const im = parseDecimalString(value['im'], `${field}.im`);
+  const label = value['label'];
+  if (typeof label !== 'string' || label.trim() === '' || label.length > MAX_MARK_LABEL || /[\u0000-\u001f]/.test(label)) {
+    throw new UserError(`${field}.label`, `a label of 1 to ${MAX_MARK_LABEL} characters on one line`, label);
+  }
+  return { re, im, label: label.trim() };
 }
 
 /** A figure's output file: vector PDF or SVG with the plate inside. */
@@ -104,13 +151,11 @@ export function parseAngleText(value: unknown, field: string): string {
 }
 
 function parseFigure(value: unknown, file: string, rotation: number): FigureSpec | null {
-  if (!isFigureFile(file)) {
-    if (value !== undefined && value !== null) throw new UserError('figure', 'an output file ending in .pdf or .svg (axes, captions and rays are drawn on figures)', new Received(file));
-    return null;
-  }
+  // A .pdf or .svg output is always a figure; a .png or .tif plate is one when it has annotations.
+  if (!isFigureFile(file) && (value === undefined || value === null)) return null;
   const v = value ?? {};
   if (!isObject(v)) throw new UserError('figure', 'an object { "axes": ..., "caption": ..., "rays": [...] }', v);
-  noUnknownKeys(v, ['axes', 'caption', 'rays', 'raysOf', 'equipotentials', 'outlines'], 'figure');
+  noUnknownKeys(v, ['axes', 'caption', 'rays', 'raysOf', 'equipotentials', 'outlines', 'scaleBar', 'internalRays', 'marks'], 'figure');
   const axes = parseBoolean(v['axes'] ?? false, 'figure.axes');
   if (axes && rotation !== 0) throw new UserError('figure.axes', 'a view without rotation (the axes run along Re c and Im c)', new Received(`rotation ${rotation}`));
   const caption = v['caption'] ?? '';
@@ -122,7 +167,21 @@ function parseFigure(value: unknown, file: string, rotation: number): FigureSpec
   const outlines = parseInteger(v['outlines'] ?? 0, 'figure.outlines', 0, MAX_LABEL_PERIOD);
   const raysOf = parseInteger(v['raysOf'] ?? 0, 'figure.raysOf', 0, MAX_RAYS_OF_PERIOD);
   const equipotentials = parseInteger(v['equipotentials'] ?? 0, 'figure.equipotentials', 0, MAX_EQUIPOTENTIALS);
-  return { axes, caption, rays, raysOf, equipotentials, outlines };
+  const scaleBar = parseBoolean(v['scaleBar'] ?? false, 'figure.scaleBar');
+  const internalIn = v['internalRays'] ?? null;
+  let internalRays: FigureSpec['internalRays'] = null;
+  if (internalIn !== null) {
+    if (!isObject(internalIn)) throw new UserError('figure.internalRays', 'an object { "period": 1, "angles": ["0", "1/3"] }', internalIn);
+    noUnknownKeys(internalIn, ['period', 'angles'], 'figure.internalRays');
+    const period = parseInteger(internalIn['period'], 'figure.internalRays.period', 1, MAX_LABEL_PERIOD);
+    const anglesIn = internalIn['angles'];
+    if (!Array.isArray(anglesIn) || anglesIn.length === 0 || anglesIn.length > MAX_INTERNAL_ANGLES) throw new UserError('figure.internalRays.angles', `a list of 1 to ${MAX_INTERNAL_ANGLES} internal angles, e.g. ["0", "1/3"]`, anglesIn);
+    internalRays = { period, angles: anglesIn.map((a: unknown, i: number) => parseInternalAngle(a, `figure.internalRays.angles[${i}]`)) };
+  }
+  const marksIn = v['marks'] ?? [];
+  if (!Array.isArray(marksIn) || marksIn.length > MAX_MARKS) throw new UserError('figure.marks', `a list of at most ${MAX_MARKS} points { "re", "im", "label" }`, Array.isArray(marksIn) ? new Received(`${marksIn.length} points`) : marksIn);
+  const marks = marksIn.map((m: unknown, i: number) => parsePin(m, `figure.marks[${i}]`));
+  return { axes, caption, rays, raysOf, equipotentials, outlines, scaleBar, internalRays, marks };
 }
 
 /** Largest side in pixels: beyond it a plate is refused before any work. */
@@ -325,7 +384,7 @@ export function renderRecord(sheet: Sheet, version: string): Json {
     arithmetic: sheet.arithmetic,
     skip: sheet.skip,
     reference: sheet.reference === null ? null : { ...sheet.reference },
-    ...(sheet.figure === null ? {} : { figure: { axes: sheet.figure.axes, caption: sheet.figure.caption, rays: [...sheet.figure.rays], raysOf: sheet.figure.raysOf, equipotentials: sheet.figure.equipotentials, outlines: sheet.figure.outlines } }),
+    ...(sheet.figure === null ? {} : { figure: { axes: sheet.figure.axes, caption: sheet.figure.caption, rays: [...sheet.figure.rays], raysOf: sheet.figure.raysOf, equipotentials: sheet.figure.equipotentials, outlines: sheet.figure.outlines, scaleBar: sheet.figure.scaleBar, internalRays: sheet.figure.internalRays === null ? null : { period: sheet.figure.internalRays.period, angles: [...sheet.figure.internalRays.angles] }, marks: sheet.figure.marks.map((m) => ({ ...m })) } }),
   };
 }
 

@@ -68,6 +68,8 @@ export async function compareSvg(sheet: CompareSheet, workers: number, progress:
     stripPng: stripPng.toString('base64'),
     diagramPng: diagramPng.toString('base64'),
     title: 'The real slice: z -> z^2 + c along the real axis above the logistic map, one parameter axis',
+    stateFrom: Number(sheet.x.from),
+    stateTo: Number(sheet.x.to),
     marks: [
       ...marks.doublings.map((d) => ({ c: cOf(d.at), label: d.label, kind: 'doubling' as const })),
       ...marks.windows.map((w) => ({ c: cOf(w.superstable), label: String(w.period), kind: 'window' as const, from: cOf(w.from), to: cOf(w.to) })),

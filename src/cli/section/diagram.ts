@@ -12,7 +12,7 @@ import { reportWrote } from '../wrote.js';
 import { Received, UserError } from '../../check/user-error.js';
 import { toolVersion } from '../../io/tool-version.js';
 import { againOutput, loadSectionSheet } from './load-section-sheet.js';
-import { prepareOutput, sectionMetadata, writeSidecar } from './section-output.js';
+import { prepareOutput, sectionMetadata, writeOutput, writeSidecar } from './section-output.js';
 import { addOptions, againOption, applySectionFlags, clearProgress, FAMILY_OPTION, guarded, integerText, NO_SIDECAR_OPTION, parseWorkers, progressLine, sizeText, WORKERS_OPTION, type SectionOption, type Values } from './section-options.js';
 
 
@@ -27,7 +27,10 @@ export const DIAGRAM_OPTIONS: readonly SectionOption[] = [
   { flags: '--transient <n>', description: 'iterations discarded per sample before plotting (default 1000)', field: 'transient', value: integerText },
   { flags: '--iterations <n>', description: 'iterations plotted per sample (default 2 x height, at least 1000)', field: 'iterations', value: integerText },
   { flags: '--depth <bits>', description: 'bits per channel of the PNG: 8 or 16 (default 16)', field: 'depth', value: integerText },
-  { flags: '--out <file>', description: 'output PNG file (default out/FAMILY-diagram.png)', field: 'output.file' },
+  { flags: '--out <file>', description: 'output file: a PNG (ticks of r marked in the pixels), or a figure .pdf or .svg with labelled axes: r below, c on top (logistic), x at the left (default out/FAMILY-diagram.png)', field: 'output.file' },
+  { flags: '--caption <text>', description: 'figures (.pdf, .svg): text drawn below the figure (default none)', field: 'caption' },
+  { flags: '--windows <n>', description: 'figures: shade the periodic windows of period 3 to n (up to 8), onset to end, labelled by period; 0 for none (default 0)', field: 'windows', value: integerText },
+  { flags: '--cascade', description: 'figures: mark the period doublings of the cascade with a line each (default: none)' },
   NO_SIDECAR_OPTION,
   againOption('section diagram'),
   WORKERS_OPTION,
@@ -36,7 +39,8 @@ export const DIAGRAM_OPTIONS: readonly SectionOption[] = [
 /** The sheet of a run: from the positional file or --again, with flags over it. */
 export async function diagramSheet(sheetFile: string | undefined, values: Values): Promise<DiagramSheet> {
   const { raw, again } = await loadSectionSheet('section-diagram', sheetFile, values['again']);
-  if (again !== undefined && typeof values['out'] !== 'string') raw['output'] = { file: againOutput(again, ['.png']) };
+  if (values['cascade'] === true) raw['cascade'] = true;
+  if (again !== undefined && typeof values['out'] !== 'string') raw['output'] = { file: againOutput(again, ['.png', '.pdf', '.svg']) };
   return quickPixels(parseDiagramSheet(raw, applySectionFlags(raw, values, DIAGRAM_OPTIONS)));
 }
 
@@ -75,6 +79,50 @@ export interface DiagramWritten {
 }
 
 /** Renders a diagram sheet and writes the PNG (and its sidecar). */
+/** Print resolution of a diagram figure: the density image at this many pixels an inch. */
+export const DIAGRAM_FIGURE_DPI = 300;
+
+/**
+ * A diagram as a figure: the ink as a PNG under a temporary name, then the
+ * figure model (figure/diagram-figure.ts) laid out around it and written as
+ * PDF or SVG with the sheet in its metadata.
+ */
+async function writeDiagramFigure(sheet: DiagramSheet, ink: Uint16Array, metadata: string, field: string): Promise<void> {
+  const { readFile, rm } = await import('node:fs/promises');
+  const { tempPathFor, releaseTemp } = await import('../../io/temp-path.js');
+  const { diagramFigureModel } = await import('../../figure/diagram-figure.js');
+  const { figureFont } = await import('../../figure/figure-font.js');
+  const { layoutFigure } = await import('../../figure/layout-figure.js');
+  const file = sheet.output.file;
+  const { width, height } = sheet.pixels;
+  const family = FAMILIES.get(sheet.family)!;
+  const png = tempPathFor(file.replace(/\.(pdf|svg)$/i, '-plot.png'));
+  try {
+    await writeInkPng(png, ink, width, height, sheet.depth, metadata, field);
+    const bytes = await readFile(png);
+    const { landmarks } = await import('../../section/landmarks.js');
+    const marks = sheet.windows > 0 || sheet.cascade ? await landmarks(family, sheet.windows) : { doublings: [], windows: [] };
+    const model = diagramFigureModel({
+      width, height, dpi: DIAGRAM_FIGURE_DPI, parameter: family.parameter, r: sheet.r, x: sheet.x,
+      cAxis: family.name === 'logistic' && Number(sheet.r.from) >= 1, caption: sheet.caption,
+      windows: sheet.windows > 0 ? marks.windows : [], doublings: sheet.cascade ? marks.doublings : [],
+    });
+    const font = figureFont();
+    const scene = layoutFigure(model, DIAGRAM_FIGURE_DPI, font);
+    if (/\.pdf$/i.test(file)) {
+      const { figurePdf } = await import('../../figure/write-figure-pdf.js');
+      await writeOutput(file, await figurePdf(scene, bytes, font, { title: `${family.name} bifurcation diagram`, creator: `quadatlas ${toolVersion()}`, metadata }), field);
+    } else {
+      const { figureSvg } = await import('../../figure/write-figure-svg.js');
+      const { svgWithMetadata } = await import('../../io/embed-metadata.js');
+      await writeOutput(file, svgWithMetadata(figureSvg(scene, `data:image/png;base64,${bytes.toString('base64')}`, font, ''), metadata), field);
+    }
+  } finally {
+    await rm(png, { force: true });
+    releaseTemp(png);
+  }
+}
+
 export async function diagramRun(sheet: DiagramSheet, workers: number, field: string, progress: (s: string) => void): Promise<DiagramWritten> {
   const family = FAMILIES.get(sheet.family)!;
   const file = sheet.output.file;
@@ -87,11 +135,17 @@ export async function diagramRun(sheet: DiagramSheet, workers: number, field: st
   const settings = { width, height, samples: sheet.samples, transient: sheet.transient, iterations: sheet.iterations, stateTop: Number(sheet.x.to), stateBottom: Number(sheet.x.from) };
   const started = Date.now();
   const ink = await renderDiagram(family, { kind: 'parameter', from, to }, settings, workers, (d, n) => progress(`diagram ${Math.round((100 * d) / n)} %`));
-  const ticks = niceTicks(from, to, 10);
-  drawTicks(ink, width, height, ticks.map((t) => (t - from) / (to - from)), Math.max(4, Math.round(height / 100)));
-  // The tick marks are drawn as pixels; their values travel in the metadata.
-  const metadata = sectionMetadata(diagramRecord(sheet), { formula: family.formula, ticks: { r: ticks } });
-  await writeInkPng(file, ink, width, height, sheet.depth, metadata, field);
+  let metadata: string;
+  if (/\.(pdf|svg)$/i.test(file)) {
+    metadata = sectionMetadata(diagramRecord(sheet), { formula: family.formula });
+    await writeDiagramFigure(sheet, ink, metadata, field);
+  } else {
+    const ticks = niceTicks(from, to, 10);
+    drawTicks(ink, width, height, ticks.map((t) => (t - from) / (to - from)), Math.max(4, Math.round(height / 100)));
+    // The tick marks are drawn as pixels; their values travel in the metadata.
+    metadata = sectionMetadata(diagramRecord(sheet), { formula: family.formula, ticks: { r: ticks } });
+    await writeInkPng(file, ink, width, height, sheet.depth, metadata, field);
+  }
   const seconds = (Date.now() - started) / 1000;
   const files = [file];
   if (sheet.output.sidecar) files.push(await writeSidecar(file, metadata, { file, files: [file, `${file}.json`], seconds, pixels: { ...sheet.pixels } }, field));
