@@ -25,13 +25,20 @@ import { criticalOrbit } from '../dynamic/critical-orbit.js';
 import { findJuliaCycle } from '../dynamic/julia-cycle.js';
 import { parseInteger } from '../check/fields.js';
 import { addOptions, type OptionSpec } from './option-spec.js';
+import { externalAngleOf } from '../components/ray-out.js';
+import { Received, UserError } from '../check/user-error.js';
+import { componentSpan, plateCommandLine } from './plate-command.js';
 
 const ESCAPE_RADIUS = 1e6;
+
+/** Longest escape for which the external angle is traced outward (the trace costs about 16 n^2 iterations). */
+export const MAX_ANGLE_LEVEL = 4000;
 
 export const PROBE_OPTIONS: readonly OptionSpec[] = [
   { flags: '--digits <digits>', description: 'digits after the decimal point; multipliers, distances and sizes to D significant digits (at most 17)', default: '20' },
   { flags: '--iterations <n>', description: 'iteration limit of the escape test', default: '100000' },
   { flags: '--max-period <period>', description: 'longest attracting cycle looked for, in iterations', default: '1000' },
+  { flags: '--angle-bits <n>', description: `binary digits of the external angle of an exterior c, traced outward along its ray (default 64; exterior c escaping within ${MAX_ANGLE_LEVEL} iterations)` },
   { flags: '--orbit <n>', description: 'also list the first n points of the critical orbit and the cycle it settles on (default: none)' },
   { flags: '--json', description: 'JSON output (default: aligned text)' },
 ];
@@ -43,9 +50,11 @@ export function register(program: Command): void {
       const digits = parseInteger(o['digits'], '--digits', 1, 2000);
       const iterations = parseInteger(o['iterations'], '--iterations', 1, 100_000_000);
       const maxPeriod = parseInteger(o['maxPeriod'], '--max-period', 1, 100_000);
+      const angleBits = o['angleBits'] === undefined ? null : parseInteger(o['angleBits'], '--angle-bits', 1, MAX_ANGLE_LEVEL + 50);
       const cr = decimalToNumber(c.re);
       const ci = decimalToNumber(c.im);
       const out: Record<string, unknown> = { c: { re: c.re.text, im: c.im.text } };
+      let plateSpan = 0.01;
       const lines: string[] = [`c                 ${c.re.text}, ${c.im.text}`];
       // escape test in double (A1, A2)
       let zr = 0;
@@ -62,6 +71,18 @@ export function register(program: Command): void {
         const de = exteriorDistance(cr, ci, n, zr, zi);
         Object.assign(out, { escapes: true, iterations: n, smoothCount: mu, exteriorDistance: de });
         lines.push(`escapes           yes, after ${n} iterations (radius 1e6)`, `smooth count      ${mu.toFixed(Math.min(digits, 12))}`, `distance estimate ${significant(de, digits)} (the distance to the set lies between a quarter of this and this)`);
+        // external angle by the ray traced outward (docs/methods.md D5)
+        const ray = externalAngleOf(cr, ci, angleBits ?? 64, MAX_ANGLE_LEVEL);
+        if (ray === null) {
+          if (angleBits !== null) throw new UserError('--angle-bits', `a c whose orbit escapes within ${MAX_ANGLE_LEVEL} iterations, so that its ray can be traced outward in double precision`, new Received(`c = ${c.re.text}, ${c.im.text}`));
+          out['externalAngle'] = null;
+          lines.push(`external angle    not traced (the orbit escapes after more than ${MAX_ANGLE_LEVEL} iterations)`);
+        } else {
+          out['externalAngle'] = { binary: `0.${ray.digits}`, digits: ray.digits.length, certainDigits: ray.certain, turns: ray.turns };
+          out['potential'] = ray.potential;
+          lines.push(`external angle    0.${ray.digits} (binary; ${ray.certain} of ${ray.digits.length} digits certain)`, `  in turns        ${ray.turns.toPrecision(16)}`, `potential G(c)    ${significant(ray.potential, digits)}`);
+        }
+        plateSpan = 20 * de;
       } else {
         // attracting cycle: try periods in order from the settled orbit (A5)
         const cyc = createCycleResult();
@@ -73,6 +94,7 @@ export function register(program: Command): void {
             break;
           }
         }
+        if (angleBits !== null) throw new UserError('--angle-bits', 'a c outside the Mandelbrot set (an external angle belongs to an exterior c)', new Received(`c = ${c.re.text}, ${c.im.text}, whose orbit stays bounded for ${iterations} iterations`));
         out['escapes'] = false;
         lines.push(`escapes           no (${iterations} iterations)`);
         if (period === 0) {
@@ -92,6 +114,7 @@ export function register(program: Command): void {
             interiorDistance: ide,
             component: componentJson(info),
           });
+          plateSpan = componentSpan(info.size, info.log10Size);
           lines.push(
             `period            ${period}`,
             `multiplier        ${significant(cyc.mulRe, digits)} ${cyc.mulIm < 0 ? '-' : '+'} ${significant(Math.abs(cyc.mulIm), digits)} i  (modulus ${significant(mulAbs, digits)})`,
@@ -133,7 +156,9 @@ export function register(program: Command): void {
       }
       const julia = juliaCommandLine(c.re.text, c.im.text);
       out['juliaCommand'] = julia;
-      lines.push(`-- dynamical plane --`, `julia command     ${julia}`);
+      const plate = plateCommandLine(c.re.text, c.im.text, plateSpan);
+      out['plateCommand'] = plate;
+      lines.push(`plate command     ${plate}`, `-- dynamical plane --`, `julia command     ${julia}`);
       process.stdout.write(o['json'] === true ? `${JSON.stringify(out, null, 2)}\n` : `${lines.join('\n')}\n`);
     });
 }
