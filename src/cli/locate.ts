@@ -23,6 +23,11 @@ import { UserError } from '../check/user-error.js';
 import { certifyLocated } from './certify-report.js';
 import { parseInteger } from '../check/fields.js';
 import { addOptions, type OptionSpec } from './option-spec.js';
+import { componentName, parseComponent, tune } from '../components/tuning.js';
+import { componentSpan, plateCommandLine } from './plate-command.js';
+
+/** Spans below this are rendered in deep arithmetic: the printed plate command names the nucleus as reference. */
+const DEEP_SPAN = 1e-10;
 
 /** Longest period for --angle (the ray is traced in double-double) and for --address (angles are enumerated). */
 export const MAX_ANGLE_PERIOD = 60;
@@ -33,6 +38,7 @@ export const LOCATE_OPTIONS: readonly OptionSpec[] = [
   { flags: '--near <re,im>', description: 'start point for Newton in c, RE,IM as decimals (default: none)' },
   { flags: '--angle <a/b>', description: 'a rational external angle in turns, 0 <= a < b: land its ray (default: none)' },
   { flags: '--address <1-2-4>', description: 'an internal address, increasing periods from 1 (default: none)' },
+  { flags: '--tune <outer-inner...>', description: 'two components OUTER INNER, each an angle pair (1/3,2/3) or an internal address (1-2): the copy of INNER inside OUTER, by Douady-Hubbard tuning (default: none)' },
   { flags: '--digits <digits>', description: 'digits after the decimal point; sizes to D significant digits (at most 17)', default: '30' },
   { flags: '--certify', description: 'prove the nucleus and the root, disks holding exactly one solution each (default: computed, not proved)' },
   { flags: '--json', description: 'JSON output (default: aligned text)' },
@@ -42,8 +48,8 @@ export function register(program: Command): void {
   addOptions(program.command('locate').description('Newton to one nucleus of period P from a guess, an external angle or an internal address'), LOCATE_OPTIONS)
     .action(async (o: Record<string, unknown>) => {
       const digits = parseInteger(o['digits'], '--digits', 1, 5000);
-      const given = ['near', 'angle', 'address'].filter((k) => o[k] !== undefined);
-      if (given.length !== 1) throw new UserError('locate', 'exactly one of --near, --angle or --address', given.length === 0 ? 'none' : given.map((g) => `--${g}`).join(' '));
+      const given = ['near', 'angle', 'address', 'tune'].filter((k) => o[k] !== undefined);
+      if (given.length !== 1) throw new UserError('locate', 'exactly one of --near, --angle, --address or --tune', given.length === 0 ? 'none' : given.map((g) => `--${g}`).join(' '));
       const period = o['period'] === undefined ? null : parseInteger(o['period'], '--period', 1, 100_000);
       let out: Record<string, unknown>;
       let lines: string[];
@@ -76,6 +82,23 @@ export function register(program: Command): void {
           out = { misiurewicz: point, preperiod: orbit.preperiod, period: p, externalAngle: angleText(angle) };
           lines = [`Misiurewicz point ${point.re}, ${point.im}`, `preperiod         ${orbit.preperiod}`, `period            ${p}`, `external angle    ${angleText(angle)}`];
         }
+      } else if (o['tune'] !== undefined) {
+        const names = o['tune'] as string[];
+        if (names.length !== 2) throw new UserError('--tune', 'two components OUTER INNER (angle pairs such as 1/3,2/3 or internal addresses such as 1-2)', names.join(' '));
+        const outer = parseComponent(names[0]!, '--tune OUTER');
+        const inner = parseComponent(names[1]!, '--tune INNER');
+        const tuned = tune(outer, inner);
+        if (tuned.period > MAX_ANGLE_PERIOD) throw new UserError('--tune', `two components whose periods multiply to at most ${MAX_ANGLE_PERIOD} (the ray is traced in double-double precision)`, `periods ${outer.period} and ${inner.period}`);
+        if (period !== null && period !== tuned.period) throw new UserError('--period', `the product of the two periods (${tuned.period})`, period);
+        const info = await landAngle(tuned.lo, tuned.period, digits, [tuned.lo, tuned.hi]);
+        const tuning = { outer: componentName(outer), inner: componentName(inner), words: tuned.words, angles: [angleText(tuned.lo), angleText(tuned.hi)] };
+        out = { ...componentJson(info), tuning };
+        lines = [
+          `tuning            ${tuning.outer} tuned by ${tuning.inner}${outer.sharing > 1 || inner.sharing > 1 ? ' (of the components sharing an address, the one with the lowest angle)' : ''}`,
+          `angle words       ${tuned.words[0]}, ${tuned.words[1]}`,
+          ...componentLines(info, digits),
+        ];
+        located = info;
       } else {
         const address = parseAddress(String(o['address']));
         const p = address[address.length - 1]!;
@@ -105,6 +128,16 @@ export function register(program: Command): void {
       }
       const found = (out['nucleus'] ?? out['misiurewicz']) as { re: string; im: string } | undefined;
       if (found !== undefined) {
+        if (located !== null) {
+          const span = componentSpan(located.size, located.log10Size);
+          // deep views: the nucleus itself as the reference orbit (one cycle, exactly periodic)
+          const extra = span < DEEP_SPAN ? ['--reference', `${found.re},${found.im},${located.period}`] : [];
+          out['plateCommand'] = plateCommandLine(found.re, found.im, span, extra);
+        } else if (typeof out['plateSpan'] === 'number') {
+          out['plateCommand'] = plateCommandLine(found.re, found.im, out['plateSpan']);
+          delete out['plateSpan'];
+        }
+        if (out['plateCommand'] !== undefined) lines.push(`plate command     ${String(out['plateCommand'])}`);
         out['juliaCommand'] = juliaCommandLine(found.re, found.im);
         lines.push(`julia command     ${String(out['juliaCommand'])}`);
       }
@@ -125,7 +158,7 @@ function toAngle(n: number, den: number): Angle {
 }
 
 /** Lands the ray of a periodic angle, refines the nucleus and describes the component. */
-async function landAngle(angle: Angle, period: number, digits: number) {
+async function landAngle(angle: Angle, period: number, digits: number, angles?: Angle[]) {
   if (period === 1) return componentInfo(1, { re: '0', im: '0' }, digits, [{ num: 0n, den: 1n }]);
   const end = traceRayDD(angle.num, angle.den, 2 * period, 4);
   const nu = end.ok ? nucleusDD(period, end) : null;
@@ -134,7 +167,7 @@ async function landAngle(angle: Angle, period: number, digits: number) {
   const real = Math.abs(nu.imHi) <= 1e-3 * nu.size;
   const found = findNucleus(period, real ? { re: guess.re, im: '0' } : guess, digits);
   // the other angle of the pair: its numerator over 2^p - 1 is found by the census path in componentInfo for small p
-  return componentInfo(period, found.nucleus, digits, period <= 12 ? undefined : [angle]);
+  return componentInfo(period, found.nucleus, digits, angles ?? (period <= 12 ? undefined : [angle]));
 }
 
 function parseAddress(text: string): number[] {

@@ -18,6 +18,8 @@ import { findNucleus } from '../components/nucleus.js';
 import { decimalToNumber, type DecimalPair } from '../precise/decimal-string.js';
 import { criticalOrbit } from '../dynamic/critical-orbit.js';
 import { findJuliaCycle } from '../dynamic/julia-cycle.js';
+import { externalAngleOf } from '../components/ray-out.js';
+import { Received, UserError } from '../check/user-error.js';
 
 /** Periods searched for the window that holds a real c (the windows of period <= 10 list in well under a second). */
 const WINDOW_PERIODS = 10;
@@ -30,7 +32,12 @@ export interface ProbeOptions {
   readonly maxPeriod: number;
   /** List the first n points of the critical orbit and the cycle it settles on. */
   readonly orbit?: number;
+  /** Binary digits of the external angle of an exterior c (default 64); given explicitly, a c that cannot be traced is refused. */
+  readonly angleBits?: number;
 }
+
+/** Longest escape for which the external angle is traced outward (the trace costs about 16 n^2 iterations). */
+export const MAX_ANGLE_LEVEL = 4000;
 
 /** The probe of c as JSON-able data and as aligned text lines. */
 export interface ProbeReport {
@@ -59,7 +66,19 @@ export async function probePoint(c: DecimalPair, options: ProbeOptions): Promise
     const de = exteriorDistance(cr, ci, n, zr, zi);
     Object.assign(out, { escapes: true, iterations: n, smoothCount: mu, exteriorDistance: de });
     lines.push(`escapes           yes, after ${n} iterations (radius 1e6)`, `smooth count      ${mu.toFixed(Math.min(digits, 12))}`, `distance estimate ${significant(de, digits)} (the distance to the set lies between a quarter of this and this)`);
+    // external angle by the ray traced outward (docs/methods.md D5)
+    const ray = externalAngleOf(cr, ci, options.angleBits ?? 64, MAX_ANGLE_LEVEL);
+    if (ray === null) {
+      if (options.angleBits !== undefined) throw new UserError('--angle-bits', `a c whose orbit escapes within ${MAX_ANGLE_LEVEL} iterations, so that its ray can be traced outward in double precision`, new Received(`c = ${c.re.text}, ${c.im.text}`));
+      out['externalAngle'] = null;
+      lines.push(`external angle    not traced (the orbit escapes after more than ${MAX_ANGLE_LEVEL} iterations)`);
+    } else {
+      out['externalAngle'] = { binary: `0.${ray.digits}`, digits: ray.digits.length, certainDigits: ray.certain, turns: ray.turns };
+      out['potential'] = ray.potential;
+      lines.push(`external angle    0.${ray.digits} (binary; ${ray.certain} of ${ray.digits.length} digits certain)`, `  in turns        ${ray.turns.toPrecision(16)}`, `potential G(c)    ${significant(ray.potential, digits)}`);
+    }
   } else {
+    if (options.angleBits !== undefined) throw new UserError('--angle-bits', 'a c outside the Mandelbrot set (an external angle belongs to an exterior c)', new Received(`c = ${c.re.text}, ${c.im.text}, whose orbit stays bounded for ${iterations} iterations`));
     // attracting cycle: try periods in order from the settled orbit (A5)
     const cyc = createCycleResult();
     let period = 0;
