@@ -87,7 +87,7 @@ export const PLATE_OPTIONS: readonly OptionSpec[] = [
   { flags: '--equipotentials <n>', description: 'figures: n level curves of the potential, G_0 / 2^k for k = 0..n-1 with G_0 the largest in view, n from 0 (none) to 64 (default 0; sheet figure.equipotentials)', apply: (s, v) => void (sub(s, 'figure')['equipotentials'] = integer(v, '--equipotentials')) },
   { flags: '--outlines <period>', description: 'figures: draw the boundary of every component of this period (1 to 14) in view, 0 for none (default 0; sheet figure.outlines)', apply: (s, v) => void (sub(s, 'figure')['outlines'] = integer(v, '--outlines')) },
   {
-    flags: '--internal-rays <period:angles>',
+    flags: '--internal-rays <spec>',
     description: 'figures: internal rays of every component of this period (1 to 14) whose nucleus is in view, at these internal angles (0 or p/q, comma-separated), from the nucleus to the boundary, e.g. 1:0,1/3,1/2 (default none; sheet figure.internalRays)',
     apply: (s, v) => {
       const m = /^\s*([^:]*):(.*)$/.exec(v);

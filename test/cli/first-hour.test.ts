@@ -82,8 +82,9 @@ describe('interrupted plates', () => {
       const out = path.join(dir, 'big.png');
       const child = spawn(process.execPath, [CLI, 'plate', '--size', '4000x3000', '--iterations', '20000', '--samples', '16', '--data', path.join(dir, 'data'), '--out', out], { stdio: 'ignore' });
       const exited = new Promise<number | null>((resolve) => child.on('exit', (c) => resolve(c)));
-      await until(() => temps(dir).length > 0, 60_000, 'the temporary image file');
-      const name = temps(dir)[0]!;
+      // The image's own temporary file (a writability probe may come and go before it).
+      await until(() => temps(dir).some((n) => n.startsWith('.big.png.')), 60_000, 'the temporary image file');
+      const name = temps(dir).find((n) => n.startsWith('.big.png.'))!;
       // The process id stands in the name, so a later run can tell a live writer from a dead one.
       expect(name).toMatch(new RegExp(`^\\.big\\.png\\.${child.pid}\\.[0-9a-f]+\\.tmp$`));
       child.kill(signal);

@@ -152,6 +152,7 @@ describe('survey server', () => {
     const cli = runCli(['probe', '--json', '--', '-0.1226,0.7449']);
     const fromCli = JSON.parse(cli.stdout) as Record<string, unknown>;
     delete fromCli['juliaCommand'];
+    delete fromCli['plateCommand'];
     expect(JSON.parse(r.body.toString())).toEqual(fromCli);
   }, 60_000);
 
