@@ -5,7 +5,7 @@
  * the multiplier map of Douady and Hubbard (the multiplier is a conformal
  * isomorphism from the component to the unit disk).
  *
- * Method (methods.md C3): Newton on F^p(w, b) = w, D_z F^p(w, b) = t in
+ * Method (docs/methods.md C3): Newton on F^p(w, b) = w, D_z F^p(w, b) = t in
  * doubles (boundaryNewton), r raised in equal steps and each step started
  * from the last solution, halved where Newton fails. The end (r = 1) is the
  * boundary point solved at full precision by boundary-point.ts at the

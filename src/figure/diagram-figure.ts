@@ -2,7 +2,7 @@
  * The figure model of a bifurcation diagram of the real slice: the density
  * image as the plate, the parameter r along the bottom, the state x at the
  * left, and for the logistic family the quadratic family's c along the top
- * (c = r (2 - r) / 4, methods.md E1, conjugacy.ts; c falls as r grows on
+ * (c = r (2 - r) / 4, docs/methods.md E1, conjugacy.ts; c falls as r grows on
  * r >= 1, so its ticks run right to left). Ticks at round values from
  * d3-scale as on plates (axis-ticks.ts); positions from the exact decimal
  * edges of the sheet (pixel columns span r.from .. r.to, rows x.to at the

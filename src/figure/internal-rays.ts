@@ -2,7 +2,7 @@
  * The internal rays of a figure: for every component of one period whose
  * nucleus is in view (from the census, components-in-box.ts) and which is
  * at least OUTLINE_MIN_PIXELS across, the rays at the given internal angles
- * (internal-ray.ts, methods.md C3), with points enough for the component's
+ * (internal-ray.ts, docs/methods.md C3), with points enough for the component's
  * size in pixels.
  */
 import { componentsInBox } from '../components/components-in-box.js';

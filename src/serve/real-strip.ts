@@ -1,7 +1,7 @@
 /**
  * The real-slice strip under the survey page's plane: the logistic
  * bifurcation diagram over the same range of c as the view (the axis linear
- * in c, r = 1 + sqrt(1 - 4c); methods.md E7 for the density image), so a
+ * in c, r = 1 + sqrt(1 - 4c); docs/methods.md E7 for the density image), so a
  * column of the strip sits under the column of the plane with the same re c.
  * The state x runs from 1 at the top to 0 at the bottom. Ink is mixed from
  * the page's paper and ink colours; columns outside -2 <= c <= 1/4 (where

@@ -1,7 +1,7 @@
 /**
  * The real slice's figures: `section diagram --out fig.pdf|svg` with the
  * parameter r below, the quadratic family's c on top (c = r(2 - r)/4,
- * methods.md E1) and the state x at the left. Tick labels are read back by
+ * docs/methods.md E1) and the state x at the left. Tick labels are read back by
  * pdftotext (Debian poppler-utils) and must equal the values the sheet's
  * axes put at their positions (columns span r.from .. r.to, rows x.to at the
  * top .. x.from at the bottom), to the printed digits.

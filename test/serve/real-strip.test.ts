@@ -1,7 +1,7 @@
 /**
  * The survey's real-slice strip: the logistic diagram under the same c as the
  * plane. Checked by exact algebra at two parameters where the attractor is
- * known in closed form (x = 1/2 - z/r, r = 1 + sqrt(1 - 4c); methods.md E7):
+ * known in closed form (x = 1/2 - z/r, r = 1 + sqrt(1 - 4c); docs/methods.md E7):
  * c = -1/2, the attracting fixed point z = (1 - sqrt 3)/2; c = -1, the
  * superstable 2-cycle {0, -1} of z^2 - 1. Ink must sit on those states and
  * nowhere else in the column; columns beyond -2 <= c <= 1/4 stay flat.
