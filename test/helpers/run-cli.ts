@@ -1,5 +1,5 @@
 import { spawnSync } from 'node:child_process';
-import { mkdtempSync } from 'node:fs';
+import { mkdtempSync, rmSync } from 'node:fs';
 import os from 'node:os';
 import path from 'node:path';
 import { fileURLToPath } from 'node:url';
@@ -19,6 +19,17 @@ export function runCli(args: readonly string[], options: { cwd?: string; input?:
   return { status: r.status, stdout: r.stdout, stderr: r.stderr };
 }
 
+const made = new Set<string>();
+
+/** A fresh folder under the system's temporary directory, removed after the test file (test/setup.ts). */
 export function tempDir(prefix = 'quadatlas-'): string {
-  return mkdtempSync(path.join(os.tmpdir(), prefix));
+  const dir = mkdtempSync(path.join(os.tmpdir(), prefix));
+  made.add(dir);
+  return dir;
+}
+
+/** Removes every folder tempDir made in this test file (set up for all files in vitest.config.ts). */
+export function removeTempDirs(): void {
+  for (const dir of made) rmSync(dir, { recursive: true, force: true });
+  made.clear();
 }
