@@ -16,6 +16,7 @@
  *
  * Potential: G(c) = lim 2^-(n-1) log |z_n| (z_1 = c), read at |z_n| > 1e100.
  */
+import { orbitWithDerivative } from './orbit-derivative.js';
 
 /** Escape radius of the levels: |F^k| runs from RADIUS to RADIUS^2 on each level. */
 const RADIUS = 2 ** 24;
@@ -36,20 +37,11 @@ export interface RayOut {
 
 /** z = F^k(0, c) and D_c F^k in double; [zr, zi, dr, di]. */
 function iterate(cr: number, ci: number, k: number): [number, number, number, number] {
-  let zr = 0;
-  let zi = 0;
-  let dr = 0;
-  let di = 0;
-  for (let q = 0; q < k; q += 1) {
-    const ndr = 2 * (zr * dr - zi * di) + 1;
-    di = 2 * (zr * di + zi * dr);
-    dr = ndr;
-    const nzr = zr * zr - zi * zi + cr;
-    zi = 2 * zr * zi + ci;
-    zr = nzr;
-  }
-  return [zr, zi, dr, di];
+  const o = orbitWithDerivative(cr, ci, k, scratch);
+  return [o[0]!, o[1]!, o[2]!, o[3]!];
 }
+
+const scratch = new Float64Array(4);
 
 /** Turns of (re, im) in [0, 1). */
 function turnsOf(re: number, im: number): number {

@@ -27,6 +27,9 @@
  * |c| ~ 2: the census measured 4224 such components at period 16).
  */
 import { ddAdd, ddComplexSquareAdd } from './double-double.js';
+import { orbitWithDerivative } from './orbit-derivative.js';
+
+const orbit = new Float64Array(4);
 
 /** Escape radius R of the potential steps (large: fewer levels mis-step near escape). */
 export const RAY_RADIUS = 65536;
@@ -82,18 +85,11 @@ export function traceRayDouble(num: number, den: number, depth: number, sharpnes
       let ok = false;
       let first = 0;
       for (let it = 0; it < 12; it += 1) {
-        let zr = 0;
-        let zi = 0;
-        let dr = 0;
-        let di = 0;
-        for (let q = 0; q < k; q += 1) {
-          const ndr = 2 * (zr * dr - zi * di) + 1;
-          di = 2 * (zr * di + zi * dr);
-          dr = ndr;
-          const nzr = zr * zr - zi * zi + xr;
-          zi = 2 * zr * zi + xi;
-          zr = nzr;
-        }
+        orbitWithDerivative(xr, xi, k, orbit);
+        const zr = orbit[0]!;
+        const zi = orbit[1]!;
+        const dr = orbit[2]!;
+        const di = orbit[3]!;
         let er = zr - tr;
         let ei = zi - ti;
         if (it === 0) {

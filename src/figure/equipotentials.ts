@@ -15,6 +15,7 @@
  * (2^(k-1) theta mod 1 is exact in integers), so the curve stays on its level
  * however many turns it takes.
  */
+import { orbitWithDerivative } from '../components/orbit-derivative.js';
 import { RAY_RADIUS, traceRayDouble } from '../components/trace-ray.js';
 import type { DoubleGrid } from '../view/view.js';
 import { pixelToC } from '../view/view.js';
@@ -88,20 +89,14 @@ export function equipotential(G: number, minStep: number): Float64Array | null {
     ci = start.imHi;
   }
   // Newton on log F^k(0, c) = logRadius + i arg from the current c.
+  const orbit = new Float64Array(4);
   const solve = (logRadius: number, arg: number): boolean => {
     for (let it = 0; it < 30; it += 1) {
-      let zr = 0;
-      let zi = 0;
-      let dr = 0;
-      let di = 0;
-      for (let q = 0; q < k; q += 1) {
-        const ndr = 2 * (zr * dr - zi * di) + 1;
-        di = 2 * (zr * di + zi * dr);
-        dr = ndr;
-        const nzr = zr * zr - zi * zi + cr;
-        zi = 2 * zr * zi + ci;
-        zr = nzr;
-      }
+      orbitWithDerivative(cr, ci, k, orbit);
+      const zr = orbit[0]!;
+      const zi = orbit[1]!;
+      const dr = orbit[2]!;
+      const di = orbit[3]!;
       // log F - log t, the imaginary part taken to the nearest branch
       const lr = 0.5 * Math.log(zr * zr + zi * zi) - logRadius;
       let li = Math.atan2(zi, zr) - arg;
