@@ -1,6 +1,6 @@
-import { stat, open, rm } from 'node:fs/promises';
+import { mkdir, stat, open, rm } from 'node:fs/promises';
 import path from 'node:path';
-import { UserError } from '../check/user-error.js';
+import { Received, UserError } from '../check/user-error.js';
 import { releaseTemp, tempPathFor } from './temp-path.js';
 
 /**
@@ -32,13 +32,19 @@ export async function checkWritableDirectory(dir: string, field: string): Promis
 
 /**
  * Checks, before any work, that `file` can be written: it is not an existing
- * directory, and its directory exists and takes a new file.
+ * directory, and its directory exists or can be created and takes a new file.
  */
 export async function prepareOutputFile(file: string, field: string): Promise<void> {
   const isDir = await stat(file).then(
     (s) => s.isDirectory(),
     () => false,
   );
-  if (isDir) throw new UserError(field, 'a file name (not an existing directory)', file);
-  await checkWritableDirectory(path.dirname(path.resolve(file)), field);
+  if (isDir) throw new UserError(field, 'a file name (this is an existing directory)', file);
+  const dir = path.dirname(path.resolve(file));
+  try {
+    await mkdir(dir, { recursive: true });
+  } catch (err) {
+    throw new UserError(field, 'a file in a directory that exists or can be created', new Received(`${file} (${(err as NodeJS.ErrnoException).code ?? 'error'})`));
+  }
+  await checkWritableDirectory(dir, field);
 }

@@ -41,7 +41,7 @@ describe('components --out', () => {
     for (const [args, pattern] of [
       [['--out', path.join(dir, 'x.txt')], /\.csv, \.json or \.parquet/],
       [['--count', '--out', path.join(dir, 'x.csv')], /--count/],
-      [['--out', folder], /not an existing directory/],
+      [['--out', folder], /existing directory/],
     ] as const) {
       const r = runCli(['components', '--period', '4', ...args]);
       expect(r.status, args.join(' ')).toBe(2);

@@ -16,7 +16,7 @@ import { reportWrote } from '../wrote.js';
 import { againOutput, loadSectionSheet } from './load-section-sheet.js';
 import { SHEET_SCHEMA } from '../../view/sheet-kind.js';
 import { toolVersion } from '../../io/tool-version.js';
-import { prepareOutput, sectionMetadata, writeOutput, writeSidecar } from './section-output.js';
+import { plotFileBytes, prepareOutput, sectionMetadata, writeOutput, writeSidecar } from './section-output.js';
 import { addOptions, againOption, clearProgress, CSV_OPTION, digitsOption, FAMILY_OPTION, guarded, JSON_OPTION, NO_SIDECAR_OPTION, parseFamily, progressLine, tableFormat, type SectionOption, type Values, writeStdout } from './section-options.js';
 
 const DEFAULT_DIGITS = 8;
@@ -135,13 +135,7 @@ export function register(section: Command): void {
         return;
       }
       const metadata = sectionMetadata(run.record);
-      const { pngWithMetadata, svgWithMetadata } = await import('../../io/embed-metadata.js');
-      let bytes: string | Buffer = svgWithMetadata(run.svg, metadata);
-      if (file.toLowerCase().endsWith('.png')) {
-        const sharp = (await import('sharp')).default;
-        bytes = pngWithMetadata(await sharp(Buffer.from(run.svg), { density: 144 }).png().toBuffer(), metadata);
-      }
-      await writeOutput(file, bytes, '--out');
+      await writeOutput(file, await plotFileBytes(run.svg, metadata, file), '--out');
       const files = [file];
       const seconds = (Date.now() - started) / 1000;
       if (values['sidecar'] !== false) files.push(await writeSidecar(file, metadata, { file, seconds }, '--out'));

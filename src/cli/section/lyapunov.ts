@@ -13,7 +13,7 @@ import { gridPlaces, parameterGrid } from '../../section/parameter-grid.js';
 import { formatTable, numberCell, type Cell, type SectionTable } from '../../section/section-table.js';
 import { reportWrote } from '../wrote.js';
 import { againOutput, loadSectionSheet } from './load-section-sheet.js';
-import { prepareOutput, sectionMetadata, writeOutput, writeSidecar } from './section-output.js';
+import { plotFileBytes, prepareOutput, sectionMetadata, writeOutput, writeSidecar } from './section-output.js';
 import {
   addOptions,
   againOption,
@@ -115,14 +115,6 @@ export async function lyapunovSheet(sheetFile: string | undefined, values: Value
   return parseLyapunovSheet(raw, applySectionFlags(raw, values, LYAPUNOV_OPTIONS));
 }
 
-/** The plot file's bytes: the SVG with its sheet in <metadata>, or a PNG (sharp, 144 dpi) with it in an iTXt chunk. */
-export async function lyapunovFileBytes(svg: string, metadata: string, file: string): Promise<string | Buffer> {
-  const { pngWithMetadata, svgWithMetadata } = await import('../../io/embed-metadata.js');
-  if (!file.toLowerCase().endsWith('.png')) return svgWithMetadata(svg, metadata);
-  const sharp = (await import('sharp')).default;
-  return pngWithMetadata(await sharp(Buffer.from(svg), { density: 144 }).png().toBuffer(), metadata);
-}
-
 export function register(section: Command): void {
   const cmd = section
     .command('lyapunov')
@@ -144,7 +136,7 @@ export function register(section: Command): void {
         return;
       }
       const metadata = sectionMetadata(lyapunovRecord(sheet));
-      await writeOutput(file, await lyapunovFileBytes(run.svg, metadata, file), field);
+      await writeOutput(file, await plotFileBytes(run.svg, metadata, file), field);
       const files = [file];
       const seconds = (Date.now() - started) / 1000;
       if (sheet.output.sidecar) {

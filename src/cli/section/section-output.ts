@@ -4,9 +4,8 @@
  * output itself (temp file + rename), and the JSON sidecar FILE.json holding
  * `{ metadata, summary }` as plates write it.
  */
-import { mkdir, stat } from 'node:fs/promises';
-import path from 'node:path';
 import { writeFileAtomic } from '../../io/write-file-atomic.js';
+import { prepareOutputFile } from '../../io/check-writable-directory.js';
 import type { Json } from '../../section/sheet-fields.js';
 import { Received, UserError } from '../../check/user-error.js';
 import { toolVersion } from '../../io/tool-version.js';
@@ -16,23 +15,8 @@ export function sectionMetadata(record: Json, derived: Json = {}): string {
   return JSON.stringify({ tool: 'quadatlas', version: toolVersion(), ...derived, sheet: record });
 }
 
-/**
- * Checks, before any work, that `file` can be written: not an existing
- * directory, and its directory exists or can be created.
- */
-export async function prepareOutput(file: string, field: string): Promise<void> {
-  const isDir = await stat(file).then(
-    (s) => s.isDirectory(),
-    () => false,
-  );
-  if (isDir) throw new UserError(field, 'a file name (this is an existing directory)', file);
-  const dir = path.dirname(path.resolve(file));
-  try {
-    await mkdir(dir, { recursive: true });
-  } catch (err) {
-    throw new UserError(field, 'a file in a directory that exists or can be created', new Received(`${file} (${(err as NodeJS.ErrnoException).code ?? 'error'})`));
-  }
-}
+/** Checks, before any work, that `file` can be written (io/check-writable-directory.ts). */
+export const prepareOutput = prepareOutputFile;
 
 export async function writeOutput(file: string, data: string | Uint8Array, field: string): Promise<void> {
   try {
@@ -47,4 +31,12 @@ export async function writeSidecar(file: string, metadata: string, summary: Json
   const sidecar = `${file}.json`;
   await writeOutput(sidecar, `${JSON.stringify({ metadata: JSON.parse(metadata) as unknown, summary }, null, 2)}\n`, field);
   return sidecar;
+}
+
+/** The plot file's bytes: the SVG with its sheet in <metadata>, or a PNG (sharp, 144 dpi) with it in an iTXt chunk. */
+export async function plotFileBytes(svg: string, metadata: string, file: string): Promise<string | Buffer> {
+  const { pngWithMetadata, svgWithMetadata } = await import('../../io/embed-metadata.js');
+  if (!file.toLowerCase().endsWith('.png')) return svgWithMetadata(svg, metadata);
+  const sharp = (await import('sharp')).default;
+  return pngWithMetadata(await sharp(Buffer.from(svg), { density: 144 }).png().toBuffer(), metadata);
 }
