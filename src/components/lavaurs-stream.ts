@@ -27,10 +27,12 @@ interface Enumerator {
 }
 
 function advance(e: Enumerator): void {
-  for (;;) {
+  const steps = e.steps;
+  next: for (;;) {
     e.n += 1;
     if (e.n >= e.den) return;
-    if (!e.steps.some((s) => e.n % s === 0)) return;
+    for (let i = 0; i < steps.length; i++) if (e.n % steps[i]! === 0) continue next;
+    return;
   }
 }
 
