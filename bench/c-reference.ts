@@ -46,7 +46,8 @@ export function runCReference(source: string, flags: readonly string[], width: n
     for (let r = 0; r < runs; r++) {
       const run = spawnSync(exe, [String(width), String(limit)], { encoding: 'utf8' });
       if (run.status !== 0) throw new Error(`escape-ref exited with ${run.status}:\n${run.stdout}${run.stderr}`);
-      const scalar = parseLine(run.stdout, 'scalar'), vector = parseLine(run.stdout, 'vector');
+      const scalar = parseLine(run.stdout, 'scalar'),
+        vector = parseLine(run.stdout, 'vector');
       best = {
         scalar: best === undefined || scalar.seconds < best.scalar.seconds ? scalar : best.scalar,
         vector: best === undefined || vector.seconds < best.vector.seconds ? vector : best.vector,

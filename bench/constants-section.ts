@@ -24,7 +24,12 @@ export const constantsSection: BenchSection = {
   async run(context) {
     const rows: BenchRow[] = [];
     await constantsOnWorkers(constantsPlan(2, 20), 2, 24); // warm-up (thread start, JIT)
-    for (const [order, digits] of [[2, 100], [4, 50], [6, 50], [2, 500]] as const) {
+    for (const [order, digits] of [
+      [2, 100],
+      [4, 50],
+      [6, 50],
+      [2, 500],
+    ] as const) {
       const plan = constantsPlan(order, digits);
       const t0 = performance.now();
       const [a, b] = await constantsOnWorkers(plan, 2, digits + 4);

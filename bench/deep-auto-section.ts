@@ -30,8 +30,20 @@ function plate(root: string, iterations: string): AutoSummary {
   const dir = mkdtempSync(path.join(os.tmpdir(), 'quadatlas-bench-auto-'));
   try {
     const args = [
-      path.join(root, 'dist/src/cli/main.js'), 'plate', '--center', '0,1', '--span', SPAN, '--size', '16x12',
-      '--iterations', iterations, '--out', path.join(dir, 'p.png'), '--no-sidecar', '--json',
+      path.join(root, 'dist/src/cli/main.js'),
+      'plate',
+      '--center',
+      '0,1',
+      '--span',
+      SPAN,
+      '--size',
+      '16x12',
+      '--iterations',
+      iterations,
+      '--out',
+      path.join(dir, 'p.png'),
+      '--no-sidecar',
+      '--json',
     ];
     const r = spawnSync(process.execPath, args, { encoding: 'utf8', maxBuffer: 1 << 24 });
     if (r.status !== 0) throw new Error(`deep auto plate failed: ${r.stderr}`);
@@ -63,13 +75,17 @@ export const deepAutoSection: BenchSection = {
   run(context: BenchContext): BenchRow[] {
     const now = plate(context.root, 'auto');
     const rows = [row('probe (auto)', now)];
-    context.note(`targets: ${now.seconds < 3 ? 'met' : 'missed'} 3 s (${now.seconds} s), ${now.peakMemoryMiB < 200 ? 'met' : 'missed'} 200 MB (${now.peakMemoryMiB} MiB peak resident)`);
+    context.note(
+      `targets: ${now.seconds < 3 ? 'met' : 'missed'} 3 s (${now.seconds} s), ${now.peakMemoryMiB < 200 ? 'met' : 'missed'} 200 MB (${now.peakMemoryMiB} MiB peak resident)`,
+    );
     if (process.env['QUADATLAS_BENCH_DEEP_BEFORE'] === '1') {
       const before = plate(context.root, String(autoIterations(SPAN)));
       rows.push(row('depth rule (before)', before));
-      context.note(`the probe is ${(before.seconds / now.seconds).toFixed(0)}x faster and needs ${(before.peakMemoryMiB / now.peakMemoryMiB).toFixed(0)}x less memory than the depth rule`);
+      context.note(
+        `the probe is ${(before.seconds / now.seconds).toFixed(0)}x faster and needs ${(before.peakMemoryMiB / now.peakMemoryMiB).toFixed(0)}x less memory than the depth rule`,
+      );
     } else {
-      context.note('before (issue 17, the depth rule\'s 7 665 010 iterations): 111 s and 2.86 GB; QUADATLAS_BENCH_DEEP_BEFORE=1 renders it again in this run for a ratio');
+      context.note("before (issue 17, the depth rule's 7 665 010 iterations): 111 s and 2.86 GB; QUADATLAS_BENCH_DEEP_BEFORE=1 renders it again in this run for a ratio");
     }
     return rows;
   },

@@ -30,8 +30,25 @@ function plate(root: string, extra: readonly string[]): DeepSummary {
   const dir = mkdtempSync(path.join(os.tmpdir(), 'quadatlas-bench-deep-'));
   try {
     const args = [
-      path.join(root, 'dist/src/cli/main.js'), 'plate', '--center', `${NUCLEUS.re},${NUCLEUS.im}`, '--span', SPAN, '--size', '640x480',
-      '--iterations', '100000', '--samples', '1', '--reference', `${NUCLEUS.re},${NUCLEUS.im},127`, '--out', path.join(dir, 'p.png'), '--no-sidecar', '--json', ...extra,
+      path.join(root, 'dist/src/cli/main.js'),
+      'plate',
+      '--center',
+      `${NUCLEUS.re},${NUCLEUS.im}`,
+      '--span',
+      SPAN,
+      '--size',
+      '640x480',
+      '--iterations',
+      '100000',
+      '--samples',
+      '1',
+      '--reference',
+      `${NUCLEUS.re},${NUCLEUS.im},127`,
+      '--out',
+      path.join(dir, 'p.png'),
+      '--no-sidecar',
+      '--json',
+      ...extra,
     ];
     const r = spawnSync(process.execPath, args, { encoding: 'utf8' });
     if (r.status !== 0) throw new Error(`deep plate failed: ${r.stderr}`);
@@ -51,10 +68,24 @@ export const deepSection: BenchSection = {
     const opsOn = (on.deepIterations.stepped + on.deepIterations.skips) / n;
     const opsOff = off.deepIterations.stepped / n;
     context.note(`reference orbit ${on.precision.referenceBits} bits; per-pixel operations = single steps + skips (Newton and period checks included)`);
-    context.note(`skipping gives ${(opsOff / opsOn).toFixed(1)}x fewer per-pixel operations and ${(off.seconds / on.seconds).toFixed(1)}x less wall time (target: 10x fewer operations)`);
+    context.note(
+      `skipping gives ${(opsOff / opsOn).toFixed(1)}x fewer per-pixel operations and ${(off.seconds / on.seconds).toFixed(1)}x less wall time (target: 10x fewer operations)`,
+    );
     return [
-      { label: 'with skipping', figures: { seconds: on.seconds, 'reference s': on.precision.referenceSeconds, 'table s': on.precision.tableSeconds, 'ops/pixel': opsOn, 'skipped %': 100 * on.deepIterations.skippedFraction } },
-      { label: 'skipping off', figures: { seconds: off.seconds, 'reference s': off.precision.referenceSeconds, 'table s': off.precision.tableSeconds, 'ops/pixel': opsOff, 'skipped %': 0 } },
+      {
+        label: 'with skipping',
+        figures: {
+          seconds: on.seconds,
+          'reference s': on.precision.referenceSeconds,
+          'table s': on.precision.tableSeconds,
+          'ops/pixel': opsOn,
+          'skipped %': 100 * on.deepIterations.skippedFraction,
+        },
+      },
+      {
+        label: 'skipping off',
+        figures: { seconds: off.seconds, 'reference s': off.precision.referenceSeconds, 'table s': off.precision.tableSeconds, 'ops/pixel': opsOff, 'skipped %': 0 },
+      },
     ];
   },
 };

@@ -39,8 +39,14 @@ export const juliaSection: BenchSection = {
     const all = julia(context.root, [...RABBIT, '--workers', String(cores)]);
     context.note(`speed-up = wall time with 1 worker / wall time with ${cores} workers, same plate, one run each`);
     return [
-      { label: 'rabbit 1600x1200, 9 samples, 1 worker', figures: { seconds: one.seconds, 'peak MiB': one.peakMemoryMiB, 'refined %': (100 * one.pixels.refined) / one.pixels.total, 'speed-up': 1 } },
-      { label: `rabbit 1600x1200, 9 samples, ${cores} workers`, figures: { seconds: all.seconds, 'peak MiB': all.peakMemoryMiB, 'refined %': (100 * all.pixels.refined) / all.pixels.total, 'speed-up': one.seconds / all.seconds } },
+      {
+        label: 'rabbit 1600x1200, 9 samples, 1 worker',
+        figures: { seconds: one.seconds, 'peak MiB': one.peakMemoryMiB, 'refined %': (100 * one.pixels.refined) / one.pixels.total, 'speed-up': 1 },
+      },
+      {
+        label: `rabbit 1600x1200, 9 samples, ${cores} workers`,
+        figures: { seconds: all.seconds, 'peak MiB': all.peakMemoryMiB, 'refined %': (100 * all.pixels.refined) / all.pixels.total, 'speed-up': one.seconds / all.seconds },
+      },
     ];
   },
 };

@@ -26,7 +26,9 @@ const UNFUSED_FLAGS = ['-O3', '-march=native', '-ffp-contract=off'];
 
 /** Runs one loop over the whole grid, a row at a time; returns the iteration total. */
 function gridTotal(loop: EscapeLoop): number {
-  const cr = new Float64Array(W), ci = new Float64Array(W), out = createLoopOut(W);
+  const cr = new Float64Array(W),
+    ci = new Float64Array(W),
+    out = createLoopOut(W);
   for (let i = 0; i < W; i++) cr[i] = -2.0 + (2.5 * (i + 0.5)) / W;
   let total = 0;
   for (let j = 0; j < W; j++) {

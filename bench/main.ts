@@ -71,7 +71,10 @@ export function formatTable(rows: readonly BenchRow[]): string {
   const header = ['', ...columns];
   const widths = header.map((h, i) => Math.max(h.length, ...cells.map((line) => line[i]!.length)));
   const render = (line: readonly string[]) =>
-    line.map((cell, i) => (i === 0 ? cell.padEnd(widths[i]!) : cell.padStart(widths[i]!))).join('  ').trimEnd();
+    line
+      .map((cell, i) => (i === 0 ? cell.padEnd(widths[i]!) : cell.padStart(widths[i]!)))
+      .join('  ')
+      .trimEnd();
   return [render(header), render(widths.map((w) => '-'.repeat(w))), ...cells.map(render)].join('\n');
 }
 

@@ -40,15 +40,23 @@ export const plateSection: BenchSection = {
     const heavy = ['--center', '-0.7453,0.1127', '--span', '0.0065', '--iterations', '6000', '--size', '1600x1200', '--samples', '9'];
     plate(context.root, [...WHOLE, '--size', '200x150', '--samples', '1']); // warm-up (disk cache, JIT of the CLI)
     const rows: BenchRow[] = [];
-    for (const [name, args] of [['whole set 1600x1200, 4 samples, 2000 it.', light], ['spiral inlet 1600x1200, 9 samples, 6000 it.', heavy]] as const) {
+    for (const [name, args] of [
+      ['whole set 1600x1200, 4 samples, 2000 it.', light],
+      ['spiral inlet 1600x1200, 9 samples, 6000 it.', heavy],
+    ] as const) {
       const one = plate(context.root, [...args, '--workers', '1']);
       const all = plate(context.root, [...args, '--workers', String(cores)]);
       rows.push({ label: `${name}, 1 worker`, figures: { seconds: one.seconds, 'peak MiB': one.peakMemoryMiB, 'speed-up': 1 } });
       rows.push({ label: `${name}, ${cores} workers`, figures: { seconds: all.seconds, 'peak MiB': all.peakMemoryMiB, 'speed-up': one.seconds / all.seconds } });
     }
     const big = plate(context.root, [...WHOLE, '--size', '4000x4000', '--samples', '4']);
-    rows.push({ label: `4000x4000 full set, 4 samples, ${cores} workers`, figures: { seconds: big.seconds, 'peak MiB': big.peakMemoryMiB, 'refined %': (100 * big.pixels.refined) / big.pixels.total } });
-    context.note(`speed-up = wall time with 1 worker / wall time with ${cores} workers, same plate, one run each; a fixed ~0.5 s (start-up, per-worker warm-up, the last strip's encoding) weighs on short plates`);
+    rows.push({
+      label: `4000x4000 full set, 4 samples, ${cores} workers`,
+      figures: { seconds: big.seconds, 'peak MiB': big.peakMemoryMiB, 'refined %': (100 * big.pixels.refined) / big.pixels.total },
+    });
+    context.note(
+      `speed-up = wall time with 1 worker / wall time with ${cores} workers, same plate, one run each; a fixed ~0.5 s (start-up, per-worker warm-up, the last strip's encoding) weighs on short plates`,
+    );
     context.note('peak memory is the maxRSS of the whole process (main thread and all workers)');
     return rows;
   },

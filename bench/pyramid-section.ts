@@ -83,7 +83,10 @@ export const pyramidSection: BenchSection = {
     try {
       const warm = spawnSync(process.execPath, [CLI, 'pyramid', ...VIEW, '--size', '512x512', '--out-dir', path.join(dir, 'warm')], { encoding: 'utf8' });
       if (warm.status !== 0) throw new Error(`pyramid failed: ${warm.stderr}`);
-      const r = spawnSync(process.execPath, [CLI, 'pyramid', ...VIEW, '--size', '16384x16384', '--out-dir', path.join(dir, 'p'), '--json'], { encoding: 'utf8', maxBuffer: 1 << 24 });
+      const r = spawnSync(process.execPath, [CLI, 'pyramid', ...VIEW, '--size', '16384x16384', '--out-dir', path.join(dir, 'p'), '--json'], {
+        encoding: 'utf8',
+        maxBuffer: 1 << 24,
+      });
       if (r.status !== 0) throw new Error(`pyramid failed: ${r.stderr}`);
       full = JSON.parse(r.stdout) as Summary;
     } finally {
@@ -95,7 +98,13 @@ export const pyramidSection: BenchSection = {
     return [
       {
         label: `16384x16384 base, ${full.levels} levels`,
-        figures: { tiles: full.tiles.total, seconds: full.seconds, 'tiles/s': full.tilesPerSecond, 'peak MiB': full.peakMemoryMiB, 'MiB written': Math.round(full.bytesWritten / 2 ** 20) },
+        figures: {
+          tiles: full.tiles.total,
+          seconds: full.seconds,
+          'tiles/s': full.tilesPerSecond,
+          'peak MiB': full.peakMemoryMiB,
+          'MiB written': Math.round(full.bytesWritten / 2 ** 20),
+        },
       },
       {
         label: `65536x65536 base, stopped after ${stop} s`,

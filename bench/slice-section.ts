@@ -39,7 +39,9 @@ export const sliceSection: BenchSection = {
     const t1 = performance.now();
     await renderDiagram(logistic, { kind: 'parameter', from: 2.8, to: 4 }, settings, workers);
     rows.push({ label: 'diagram 4000x2000, 4 samples/column', figures: { seconds: (performance.now() - t1) / 1000, trusted: null, correct: null, workers } });
-    context.note(`delta ${c.delta.value.toPrecision(Math.max(1, c.delta.digits))}, alpha ${c.alpha.value.toPrecision(Math.max(1, c.alpha.digits))}; diagram: 1000 transient + 4000 plotted steps per sample`);
+    context.note(
+      `delta ${c.delta.value.toPrecision(Math.max(1, c.delta.digits))}, alpha ${c.alpha.value.toPrecision(Math.max(1, c.alpha.digits))}; diagram: 1000 transient + 4000 plotted steps per sample`,
+    );
     return rows;
   },
 };

@@ -70,7 +70,11 @@ function moduleText(name, key, bytes) {
   ].join('\n');
 }
 
-const sources = existsSync(wasmDir) ? readdirSync(wasmDir).filter((f) => f.endsWith('.as')).sort() : [];
+const sources = existsSync(wasmDir)
+  ? readdirSync(wasmDir)
+      .filter((f) => f.endsWith('.as'))
+      .sort()
+  : [];
 for (const file of sources) {
   const name = file.slice(0, -3);
   const sourceFile = path.join(wasmDir, file);
@@ -90,9 +94,6 @@ for (const file of sources) {
   if (existsSync(path.join(root, 'dist/src'))) {
     // The generated module is plain JavaScript as well as TypeScript.
     writeAtomic(path.join(distDir, `${name}-bytes.js`), text);
-    writeAtomic(
-      path.join(distDir, `${name}-bytes.d.ts`),
-      'export declare const BUILD_KEY: string;\nexport declare const WASM_BASE64: string;\n',
-    );
+    writeAtomic(path.join(distDir, `${name}-bytes.d.ts`), 'export declare const BUILD_KEY: string;\nexport declare const WASM_BASE64: string;\n');
   }
 }

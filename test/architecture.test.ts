@@ -13,7 +13,10 @@ function layerOrder(): string[] {
   const doc = readFileSync(path.join(ROOT, 'docs/architecture.md'), 'utf8');
   const block = /```layers\n([\s\S]*?)```/.exec(doc);
   if (block === null) throw new Error('docs/architecture.md has no ```layers block');
-  return block[1]!.split('\n').map((l) => l.trim()).filter((l) => l !== '');
+  return block[1]!
+    .split('\n')
+    .map((l) => l.trim())
+    .filter((l) => l !== '');
 }
 
 function sourceFiles(dir: string): string[] {
@@ -28,7 +31,9 @@ function sourceFiles(dir: string): string[] {
 
 /** Relative imports of a file, resolved to .ts paths; `dynamic` marks import() (lazy loading). */
 function importsOf(file: string): Array<{ target: string; dynamic: boolean }> {
-  const text = readFileSync(file, 'utf8').replace(/\/\*[\s\S]*?\*\//g, '').replace(/^\s*\/\/.*$/gm, '');
+  const text = readFileSync(file, 'utf8')
+    .replace(/\/\*[\s\S]*?\*\//g, '')
+    .replace(/^\s*\/\/.*$/gm, '');
   const found: Array<{ target: string; dynamic: boolean }> = [];
   const add = (spec: string, dynamic: boolean): void => {
     if (!spec.startsWith('.')) return;
@@ -85,7 +90,13 @@ describe('docs/architecture.md layer order', () => {
 
   it('no import cycle between files (static imports; lazy import() excluded)', () => {
     const graph = new Map<string, string[]>();
-    for (const file of files) graph.set(file, importsOf(file).filter((i) => !i.dynamic && graph !== null).map((i) => i.target));
+    for (const file of files)
+      graph.set(
+        file,
+        importsOf(file)
+          .filter((i) => !i.dynamic && graph !== null)
+          .map((i) => i.target),
+      );
     // Tarjan's strongly connected components: any component of more than one file is a cycle.
     let index = 0;
     const idx = new Map<string, number>();

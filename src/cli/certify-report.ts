@@ -22,7 +22,9 @@ export function digitsNeeded(log10Size: number): number {
 /** Certifies the census of `result` and says so on stderr; sets exit code 1 when the proof fails. */
 export async function reportCensusCertificate(result: CensusResult, workers: number): Promise<{ ok: boolean; seconds: number }> {
   const t0 = performance.now();
-  const progress = process.stderr.isTTY ? (done: number, total: number): void => void process.stderr.write(`\rperiod ${result.period}: ${done}/${total} nuclei certified`) : undefined;
+  const progress = process.stderr.isTTY
+    ? (done: number, total: number): void => void process.stderr.write(`\rperiod ${result.period}: ${done}/${total} nuclei certified`)
+    : undefined;
   const cert = await certifyCensus(result, progress === undefined ? { workers } : { workers, onProgress: progress });
   if (progress !== undefined) process.stderr.write('\n');
   const seconds = Number(((performance.now() - t0) / 1000).toFixed(2));
@@ -85,9 +87,10 @@ export function certifyLocated(info: ComponentInfo, digits: number): { json: Rec
     process.exitCode = 1;
     process.stderr.write(`quadatlas: period ${info.period}: root ${info.root.re}, ${info.root.im} could not be certified: ${root.reason}\n`);
   }
-  const what = info.parent === null
-    ? `exactly one parameter within it where a cycle of exact period ${info.period} has multiplier 1`
-    : `exactly one parameter within it where the parent's ${info.parent.period}-cycle has multiplier e^(2 pi i ${info.parent.num}/${info.parent.den})`;
+  const what =
+    info.parent === null
+      ? `exactly one parameter within it where a cycle of exact period ${info.period} has multiplier 1`
+      : `exactly one parameter within it where the parent's ${info.parent.period}-cycle has multiplier e^(2 pi i ${info.parent.num}/${info.parent.den})`;
   return {
     json: { certifiedRadius: cert.ok ? cert.radius : null, rootCertifiedRadius: root.ok ? root.radius : null },
     lines: [

@@ -61,7 +61,8 @@ export const COLOUR_OPTIONS: readonly OptionSpec[] = [
   },
   {
     flags: '--gradient <file>',
-    description: 'custom exterior gradient from colour stops: a JSON array of {"at", "colour"} or CSV lines at,colour (at in [0, 1] of a cycle, colour sRGB #rrggbb); the stops are copied into the sheet as colour.gradient (default: none, the named --exterior)',
+    description:
+      'custom exterior gradient from colour stops: a JSON array of {"at", "colour"} or CSV lines at,colour (at in [0, 1] of a cycle, colour sRGB #rrggbb); the stops are copied into the sheet as colour.gradient (default: none, the named --exterior)',
     apply: (sheet, value) => {
       const c = colourBlock(sheet);
       if (c[EXTERIOR_FLAG] === true) throw new UserError('--gradient', 'either --exterior or --gradient, not both', value);
@@ -69,7 +70,11 @@ export const COLOUR_OPTIONS: readonly OptionSpec[] = [
       try {
         text = readFileSync(value, 'utf8');
       } catch (err) {
-        throw new UserError('--gradient (colour.gradient)', 'a readable file of colour stops (JSON or CSV)', new Received(`${value} (${(err as NodeJS.ErrnoException).code ?? 'unreadable'})`));
+        throw new UserError(
+          '--gradient (colour.gradient)',
+          'a readable file of colour stops (JSON or CSV)',
+          new Received(`${value} (${(err as NodeJS.ErrnoException).code ?? 'unreadable'})`),
+        );
       }
       c['gradient'] = gradientStopsFromText(text, value, '--gradient');
     },

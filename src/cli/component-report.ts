@@ -21,5 +21,3 @@ export function parseBox(value: unknown, field: string): { re0: number; im0: num
   if (!(re0 < re1 && im0 < im1)) throw new UserError(field, 'a box RE0,IM0,RE1,IM1 with RE0 < RE1 and IM0 < IM1', value);
   return { re0, im0, re1, im1 };
 }
-
-

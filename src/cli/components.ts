@@ -36,13 +36,17 @@ export const COMPONENTS_OPTIONS: readonly OptionSpec[] = [
 ];
 
 export function register(program: Command): void {
-  addOptions(program.command('components').description('list or count the hyperbolic components of exact period P'), COMPONENTS_OPTIONS)
-    .action(async (o: Record<string, unknown>) => {
+  addOptions(program.command('components').description('list or count the hyperbolic components of exact period P'), COMPONENTS_OPTIONS).action(
+    async (o: Record<string, unknown>) => {
       const count = o['count'] === true;
       const certify = o['certify'] === true;
       const period = parseInteger(o['period'], '--period', 1, count ? MAX_CENSUS_PERIOD : MAX_LIST_PERIOD);
       if (certify && period > MAX_CERTIFY_PERIOD) {
-        throw new UserError('--period', `a period of at most ${MAX_CERTIFY_PERIOD} with --certify (every certified disk is kept in memory; period ${period} would need about ${Math.ceil((2 ** (period - 1) * 400) / 2 ** 30)} GB)`, period);
+        throw new UserError(
+          '--period',
+          `a period of at most ${MAX_CERTIFY_PERIOD} with --certify (every certified disk is kept in memory; period ${period} would need about ${Math.ceil((2 ** (period - 1) * 400) / 2 ** 30)} GB)`,
+          period,
+        );
       }
       const digits = parseInteger(o['digits'], '--digits', 1, 2000);
       const workers = o['workers'] === undefined ? availableParallelism() : parseInteger(o['workers'], '--workers', 0, 256);
@@ -74,7 +78,9 @@ export function register(program: Command): void {
         const n = comps.length;
         if (o['json'] === true) {
           const extra = proof === null ? {} : { certified: proof.ok, certifySeconds: proof.seconds };
-          process.stdout.write(`${JSON.stringify({ period, real: o['real'] === true, count: n, seconds: Number(seconds.toFixed(2)), raysTraced: result.raysTraced, unpaired: result.unpaired, ...extra })}\n`);
+          process.stdout.write(
+            `${JSON.stringify({ period, real: o['real'] === true, count: n, seconds: Number(seconds.toFixed(2)), raysTraced: result.raysTraced, unpaired: result.unpaired, ...extra })}\n`,
+          );
         } else process.stdout.write(`${n}\n`);
         process.stderr.write(`quadatlas: period ${period}: ${n} components located in ${seconds.toFixed(2)} s (${result.raysTraced} rays, ${workers} workers)\n`);
         return;
@@ -89,14 +95,26 @@ export function register(program: Command): void {
       const radii = certify ? certifyListing(period, rows, digits) : null;
       if (out !== null) {
         const head = radii === null ? HEADER : [...HEADER, 'certified_radius'];
-        await writeTableFile(out, head.map((name) => ({ name, type: COLUMN_TYPES[name] ?? 'string' })), rows.map((r, i) => (radii === null ? flat(r) : [...flat(r), radii[i]!])));
+        await writeTableFile(
+          out,
+          head.map((name) => ({ name, type: COLUMN_TYPES[name] ?? 'string' })),
+          rows.map((r, i) => (radii === null ? flat(r) : [...flat(r), radii[i]!])),
+        );
         process.stderr.write(`quadatlas: wrote ${out} (${rows.length} rows)\n`);
         return;
       }
-      if (o['json'] === true) process.stdout.write(`${JSON.stringify(rows.map((r, i) => (radii === null ? componentJson(r) : { ...componentJson(r), certifiedRadius: radii[i] })), null, 2)}\n`);
+      if (o['json'] === true)
+        process.stdout.write(
+          `${JSON.stringify(
+            rows.map((r, i) => (radii === null ? componentJson(r) : { ...componentJson(r), certifiedRadius: radii[i] })),
+            null,
+            2,
+          )}\n`,
+        );
       else if (o['csv'] === true) process.stdout.write(toCsv(rows, radii));
       else process.stdout.write(toTable(rows, radii));
-    });
+    },
+  );
 }
 
 function inBox(c: CensusComponent, b: { re0: number; im0: number; re1: number; im1: number }): boolean {
@@ -108,7 +126,21 @@ function inBox(c: CensusComponent, b: { re0: number; im0: number; re1: number; i
 /** Parquet and JSON column types of the listing (the others are strings: decimals kept as printed, exact fractions). */
 const COLUMN_TYPES: Record<string, ColumnType> = { period: 'int', size: 'double', orientation_deg: 'double', parent_period: 'int' };
 
-const HEADER = ['period', 'nucleus_re', 'nucleus_im', 'root_re', 'root_im', 'size', 'orientation_deg', 'shape', 'parent_period', 'internal_angle', 'angle_lo', 'angle_hi', 'address'];
+const HEADER = [
+  'period',
+  'nucleus_re',
+  'nucleus_im',
+  'root_re',
+  'root_im',
+  'size',
+  'orientation_deg',
+  'shape',
+  'parent_period',
+  'internal_angle',
+  'angle_lo',
+  'angle_hi',
+  'address',
+];
 
 function flat(r: ComponentInfo): string[] {
   const j = componentJson(r);
@@ -139,5 +171,14 @@ function toTable(rows: ComponentInfo[], radii: readonly string[] | null): string
   const head = radii === null ? HEADER : [...HEADER, 'certified_radius'];
   const cells = [head, ...rows.map((r, i) => (radii === null ? flat(r) : [...flat(r), radii[i]!]))];
   const widths = head.map((_, i) => Math.max(...cells.map((r) => (r[i] ?? '').length)));
-  return cells.map((r) => r.map((v, i) => v.padEnd(widths[i] ?? 0)).join('  ').trimEnd()).join('\n') + '\n';
+  return (
+    cells
+      .map((r) =>
+        r
+          .map((v, i) => v.padEnd(widths[i] ?? 0))
+          .join('  ')
+          .trimEnd(),
+      )
+      .join('\n') + '\n'
+  );
 }

@@ -62,7 +62,14 @@ export function parseFigureSheet(input: Record<string, unknown>, name: string): 
     if (typeof rIn !== 'string') throw new UserError('r', 'one parameter as a string, e.g. "3.83"', rIn);
     values['r'] = rIn;
   }
-  for (const [key, v] of [['family', text('family')], ['x0', text('x0')], ['iterations', int('iterations')], ['transient', int('transient')], ['iterate', int('iterate')]] as const) if (v !== undefined) values[key] = v;
+  for (const [key, v] of [
+    ['family', text('family')],
+    ['x0', text('x0')],
+    ['iterations', int('iterations')],
+    ['transient', int('transient')],
+    ['iterate', int('iterate')],
+  ] as const)
+    if (v !== undefined) values[key] = v;
   if (kind === 'section-cobweb' && values['transient'] !== undefined) throw new UserError('transient', 'no transient on a cobweb (the staircase starts at x0)', raw['transient']);
   if (kind === 'section-orbit' && values['iterate'] !== undefined) throw new UserError('iterate', 'no iterate on an orbit figure', raw['iterate']);
   const out = raw['output'] ?? {};

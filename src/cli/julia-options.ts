@@ -33,14 +33,35 @@ export const JULIA_OPTIONS: readonly OptionSpec[] = [
       delete s['cardioidAngle'];
     },
   },
-  { flags: '--cardioid-angle <theta>', description: 'c on the main cardioid at internal angle theta: c = m/2 - m^2/4, m = e^(2 pi i theta); s/q or a decimal gives a parabolic c, golden the golden-mean Siegel disk (default: use --c)', apply: (s, v) => void (s['cardioidAngle'] = v.trim()) },
-  { flags: '--basin <style>', description: 'interior colouring: point (the cycle point attracting it), time (attraction time) or point-time (default)', apply: (s, v) => void (s['basin'] = v.trim()) },
-  { flags: '--orbit <n>', description: 'mark the first n points of the critical orbit (default 0: none; sheet marks.orbit)', apply: (s, v) => void (sub(s, 'marks')['orbit'] = /^\s*\d+\s*$/.test(v) ? Number(v) : v) },
+  {
+    flags: '--cardioid-angle <theta>',
+    description:
+      'c on the main cardioid at internal angle theta: c = m/2 - m^2/4, m = e^(2 pi i theta); s/q or a decimal gives a parabolic c, golden the golden-mean Siegel disk (default: use --c)',
+    apply: (s, v) => void (s['cardioidAngle'] = v.trim()),
+  },
+  {
+    flags: '--basin <style>',
+    description: 'interior colouring: point (the cycle point attracting it), time (attraction time) or point-time (default)',
+    apply: (s, v) => void (s['basin'] = v.trim()),
+  },
+  {
+    flags: '--orbit <n>',
+    description: 'mark the first n points of the critical orbit (default 0: none; sheet marks.orbit)',
+    apply: (s, v) => void (sub(s, 'marks')['orbit'] = /^\s*\d+\s*$/.test(v) ? Number(v) : v),
+  },
   { flags: '--cycle', description: 'mark the attracting (or parabolic) cycle (default: not marked; sheet marks.cycle)' },
   { flags: '--fixed-points', description: 'mark the fixed points alpha (red) and beta (blue) (default: not marked; sheet marks.fixedPoints)' },
-  { flags: '--rays <angles>', description: 'draw the dynamic rays of these angles, e.g. 1/7,2/7,4/7 (default: none; sheet marks.rays)', apply: (s, v) => void (sub(s, 'marks')['rays'] = v.split(',').map((a) => a.trim())) },
+  {
+    flags: '--rays <angles>',
+    description: 'draw the dynamic rays of these angles, e.g. 1/7,2/7,4/7 (default: none; sheet marks.rays)',
+    apply: (s, v) => void (sub(s, 'marks')['rays'] = v.split(',').map((a) => a.trim())),
+  },
   ...PLATE_OPTIONS.filter((o) => !REFUSED.has(o.flags) && !FIGURE_FLAGS.has(o.flags)).map((o) =>
-    o.flags.startsWith('--center') ? { ...o, description: 'centre of the view in z as two decimal numbers (default 0,0)' } : o.flags.startsWith('--span') ? { ...o, description: 'width of the view in z units (default 4)' } : o,
+    o.flags.startsWith('--center')
+      ? { ...o, description: 'centre of the view in z as two decimal numbers (default 0,0)' }
+      : o.flags.startsWith('--span')
+        ? { ...o, description: 'width of the view in z units (default 4)' }
+        : o,
   ),
   ...[...REFUSED].map((flags) => ({ flags, description: 'not on Julia plates: refused in one line (default: absent)' })),
 ];

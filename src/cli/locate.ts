@@ -38,18 +38,22 @@ export const LOCATE_OPTIONS: readonly OptionSpec[] = [
   { flags: '--near <re,im>', description: 'start point for Newton in c, RE,IM as decimals (default: none)' },
   { flags: '--angle <a/b>', description: 'a rational external angle in turns, 0 <= a < b: land its ray (default: none)' },
   { flags: '--address <1-2-4>', description: 'an internal address, increasing periods from 1 (default: none)' },
-  { flags: '--tune <outer-inner...>', description: 'two components OUTER INNER, each an angle pair (1/3,2/3) or an internal address (1-2): the copy of INNER inside OUTER, by Douady-Hubbard tuning (default: none)' },
+  {
+    flags: '--tune <outer-inner...>',
+    description: 'two components OUTER INNER, each an angle pair (1/3,2/3) or an internal address (1-2): the copy of INNER inside OUTER, by Douady-Hubbard tuning (default: none)',
+  },
   { flags: '--digits <digits>', description: 'digits after the decimal point; sizes to D significant digits (at most 17)', default: '30' },
   { flags: '--certify', description: 'prove the nucleus and the root, disks holding exactly one solution each (default: computed, not proved)' },
   { flags: '--json', description: 'JSON output (default: aligned text)' },
 ];
 
 export function register(program: Command): void {
-  addOptions(program.command('locate').description('Newton to one nucleus of period P from a guess, an external angle or an internal address'), LOCATE_OPTIONS)
-    .action(async (o: Record<string, unknown>) => {
+  addOptions(program.command('locate').description('Newton to one nucleus of period P from a guess, an external angle or an internal address'), LOCATE_OPTIONS).action(
+    async (o: Record<string, unknown>) => {
       const digits = parseInteger(o['digits'], '--digits', 1, 5000);
       const given = ['near', 'angle', 'address', 'tune'].filter((k) => o[k] !== undefined);
-      if (given.length !== 1) throw new UserError('locate', 'exactly one of --near, --angle, --address or --tune', given.length === 0 ? 'none' : given.map((g) => `--${g}`).join(' '));
+      if (given.length !== 1)
+        throw new UserError('locate', 'exactly one of --near, --angle, --address or --tune', given.length === 0 ? 'none' : given.map((g) => `--${g}`).join(' '));
       const period = o['period'] === undefined ? null : parseInteger(o['period'], '--period', 1, 100_000);
       let out: Record<string, unknown>;
       let lines: string[];
@@ -88,7 +92,12 @@ export function register(program: Command): void {
         const outer = parseComponent(names[0]!, '--tune OUTER');
         const inner = parseComponent(names[1]!, '--tune INNER');
         const tuned = tune(outer, inner);
-        if (tuned.period > MAX_ANGLE_PERIOD) throw new UserError('--tune', `two components whose periods multiply to at most ${MAX_ANGLE_PERIOD} (the ray is traced in double-double precision)`, `periods ${outer.period} and ${inner.period}`);
+        if (tuned.period > MAX_ANGLE_PERIOD)
+          throw new UserError(
+            '--tune',
+            `two components whose periods multiply to at most ${MAX_ANGLE_PERIOD} (the ray is traced in double-double precision)`,
+            `periods ${outer.period} and ${inner.period}`,
+          );
         if (period !== null && period !== tuned.period) throw new UserError('--period', `the product of the two periods (${tuned.period})`, period);
         const info = await landAngle(tuned.lo, tuned.period, digits, [tuned.lo, tuned.hi]);
         const tuning = { outer: componentName(outer), inner: componentName(inner), words: tuned.words, angles: [angleText(tuned.lo), angleText(tuned.hi)] };
@@ -142,7 +151,8 @@ export function register(program: Command): void {
         lines.push(`julia command     ${String(out['juliaCommand'])}`);
       }
       process.stdout.write(o['json'] === true ? `${JSON.stringify(out, null, 2)}\n` : `${lines.join('\n')}\n`);
-    });
+    },
+  );
 }
 
 function toAngle(n: number, den: number): Angle {

@@ -69,7 +69,13 @@ async function buildProgram(wanted: string | undefined, write: { out: (s: string
       writeOut: write.out,
       writeErr: write.err,
       // commander's own errors (unknown flag, missing value) in the one message style: one line, prefixed.
-      outputError: (text, w) => w(`${text.startsWith('quadatlas:') ? '' : 'quadatlas: '}${text.replace(/^error: /, '').trim().replace(/\s*\n\s*/g, ' ')}\n`),
+      outputError: (text, w) =>
+        w(
+          `${text.startsWith('quadatlas:') ? '' : 'quadatlas: '}${text
+            .replace(/^error: /, '')
+            .trim()
+            .replace(/\s*\n\s*/g, ' ')}\n`,
+        ),
     });
   for (const [name, summary, load] of COMMANDS) {
     if (name === wanted) (await load()).register(program);
@@ -167,7 +173,10 @@ let stopping = false;
  * killed process) and exits with 128 + the signal number.
  */
 function removeTempsOnSignal(): void {
-  for (const [signal, code] of [['SIGINT', 130], ['SIGTERM', 143]] as const) {
+  for (const [signal, code] of [
+    ['SIGINT', 130],
+    ['SIGTERM', 143],
+  ] as const) {
     process.on(signal, () => {
       if (stopping) return;
       stopping = true;

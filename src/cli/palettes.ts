@@ -63,20 +63,29 @@ export const PALETTES_OPTIONS: readonly OptionSpec[] = [
 ];
 
 export function register(program: Command): void {
-  addOptions(program.command('palettes').description('list and show the exterior gradients, interior styles and period colours'), PALETTES_OPTIONS)
-    .action(async (values: { outDir?: string; gradient?: string; json?: boolean }) => {
+  addOptions(program.command('palettes').description('list and show the exterior gradients, interior styles and period colours'), PALETTES_OPTIONS).action(
+    async (values: { outDir?: string; gradient?: string; json?: boolean }) => {
       let custom: GradientStop[] | null = null;
       if (values.gradient !== undefined) {
         let text: string;
         try {
           text = readFileSync(values.gradient, 'utf8');
         } catch (err) {
-          throw new UserError('--gradient', 'a readable file of colour stops (JSON or CSV)', new Received(`${values.gradient} (${(err as NodeJS.ErrnoException).code ?? 'unreadable'})`));
+          throw new UserError(
+            '--gradient',
+            'a readable file of colour stops (JSON or CSV)',
+            new Received(`${values.gradient} (${(err as NodeJS.ErrnoException).code ?? 'unreadable'})`),
+          );
         }
         custom = gradientStopsFromText(text, values.gradient, '--gradient');
       }
       const listing = {
-        exterior: EXTERIOR_GRADIENT_NAMES.map((name) => ({ name, default: name === DEFAULT_COLOUR_SETTINGS.exterior, note: EXTERIOR_GRADIENT_NOTES[name], stops: namedStops(name) })),
+        exterior: EXTERIOR_GRADIENT_NAMES.map((name) => ({
+          name,
+          default: name === DEFAULT_COLOUR_SETTINGS.exterior,
+          note: EXTERIOR_GRADIENT_NOTES[name],
+          stops: namedStops(name),
+        })),
         ...(custom === null ? {} : { gradient: custom }),
         interior: INTERIOR_STYLES.map((name) => ({ name, default: name === DEFAULT_COLOUR_SETTINGS.interior, note: INTERIOR_STYLE_NOTES[name] })),
         periods: Array.from({ length: PALETTE_PERIODS }, (_, i) => ({ period: i + 1, colour: periodHex(i + 1) })),
@@ -118,13 +127,21 @@ export function register(program: Command): void {
         }
         lines.push('interior styles (--interior STYLE, colour.interior):');
         for (const s of listing.interior) lines.push(`  ${s.name.padEnd(19)} ${s.note}${s.default ? ' (default)' : ''}`);
-        lines.push(`period colours 1..${PALETTE_PERIODS} (cycling every 64; 1..12 stay apart for protanopia, deuteranopia and tritanopia, 1..${PERIOD_GREYSCALE_DISTINCT} in greyscale):`);
+        lines.push(
+          `period colours 1..${PALETTE_PERIODS} (cycling every 64; 1..12 stay apart for protanopia, deuteranopia and tritanopia, 1..${PERIOD_GREYSCALE_DISTINCT} in greyscale):`,
+        );
         for (let row = 0; row < PALETTE_PERIODS; row += 8) {
-          lines.push(`  ${listing.periods.slice(row, row + 8).map((p) => `${String(p.period).padStart(2)} ${p.colour}`).join('  ')}`);
+          lines.push(
+            `  ${listing.periods
+              .slice(row, row + 8)
+              .map((p) => `${String(p.period).padStart(2)} ${p.colour}`)
+              .join('  ')}`,
+          );
         }
         if (colour) lines.push(`  ${blocks((i) => periodHex(i + 1), PALETTE_PERIODS)}`);
         process.stdout.write(`${lines.join('\n')}\n`);
         if (written.length > 0) process.stderr.write(`wrote ${written.join(', ')}\n`);
       }
-    });
+    },
+  );
 }

@@ -44,33 +44,30 @@ async function load(e: Entry): Promise<Sheet | JuliaSheet | FigureSheet> {
   return parseSheet(raw, e.name);
 }
 
-export const PRESETS_LIST_OPTIONS: readonly OptionSpec[] = [
-  { flags: '--json', description: 'print the list as JSON (default: aligned text)' },
-];
+export const PRESETS_LIST_OPTIONS: readonly OptionSpec[] = [{ flags: '--json', description: 'print the list as JSON (default: aligned text)' }];
 
 export const PRESETS_RENDER_OPTIONS: readonly OptionSpec[] = [
-  { flags: '--out-dir <dir>', description: 'write into this directory instead of the sheets\' own paths (default: each sheet\'s output.file)' },
+  { flags: '--out-dir <dir>', description: "write into this directory instead of the sheets' own paths (default: each sheet's output.file)" },
   { flags: '--all', description: 'render every preset (default: only those marked startup)' },
   { flags: '--workers <n>', description: 'worker threads, never changes the output (default: one per core)' },
 ];
 
 export function register(program: Command): void {
   const presets = program.command('presets').description('list, show, check and render the sheets in presets/');
-  addOptions(presets.command('list').description('one line per preset: name, size, title'), PRESETS_LIST_OPTIONS)
-    .action(async (opts: { json?: boolean }) => {
-      const rows = [];
-      for (const e of await entries()) {
-        const s = await load(e);
-        rows.push({ name: e.name, kind: 'kind' in s ? s.kind : 'plate', width: s.width, height: s.height, startup: s.startup, title: s.title });
-      }
-      if (opts.json) {
-        process.stdout.write(`${JSON.stringify(rows, null, 2)}\n`);
-        return;
-      }
-      const w = Math.max(...rows.map((r) => r.name.length));
-      for (const r of rows) process.stdout.write(`${r.name.padEnd(w)}  ${`${r.width}x${r.height}`.padEnd(11)} ${r.startup ? '*' : ' '} ${r.title}\n`);
-      process.stdout.write('(* rendered by `npm start`)\n');
-    });
+  addOptions(presets.command('list').description('one line per preset: name, size, title'), PRESETS_LIST_OPTIONS).action(async (opts: { json?: boolean }) => {
+    const rows = [];
+    for (const e of await entries()) {
+      const s = await load(e);
+      rows.push({ name: e.name, kind: 'kind' in s ? s.kind : 'plate', width: s.width, height: s.height, startup: s.startup, title: s.title });
+    }
+    if (opts.json) {
+      process.stdout.write(`${JSON.stringify(rows, null, 2)}\n`);
+      return;
+    }
+    const w = Math.max(...rows.map((r) => r.name.length));
+    for (const r of rows) process.stdout.write(`${r.name.padEnd(w)}  ${`${r.width}x${r.height}`.padEnd(11)} ${r.startup ? '*' : ' '} ${r.title}\n`);
+    process.stdout.write('(* rendered by `npm start`)\n');
+  });
   presets
     .command('show <name>')
     .description('print a preset as a complete sheet, every default filled in (it renders to the same bytes)')
@@ -97,8 +94,8 @@ export function register(program: Command): void {
       }
       if (bad > 0) process.exitCode = 2;
     });
-  addOptions(presets.command('render [names...]').description('render presets (default: those marked startup) into their output files'), PRESETS_RENDER_OPTIONS)
-    .action(async (names: string[], opts: { outDir?: string; all?: boolean; workers?: string }) => {
+  addOptions(presets.command('render [names...]').description('render presets (default: those marked startup) into their output files'), PRESETS_RENDER_OPTIONS).action(
+    async (names: string[], opts: { outDir?: string; all?: boolean; workers?: string }) => {
       const all = await entries();
       let chosen: Entry[];
       if (names.length > 0) chosen = await Promise.all(names.map(find));
@@ -114,7 +111,8 @@ export function register(program: Command): void {
         if (opts.outDir !== undefined) {
           const outDir = opts.outDir;
           const rebase = (p: string): string => path.join(outDir, path.basename(p));
-          const moved = <T extends { readonly output: { readonly file: string; readonly data: string | null } }>(s: T): T => ({ ...s, output: { ...s.output, file: rebase(s.output.file), data: s.output.data === null ? null : rebase(s.output.data) } }) as T;
+          const moved = <T extends { readonly output: { readonly file: string; readonly data: string | null } }>(s: T): T =>
+            ({ ...s, output: { ...s.output, file: rebase(s.output.file), data: s.output.data === null ? null : rebase(s.output.data) } }) as T;
           sheet = moved(sheet);
         }
         if ('values' in sheet) {
@@ -126,5 +124,6 @@ export function register(program: Command): void {
         const summary = 'kind' in sheet ? await renderJuliaSheet(sheet, options) : await renderSheet(sheet, options);
         reportWrote(summary.files, summary.seconds);
       }
-    });
+    },
+  );
 }

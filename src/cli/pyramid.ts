@@ -91,7 +91,11 @@ function checkDouble(s: PyramidSetup): void {
     const g = s.baseGrid;
     const reach = Math.max(1, Math.abs(g.centerRe), Math.abs(g.centerIm));
     const minSpan = s.sheet.width * DOUBLE_MIN_RELATIVE_SPACING * reach;
-    throw new UserError('view.span', `a span of at least ${minSpan.toPrecision(3)} at this base width for double arithmetic (leave arithmetic at auto for deeper views)`, s.sheet.view.span);
+    throw new UserError(
+      'view.span',
+      `a span of at least ${minSpan.toPrecision(3)} at this base width for double arithmetic (leave arithmetic at auto for deeper views)`,
+      s.sheet.view.span,
+    );
   }
 }
 
@@ -121,7 +125,11 @@ async function finish(dir: string, setup: PyramidSetup, baseUrl: string | undefi
   const { plan, spec, sheet } = setup;
   const check = await checkTileTree(dir, plan, spec.format);
   if (check.missing > 0) {
-    throw new UserError('--finish', 'a pyramid folder holding every tile (run the missing shards, or rerun to resume)', new Received(`${dir} (${check.missing} of ${plan.tileCount} tiles missing, e.g. ${check.firstMissing})`));
+    throw new UserError(
+      '--finish',
+      'a pyramid folder holding every tile (run the missing shards, or rerun to resume)',
+      new Received(`${dir} (${check.missing} of ${plan.tileCount} tiles missing, e.g. ${check.firstMissing})`),
+    );
   }
   const id = baseUrl !== undefined ? `${baseUrl.replace(/\/+$/, '')}/${TILES_FOLDER}` : pathToFileURL(path.resolve(dir, TILES_FOLDER)).href;
   await writeIiifInfo(dir, iiifInfo(plan, id, spec.format));
@@ -199,7 +207,19 @@ export async function runPyramid(sheetFile: string | undefined, values: Record<s
     if (!sameSpec(recorded, spec)) throw new UserError('--out-dir', 'a folder holding the pyramid of this sheet', new Received(`${dir} (holds a different pyramid)`));
     const f = await finish(dir, setup, baseUrl);
     const s = seconds();
-    return { ...base, mode: 'finish', shard: null, tiles: { total: plan.tileCount, share: 0, rendered: 0, skipped: 0, missing: 0 }, bytesWritten: 0, finished: true, seconds: s, tilesPerSecond: 0, peakMemoryMiB: peak(), info: f.info, viewer: f.viewer };
+    return {
+      ...base,
+      mode: 'finish',
+      shard: null,
+      tiles: { total: plan.tileCount, share: 0, rendered: 0, skipped: 0, missing: 0 },
+      bytesWritten: 0,
+      finished: true,
+      seconds: s,
+      tilesPerSecond: 0,
+      peakMemoryMiB: peak(),
+      info: f.info,
+      viewer: f.viewer,
+    };
   }
 
   // Disk: all levels' pixels (4/3 of the base) at a guessed compression (PNG 1/4, JPEG 1/10 of raw).
@@ -222,7 +242,15 @@ export async function runPyramid(sheetFile: string | undefined, values: Record<s
     const progress = createProgress('pyramid (queue)');
     let r;
     try {
-      r = await enqueueAndWait({ target, dir, key, indices: todo, tileCount: plan.tileCount, onDisk: async (t) => (await tileFileSize(path.join(dir, TILES_FOLDER, iiifTilePath(plan, pyramidTileAt(plan, t), spec.format)))) > 0, onProgress: (d, t) => progress.update(d, t) });
+      r = await enqueueAndWait({
+        target,
+        dir,
+        key,
+        indices: todo,
+        tileCount: plan.tileCount,
+        onDisk: async (t) => (await tileFileSize(path.join(dir, TILES_FOLDER, iiifTilePath(plan, pyramidTileAt(plan, t), spec.format)))) > 0,
+        onProgress: (d, t) => progress.update(d, t),
+      });
     } finally {
       progress.end();
     }
@@ -276,7 +304,13 @@ export async function runPyramid(sheetFile: string | undefined, values: Record<s
     ...base,
     mode: shard === null ? 'local' : 'shard',
     shard: shard === null ? null : `${shard.index}/${shard.count}`,
-    tiles: { total: plan.tileCount, share: shareSize(plan.tileCount, shard ?? { index: 0, count: 1 }), rendered: result.rendered, skipped: result.skipped, missing: f === undefined ? null : 0 },
+    tiles: {
+      total: plan.tileCount,
+      share: shareSize(plan.tileCount, shard ?? { index: 0, count: 1 }),
+      rendered: result.rendered,
+      skipped: result.skipped,
+      missing: f === undefined ? null : 0,
+    },
     bytesWritten: result.bytes,
     finished: f !== undefined,
     seconds: s,
@@ -303,8 +337,12 @@ export function register(program: Command): void {
     const summary = await runPyramid(sheetFile, values);
     if (values['json'] === true) process.stdout.write(`${JSON.stringify(summary, null, 2)}\n`);
     else {
-      if (summary.finished) reportWrote([summary.dir, ...(summary.viewer === undefined ? [] : [summary.viewer])], summary.seconds, `${summary.tiles.total} tiles in ${summary.levels} levels`);
-      else process.stderr.write(`quadatlas: rendered shard ${summary.shard} (${summary.tiles.rendered} tiles, ${summary.tiles.skipped} already there; ${summary.tiles.total} tiles in ${summary.levels} levels, ${summary.seconds.toFixed(1)} s)\n`);
+      if (summary.finished)
+        reportWrote([summary.dir, ...(summary.viewer === undefined ? [] : [summary.viewer])], summary.seconds, `${summary.tiles.total} tiles in ${summary.levels} levels`);
+      else
+        process.stderr.write(
+          `quadatlas: rendered shard ${summary.shard} (${summary.tiles.rendered} tiles, ${summary.tiles.skipped} already there; ${summary.tiles.total} tiles in ${summary.levels} levels, ${summary.seconds.toFixed(1)} s)\n`,
+        );
     }
   });
 }

@@ -30,7 +30,9 @@ export function quickSheet<T extends Sheet>(sheet: T): T {
   if (size === null && samples === sheet.samples) return sheet;
   const { width, height } = size ?? sheet;
   const dpi = Math.max(1, Math.round((sheet.dpi * width) / sheet.width));
-  process.stderr.write(`quadatlas: note: QUADATLAS_QUICK is set: rendering ${width}x${height} at ${samples} samples instead of ${sheet.width}x${sheet.height} at ${sheet.samples}\n`);
+  process.stderr.write(
+    `quadatlas: note: QUADATLAS_QUICK is set: rendering ${width}x${height} at ${samples} samples instead of ${sheet.width}x${sheet.height} at ${sheet.samples}\n`,
+  );
   return { ...sheet, width, height, samples, dpi };
 }
 

@@ -18,7 +18,15 @@ import { registerOrbitCommands } from './section/orbit.js';
 export function register(program: Command): void {
   const section = program.command('section').description('the real slice: convert, cascade, windows, lyapunov, diagram, compare, orbit, cobweb, constants, universality, entropy');
   // commander's own errors (unknown flag, missing value) in the one message style: one line, prefixed.
-  section.configureOutput({ outputError: (text, write) => write(`${text.startsWith('quadatlas:') ? '' : 'quadatlas: '}${text.replace(/^error: /, '').trim().replace(/\s*\n\s*/g, ' ')}\n`) });
+  section.configureOutput({
+    outputError: (text, write) =>
+      write(
+        `${text.startsWith('quadatlas:') ? '' : 'quadatlas: '}${text
+          .replace(/^error: /, '')
+          .trim()
+          .replace(/\s*\n\s*/g, ' ')}\n`,
+      ),
+  });
   registerConvert(section);
   registerCascade(section);
   registerWindows(section);

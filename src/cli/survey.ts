@@ -22,7 +22,7 @@ export const SURVEY_OPTIONS: readonly OptionSpec[] = [
   { flags: '--host <address>', description: 'address to listen on; anything but loopback also needs --allow-remote', default: '127.0.0.1' },
   { flags: '--allow-remote', description: 'allow a --host that is not loopback: anyone who reaches it and holds the printed address can use the page (default: off)' },
   { flags: '--open', description: 'open the page in the default browser (default: off)' },
-  { flags: '--out-dir <dir>', description: 'folder the page\'s Print button writes into (the server names the files)', default: 'out' },
+  { flags: '--out-dir <dir>', description: "folder the page's Print button writes into (the server names the files)", default: 'out' },
   { flags: '--workers <n>', description: 'tile workers (default: one per core)' },
   { flags: '--cache <mib>', description: 'memory for rendered tiles, in MiB', default: '64' },
 ];
@@ -59,13 +59,17 @@ export function register(program: Command): void {
     const raw = sheetFile === undefined ? { iterations: 'auto', samples: 4 } : await readSheetFile(sheetFile);
     delete raw['startup'];
     const base = surveyBase(parseSheet(raw, sheetFile === undefined ? 'survey' : sheetName(sheetFile)));
-    if (remote) process.stderr.write(`quadatlas: warning: listening on ${host}, not loopback: anyone who can reach it and has the address printed below can use the page and print into ${String(values['outDir'])}\n`);
+    if (remote)
+      process.stderr.write(
+        `quadatlas: warning: listening on ${host}, not loopback: anyone who can reach it and has the address printed below can use the page and print into ${String(values['outDir'])}\n`,
+      );
     let server;
     try {
       server = await startSurvey({ host, port, base, outDir: String(values['outDir']), workers, cacheBytes: cacheMiB * 1024 * 1024 });
     } catch (err) {
       const code = (err as NodeJS.ErrnoException).code;
-      if (code === 'EADDRINUSE' || code === 'EACCES' || code === 'EADDRNOTAVAIL') throw new UserError('--port', `a port free to listen on at ${host}`, new Received(`${port} (${code})`));
+      if (code === 'EADDRINUSE' || code === 'EACCES' || code === 'EADDRNOTAVAIL')
+        throw new UserError('--port', `a port free to listen on at ${host}`, new Received(`${port} (${code})`));
       throw err;
     }
     process.stdout.write(`${server.url}\n`);

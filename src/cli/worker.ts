@@ -29,7 +29,14 @@ export const WORKER_OPTIONS: readonly OptionSpec[] = [
  */
 function failOnce(): Set<number> {
   const v = process.env['QUADATLAS_FAIL_ONCE'];
-  return new Set(v === undefined ? [] : v.split(',').filter((x) => x.trim() !== '').map(Number));
+  return new Set(
+    v === undefined
+      ? []
+      : v
+          .split(',')
+          .filter((x) => x.trim() !== '')
+          .map(Number),
+  );
 }
 
 export async function runWorker(values: Record<string, unknown>): Promise<Record<string, unknown>> {

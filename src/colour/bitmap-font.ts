@@ -28,7 +28,6 @@ const GLYPHS: Readonly<Record<string, readonly string[]>> = {
   ' ': ['.....', '.....', '.....', '.....', '.....', '.....', '.....'],
 };
 
-
 /** Characters the font can draw. */
 export const FONT_CHARACTERS = Object.keys(GLYPHS).join('');
 

@@ -144,4 +144,3 @@ export function buildPeriodPalette(): { lab: Float64Array; linear: Float64Array 
   }
   return { lab, linear };
 }
-

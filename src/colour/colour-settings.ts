@@ -148,11 +148,7 @@ function oneOf<T extends string>(v: unknown, options: readonly T[], field: strin
 }
 
 function numberIn(v: unknown, field: string, min: number, max: number, minOpen: boolean, maxOpen: boolean): number {
-  const ok =
-    typeof v === 'number' &&
-    Number.isFinite(v) &&
-    (minOpen ? v > min : v >= min) &&
-    (maxOpen ? v < max : v <= max);
+  const ok = typeof v === 'number' && Number.isFinite(v) && (minOpen ? v > min : v >= min) && (maxOpen ? v < max : v <= max);
   if (!ok) {
     const range = `${minOpen ? '(' : '['}${min}, ${max}${maxOpen ? ')' : ']'}`;
     throw new UserError(field, `a number in ${range}`, v);

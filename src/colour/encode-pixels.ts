@@ -76,15 +76,7 @@ export function srgbEstimate(v: number): number {
  * NaN input encodes as 0. The result equals encoding with the exact curve
  * (linearToSrgb) channel for channel; the table above only saves time.
  */
-export function encodePixels(
-  linear: Float64Array,
-  width: number,
-  rows: number,
-  x0: number,
-  y0: number,
-  depth: 8 | 16,
-  out: Uint8Array | Uint16Array,
-): void {
+export function encodePixels(linear: Float64Array, width: number, rows: number, x0: number, y0: number, depth: 8 | 16, out: Uint8Array | Uint16Array): void {
   const max = depth === 16 ? 65535 : 255;
   const slack = TABLE_ERROR * max;
   for (let j = 0; j < rows; j++) {

@@ -58,7 +58,6 @@ export interface Legend {
   readonly rgba: Float64Array;
 }
 
-
 /** The integer scale that gives a cap height near LEGEND_CAP_MM at this dpi (>= 1). */
 export function legendScale(dpi: number): number {
   const capPixels = (LEGEND_CAP_MM / 25.4) * dpi;
@@ -194,8 +193,7 @@ export function layoutLegend(settings: ColourSettings, plateWidth: number, plate
     for (let g = 0; g < s.length; g++) {
       const rows = glyph(s[g]!);
       for (let r = 0; r < GLYPH_H; r++)
-        for (let col = 0; col < GLYPH_W; col++)
-          if (rows[r]![col] === '#') fill((cx + g * (GLYPH_W + 1) + col) * scale, (cy + r) * scale, scale, scale, ink);
+        for (let col = 0; col < GLYPH_W; col++) if (rows[r]![col] === '#') fill((cx + g * (GLYPH_W + 1) + col) * scale, (cy + r) * scale, scale, scale, ink);
     }
   };
 

@@ -20,7 +20,8 @@ export interface Stroke {
 }
 
 function segmentDistance(px: number, py: number, ax: number, ay: number, bx: number, by: number): number {
-  const dx = bx - ax, dy = by - ay;
+  const dx = bx - ax,
+    dy = by - ay;
   const len2 = dx * dx + dy * dy;
   let t = len2 > 0 ? ((px - ax) * dx + (py - ay) * dy) / len2 : 0;
   t = t < 0 ? 0 : t > 1 ? 1 : t;
@@ -42,7 +43,8 @@ export function paintStrokes(strokes: readonly Stroke[], x0: number, y0: number,
     const n = s.shape === 'line' ? pts.length / 2 - 1 : 1;
     let touched = false;
     for (let seg = 0; seg < n; seg++) {
-      const ax = pts[2 * seg]!, ay = pts[2 * seg + 1]!;
+      const ax = pts[2 * seg]!,
+        ay = pts[2 * seg + 1]!;
       const bx = s.shape === 'line' ? pts[2 * seg + 2]! : ax;
       const by = s.shape === 'line' ? pts[2 * seg + 3]! : ay;
       const i0 = Math.max(x0, Math.floor(Math.min(ax, bx) - reach - ring));

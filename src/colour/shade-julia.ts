@@ -26,7 +26,16 @@ const TIME_BANDS = 1.6;
  *   ln(1 + tau / P) so the level sets of the attraction time show.
  * Colour style `solid` gives every interior sample `interiorColour`.
  */
-export function shadeJuliaSamples(samples: JuliaSampleSet, offset: number, count: number, pixelSpacing: number, settings: ColourSettings, style: BasinStyle, basinPeriod: number, out: Float64Array): void {
+export function shadeJuliaSamples(
+  samples: JuliaSampleSet,
+  offset: number,
+  count: number,
+  pixelSpacing: number,
+  settings: ColourSettings,
+  style: BasinStyle,
+  basinPeriod: number,
+  out: Float64Array,
+): void {
   shadeSamples(samples, offset, count, pixelSpacing, settings, out);
   const solid = settings.interior === 'solid' ? hexToLinear(settings.interiorColour, new Float64Array(3)) : null;
   const c = new Float64Array(3);

@@ -40,14 +40,7 @@ export function edgeKeep(distance: number, pixelSpacing: number, k: number): num
  * give the same doubles (see oklab.ts on the transcendental functions); each
  * sample is coloured exactly once, in the worker, through this one path.
  */
-export function shadeSamples(
-  samples: SampleSet,
-  offset: number,
-  count: number,
-  pixelSpacing: number,
-  settings: ColourSettings,
-  out: Float64Array,
-): void {
+export function shadeSamples(samples: SampleSet, offset: number, count: number, pixelSpacing: number, settings: ColourSettings, out: Float64Array): void {
   const ink = hexToLinear(settings.edgeColour, new Float64Array(3));
   const solid = hexToLinear(settings.interiorColour, new Float64Array(3));
   const undecided = hexToLinear(settings.undecidedColour, new Float64Array(3));

@@ -51,12 +51,7 @@ export interface BoundaryPointFixed {
   scale: FixedScale;
 }
 
-export function findBoundaryPointFixed(
-  period: number,
-  nucleus: ComplexDecimal,
-  multiplier: { re: number; im: number },
-  digits: number,
-): BoundaryPointFixed {
+export function findBoundaryPointFixed(period: number, nucleus: ComplexDecimal, multiplier: { re: number; im: number }, digits: number): BoundaryPointFixed {
   return componentPoint(period, nucleus, multiplier, digits).result;
 }
 
@@ -119,12 +114,7 @@ export function unitRoot(num: number, den: number, s: FixedScale): FixedComplex 
   return u;
 }
 
-function componentPoint(
-  period: number,
-  nucleus: ComplexDecimal,
-  multiplier: Multiplier,
-  digits: number,
-): { result: BoundaryPointFixed; parent: Attachment | null } {
+function componentPoint(period: number, nucleus: ComplexDecimal, multiplier: Multiplier, digits: number): { result: BoundaryPointFixed; parent: Attachment | null } {
   if ('re' in multiplier && (!Number.isFinite(multiplier.re) || !Number.isFinite(multiplier.im))) {
     throw new NewtonError('multiplier', 'a finite complex multiplier', multiplier, 'not finite');
   }
@@ -327,8 +317,16 @@ function multiplierDouble(m: Multiplier, fraction: number): { re: number; im: nu
 function solveDouble(period: number, w: { re: number; im: number }, b: { re: number; im: number }, t: { re: number; im: number }, maxSteps: number): boolean {
   let close = 0;
   for (let step = 0; step < maxSteps; step += 1) {
-    let zr = w.re, zi = w.im;
-    let dzr = 1, dzi = 0, dcr = 0, dci = 0, dzzr = 0, dzzi = 0, dczr = 0, dczi = 0;
+    let zr = w.re,
+      zi = w.im;
+    let dzr = 1,
+      dzi = 0,
+      dcr = 0,
+      dci = 0,
+      dzzr = 0,
+      dzzi = 0,
+      dczr = 0,
+      dczi = 0;
     for (let k = 0; k < period; k += 1) {
       // dcz <- 2 (z dcz + dc dz); dzz <- 2 (z dzz + dz^2); dc <- 2 z dc + 1; dz <- 2 z dz; z <- z^2 + b
       const ndczr = 2 * (zr * dczr - zi * dczi + dcr * dzr - dci * dzi);
@@ -341,12 +339,24 @@ function solveDouble(period: number, w: { re: number; im: number }, b: { re: num
       const ndzi = 2 * (zr * dzi + zi * dzr);
       const nzr = zr * zr - zi * zi + b.re;
       const nzi = 2 * zr * zi + b.im;
-      dczr = ndczr; dczi = ndczi; dzzr = ndzzr; dzzi = ndzzi; dcr = ndcr; dci = ndci; dzr = ndzr; dzi = ndzi; zr = nzr; zi = nzi;
+      dczr = ndczr;
+      dczi = ndczi;
+      dzzr = ndzzr;
+      dzzi = ndzzi;
+      dcr = ndcr;
+      dci = ndci;
+      dzr = ndzr;
+      dzi = ndzi;
+      zr = nzr;
+      zi = nzi;
       if (!(Math.abs(zr) + Math.abs(zi) < 1e8)) return false;
     }
-    const f1r = zr - w.re, f1i = zi - w.im;
-    const f2r = dzr - t.re, f2i = dzi - t.im;
-    const mr = dzr - 1, mi = dzi;
+    const f1r = zr - w.re,
+      f1i = zi - w.im;
+    const f2r = dzr - t.re,
+      f2i = dzi - t.im;
+    const mr = dzr - 1,
+      mi = dzi;
     // det = (dz - 1) dcz - dc dzz
     const detr = mr * dczr - mi * dczi - (dcr * dzzr - dci * dzzi);
     const deti = mr * dczi + mi * dczr - (dcr * dzzi + dci * dzzr);
@@ -357,8 +367,10 @@ function solveDouble(period: number, w: { re: number; im: number }, b: { re: num
     const nbi = mr * f2i + mi * f2r - (dzzr * f1i + dzzi * f1r);
     const nwr = dczr * f1r - dczi * f1i - (dcr * f2r - dci * f2i);
     const nwi = dczr * f1i + dczi * f1r - (dcr * f2i + dci * f2r);
-    const dbr = (nbr * detr + nbi * deti) / d2, dbi = (nbi * detr - nbr * deti) / d2;
-    const dwr = (nwr * detr + nwi * deti) / d2, dwi = (nwi * detr - nwr * deti) / d2;
+    const dbr = (nbr * detr + nbi * deti) / d2,
+      dbi = (nbi * detr - nbr * deti) / d2;
+    const dwr = (nwr * detr + nwi * deti) / d2,
+      dwi = (nwi * detr - nwr * deti) / d2;
     if (!Number.isFinite(dbr + dbi + dwr + dwi)) return false;
     b.re -= dbr;
     b.im -= dbi;

@@ -121,12 +121,7 @@ function countLost(records: Float64Array): number {
  * `components()` builds the component list (kept lazy: the census calls this
  * again after re-landing suspects).
  */
-export function distinctNuclei(
-  period: number,
-  lo: Float64Array,
-  hi: Float64Array,
-  rec: Float64Array,
-): { components: () => CensusComponent[]; suspects: number[] } {
+export function distinctNuclei(period: number, lo: Float64Array, hi: Float64Array, rec: Float64Array): { components: () => CensusComponent[]; suspects: number[] } {
   const den = 2 ** period - 1;
   const suspect = new Uint8Array(lo.length);
   // Entries: 2i for pair i, 2i + 1 for its mirror image (absent for real pairs).
@@ -251,4 +246,3 @@ async function landAll(period: number, nums: Float64Array, careful: boolean, opt
   );
   return out;
 }
-

@@ -42,11 +42,13 @@ export function componentJson(info: ComponentInfo): Record<string, unknown> {
   };
 }
 
-
 /** One component as aligned "key  value" lines. */
 export function componentLines(info: ComponentInfo, digits = 6): string[] {
   const j = componentJson(info);
-  const parent = info.parent === null ? '-' : `period ${info.parent.period} at internal angle ${info.parent.num}/${info.parent.den} (nucleus ${info.parent.nucleus.re}, ${info.parent.nucleus.im})`;
+  const parent =
+    info.parent === null
+      ? '-'
+      : `period ${info.parent.period} at internal angle ${info.parent.num}/${info.parent.den} (nucleus ${info.parent.nucleus.re}, ${info.parent.nucleus.im})`;
   return [
     `period            ${info.period}`,
     `nucleus           ${info.nucleus.re}, ${info.nucleus.im}`,

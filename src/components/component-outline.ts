@@ -20,11 +20,16 @@ export function boundaryNewton(period: number, start: ArrayLike<number>, tr: num
   let br = start[2]!;
   let bi = start[3]!;
   for (let it = 0; it < 40; it += 1) {
-    let zr = wr, zi = wi;
-    let ar = 1, ai = 0; // D_z
-    let cr = 0, ci = 0; // D_c
-    let aar = 0, aai = 0; // D_zz
-    let acr = 0, aci = 0; // D_cz
+    let zr = wr,
+      zi = wi;
+    let ar = 1,
+      ai = 0; // D_z
+    let cr = 0,
+      ci = 0; // D_c
+    let aar = 0,
+      aai = 0; // D_zz
+    let acr = 0,
+      aci = 0; // D_cz
     for (let n = 0; n < period; n += 1) {
       // second derivatives first: they use this step's z, D_z, D_c
       const naar = 2 * (ar * ar - ai * ai + zr * aar - zi * aai);
@@ -41,9 +46,12 @@ export function boundaryNewton(period: number, start: ArrayLike<number>, tr: num
       [aar, aai, acr, aci, ar, ai, cr, ci] = [naar, naai, nacr, naci, nar, nai, ncr, nci];
     }
     // f = F^p - w, g = D_z - t; Jacobian [[D_z - 1, D_c], [D_zz, D_cz]]
-    const fr = zr - wr, fi = zi - wi;
-    const gr = ar - tr, gi = ai - ti;
-    const mr = ar - 1, mi = ai;
+    const fr = zr - wr,
+      fi = zi - wi;
+    const gr = ar - tr,
+      gi = ai - ti;
+    const mr = ar - 1,
+      mi = ai;
     const detr = mr * acr - mi * aci - (cr * aar - ci * aai);
     const deti = mr * aci + mi * acr - (cr * aai + ci * aar);
     const dm = detr * detr + deti * deti;

@@ -24,12 +24,7 @@ export interface Box {
 }
 
 /** Components of period minPeriod..maxPeriod with nucleus in the box and size >= minSize, by period then real part. */
-export async function componentsInBox(
-  periods: { min: number; max: number },
-  box: Box,
-  minSize: number,
-  options: { workers?: number } = {},
-): Promise<BoxedNucleus[]> {
+export async function componentsInBox(periods: { min: number; max: number }, box: Box, minSize: number, options: { workers?: number } = {}): Promise<BoxedNucleus[]> {
   const out: BoxedNucleus[] = [];
   const [r0, r1] = [Math.min(box.re0, box.re1), Math.max(box.re0, box.re1)];
   const [i0, i1] = [Math.min(box.im0, box.im1), Math.max(box.im0, box.im1)];

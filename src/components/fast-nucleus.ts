@@ -147,4 +147,3 @@ function failDD(c: Float64Array): FastNucleus {
 function doneDD(period: number, c: Float64Array): FastNucleus {
   return done(period, c[0]!, c[1]!, c[2]!, c[3]!);
 }
-

@@ -33,8 +33,17 @@ const BLOCK = 64;
 export async function componentRows(job: ListJob): Promise<ComponentInfo[]> {
   const rows: ComponentInfo[] = [];
   for (const c of job.items) {
-    const nucleus = c.real ? { ...findNucleus(job.period, { re: c.re, im: '0' }, job.digits).nucleus, im: '0' } : findNucleus(job.period, { re: c.re, im: c.im }, job.digits).nucleus;
-    rows.push(await componentInfo(job.period, nucleus, job.digits, c.angles.map((n) => mersenneAngle(n, job.period))));
+    const nucleus = c.real
+      ? { ...findNucleus(job.period, { re: c.re, im: '0' }, job.digits).nucleus, im: '0' }
+      : findNucleus(job.period, { re: c.re, im: c.im }, job.digits).nucleus;
+    rows.push(
+      await componentInfo(
+        job.period,
+        nucleus,
+        job.digits,
+        c.angles.map((n) => mersenneAngle(n, job.period)),
+      ),
+    );
   }
   return rows;
 }
@@ -44,7 +53,13 @@ function item(c: CensusComponent): ListItem {
 }
 
 /** The rows of `comps`, in their order, computed on `workers` threads in blocks of BLOCK. */
-export async function listComponents(period: number, comps: readonly CensusComponent[], digits: number, workers: number, onProgress?: (done: number, total: number) => void): Promise<ComponentInfo[]> {
+export async function listComponents(
+  period: number,
+  comps: readonly CensusComponent[],
+  digits: number,
+  workers: number,
+  onProgress?: (done: number, total: number) => void,
+): Promise<ComponentInfo[]> {
   const blocks = Math.ceil(comps.length / BLOCK);
   const jobOf = (b: number): ListJob => ({ period, digits, items: comps.slice(b * BLOCK, (b + 1) * BLOCK).map(item) });
   const out: ComponentInfo[][] = new Array<ComponentInfo[]>(blocks);
@@ -56,11 +71,17 @@ export async function listComponents(period: number, comps: readonly CensusCompo
       onProgress?.(done, comps.length);
     }
   } else {
-    await mapOnWorkers<ListJob, ComponentInfo[]>(builtWorkerUrl('listing-worker'), blocks, (b) => ({ message: jobOf(b) }), workers, (b, rows) => {
-      out[b] = rows;
-      done += rows.length;
-      onProgress?.(done, comps.length);
-    });
+    await mapOnWorkers<ListJob, ComponentInfo[]>(
+      builtWorkerUrl('listing-worker'),
+      blocks,
+      (b) => ({ message: jobOf(b) }),
+      workers,
+      (b, rows) => {
+        out[b] = rows;
+        done += rows.length;
+        onProgress?.(done, comps.length);
+      },
+    );
   }
   return out.flat();
 }

@@ -24,8 +24,14 @@ export function findMisiurewicz(anglePreperiod: number, period: number, start: {
     let x = cc;
     let close = 0;
     for (let step = 0; step < 300; step += 1) {
-      let zr = 0n, zi = 0n, dr = 0n, di = 0n;
-      let kr = 0n, ki = 0n, kdr = 0n, kdi = 0n;
+      let zr = 0n,
+        zi = 0n,
+        dr = 0n,
+        di = 0n;
+      let kr = 0n,
+        ki = 0n,
+        kdr = 0n,
+        kdi = 0n;
       for (let n = 1; n <= preperiod + period; n += 1) {
         const ndr = ((zr * dr - zi * di) >> (sc.shift - 1n)) + sc.one;
         di = (zr * di + zi * dr) >> (sc.shift - 1n);
@@ -49,7 +55,8 @@ export function findMisiurewicz(anglePreperiod: number, period: number, start: {
     return null;
   };
   const r1 = run(c, s);
-  if (r1 === null) throw new NewtonError('angle', `an angle whose ray lands in the Newton basin of its Misiurewicz point`, `preperiod ${preperiod}, period ${period}`, 'Newton did not converge');
+  if (r1 === null)
+    throw new NewtonError('angle', `an angle whose ray lands in the Newton basin of its Misiurewicz point`, `preperiod ${preperiod}, period ${period}`, 'Newton did not converge');
   c = r1;
   const s2 = fixedScale(bits + 64);
   const r2 = run({ re: rescale(c.re, bits, bits + 64), im: rescale(c.im, bits, bits + 64) }, s2);

@@ -33,7 +33,8 @@ export function dynamicRay(cRe: number, cIm: number, num: number, den: number, o
   const logR = Math.log(radius);
   const out: number[] = [];
   let a = (2 * Math.PI * num) / den;
-  let zr = radius * Math.cos(a), zi = radius * Math.sin(a);
+  let zr = radius * Math.cos(a),
+    zi = radius * Math.sin(a);
   out.push(zr, zi);
   let doubled = num % den;
   for (let k = 0; k < depth; k++) {
@@ -41,10 +42,14 @@ export function dynamicRay(cRe: number, cIm: number, num: number, den: number, o
     a = (2 * Math.PI * doubled) / den;
     for (let j = 1; j <= sharpness; j++) {
       const mod = Math.exp(logR * 2 ** (1 - j / sharpness));
-      const tr = mod * Math.cos(a), ti = mod * Math.sin(a);
+      const tr = mod * Math.cos(a),
+        ti = mod * Math.sin(a);
       let ok = false;
       for (let step = 0; step < 64; step++) {
-        let x = zr, y = zi, dx = 1, dy = 0;
+        let x = zr,
+          y = zi,
+          dx = 1,
+          dy = 0;
         for (let m = 0; m <= k; m++) {
           const t = 2 * (x * dx - y * dy);
           dy = 2 * (x * dy + y * dx);
@@ -53,7 +58,8 @@ export function dynamicRay(cRe: number, cIm: number, num: number, den: number, o
           y = 2 * x * y + cIm;
           x = u;
         }
-        const er = x - tr, ei = y - ti;
+        const er = x - tr,
+          ei = y - ti;
         const den2 = dx * dx + dy * dy;
         if (!(den2 > 0) || !Number.isFinite(den2)) break;
         const sr = (er * dx + ei * dy) / den2;

@@ -68,12 +68,28 @@ const TRAP_SAMPLES = 128;
 const ESCAPE2 = 1e8;
 
 function none(note: string): JuliaCycle {
-  return { kind: 'none', period: 0, basinPeriod: 0, pointsRe: [], pointsIm: [], multiplierRe: 0, multiplierIm: 0, trapRadius: 0, trapContraction: 0, rotation: null, petals: null, note };
+  return {
+    kind: 'none',
+    period: 0,
+    basinPeriod: 0,
+    pointsRe: [],
+    pointsIm: [],
+    multiplierRe: 0,
+    multiplierIm: 0,
+    trapRadius: 0,
+    trapContraction: 0,
+    rotation: null,
+    petals: null,
+    note,
+  };
 }
 
 /** f^p(w) and its derivative, written into out = [re, im, dRe, dIm]. */
 function iterate(cr: number, ci: number, wr: number, wi: number, p: number, out: Float64Array): Float64Array {
-  let zr = wr, zi = wi, dr = 1, di = 0;
+  let zr = wr,
+    zi = wi,
+    dr = 1,
+    di = 0;
   for (let j = 0; j < p; j++) {
     const t = 2 * (zr * dr - zi * di);
     di = 2 * (zr * di + zi * dr);
@@ -97,16 +113,19 @@ function iterate(cr: number, ci: number, wr: number, wi: number, p: number, out:
  */
 export function newtonCycle(cr: number, ci: number, p: number, guessRe: number, guessIm: number): { wRe: number; wIm: number; residual: number; mulRe: number; mulIm: number } {
   const f = new Float64Array(4);
-  let wr = guessRe, wi = guessIm;
+  let wr = guessRe,
+    wi = guessIm;
   let best = { wRe: wr, wIm: wi, residual: Infinity, mulRe: 0, mulIm: 0 };
   for (let step = 0; step < 200; step++) {
     iterate(cr, ci, wr, wi, p, f);
-    const er = f[0]! - wr, ei = f[1]! - wi;
+    const er = f[0]! - wr,
+      ei = f[1]! - wi;
     const residual = Math.hypot(er, ei);
     if (!Number.isFinite(residual)) break;
     if (residual < best.residual) best = { wRe: wr, wIm: wi, residual, mulRe: f[2]!, mulIm: f[3]! };
     if (residual === 0) break;
-    const gr = f[2]! - 1, gi = f[3]!;
+    const gr = f[2]! - 1,
+      gi = f[3]!;
     const den = gr * gr + gi * gi;
     if (!(den > 0)) break;
     const sr = (er * gr + ei * gi) / den;
@@ -130,7 +149,8 @@ export function nearestRational(t: number, tol: number, maxQ: number): { s: numb
 function cyclePoints(cr: number, ci: number, wr: number, wi: number, p: number): { re: number[]; im: number[] } {
   const re: number[] = [];
   const im: number[] = [];
-  let zr = wr, zi = wi;
+  let zr = wr,
+    zi = wi;
   for (let j = 0; j < p; j++) {
     re.push(zr);
     im.push(zi);
@@ -157,7 +177,8 @@ function alignToCritical(re: number[], im: number[], zr: number, zi: number, n: 
     }
   }
   const shift = (((best - n) % p) + p) % p;
-  const r = re.slice(), m = im.slice();
+  const r = re.slice(),
+    m = im.slice();
   for (let j = 0; j < p; j++) {
     re[j] = r[(j + shift) % p]!;
     im[j] = m[(j + shift) % p]!;
@@ -180,7 +201,8 @@ function trapDisk(cr: number, ci: number, wr: number, wi: number, p: number, lam
     let worst = 0;
     for (let s = 0; s < TRAP_SAMPLES && worst < limit; s++) {
       const a = (2 * Math.PI * (s + 0.5)) / TRAP_SAMPLES;
-      const ur = r * Math.cos(a), ui = r * Math.sin(a);
+      const ur = r * Math.cos(a),
+        ui = r * Math.sin(a);
       iterate(cr, ci, wr + ur, wi + ui, p, f);
       worst = Math.max(worst, Math.hypot(f[0]! - wr, f[1]! - wi) / r);
     }
@@ -195,15 +217,43 @@ export function findJuliaCycle(cr: number, ci: number, options: FindCycleOptions
   if (options.parabolic !== undefined) {
     const { wRe, wIm, s, q } = options.parabolic;
     const petals = parabolicPetals(cr, ci, [wRe], [wIm], q, s);
-    const mRe = 2 * wRe, mIm = 2 * wIm;
-    return { kind: 'parabolic', period: 1, basinPeriod: q, pointsRe: [wRe], pointsIm: [wIm], multiplierRe: mRe, multiplierIm: mIm, trapRadius: 0, trapContraction: 0, rotation: { s, q }, petals, note: `parabolic fixed point alpha with multiplier e^(2 pi i ${s}/${q}) (given by the cardioid angle)` };
+    const mRe = 2 * wRe,
+      mIm = 2 * wIm;
+    return {
+      kind: 'parabolic',
+      period: 1,
+      basinPeriod: q,
+      pointsRe: [wRe],
+      pointsIm: [wIm],
+      multiplierRe: mRe,
+      multiplierIm: mIm,
+      trapRadius: 0,
+      trapContraction: 0,
+      rotation: { s, q },
+      petals,
+      note: `parabolic fixed point alpha with multiplier e^(2 pi i ${s}/${q}) (given by the cardioid angle)`,
+    };
   }
   if (options.siegel !== undefined) {
     const { wRe, wIm, name } = options.siegel;
-    return { kind: 'siegel', period: 1, basinPeriod: 1, pointsRe: [wRe], pointsIm: [wIm], multiplierRe: 2 * wRe, multiplierIm: 2 * wIm, trapRadius: 0, trapContraction: 0, rotation: null, petals: null, note: `Siegel disk about alpha: multiplier e^(2 pi i theta), theta the ${name} (a Brjuno number), rendered by its orbits' recurrence` };
+    return {
+      kind: 'siegel',
+      period: 1,
+      basinPeriod: 1,
+      pointsRe: [wRe],
+      pointsIm: [wIm],
+      multiplierRe: 2 * wRe,
+      multiplierIm: 2 * wIm,
+      trapRadius: 0,
+      trapContraction: 0,
+      rotation: null,
+      petals: null,
+      note: `Siegel disk about alpha: multiplier e^(2 pi i theta), theta the ${name} (a Brjuno number), rendered by its orbits' recurrence`,
+    };
   }
   const transient = options.transient ?? 200_000;
-  let zr = 0, zi = 0;
+  let zr = 0,
+    zi = 0;
   let n = 0;
   for (; n < transient; n++) {
     const u = zr * zr - zi * zi + cr;
@@ -217,7 +267,8 @@ export function findJuliaCycle(cr: number, ci: number, options: FindCycleOptions
   orbitRe[0] = zr;
   orbitIm[0] = zi;
   for (let j = 1; j <= maxPeriod; j++) {
-    const a = orbitRe[j - 1]!, b = orbitIm[j - 1]!;
+    const a = orbitRe[j - 1]!,
+      b = orbitIm[j - 1]!;
     orbitRe[j] = a * a - b * b + cr;
     orbitIm[j] = 2 * a * b + ci;
   }
@@ -259,26 +310,74 @@ export function findJuliaCycle(cr: number, ci: number, options: FindCycleOptions
   const lambda = Math.hypot(fit.mulRe, fit.mulIm);
   const pts = cyclePoints(cr, ci, fit.wRe, fit.wIm, period);
   alignToCritical(pts.re, pts.im, zr, zi, n);
-  const w0r = pts.re[0]!, w0i = pts.im[0]!;
+  const w0r = pts.re[0]!,
+    w0i = pts.im[0]!;
   const shown = `|multiplier| = ${lambda.toPrecision(6)}`;
   if (lambda > 1 + INDIFFERENT_TOLERANCE) {
-    return { ...none(`the critical orbit lands on a repelling cycle of period ${period} (${shown}): c is a Misiurewicz parameter, the Julia set a dendrite with no interior`), period, pointsRe: pts.re, pointsIm: pts.im, multiplierRe: fit.mulRe, multiplierIm: fit.mulIm };
+    return {
+      ...none(`the critical orbit lands on a repelling cycle of period ${period} (${shown}): c is a Misiurewicz parameter, the Julia set a dendrite with no interior`),
+      period,
+      pointsRe: pts.re,
+      pointsIm: pts.im,
+      multiplierRe: fit.mulRe,
+      multiplierIm: fit.mulIm,
+    };
   }
   if (lambda >= 1 - INDIFFERENT_TOLERANCE) {
     let t = Math.atan2(fit.mulIm, fit.mulRe) / (2 * Math.PI);
     if (t < 0) t += 1;
     const rot = nearestRational(t, 1e-6, MAX_ROTATION_DENOMINATOR);
     if (rot === null) {
-      return { ...none(`indifferent cycle of period ${period} (${shown}) with no rotation s/q, q <= ${MAX_ROTATION_DENOMINATOR}: Siegel or Cremer, not rendered as interior`), period, pointsRe: pts.re, pointsIm: pts.im, multiplierRe: fit.mulRe, multiplierIm: fit.mulIm };
+      return {
+        ...none(`indifferent cycle of period ${period} (${shown}) with no rotation s/q, q <= ${MAX_ROTATION_DENOMINATOR}: Siegel or Cremer, not rendered as interior`),
+        period,
+        pointsRe: pts.re,
+        pointsIm: pts.im,
+        multiplierRe: fit.mulRe,
+        multiplierIm: fit.mulIm,
+      };
     }
     const petals = parabolicPetals(cr, ci, pts.re, pts.im, rot.q, rot.s);
-    return { kind: 'parabolic', period, basinPeriod: period * rot.q, pointsRe: pts.re, pointsIm: pts.im, multiplierRe: fit.mulRe, multiplierIm: fit.mulIm, trapRadius: 0, trapContraction: 0, rotation: rot, petals, note: `parabolic: a cycle of period ${period} with multiplier within ${INDIFFERENT_TOLERANCE} of e^(2 pi i ${rot.s}/${rot.q}) (${shown})` };
+    return {
+      kind: 'parabolic',
+      period,
+      basinPeriod: period * rot.q,
+      pointsRe: pts.re,
+      pointsIm: pts.im,
+      multiplierRe: fit.mulRe,
+      multiplierIm: fit.mulIm,
+      trapRadius: 0,
+      trapContraction: 0,
+      rotation: rot,
+      petals,
+      note: `parabolic: a cycle of period ${period} with multiplier within ${INDIFFERENT_TOLERANCE} of e^(2 pi i ${rot.s}/${rot.q}) (${shown})`,
+    };
   }
   let gap = 1;
   for (let j = 1; j < period; j++) gap = Math.min(gap, Math.hypot(pts.re[j]! - w0r, pts.im[j]! - w0i));
   const trap = trapDisk(cr, ci, w0r, w0i, period, lambda, Math.min(0.5, gap / 2));
   if (trap.radius === 0) {
-    return { ...none(`attracting cycle of period ${period} (${shown}) too weak to trap in double precision`), period, pointsRe: pts.re, pointsIm: pts.im, multiplierRe: fit.mulRe, multiplierIm: fit.mulIm };
+    return {
+      ...none(`attracting cycle of period ${period} (${shown}) too weak to trap in double precision`),
+      period,
+      pointsRe: pts.re,
+      pointsIm: pts.im,
+      multiplierRe: fit.mulRe,
+      multiplierIm: fit.mulIm,
+    };
   }
-  return { kind: 'attracting', period, basinPeriod: period, pointsRe: pts.re, pointsIm: pts.im, multiplierRe: fit.mulRe, multiplierIm: fit.mulIm, trapRadius: trap.radius, trapContraction: trap.contraction, rotation: null, petals: null, note: `attracting cycle of period ${period} (${shown}), confirmed by Newton` };
+  return {
+    kind: 'attracting',
+    period,
+    basinPeriod: period,
+    pointsRe: pts.re,
+    pointsIm: pts.im,
+    multiplierRe: fit.mulRe,
+    multiplierIm: fit.mulIm,
+    trapRadius: trap.radius,
+    trapContraction: trap.contraction,
+    rotation: null,
+    petals: null,
+    note: `attracting cycle of period ${period} (${shown}), confirmed by Newton`,
+  };
 }

@@ -42,17 +42,20 @@ export function returnSeries(cr: number, ci: number, pointsRe: readonly number[]
   let t = new Float64Array(2 * (D + 1));
   s[2] = 1;
   for (let step = 0; step < k * q; step++) {
-    const wr = pointsRe[step % k]!, wi = pointsIm[step % k]!;
+    const wr = pointsRe[step % k]!,
+      wi = pointsIm[step % k]!;
     t.fill(0);
     for (let d = 1; d <= D; d++) {
       t[2 * d] = 2 * (wr * s[2 * d]! - wi * s[2 * d + 1]!);
       t[2 * d + 1] = 2 * (wr * s[2 * d + 1]! + wi * s[2 * d]!);
     }
     for (let i = 1; i <= D; i++) {
-      const ar = s[2 * i]!, ai = s[2 * i + 1]!;
+      const ar = s[2 * i]!,
+        ai = s[2 * i + 1]!;
       if (ar === 0 && ai === 0) continue;
       for (let j = 1; i + j <= D; j++) {
-        const br = s[2 * j]!, bi = s[2 * j + 1]!;
+        const br = s[2 * j]!,
+          bi = s[2 * j + 1]!;
         t[2 * (i + j)] += ar * br - ai * bi;
         t[2 * (i + j) + 1] += ar * bi + ai * br;
       }
@@ -79,7 +82,11 @@ export function sectorOf(ur: number, ui: number, direction0: number, q: number):
 /** Re W for W = -1/(q a u^q), or -Infinity at u = 0's neighbourhood failure. */
 export function fatouReal(ur: number, ui: number, aRe: number, aIm: number, q: number): number {
   // u^q by repeated squaring.
-  let pr = 1, pi = 0, br = ur, bi = ui, e = q;
+  let pr = 1,
+    pi = 0,
+    br = ur,
+    bi = ui,
+    e = q;
   while (e > 0) {
     if (e & 1) {
       const t = pr * br - pi * bi;
@@ -93,7 +100,8 @@ export function fatouReal(ur: number, ui: number, aRe: number, aIm: number, q: n
       br = t;
     }
   }
-  const dr = q * (aRe * pr - aIm * pi), di = q * (aRe * pi + aIm * pr);
+  const dr = q * (aRe * pr - aIm * pi),
+    di = q * (aRe * pi + aIm * pr);
   const den = dr * dr + di * di;
   return -dr / den;
 }
@@ -113,13 +121,15 @@ const BOUNDARY = [0, 0.25, -0.25, 0.5, -0.5, 1, -1, 2, -2, 4, -4, 8, -8, 32, -32
 export function parabolicPetals(cr: number, ci: number, pointsRe: readonly number[], pointsIm: readonly number[], q: number, s = 1): ParabolicPetals {
   const k = pointsRe.length;
   const series = returnSeries(cr, ci, pointsRe, pointsIm, q);
-  const aRe = series[2 * (q + 1)]!, aIm = series[2 * (q + 1) + 1]!;
+  const aRe = series[2 * (q + 1)]!,
+    aIm = series[2 * (q + 1) + 1]!;
   const absA = Math.hypot(aRe, aIm);
   const direction0 = (Math.PI - Math.atan2(aIm, aRe)) / q;
   const sinv = modInverse(((s % q) + q) % q, q);
   const sectorPetal: number[] = [];
   for (let m = 0; m < q; m++) sectorPetal.push(k * ((m * sinv) % q));
-  const w0r = pointsRe[0]!, w0i = pointsIm[0]!;
+  const w0r = pointsRe[0]!,
+    w0i = pointsIm[0]!;
   let gap = 1;
   for (let j = 1; j < k; j++) gap = Math.min(gap, Math.hypot(pointsRe[j]! - w0r, pointsIm[j]! - w0i));
   const rho = 0.25 * gap;
@@ -129,19 +139,24 @@ export function parabolicPetals(cr: number, ci: number, pointsRe: readonly numbe
     for (let m = 0; m < q && ok; m++) {
       for (const y of BOUNDARY) {
         // u^q = -1 / (q a W) on W = radius (1 + i y); the root in sector m.
-        const Wr = radius, Wi = radius * y;
-        const dr = q * (aRe * Wr - aIm * Wi), di = q * (aRe * Wi + aIm * Wr);
+        const Wr = radius,
+          Wi = radius * y;
+        const dr = q * (aRe * Wr - aIm * Wi),
+          di = q * (aRe * Wi + aIm * Wr);
         const den = dr * dr + di * di;
-        const vr = -dr / den, vi = di / den;
+        const vr = -dr / den,
+          vi = di / den;
         const mod = Math.hypot(vr, vi) ** (1 / q);
         const base = Math.atan2(vi, vr) / q;
         // Pick the q-th root closest to the sector's direction.
         const target = direction0 + (2 * Math.PI * m) / q;
         const turn = Math.round((target - base) / ((2 * Math.PI) / q));
         const ang = base + (turn * 2 * Math.PI) / q;
-        const ur = mod * Math.cos(ang), ui = mod * Math.sin(ang);
+        const ur = mod * Math.cos(ang),
+          ui = mod * Math.sin(ang);
         const [zr, zi] = applyReturn(cr, ci, w0r + ur, w0i + ui, k * q);
-        const nr = zr - w0r, ni = zi - w0i;
+        const nr = zr - w0r,
+          ni = zi - w0i;
         if (!(fatouReal(nr, ni, aRe, aIm, q) > radius + 0.5) || sectorOf(nr, ni, direction0, q) !== m) {
           ok = false;
           break;

@@ -32,12 +32,21 @@ export interface JuliaReferences {
  * Offsets come in (dr[k], di[k]) in z units (doubles hold them to spans far
  * below 1e-30; floatexp is not needed above about 1e-300).
  */
-export function sampleJuliaDeep(dr: Float64Array, di: Float64Array, count: number, settings: JuliaSettings, trap: JuliaTrap, refs: JuliaReferences, out: JuliaSampleSet): JuliaSampleSet {
+export function sampleJuliaDeep(
+  dr: Float64Array,
+  di: Float64Array,
+  count: number,
+  settings: JuliaSettings,
+  trap: JuliaTrap,
+  refs: JuliaReferences,
+  out: JuliaSampleSet,
+): JuliaSampleSet {
   const { maxIterations } = settings;
   const R2 = settings.escapeRadius * settings.escapeRadius;
   const logR = Math.log(settings.escapeRadius);
   const P = trap.basinPeriod;
-  const w0r = trap.w0Re, w0i = trap.w0Im;
+  const w0r = trap.w0Re,
+    w0i = trap.w0Im;
   const attracting = trap.kind === 'attracting';
   const petals = trap.kind === 'parabolic' ? trap.petals : null;
   const trap2 = attracting ? trap.trapRadius * trap.trapRadius : 0;
@@ -45,17 +54,23 @@ export function sampleJuliaDeep(dr: Float64Array, di: Float64Array, count: numbe
   const petal2 = petals !== null ? petals.petalRadius * petals.petalRadius : 0;
   const q = petals !== null ? petals.q : 1;
   for (let k = 0; k < count; k++) {
-    let refRe = refs.centreRe, refIm = refs.centreIm;
+    let refRe = refs.centreRe,
+      refIm = refs.centreIm;
     let last = refRe.length - 1;
     let m = 0;
-    let x = dr[k]!, y = di[k]!, dx = 1, dy = 0;
+    let x = dr[k]!,
+      y = di[k]!,
+      dx = 1,
+      dy = 0;
     let n = 0;
     let state = PERIOD_UNDECIDED;
     let cls = -1;
     let time = maxIterations;
-    let wr = 0, wi = 0;
+    let wr = 0,
+      wi = 0;
     for (;;) {
-      const zr = refRe[m]!, zi = refIm[m]!;
+      const zr = refRe[m]!,
+        zi = refIm[m]!;
       wr = zr + x;
       wi = zi + y;
       const w2 = wr * wr + wi * wi;
@@ -63,7 +78,8 @@ export function sampleJuliaDeep(dr: Float64Array, di: Float64Array, count: numbe
         state = PERIOD_ESCAPED;
         break;
       }
-      const ux = wr - w0r, uy = wi - w0i;
+      const ux = wr - w0r,
+        uy = wi - w0i;
       const u2 = ux * ux + uy * uy;
       if (u2 < trap2) {
         state = P;
@@ -101,7 +117,8 @@ export function sampleJuliaDeep(dr: Float64Array, di: Float64Array, count: numbe
         x = wr;
         y = wi;
       }
-      const Zr = refRe[m]!, Zi = refIm[m]!;
+      const Zr = refRe[m]!,
+        Zi = refIm[m]!;
       const t = 2 * (wr * dx - wi * dy);
       dy = 2 * (wr * dy + wi * dx);
       dx = t;

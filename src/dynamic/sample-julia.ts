@@ -75,7 +75,8 @@ export function sampleJulia(zr: Float64Array, zi: Float64Array, count: number, s
   const R2 = settings.escapeRadius * settings.escapeRadius;
   const logR = Math.log(settings.escapeRadius);
   const P = trap.basinPeriod;
-  const w0r = trap.w0Re, w0i = trap.w0Im;
+  const w0r = trap.w0Re,
+    w0i = trap.w0Im;
   const attracting = trap.kind === 'attracting';
   const petals = trap.kind === 'parabolic' ? trap.petals : null;
   const trap2 = attracting ? trap.trapRadius * trap.trapRadius : 0;
@@ -86,19 +87,24 @@ export function sampleJulia(zr: Float64Array, zi: Float64Array, count: number, s
   const siegel = trap.kind === 'siegel';
   const half = Math.floor(maxIterations / 2);
   for (let k = 0; k < count; k++) {
-    let x = zr[k]!, y = zi[k]!, dx = 1, dy = 0;
+    let x = zr[k]!,
+      y = zi[k]!,
+      dx = 1,
+      dy = 0;
     let n = 0;
     let state = PERIOD_UNDECIDED;
     let cls = -1;
     let time = maxIterations;
     let recurrence = 0;
     for (;;) {
-      const x2 = x * x, y2 = y * y;
+      const x2 = x * x,
+        y2 = y * y;
       if (x2 + y2 > R2) {
         state = PERIOD_ESCAPED;
         break;
       }
-      const ux = x - w0r, uy = y - w0i;
+      const ux = x - w0r,
+        uy = y - w0i;
       const u2 = ux * ux + uy * uy;
       if (u2 < trap2) {
         state = P;

@@ -80,7 +80,9 @@ export function axisTicks(name: string, centre: string, extent: string, pixels: 
   }
   const exponent = offsetExponent ?? offsetExponentFor(extent);
   const unit = new D(10).pow(exponent);
-  const xs = scaleLinear().domain([half.neg().div(unit).toNumber(), half.div(unit).toNumber()]).ticks(count);
+  const xs = scaleLinear()
+    .domain([half.neg().div(unit).toNumber(), half.div(unit).toNumber()])
+    .ticks(count);
   const step = xs.length > 1 ? xs[1]! - xs[0]! : 1;
   const decimals = decimalsFor(step);
   const ticks = xs.map((t) => {

@@ -16,7 +16,12 @@ export function clipPolyline(points: ArrayLike<number>, x0: number, y0: number, 
     let t0 = 0;
     let t1 = 1;
     let inside = true;
-    for (const [p, q] of [[-dx, ax - x0], [dx, x1 - ax], [-dy, ay - y0], [dy, y1 - ay]] as const) {
+    for (const [p, q] of [
+      [-dx, ax - x0],
+      [dx, x1 - ax],
+      [-dy, ay - y0],
+      [dy, y1 - ay],
+    ] as const) {
       if (p === 0) {
         if (q < 0) inside = false;
         continue;

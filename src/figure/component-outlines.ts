@@ -24,7 +24,12 @@ export interface ComponentOutline {
 
 /** The c-range of a view's corners (for any rotation). */
 export function viewBox(grid: DoubleGrid): { re0: number; re1: number; im0: number; im1: number } {
-  const corners = [[0, 0], [grid.width, 0], [0, grid.height], [grid.width, grid.height]].map(([x, y]) => pixelToC(grid, x!, y!, new Float64Array(2)));
+  const corners = [
+    [0, 0],
+    [grid.width, 0],
+    [0, grid.height],
+    [grid.width, grid.height],
+  ].map(([x, y]) => pixelToC(grid, x!, y!, new Float64Array(2)));
   return {
     re0: Math.min(...corners.map((c) => c[0]!)),
     re1: Math.max(...corners.map((c) => c[0]!)),
@@ -36,11 +41,13 @@ export function viewBox(grid: DoubleGrid): { re0: number; re1: number; im0: numb
 export async function outlinesInView(period: number, grid: DoubleGrid, workers: number): Promise<ComponentOutline[]> {
   const box = viewBox(grid);
   const nuclei = await componentsInBox({ min: period, max: period }, box, OUTLINE_MIN_PIXELS * grid.spacing, { workers });
-  if (nuclei.length === 0) throw new UserError('figure.outlines', `a period with a component in view at least ${OUTLINE_MIN_PIXELS} pixels across`, new Received(`period ${period} (none in view)`));
+  if (nuclei.length === 0)
+    throw new UserError('figure.outlines', `a period with a component in view at least ${OUTLINE_MIN_PIXELS} pixels across`, new Received(`period ${period} (none in view)`));
   return nuclei.map((n) => {
     const count = Math.min(4096, Math.max(96, Math.ceil((8 * n.size) / grid.spacing)));
     const curve = componentOutline(period, n.re, n.im, count);
-    if (curve === null) throw new UserError('figure.outlines', 'components whose boundary Newton follows in double precision', new Received(`period ${period}, nucleus ${n.re} ${n.im}`));
+    if (curve === null)
+      throw new UserError('figure.outlines', 'components whose boundary Newton follows in double precision', new Received(`period ${period}, nucleus ${n.re} ${n.im}`));
     const root = componentRoot(period, { re: String(n.re), im: String(n.im) }, 20).root;
     const points = new Float64Array(curve.length + 4);
     points[0] = Number(root.re);

@@ -74,7 +74,9 @@ export function diagramFigureModel(o: DiagramFigureOptions): FigureModel {
   // window labels just below the top edge: half the label's box (capitals and 1.2 pt backing, layout-figure.ts) and 1.5 pt more
   const labelY = (((figureFont().capHeight * LABEL_PT) / 2 + 1.2 + 1.5) / 72) * o.dpi;
   const marks = (o.windows ?? []).map((w) => ({ kind: 'window', label: String(w.period), x: px((w.from + w.to) / 2), y: labelY }));
-  const curves = (o.doublings ?? []).filter((d) => d.at >= Math.min(r0, r1) && d.at <= Math.max(r0, r1)).map((d) => ({ kind: 'cascade', label: d.label, points: verticalLine(px(d.at), o.height) }));
+  const curves = (o.doublings ?? [])
+    .filter((d) => d.at >= Math.min(r0, r1) && d.at <= Math.max(r0, r1))
+    .map((d) => ({ kind: 'cascade', label: d.label, points: verticalLine(px(d.at), o.height) }));
   return { view, axes: { re, im, ...(top === null ? {} : { top }) }, caption: o.caption, curves, marks, scaleBar: null, points: [], legend: [], bands };
 }
 

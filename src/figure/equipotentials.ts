@@ -59,7 +59,12 @@ export function largestPotential(grid: DoubleGrid, limit: number): number {
   for (let i = 0; i <= n; i += 1) {
     const x = (grid.width * i) / n;
     const y = (grid.height * i) / n;
-    for (const [px, py] of [[x, 0], [x, grid.height], [0, y], [grid.width, y]] as const) {
+    for (const [px, py] of [
+      [x, 0],
+      [x, grid.height],
+      [0, y],
+      [grid.width, y],
+    ] as const) {
       pixelToC(grid, px, py, c);
       best = Math.max(best, potentialAt(c[0]!, c[1]!, limit));
     }

@@ -83,7 +83,14 @@ export const MIN_TICKS = 5;
  * The model of a figure of `view` printed at `dpi`. Axes need a view
  * without rotation: their ticks run along Re c and Im c.
  */
-export function figureModel(view: View, dpi: number, options: FigureOptions, curves: readonly FigureCurve[] = [], marks: readonly FigureMark[] = [], points: readonly FigurePoint[] = []): FigureModel {
+export function figureModel(
+  view: View,
+  dpi: number,
+  options: FigureOptions,
+  curves: readonly FigureCurve[] = [],
+  marks: readonly FigureMark[] = [],
+  points: readonly FigurePoint[] = [],
+): FigureModel {
   let axes: FigureModel['axes'] = null;
   if (options.axes) {
     if (view.rotation !== 0) throw new Error('figureModel: axes need a view without rotation');

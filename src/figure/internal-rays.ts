@@ -24,14 +24,20 @@ export interface FigureInternalRay {
 
 export async function internalRaysInView(period: number, angles: readonly string[], grid: DoubleGrid, workers: number): Promise<FigureInternalRay[]> {
   const nuclei = await componentsInBox({ min: period, max: period }, viewBox(grid), OUTLINE_MIN_PIXELS * grid.spacing, { workers });
-  if (nuclei.length === 0) throw new UserError('figure.internalRays.period', `a period with a component in view at least ${OUTLINE_MIN_PIXELS} pixels across`, new Received(`period ${period} (none in view)`));
+  if (nuclei.length === 0)
+    throw new UserError(
+      'figure.internalRays.period',
+      `a period with a component in view at least ${OUTLINE_MIN_PIXELS} pixels across`,
+      new Received(`period ${period} (none in view)`),
+    );
   const out: FigureInternalRay[] = [];
   for (const n of nuclei) {
     const steps = Math.min(1024, Math.max(32, Math.ceil((4 * n.size) / grid.spacing)));
     for (const angle of angles) {
-      const [num, den] = angle === '0' ? [0, 1] : angle.split('/').map(Number) as [number, number];
+      const [num, den] = angle === '0' ? [0, 1] : (angle.split('/').map(Number) as [number, number]);
       const ray = internalRay(period, n.re, n.im, { num, den }, steps);
-      if (ray === null) throw new UserError('figure.internalRays', 'rays Newton follows in double precision', new Received(`period ${period}, nucleus ${n.re} ${n.im}, angle ${angle}`));
+      if (ray === null)
+        throw new UserError('figure.internalRays', 'rays Newton follows in double precision', new Received(`period ${period}, nucleus ${n.re} ${n.im}, angle ${angle}`));
       out.push({ period, nucleus: { re: n.re, im: n.im }, angle, end: ray.end, points: ray.points });
     }
   }

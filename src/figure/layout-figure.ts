@@ -88,7 +88,10 @@ export function layoutFigure(model: FigureModel, dpi: number, font: FigureFont):
   const captionLines = model.caption === '' ? [] : wrap(font, model.caption, CAPTION_PT, pageWidth - 2 * PAD);
   const lineHeight = 1.25 * CAPTION_PT;
   const captionTop = top + ph + below + (captionLines.length > 0 ? 1.5 * GAP : 0);
-  const pageHeight = Math.max(captionTop + captionLines.length * lineHeight + (axes !== null || captionLines.length > 0 ? PAD : 0), top + ph + imTitleOver + (axes !== null ? PAD : 0));
+  const pageHeight = Math.max(
+    captionTop + captionLines.length * lineHeight + (axes !== null || captionLines.length > 0 ? PAD : 0),
+    top + ph + imTitleOver + (axes !== null ? PAD : 0),
+  );
   const strokes: SceneStroke[] = [];
   const texts: SceneText[] = [];
   const sx = pw / view.width;
@@ -126,7 +129,8 @@ export function layoutFigure(model: FigureModel, dpi: number, font: FigureFont):
   }
   // halos first, so a curve crossing another stays unbroken
   const widthOf = (kind: string): number => (kind === 'outline' || kind === 'internal-ray' || kind === 'cascade' ? OUTLINE_PT : kind === 'equipotential' ? LEVEL_PT : RAY_PT);
-  const inkOf = (kind: string): string => (kind === 'cascade' ? CASCADE_INK : kind === 'outline' ? OUTLINE_INK : kind === 'internal-ray' ? INTERNAL_INK : kind === 'equipotential' ? LEVEL_INK : RAY_INK);
+  const inkOf = (kind: string): string =>
+    kind === 'cascade' ? CASCADE_INK : kind === 'outline' ? OUTLINE_INK : kind === 'internal-ray' ? INTERNAL_INK : kind === 'equipotential' ? LEVEL_INK : RAY_INK;
   curveRuns.forEach((runs, k) => {
     const kind = model.curves[k]!.kind;
     if (kind === 'equipotential' || kind === 'cascade') return; // hairlines need no halo
@@ -200,7 +204,15 @@ export function layoutFigure(model: FigureModel, dpi: number, font: FigureFont):
       for (const t of axes.top.ticks) {
         const x = x0 + t.at * sx;
         strokes.push({ points: [x, y0, x, y0 - TICK_PT], width: LINE_PT, colour: INK, clip: false });
-        texts.push({ text: t.label, x: x - font.width(t.label, LABEL_PT) / 2, y: y0 - TICK_PT - GAP - font.descent * LABEL_PT, size: LABEL_PT, rotate: 0, role: 'top-tick', colour: INK });
+        texts.push({
+          text: t.label,
+          x: x - font.width(t.label, LABEL_PT) / 2,
+          y: y0 - TICK_PT - GAP - font.descent * LABEL_PT,
+          size: LABEL_PT,
+          rotate: 0,
+          role: 'top-tick',
+          colour: INK,
+        });
       }
       const topTitleY = y0 - TICK_PT - GAP - font.descent * LABEL_PT - cap(LABEL_PT) - 1.5 * GAP - font.descent * TITLE_PT;
       texts.push({ text: axes.top.title, x: x0 + pw / 2 - font.width(axes.top.title, TITLE_PT) / 2, y: topTitleY, size: TITLE_PT, rotate: 0, role: 'title', colour: INK });
@@ -220,8 +232,21 @@ export function layoutFigure(model: FigureModel, dpi: number, font: FigureFont):
       const x = x0 + column * legend.columnWidth;
       const y = plate.y + legend.headingHeight + row * LEGEND_ROW_PT;
       fills.push({ x, y, width: LEGEND_SWATCH_PT, height: LEGEND_SWATCH_PT, colour: entry.colour, opacity: 1 });
-      strokes.push({ points: [x, y, x + LEGEND_SWATCH_PT, y, x + LEGEND_SWATCH_PT, y + LEGEND_SWATCH_PT, x, y + LEGEND_SWATCH_PT, x, y], width: LEGEND_SWATCH_LINE_PT, colour: INK, clip: false });
-      texts.push({ text: String(entry.period), x: x + LEGEND_SWATCH_PT + GAP, y: y + LEGEND_SWATCH_PT / 2 + cap(LABEL_PT) / 2, size: LABEL_PT, rotate: 0, role: 'legend', colour: INK });
+      strokes.push({
+        points: [x, y, x + LEGEND_SWATCH_PT, y, x + LEGEND_SWATCH_PT, y + LEGEND_SWATCH_PT, x, y + LEGEND_SWATCH_PT, x, y],
+        width: LEGEND_SWATCH_LINE_PT,
+        colour: INK,
+        clip: false,
+      });
+      texts.push({
+        text: String(entry.period),
+        x: x + LEGEND_SWATCH_PT + GAP,
+        y: y + LEGEND_SWATCH_PT / 2 + cap(LABEL_PT) / 2,
+        size: LABEL_PT,
+        rotate: 0,
+        role: 'legend',
+        colour: INK,
+      });
     });
   }
   captionLines.forEach((line, i) => {
@@ -244,7 +269,11 @@ const SCALE_BAR_INSET = 6;
  * The legend beside the frame in columns of rows (swatch, period) as tall
  * as the plate holds, top aligned with the plate; null for no legend.
  */
-function legendColumns(font: FigureFont, model: FigureModel, plateHeight: number): { rows: FigureModel['legend']; perColumn: number; columnWidth: number; width: number; headingHeight: number } | null {
+function legendColumns(
+  font: FigureFont,
+  model: FigureModel,
+  plateHeight: number,
+): { rows: FigureModel['legend']; perColumn: number; columnWidth: number; width: number; headingHeight: number } | null {
   if (model.legend.length === 0) return null;
   const headingHeight = font.capHeight * TITLE_PT + font.descent * TITLE_PT + GAP;
   const perColumn = Math.max(1, Math.floor((plateHeight - headingHeight) / LEGEND_ROW_PT));
@@ -271,7 +300,14 @@ function segmentMeets(ax: number, ay: number, bx: number, by: number, r: Rect): 
  * plate and covers neither another label nor any ray; null when there is
  * no such place.
  */
-function placeRayLabel(font: FigureFont, text: string, runs: readonly number[][], plate: Rect, placed: readonly Rect[], allRuns: readonly number[][]): { x: number; y: number; box: Rect } | null {
+function placeRayLabel(
+  font: FigureFont,
+  text: string,
+  runs: readonly number[][],
+  plate: Rect,
+  placed: readonly Rect[],
+  allRuns: readonly number[][],
+): { x: number; y: number; box: Rect } | null {
   const w = font.width(text, LABEL_PT);
   const h = font.capHeight * LABEL_PT;
   const pad = 1.2;
@@ -308,7 +344,15 @@ function placeRayLabel(font: FigureFont, text: string, runs: readonly number[][]
 }
 
 /** Where a point's label goes: right of the ring, then left, above, below; null when none of those is free. */
-function placePointLabel(font: FigureFont, text: string, cx: number, cy: number, plate: Rect, placed: readonly Rect[], allRuns: readonly number[][]): { x: number; y: number; box: Rect } | null {
+function placePointLabel(
+  font: FigureFont,
+  text: string,
+  cx: number,
+  cy: number,
+  plate: Rect,
+  placed: readonly Rect[],
+  allRuns: readonly number[][],
+): { x: number; y: number; box: Rect } | null {
   const w = font.width(text, LABEL_PT);
   const h = font.capHeight * LABEL_PT;
   const pad = 1.2;

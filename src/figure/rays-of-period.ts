@@ -22,7 +22,8 @@ export async function raysOfPeriod(period: number, grid: DoubleGrid, workers: nu
       return re >= box.re0 && re <= box.re1 && im >= box.im0 && im <= box.im1 && c.size >= OUTLINE_MIN_PIXELS * grid.spacing;
     })
     .sort((a, b) => a.reHi - b.reHi || a.imHi - b.imHi);
-  if (inView.length === 0) throw new UserError('figure.raysOf', `a period with a component in view at least ${OUTLINE_MIN_PIXELS} pixels across`, new Received(`period ${period} (none in view)`));
+  if (inView.length === 0)
+    throw new UserError('figure.raysOf', `a period with a component in view at least ${OUTLINE_MIN_PIXELS} pixels across`, new Received(`period ${period} (none in view)`));
   const angles = inView.flatMap((c) => c.angles.map((n) => angleText(mersenneAngle(n, period))));
   if (angles.length > most) throw new UserError('figure.raysOf', `a period with at most ${most} rays in view`, new Received(`period ${period} (${angles.length} rays)`));
   return angles;

@@ -18,7 +18,6 @@ import { PDF_METADATA_KEY } from './pdf-metadata-key.js';
 /** The creation and modification date of every figure: a sheet has no time (the metadata names the version). */
 export const FIXED_DATE = new Date(Date.UTC(2000, 0, 1, 0, 0, 0));
 
-
 export interface PdfDocInfo {
   readonly title: string;
   readonly creator: string;
@@ -33,7 +32,14 @@ export async function figurePdf(scene: FigureScene, png: Uint8Array, font: Figur
     margin: 0,
     autoFirstPage: true,
     compress: true,
-    info: { Title: info.title, Creator: info.creator, Producer: info.creator, CreationDate: FIXED_DATE, ModDate: FIXED_DATE, [PDF_METADATA_KEY]: info.metadata } as PDFKit.DocumentInfo,
+    info: {
+      Title: info.title,
+      Creator: info.creator,
+      Producer: info.creator,
+      CreationDate: FIXED_DATE,
+      ModDate: FIXED_DATE,
+      [PDF_METADATA_KEY]: info.metadata,
+    } as PDFKit.DocumentInfo,
   });
   const hash = createHash('sha256');
   hash.update(info.metadata);

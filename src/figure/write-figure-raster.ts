@@ -29,7 +29,12 @@ export interface RasterFigure {
 export const MAX_RASTER_FIGURE_PIXELS = 120_000_000;
 
 /** The page size in pixels and the plate's whole-pixel offset for a scene printed at `dpi`. */
-export function rasterPlacement(scene: FigureScene, dpi: number, plateWidth: number, plateHeight: number): { width: number; height: number; plateX: number; plateY: number; scale: number } {
+export function rasterPlacement(
+  scene: FigureScene,
+  dpi: number,
+  plateWidth: number,
+  plateHeight: number,
+): { width: number; height: number; plateX: number; plateY: number; scale: number } {
   const scale = dpi / 72;
   const plateX = Math.round(scene.plate.x * scale);
   const plateY = Math.round(scene.plate.y * scale);
@@ -44,7 +49,9 @@ export async function rasterFigure(scene: FigureScene, png: Uint8Array, dpi: num
   const meta = await image.metadata();
   const deep = meta.depth === 'ushort';
   // without toColourspace('rgb16') libvips hands back 16-bit samples cut to 8 bits and cast (ecosystem.md §1)
-  const { data: plate, info } = await (deep ? image.removeAlpha().toColourspace('rgb16').raw({ depth: 'ushort' }) : image.removeAlpha().raw()).toBuffer({ resolveWithObject: true });
+  const { data: plate, info } = await (deep ? image.removeAlpha().toColourspace('rgb16').raw({ depth: 'ushort' }) : image.removeAlpha().raw()).toBuffer({
+    resolveWithObject: true,
+  });
   if (info.channels !== 3) throw new Error(`rasterFigure: a plate of ${info.channels} channels`);
   const pw = info.width;
   const ph = info.height;

@@ -21,7 +21,9 @@ function escapeAttr(s: string): string {
 export function figureSvg(scene: FigureScene, href: string, font: FigureFont, title: string): string {
   const p = scene.plate;
   const out: string[] = [];
-  out.push(`<svg xmlns="http://www.w3.org/2000/svg" xmlns:xlink="http://www.w3.org/1999/xlink" width="${num(scene.width)}pt" height="${num(scene.height)}pt" viewBox="0 0 ${num(scene.width)} ${num(scene.height)}">`);
+  out.push(
+    `<svg xmlns="http://www.w3.org/2000/svg" xmlns:xlink="http://www.w3.org/1999/xlink" width="${num(scene.width)}pt" height="${num(scene.height)}pt" viewBox="0 0 ${num(scene.width)} ${num(scene.height)}">`,
+  );
   if (title !== '') out.push(`<title>${escapeAttr(title)}</title>`);
   out.push(`<defs><clipPath id="plate"><rect x="${num(p.x)}" y="${num(p.y)}" width="${num(p.width)}" height="${num(p.height)}"/></clipPath></defs>`);
   out.push(`<rect width="100%" height="100%" fill="#ffffff"/>`);
@@ -37,7 +39,9 @@ function annotations(scene: FigureScene, font: FigureFont, out: string[]): void 
     if (s.points.length < 4) continue;
     const pts: string[] = [];
     for (let i = 0; i + 1 < s.points.length; i += 2) pts.push(`${num(s.points[i]!)},${num(s.points[i + 1]!)}`);
-    out.push(`<polyline points="${pts.join(' ')}" fill="none" stroke="${s.colour}" stroke-width="${num(s.width)}" stroke-linejoin="round"${s.clip ? ' clip-path="url(#plate)"' : ''}/>`);
+    out.push(
+      `<polyline points="${pts.join(' ')}" fill="none" stroke="${s.colour}" stroke-width="${num(s.width)}" stroke-linejoin="round"${s.clip ? ' clip-path="url(#plate)"' : ''}/>`,
+    );
   }
   for (const f of scene.fills) {
     out.push(`<rect x="${num(f.x)}" y="${num(f.y)}" width="${num(f.width)}" height="${num(f.height)}" fill="${f.colour}" fill-opacity="${num(f.opacity)}"/>`);

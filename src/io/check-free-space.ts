@@ -16,11 +16,7 @@ export async function checkFreeSpace(dir: string, bytesNeeded: number, field: st
     return;
   }
   if (bytesNeeded > available) {
-    throw new UserError(
-      field,
-      `a directory with at least ${formatBytes(bytesNeeded)} free`,
-      `${dir} (${formatBytes(available)} free)`,
-    );
+    throw new UserError(field, `a directory with at least ${formatBytes(bytesNeeded)} free`, `${dir} (${formatBytes(available)} free)`);
   }
 }
 

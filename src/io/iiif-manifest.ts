@@ -57,10 +57,18 @@ export async function preparePyramidDir(dir: string, spec: PyramidSpec): Promise
   await removeStaleTempsUnder(dir);
   const check = (existing: PyramidSpec): void => {
     if (!sameSpec(existing, spec)) {
-      throw new UserError('--out-dir', 'an empty folder or one holding this same pyramid', new Received(`${dir} (holds a pyramid of a different sheet, size, tile size or format)`));
+      throw new UserError(
+        '--out-dir',
+        'an empty folder or one holding this same pyramid',
+        new Received(`${dir} (holds a pyramid of a different sheet, size, tile size or format)`),
+      );
     }
     if (existing.version !== spec.version) {
-      throw new UserError('--out-dir', `a pyramid started by quadatlas ${spec.version} (tiles of two versions may not match)`, new Received(`${dir} (started by quadatlas ${existing.version})`));
+      throw new UserError(
+        '--out-dir',
+        `a pyramid started by quadatlas ${spec.version} (tiles of two versions may not match)`,
+        new Received(`${dir} (started by quadatlas ${existing.version})`),
+      );
     }
   };
   const existing = await readPyramidSpec(dir);

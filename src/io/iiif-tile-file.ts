@@ -31,13 +31,21 @@ export function encodePngTile(pixels: Uint8Array, width: number, height: number)
     filterScanline(filtered, j * (stride + 1), cur, prev, 3);
     prev = cur;
   }
-  return Buffer.concat([PNG_SIGNATURE, ihdrChunk(width, height, 8, 3), ...srgbChunks(), pngChunk('IDAT', deflateSync(filtered, { level: 6 })), pngChunk('IEND', new Uint8Array(0))]);
+  return Buffer.concat([
+    PNG_SIGNATURE,
+    ihdrChunk(width, height, 8, 3),
+    ...srgbChunks(),
+    pngChunk('IDAT', deflateSync(filtered, { level: 6 })),
+    pngChunk('IEND', new Uint8Array(0)),
+  ]);
 }
 
 /** A baseline JPEG of the tile through sharp (libvips), 4:2:0, at `quality` (1-100). */
 export async function encodeJpegTile(pixels: Uint8Array, width: number, height: number, quality: number): Promise<Buffer> {
   const { default: sharp } = await import('sharp');
-  return sharp(pixels, { raw: { width, height, channels: 3 } }).jpeg({ quality }).toBuffer();
+  return sharp(pixels, { raw: { width, height, channels: 3 } })
+    .jpeg({ quality })
+    .toBuffer();
 }
 
 export async function encodeTile(pixels: Uint8Array, width: number, height: number, format: TileFormat, quality: number): Promise<Buffer> {

@@ -67,10 +67,7 @@ export function physChunk(dpi: number): Buffer {
  * keyword, NUL, zlib stream of the text.
  */
 export function itxtChunk(keyword: string, text: string): Buffer {
-  return pngChunk(
-    'iTXt',
-    Buffer.concat([Buffer.from(keyword, 'latin1'), Buffer.from([0, 1, 0, 0, 0]), deflateSync(Buffer.from(text, 'utf8'))]),
-  );
+  return pngChunk('iTXt', Buffer.concat([Buffer.from(keyword, 'latin1'), Buffer.from([0, 1, 0, 0, 0]), deflateSync(Buffer.from(text, 'utf8'))]));
 }
 
 /** tEXt: Latin-1 keyword, NUL, Latin-1 text (PNG spec 11.3.4.3). */

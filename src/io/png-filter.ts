@@ -14,14 +14,7 @@
  * winner. (Dropped: five scratch rows, one per filter; same result, more
  * memory traffic.) With `fixed` given, that filter is used without scoring.
  */
-export function filterScanline(
-  out: Uint8Array,
-  offset: number,
-  cur: Uint8Array,
-  prev: Uint8Array,
-  bpp: number,
-  fixed?: 0 | 1 | 2 | 3 | 4,
-): number {
+export function filterScanline(out: Uint8Array, offset: number, cur: Uint8Array, prev: Uint8Array, bpp: number, fixed?: 0 | 1 | 2 | 3 | 4): number {
   const n = cur.length;
   let best: number;
   if (fixed !== undefined) {
@@ -68,9 +61,9 @@ export function filterScanline(
     }
     best = 0;
     let bestSum = s0;
-    if (s1 < bestSum) (best = 1), (bestSum = s1);
-    if (s2 < bestSum) (best = 2), (bestSum = s2);
-    if (s3 < bestSum) (best = 3), (bestSum = s3);
+    if (s1 < bestSum) ((best = 1), (bestSum = s1));
+    if (s2 < bestSum) ((best = 2), (bestSum = s2));
+    if (s3 < bestSum) ((best = 3), (bestSum = s3));
     if (s4 < bestSum) best = 4;
   }
   out[offset] = best;

@@ -4,17 +4,7 @@ import { open, rename, rm } from 'node:fs/promises';
 import { basename, dirname } from 'node:path';
 import { createDeflate } from 'node:zlib';
 import type { Deflate } from 'node:zlib';
-import {
-  ihdrChunk,
-  iccpChunk,
-  itxtChunk,
-  METADATA_KEYWORD,
-  physChunk,
-  PNG_SIGNATURE,
-  pngChunk,
-  srgbChunks,
-  textChunk,
-} from './png-chunk.js';
+import { ihdrChunk, iccpChunk, itxtChunk, METADATA_KEYWORD, physChunk, PNG_SIGNATURE, pngChunk, srgbChunks, textChunk } from './png-chunk.js';
 import { filterScanline } from './png-filter.js';
 import type { RasterSink, RasterSpec } from './raster-sink.js';
 import { assertBand, assertRasterSpec } from './raster-sink.js';

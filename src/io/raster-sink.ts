@@ -49,12 +49,7 @@ export function assertRasterSpec(spec: RasterSpec): void {
  * Checks one band handed to writeRows against the spec and the rows already
  * written; returns the number of samples the band occupies.
  */
-export function assertBand(
-  spec: RasterSpec,
-  rowsWritten: number,
-  pixels: Uint8Array | Uint16Array,
-  rowCount: number,
-): number {
+export function assertBand(spec: RasterSpec, rowsWritten: number, pixels: Uint8Array | Uint16Array, rowCount: number): number {
   const want = spec.depth === 16 ? Uint16Array : Uint8Array;
   if (!(pixels instanceof want)) throw new TypeError(`expected ${want.name} pixels for depth ${spec.depth}`);
   if (!Number.isInteger(rowCount) || rowCount < 0) throw new RangeError(`row count ${rowCount}`);

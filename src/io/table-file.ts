@@ -30,7 +30,12 @@ function typed(v: string, type: ColumnType): string | number | null {
 export async function tableBytes(file: string, columns: readonly TableColumn[], rows: readonly (readonly string[])[]): Promise<string | Uint8Array> {
   const lower = file.toLowerCase();
   if (lower.endsWith('.csv')) return [columns.map((c) => c.name).join(','), ...rows.map((r) => r.map(csvCell).join(','))].join('\n') + '\n';
-  if (lower.endsWith('.json')) return `${JSON.stringify(rows.map((r) => Object.fromEntries(columns.map((c, i) => [c.name, typed(r[i] ?? '', c.type)]))), null, 2)}\n`;
+  if (lower.endsWith('.json'))
+    return `${JSON.stringify(
+      rows.map((r) => Object.fromEntries(columns.map((c, i) => [c.name, typed(r[i] ?? '', c.type)]))),
+      null,
+      2,
+    )}\n`;
   const { parquetWriteBuffer } = await import('hyparquet-writer');
   const columnData = columns.map((c, i) => ({
     name: c.name,

@@ -37,20 +37,17 @@ const ORBIT_BOUND2 = 64;
  * after the last step). Writes into `out` and returns it; `period` is the
  * period asked for, not necessarily the exact period (see reduceCyclePeriod).
  */
-export function attractingCycle(
-  cRe: number,
-  cIm: number,
-  period: number,
-  guessRe: number,
-  guessIm: number,
-  out: CycleResult = createCycleResult(),
-): CycleResult {
-  let wr = guessRe, wi = guessIm;
+export function attractingCycle(cRe: number, cIm: number, period: number, guessRe: number, guessIm: number, out: CycleResult = createCycleResult()): CycleResult {
+  let wr = guessRe,
+    wi = guessIm;
   let settled = false;
   out.converged = false;
   out.ok = false;
   for (let step = 0; step <= MAX_NEWTON_STEPS; step++) {
-    let zr = wr, zi = wi, dr = 1, di = 0;
+    let zr = wr,
+      zi = wi,
+      dr = 1,
+      di = 0;
     let bounded = true;
     for (let j = 0; j < period; j++) {
       const t = 2 * (zr * dr - zi * di);
@@ -74,8 +71,10 @@ export function attractingCycle(
       out.ok = dr * dr + di * di < 1;
       return out;
     }
-    const fr = zr - wr, fi = zi - wi;
-    const gr = dr - 1, gi = di;
+    const fr = zr - wr,
+      fi = zi - wi;
+    const gr = dr - 1,
+      gi = di;
     const den = gr * gr + gi * gi;
     if (!(den > 0)) break;
     const sr = (fr * gr + fi * gi) / den;
@@ -104,22 +103,19 @@ const DIVISOR_FILTER = 1e-6;
  * smaller period is found, `cycle` is overwritten with the F^d result (its
  * multiplier is D_z F^d); returns the exact period. `temp` is scratch.
  */
-export function reduceCyclePeriod(
-  cRe: number,
-  cIm: number,
-  period: number,
-  cycle: CycleResult,
-  temp: CycleResult = createCycleResult(),
-): number {
-  const wr = cycle.wRe, wi = cycle.wIm;
+export function reduceCyclePeriod(cRe: number, cIm: number, period: number, cycle: CycleResult, temp: CycleResult = createCycleResult()): number {
+  const wr = cycle.wRe,
+    wi = cycle.wIm;
   const limit2 = DIVISOR_FILTER * DIVISOR_FILTER * (1 + wr * wr + wi * wi);
-  let zr = wr, zi = wi;
+  let zr = wr,
+    zi = wi;
   for (let d = 1; d < period; d++) {
     const u = zr * zr - zi * zi + cRe;
     zi = 2 * zr * zi + cIm;
     zr = u;
     if (period % d !== 0) continue;
-    const er = zr - wr, ei = zi - wi;
+    const er = zr - wr,
+      ei = zi - wi;
     if (!(er * er + ei * ei <= limit2)) continue;
     attractingCycle(cRe, cIm, d, wr, wi, temp);
     if (temp.ok) {

@@ -17,13 +17,17 @@ import type { CycleResult } from './attracting-cycle.js';
  * returns the period (1 or 2), or 0 when c is in neither component.
  */
 export function closedFormCycle(cRe: number, cIm: number, out: CycleResult): number {
-  const x = cRe - 0.25, y2 = cIm * cIm;
+  const x = cRe - 0.25,
+    y2 = cIm * cIm;
   const q = x * x + y2;
   if (q * (q + x) <= 0.25 * y2) {
     // sqrt(1 - 4c)
-    const ar = 1 - 4 * cRe, ai = -4 * cIm;
-    const sr = sqrtRe(ar, ai), si = sqrtIm(ar, ai, sr);
-    const mr = 1 - sr, mi = -si;
+    const ar = 1 - 4 * cRe,
+      ai = -4 * cIm;
+    const sr = sqrtRe(ar, ai),
+      si = sqrtIm(ar, ai, sr);
+    const mr = 1 - sr,
+      mi = -si;
     if (mr * mr + mi * mi < 1) {
       out.wRe = 0.5 * mr;
       out.wIm = 0.5 * mi;
@@ -36,8 +40,10 @@ export function closedFormCycle(cRe: number, cIm: number, out: CycleResult): num
   }
   const u = cRe + 1;
   if (u * u + y2 < 0.0625) {
-    const ar = -3 - 4 * cRe, ai = -4 * cIm;
-    const sr = sqrtRe(ar, ai), si = sqrtIm(ar, ai, sr);
+    const ar = -3 - 4 * cRe,
+      ai = -4 * cIm;
+    const sr = sqrtRe(ar, ai),
+      si = sqrtIm(ar, ai, sr);
     out.wRe = 0.5 * (sr - 1);
     out.wIm = 0.5 * si;
     out.mulRe = 4 * u;

@@ -35,15 +35,7 @@ export function createLoopOut(count: number): LoopOut {
  * in escape-loop-wasm.ts): iterate slots 0..count-1 of (cr, ci) and write
  * into `out`. Implementations must give bit-identical results.
  */
-export type EscapeLoop = (
-  cr: Float64Array,
-  ci: Float64Array,
-  count: number,
-  maxIterations: number,
-  escapeRadius2: number,
-  tolerance2: number,
-  out: LoopOut,
-) => void;
+export type EscapeLoop = (cr: Float64Array, ci: Float64Array, count: number, maxIterations: number, escapeRadius2: number, tolerance2: number, out: LoopOut) => void;
 
 /**
  * The hot loop: escape time of z -> z^2 + c from z_0 = 0 with Brent-style
@@ -79,8 +71,16 @@ export const escapeLoop: EscapeLoop = (cr, ci, count, maxIterations, escapeRadiu
   for (let k = 0; k < count; k++) {
     const a = cr[k]!;
     const b = ci[k]!;
-    let x = 0, y = 0, x2 = 0, y2 = 0, n = 0;
-    let sx = 0, sy = 0, saved = 0, next = 1, found = 0;
+    let x = 0,
+      y = 0,
+      x2 = 0,
+      y2 = 0,
+      n = 0;
+    let sx = 0,
+      sy = 0,
+      saved = 0,
+      next = 1,
+      found = 0;
     while (n < maxIterations && x2 + y2 <= escapeRadius2) {
       y = 2 * x * y + b;
       x = x2 - y2 + a;
@@ -88,7 +88,8 @@ export const escapeLoop: EscapeLoop = (cr, ci, count, maxIterations, escapeRadiu
       y2 = y * y;
       n++;
       if (checking) {
-        const ex = x - sx, ey = y - sy;
+        const ex = x - sx,
+          ey = y - sy;
         if (ex * ex + ey * ey < tolerance2) {
           found = n - saved;
           break;

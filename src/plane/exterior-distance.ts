@@ -13,7 +13,12 @@
  * only escaped samples pay for it. Returns 0 if |d_n| overflowed.
  */
 export function exteriorDistance(cRe: number, cIm: number, iterations: number, zRe: number, zIm: number): number {
-  let x = 0, y = 0, x2 = 0, y2 = 0, dr = 0, di = 0;
+  let x = 0,
+    y = 0,
+    x2 = 0,
+    y2 = 0,
+    dr = 0,
+    di = 0;
   for (let j = 0; j < iterations; j++) {
     const t = 2 * (x * dr - y * di) + 1;
     di = 2 * (x * di + y * dr);

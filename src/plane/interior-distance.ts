@@ -15,8 +15,16 @@
  * denominator vanishes or w is not on an attracting cycle.
  */
 export function interiorDistance(cRe: number, cIm: number, wRe: number, wIm: number, period: number): number {
-  let zr = wRe, zi = wIm;
-  let dzr = 1, dzi = 0, dcr = 0, dci = 0, dzzr = 0, dzzi = 0, dczr = 0, dczi = 0;
+  let zr = wRe,
+    zi = wIm;
+  let dzr = 1,
+    dzi = 0,
+    dcr = 0,
+    dci = 0,
+    dzzr = 0,
+    dzzi = 0,
+    dczr = 0,
+    dczi = 0;
   for (let j = 0; j < period; j++) {
     const czr = 2 * (zr * dczr - zi * dczi + (dcr * dzr - dci * dzi));
     const czi = 2 * (zr * dczi + zi * dczr + (dcr * dzi + dci * dzr));
@@ -29,16 +37,25 @@ export function interiorDistance(cRe: number, cIm: number, wRe: number, wIm: num
     const u = zr * zr - zi * zi + cRe;
     zi = 2 * zr * zi + cIm;
     zr = u;
-    dczr = czr; dczi = czi; dzzr = zzr; dzzi = zzi; dcr = cr; dci = ci; dzr = nzr; dzi = nzi;
+    dczr = czr;
+    dczi = czi;
+    dzzr = zzr;
+    dzzi = zzi;
+    dcr = cr;
+    dci = ci;
+    dzr = nzr;
+    dzi = nzi;
   }
   const mod2 = dzr * dzr + dzi * dzi;
   if (!(mod2 < 1)) return NaN;
   // q = D_zz D_c / (1 - D_z)
-  const pr = dzzr * dcr - dzzi * dci, pi = dzzr * dci + dzzi * dcr;
-  const gr = 1 - dzr, gi = -dzi;
+  const pr = dzzr * dcr - dzzi * dci,
+    pi = dzzr * dci + dzzi * dcr;
+  const gr = 1 - dzr,
+    gi = -dzi;
   const g2 = gr * gr + gi * gi;
-  const qr = (pr * gr + pi * gi) / g2, qi = (pi * gr - pr * gi) / g2;
+  const qr = (pr * gr + pi * gi) / g2,
+    qi = (pi * gr - pr * gi) / g2;
   const den = Math.hypot(dczr + qr, dczi + qi);
   return den > 0 ? (1 - mod2) / den : NaN;
 }
-

@@ -124,7 +124,8 @@ export function sampleParameters(
 
   let m = 0;
   for (let k = 0; k < count; k++) {
-    const a = cr[k]!, b = ci[k]!;
+    const a = cr[k]!,
+      b = ci[k]!;
     const p = closedFormCycle(a, b, cycle);
     if (p > 0) {
       writeInterior(out, k, p, cycle, interiorDistance(a, b, cycle.wRe, cycle.wIm, p), 0);
@@ -143,7 +144,8 @@ export function sampleParameters(
   const orbit = s.orbit;
   for (let j = 0; j < m; j++) {
     const k = s.index[j]!;
-    const a = s.cr[j]!, b = s.ci[j]!;
+    const a = s.cr[j]!,
+      b = s.ci[j]!;
     orbit.x = lo.zRe[j]!;
     orbit.y = lo.zIm[j]!;
     orbit.n = lo.iterations[j]!;
@@ -198,13 +200,15 @@ function confirmCycle(a: number, b: number, orbit: OrbitState, tol2: number, s: 
   let found = cycle.ok ? q : 0;
   if (found === 0 && q > 1) {
     // |F^d(z) - z| for the proper divisors, and |F^q(z) - z| as the yardstick.
-    let zr = orbit.x, zi = orbit.y;
+    let zr = orbit.x,
+      zi = orbit.y;
     for (let d = 1; d <= q; d++) {
       const u = zr * zr - zi * zi + a;
       zi = 2 * zr * zi + b;
       zr = u;
     }
-    const er = zr - orbit.x, ei = zi - orbit.y;
+    const er = zr - orbit.x,
+      ei = zi - orbit.y;
     const limit = DIVISOR_SLACK * (Math.sqrt(er * er + ei * ei) + Math.sqrt(tol2));
     const limit2 = limit * limit;
     zr = orbit.x;
@@ -214,7 +218,8 @@ function confirmCycle(a: number, b: number, orbit: OrbitState, tol2: number, s: 
       zi = 2 * zr * zi + b;
       zr = u;
       if (q % d !== 0) continue;
-      const fr = zr - orbit.x, fi = zi - orbit.y;
+      const fr = zr - orbit.x,
+        fi = zi - orbit.y;
       if (!(fr * fr + fi * fi <= limit2)) continue;
       attractingCycle(a, b, d, orbit.x, orbit.y, cycle);
       if (cycle.ok) found = d;
@@ -232,9 +237,17 @@ function confirmCycle(a: number, b: number, orbit: OrbitState, tol2: number, s: 
  * 1, 2, 4, ...); tol2 = 0 switches periodicity checking off.
  */
 function resumeOrbit(a: number, b: number, maxIterations: number, escapeRadius2: number, tol2: number, orbit: OrbitState): void {
-  let x = orbit.x, y = orbit.y, n = orbit.n;
-  let x2 = x * x, y2 = y * y;
-  let sx = x, sy = y, saved = n, span = 1, next = n + 1, found = 0;
+  let x = orbit.x,
+    y = orbit.y,
+    n = orbit.n;
+  let x2 = x * x,
+    y2 = y * y;
+  let sx = x,
+    sy = y,
+    saved = n,
+    span = 1,
+    next = n + 1,
+    found = 0;
   const checking = tol2 > 0;
   while (n < maxIterations && x2 + y2 <= escapeRadius2) {
     y = 2 * x * y + b;
@@ -243,7 +256,8 @@ function resumeOrbit(a: number, b: number, maxIterations: number, escapeRadius2:
     y2 = y * y;
     n++;
     if (checking) {
-      const ex = x - sx, ey = y - sy;
+      const ex = x - sx,
+        ey = y - sy;
       if (ex * ex + ey * ey < tol2) {
         found = n - saved;
         break;

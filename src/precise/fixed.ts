@@ -274,7 +274,7 @@ export function bigToNumberScaled(n: bigint, e: number): number {
     const sh = BigInt(len - 64);
     const top = a >> sh;
     // a sticky bit keeps Number()'s single rounding correct.
-    a = (top << sh) === a ? top : top | 1n;
+    a = top << sh === a ? top : top | 1n;
     e += len - 64;
   }
   const x = ldexp(Number(a), e);

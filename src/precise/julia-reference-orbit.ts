@@ -20,7 +20,13 @@ export interface JuliaReference {
 }
 
 /** Z_0 .. Z_M for Z_0 = start, stopping at escape or after maxIterations steps. Decimal strings never pass through a double. */
-export function computeJuliaReference(start: { readonly re: string; readonly im: string }, c: { readonly re: string; readonly im: string }, bits: number, maxIterations: number, escapeRadius: number): JuliaReference {
+export function computeJuliaReference(
+  start: { readonly re: string; readonly im: string },
+  c: { readonly re: string; readonly im: string },
+  bits: number,
+  maxIterations: number,
+  escapeRadius: number,
+): JuliaReference {
   const s = fixedScale(bits);
   const cr = fromDecimal(c.re, s, 'c');
   const ci = fromDecimal(c.im, s, 'c');

@@ -281,12 +281,7 @@ export function orbitBytes(orbit: ReferenceOrbit): number {
  * steps, or after `options.period` steps. Decimal strings are parsed
  * exactly (fixed.ts) and never pass through a double.
  */
-export function computeReferenceOrbit(
-  centre: { readonly re: string; readonly im: string },
-  bits: number,
-  maxIterations: number,
-  options: ReferenceOptions = {},
-): ReferenceOrbit {
+export function computeReferenceOrbit(centre: { readonly re: string; readonly im: string }, bits: number, maxIterations: number, options: ReferenceOptions = {}): ReferenceOrbit {
   return orbitSnapshot(extendReferenceOrbit(startReferenceOrbit(centre, bits, options), maxIterations));
 }
 

@@ -16,7 +16,6 @@ export interface TruncationResult {
   readonly delta: string;
 }
 
-
 /** Progress of the whole plan: the fraction of the estimated work done (0..1) and the last step. */
 export type ConstantsProgress = (fraction: number, step: NewtonStep) => void;
 
@@ -47,10 +46,12 @@ export async function constantsOnWorkers(plan: ConstantsPlan, workers: number, p
   const weights = plan.terms.map((n) => n ** 3);
   const total = weights.reduce((a, b) => a + b, 0);
   const done = plan.terms.map(() => 0);
-  const tracker = (i: number) => (step: NewtonStep): void => {
-    done[i] = Math.max(done[i]!, truncationProgress(step, plan.bits));
-    onProgress?.(done.reduce((a, d, j) => a + d * weights[j]!, 0) / total, step);
-  };
+  const tracker =
+    (i: number) =>
+    (step: NewtonStep): void => {
+      done[i] = Math.max(done[i]!, truncationProgress(step, plan.bits));
+      onProgress?.(done.reduce((a, d, j) => a + d * weights[j]!, 0) / total, step);
+    };
   const jobs: FeigenbaumJob[] = plan.terms.map((terms) => ({ type: 'truncation', order: plan.order, terms, bits: plan.bits, places }));
   if (workers <= 1) {
     return jobs.map((job, i) => {

@@ -10,7 +10,6 @@ import type { FromPyramidWorker, PyramidTileDoneMessage, PyramidTileMessage } fr
 import type { PyramidSpec } from '../view/pyramid-spec.js';
 import { builtWorkerUrl } from '../threads/built-worker.js';
 
-
 interface Pending {
   readonly message: PyramidTileMessage;
   readonly resolve: (r: PyramidTileDoneMessage) => void;

@@ -63,7 +63,16 @@ export interface FigureSummary {
 }
 
 /** A ray drawn: landing from Newton (decimal strings), and how far (in pixels) the traced part ended from it. */
-export interface RaySummary { angle: string; kind: string; preperiod: number; period: number; landing: { re: string; im: string }; tracedEnd: { re: string; im: string }; tracedEndPixels: number; landsInView: boolean }
+export interface RaySummary {
+  angle: string;
+  kind: string;
+  preperiod: number;
+  period: number;
+  landing: { re: string; im: string };
+  tracedEnd: { re: string; im: string };
+  tracedEndPixels: number;
+  landsInView: boolean;
+}
 
 /** Plate pixel coordinates of c values (re, im, ...): the inverse of pixelToC (view.ts), for any rotation. */
 function toPixels(grid: DoubleGrid, c: Float64Array): Float64Array {
@@ -78,12 +87,31 @@ function toPixels(grid: DoubleGrid, c: Float64Array): Float64Array {
 }
 
 /** The rays and outlines of the sheet, computed in c, with their polylines in plate pixels. */
-async function traceCurves(sheet: Sheet, view: View, workers: number): Promise<{ rays: ParameterRay[]; outlines: ComponentOutline[]; internal: FigureInternalRay[]; levels: number[]; curves: FigureCurve[] }> {
+async function traceCurves(
+  sheet: Sheet,
+  view: View,
+  workers: number,
+): Promise<{ rays: ParameterRay[]; outlines: ComponentOutline[]; internal: FigureInternalRay[]; levels: number[]; curves: FigureCurve[] }> {
   const spec = sheet.figure!;
-  if (spec.rays.length === 0 && spec.raysOf === 0 && spec.outlines === 0 && spec.equipotentials === 0 && spec.internalRays === null) return { rays: [], outlines: [], internal: [], levels: [], curves: [] };
+  if (spec.rays.length === 0 && spec.raysOf === 0 && spec.outlines === 0 && spec.equipotentials === 0 && spec.internalRays === null)
+    return { rays: [], outlines: [], internal: [], levels: [], curves: [] };
   const grid = doubleGrid(view);
-  const field = spec.rays.length > 0 ? 'figure.rays' : spec.raysOf > 0 ? 'figure.raysOf' : spec.outlines > 0 ? 'figure.outlines' : spec.internalRays !== null ? 'figure.internalRays' : 'figure.equipotentials';
-  if (!fitsDouble(grid)) throw new UserError(field, `a view that doubles resolve (${field === 'figure.outlines' || field === 'figure.internalRays' ? 'components are followed' : field === 'figure.equipotentials' ? 'equipotentials are followed' : 'rays are traced'} in double precision)`, `span ${sheet.view.span}`);
+  const field =
+    spec.rays.length > 0
+      ? 'figure.rays'
+      : spec.raysOf > 0
+        ? 'figure.raysOf'
+        : spec.outlines > 0
+          ? 'figure.outlines'
+          : spec.internalRays !== null
+            ? 'figure.internalRays'
+            : 'figure.equipotentials';
+  if (!fitsDouble(grid))
+    throw new UserError(
+      field,
+      `a view that doubles resolve (${field === 'figure.outlines' || field === 'figure.internalRays' ? 'components are followed' : field === 'figure.equipotentials' ? 'equipotentials are followed' : 'rays are traced'} in double precision)`,
+      `span ${sheet.view.span}`,
+    );
   const levels: number[] = [];
   const levelCurves: FigureCurve[] = [];
   if (spec.equipotentials > 0) {
@@ -92,7 +120,11 @@ async function traceCurves(sheet: Sheet, view: View, workers: number): Promise<{
     for (let k = 0; k < spec.equipotentials; k += 1) {
       const g = g0 / 2 ** k;
       if (equipotentialLevel(g).steps > MAX_CURVE_STEPS) {
-        throw new UserError('figure.equipotentials', `at most ${k} levels in this view (level G_0 / 2^k takes about 2^(k+7) Newton steps; the limit is ${MAX_CURVE_STEPS})`, spec.equipotentials);
+        throw new UserError(
+          'figure.equipotentials',
+          `at most ${k} levels in this view (level G_0 / 2^k takes about 2^(k+7) Newton steps; the limit is ${MAX_CURVE_STEPS})`,
+          spec.equipotentials,
+        );
       }
       const curve = equipotential(g, grid.spacing / 4);
       if (curve === null) throw new UserError('figure.equipotentials', 'levels whose curve Newton follows in double precision', new Received(`G = ${g}`));
@@ -133,7 +165,18 @@ function pinPixels(view: View, re: string, im: string): { x: number; y: number }
   return { x: view.width / 2 + (un * cos + vn * sin), y: view.height / 2 - (-un * sin + vn * cos) };
 }
 
-export async function renderFigure(sheet: Sheet, options: RenderSheetOptions = {}): Promise<PlateSummary & { figure: FigureSummary; rays: RaySummary[]; outlines: Array<{ period: number; nucleus: { re: number; im: number }; points: number }>; labels: Array<{ period: number; c: { re: number; im: number } }>; equipotentials: Array<{ potential: number }> }> {
+export async function renderFigure(
+  sheet: Sheet,
+  options: RenderSheetOptions = {},
+): Promise<
+  PlateSummary & {
+    figure: FigureSummary;
+    rays: RaySummary[];
+    outlines: Array<{ period: number; nucleus: { re: number; im: number }; points: number }>;
+    labels: Array<{ period: number; c: { re: number; im: number } }>;
+    equipotentials: Array<{ potential: number }>;
+  }
+> {
   const spec = sheet.figure;
   if (spec === null) throw new Error('renderFigure: the sheet has no figure');
   const file = sheet.output.file;
@@ -144,7 +187,14 @@ export async function renderFigure(sheet: Sheet, options: RenderSheetOptions = {
   const rasterFile = tempPathFor(besideName);
   // Period labels are set in the figure font over the plate, not drawn into its pixels.
   // A legend beside is set in the figure font beside the frame, not written as a file of its own.
-  const raster: Sheet = { ...sheet, depth: pdf ? 16 : sheet.depth, labels: 0, colour: sheet.colour.legend === 'beside' ? { ...sheet.colour, legend: 'none' } : sheet.colour, output: { file: rasterFile, data: sheet.output.data, sidecar: false }, figure: null };
+  const raster: Sheet = {
+    ...sheet,
+    depth: pdf ? 16 : sheet.depth,
+    labels: 0,
+    colour: sheet.colour.legend === 'beside' ? { ...sheet.colour, legend: 'none' } : sheet.colour,
+    output: { file: rasterFile, data: sheet.output.data, sidecar: false },
+    figure: null,
+  };
   const view: View = { centerRe: sheet.view.re, centerIm: sheet.view.im, span: sheet.view.span, width: sheet.width, height: sheet.height, rotation: sheet.view.rotation };
   // Rays first: an angle Newton cannot land is refused before the plate is rendered.
   const { rays, outlines, internal, levels, curves } = await traceCurves(sheet, view, options.workers ?? os.availableParallelism());
@@ -172,7 +222,11 @@ export async function renderFigure(sheet: Sheet, options: RenderSheetOptions = {
     } else if (format === 'png' || format === 'tif') {
       const place = rasterPlacement(scene, sheet.dpi, sheet.width, sheet.height);
       if (place.width * place.height > MAX_RASTER_FIGURE_PIXELS) {
-        throw new UserError('output.file', `a .pdf or .svg figure for a page over ${MAX_RASTER_FIGURE_PIXELS} pixels (annotations are rasterised in one piece)`, new Received(`${place.width}x${place.height} pixels`));
+        throw new UserError(
+          'output.file',
+          `a .pdf or .svg figure for a page over ${MAX_RASTER_FIGURE_PIXELS} pixels (annotations are rasterised in one piece)`,
+          new Received(`${place.width}x${place.height} pixels`),
+        );
       }
       const raster = await rasterFigure(scene, png, sheet.dpi, font);
       page = { width: raster.width, height: raster.height, plateX: raster.plateX, plateY: raster.plateY };
@@ -211,10 +265,13 @@ export async function renderFigure(sheet: Sheet, options: RenderSheetOptions = {
       raster: page,
       plate: { x: round(scene.plate.x), y: round(scene.plate.y), width: round(scene.plate.width), height: round(scene.plate.height) },
       page: { width: round(scene.width), height: round(scene.height) },
-      axes: model.axes === null ? null : {
-        re: { title: model.axes.re.title, ticks: model.axes.re.ticks.map((t) => ({ value: t.value, label: t.label })) },
-        im: { title: model.axes.im.title, ticks: model.axes.im.ticks.map((t) => ({ value: t.value, label: t.label })) },
-      },
+      axes:
+        model.axes === null
+          ? null
+          : {
+              re: { title: model.axes.re.title, ticks: model.axes.re.ticks.map((t) => ({ value: t.value, label: t.label })) },
+              im: { title: model.axes.im.title, ticks: model.axes.im.ticks.map((t) => ({ value: t.value, label: t.label })) },
+            },
       scaleBar: model.scaleBar === null ? null : { length: model.scaleBar.length, label: model.scaleBar.label, pixels: round(model.scaleBar.pixels) },
       legend: model.legend.map((e) => e.period),
       image,
@@ -238,12 +295,21 @@ export async function renderFigure(sheet: Sheet, options: RenderSheetOptions = {
       };
     });
     const files = [path.resolve(file), ...(image === null ? [] : [image]), ...summary.files.filter((f) => f !== summary.file)];
-    const result = { ...summary, file: path.resolve(file), files, figure, rays: raySummaries, equipotentials: levels.map((g) => ({ potential: g })), labels: scene.drawnMarks.map((m) => ({ period: marks[m]!.period, c: { re: marks[m]!.re, im: marks[m]!.im } })), outlines: outlines.map((o) => ({ period: o.period, nucleus: o.nucleus, points: o.points.length / 2 })),
+    const result = {
+      ...summary,
+      file: path.resolve(file),
+      files,
+      figure,
+      rays: raySummaries,
+      equipotentials: levels.map((g) => ({ potential: g })),
+      labels: scene.drawnMarks.map((m) => ({ period: marks[m]!.period, c: { re: marks[m]!.re, im: marks[m]!.im } })),
+      outlines: outlines.map((o) => ({ period: o.period, nucleus: o.nucleus, points: o.points.length / 2 })),
       internalRays: internal.map((r) => ({ period: r.period, nucleus: r.nucleus, angle: r.angle, end: { re: r.end.re, im: r.end.im }, points: r.points.length / 2 })),
       marks: spec.marks.map((m, i) => {
         const drawn = scene.drawnPoints.find((d) => d.index === i);
         return { re: m.re, im: m.im, label: m.label, inView: drawn !== undefined, labelled: drawn?.labelled ?? false };
-      }) };
+      }),
+    };
     if (sheet.output.sidecar) {
       const sidecar = `${file}.json`;
       await writeFileAtomic(sidecar, `${JSON.stringify({ metadata: JSON.parse(metadata) as unknown, summary: result }, null, 2)}\n`);

@@ -40,7 +40,8 @@ export function juliaReferences(sheet: JuliaSheet, bits: number, iterations: num
 
 /** The cycle of a sheet's c: known exactly for a cardioid angle, else found from the critical orbit. */
 export function sheetCycle(sheet: JuliaSheet): JuliaCycle {
-  const cRe = Number(sheet.c.re), cIm = Number(sheet.c.im);
+  const cRe = Number(sheet.c.re),
+    cIm = Number(sheet.c.im);
   if (sheet.cardioidAngle === 'golden') {
     const p = cardioidPoint(0, 0);
     return findJuliaCycle(cRe, cIm, { siegel: { wRe: p.mRe / 2, wIm: p.mIm / 2, name: 'golden mean (sqrt 5 - 1)/2' } });
@@ -96,7 +97,8 @@ export function juliaSheetJob(sheet: JuliaSheet): PreparedJuliaJob {
   const deepStarted = process.hrtime.bigint();
   const deep = arithmetic === 'deep' ? juliaReferences(sheet, bits, iterations) : undefined;
   const referenceSeconds = Number(process.hrtime.bigint() - deepStarted) / 1e9;
-  const cRe = Number(sheet.c.re), cIm = Number(sheet.c.im);
+  const cRe = Number(sheet.c.re),
+    cIm = Number(sheet.c.im);
   const cycle = sheetCycle(sheet);
   const trap = juliaTrap(cycle, cRe, cIm, DEFAULT_ESCAPE_RADIUS);
   const marks = juliaMarks(sheet.marks, grid, sheet.dpi, cRe, cIm, cycle);
@@ -133,7 +135,14 @@ export async function renderJuliaSheet(sheet: JuliaSheet, options: RenderSheetOp
     tileSize: options.tileSize ?? DEFAULT_TILE_SIZE,
     metadata: juliaMetadata(sheet, iterations, arithmetic, bits),
     arithmetic,
-    precision: arithmetic === 'deep' ? { referenceBits: bits, referenceSeconds: Math.round(referenceSeconds * 1000) / 1000, references: { centre: deep!.centreRe.length - 1, critical: deep!.criticalRe.length - 1 } } : { referenceBits: 53 },
+    precision:
+      arithmetic === 'deep'
+        ? {
+            referenceBits: bits,
+            referenceSeconds: Math.round(referenceSeconds * 1000) / 1000,
+            references: { centre: deep!.centreRe.length - 1, critical: deep!.criticalRe.length - 1 },
+          }
+        : { referenceBits: 53 },
     iterations,
     julia,
     ...(options.label === undefined ? {} : { label: options.label }),

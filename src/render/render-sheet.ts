@@ -71,7 +71,10 @@ export interface PlateSummary {
  * fixes the pixels, plus what was derived from it (arithmetic, reference
  * precision, the resolved iteration limit) for the reader's information.
  */
-export function plateMetadata(sheet: Sheet, derived: { arithmetic: 'double' | 'deep'; bits: number; iterations: number; iterationsRule?: IterationChoice['rule']; probe?: IterationChoice['probe'] }): string {
+export function plateMetadata(
+  sheet: Sheet,
+  derived: { arithmetic: 'double' | 'deep'; bits: number; iterations: number; iterationsRule?: IterationChoice['rule']; probe?: IterationChoice['probe'] },
+): string {
   return JSON.stringify({
     tool: 'quadatlas',
     version: toolVersion(),
@@ -139,7 +142,12 @@ async function prepareDirectory(dir: string, field: string): Promise<void> {
  * ask for |s| / 2 >= the label's height in pixels.
  */
 async function periodLabels(grid: DoubleGrid, maxPeriod: number, dpi: number, workers: number): Promise<Legend[]> {
-  const corners = [[0, 0], [grid.width, 0], [0, grid.height], [grid.width, grid.height]].map(([x, y]) => pixelToC(grid, x!, y!, new Float64Array(2)));
+  const corners = [
+    [0, 0],
+    [grid.width, 0],
+    [0, grid.height],
+    [grid.width, grid.height],
+  ].map(([x, y]) => pixelToC(grid, x!, y!, new Float64Array(2)));
   const box = {
     re0: Math.min(...corners.map((c) => c[0]!)),
     re1: Math.max(...corners.map((c) => c[0]!)),
@@ -200,27 +208,45 @@ export async function renderSheet(sheet: Sheet, options: RenderSheetOptions = {}
   const tileSize = options.tileSize ?? DEFAULT_TILE_SIZE;
   // Periods never exceed the iteration limit, which bounds the legend's number width.
   const bounds = legendBounds(sheet.colour, sheet.width, sheet.height, sheet.dpi, String(iterations).length);
-  const { job, referenceSeconds, tableSeconds, memory } = sheetJob(sheet, grid, iterations, arith, {
-    ...(bounds === null ? {} : { legendBounds: bounds }),
-    depth: sheet.depth,
-    withData: sheet.output.data !== null,
-    labels: sheet.labels > 0 ? await periodLabels(grid, sheet.labels, sheet.dpi, workers) : [],
-  }, choice.builder);
+  const { job, referenceSeconds, tableSeconds, memory } = sheetJob(
+    sheet,
+    grid,
+    iterations,
+    arith,
+    {
+      ...(bounds === null ? {} : { legendBounds: bounds }),
+      depth: sheet.depth,
+      withData: sheet.output.data !== null,
+      labels: sheet.labels > 0 ? await periodLabels(grid, sheet.labels, sheet.dpi, workers) : [],
+    },
+    choice.builder,
+  );
   const deepTimes = { reference: referenceSeconds, table: tableSeconds };
 
   const metadata = plateMetadata(sheet, { arithmetic, bits, iterations, iterationsRule: choice.rule, ...(choice.probe === undefined ? {} : { probe: choice.probe }) });
-  const precision = arithmetic === 'deep'
-    ? {
-        referenceBits: bits,
-        unitExponent: plan.unitExponent,
-        reference: sheet.reference ?? { re: sheet.view.re, im: sheet.view.im, period: 0 },
-        referenceSeconds: round3(deepTimes.reference),
-        tableSeconds: round3(deepTimes.table),
-        ...(memory === undefined ? {} : { memory: { ...memory, bound: deepBound(iterations, sheet), boundRule: DEEP_BOUND_RULE } }),
-      }
-    : { referenceBits: 53 };
+  const precision =
+    arithmetic === 'deep'
+      ? {
+          referenceBits: bits,
+          unitExponent: plan.unitExponent,
+          reference: sheet.reference ?? { re: sheet.view.re, im: sheet.view.im, period: 0 },
+          referenceSeconds: round3(deepTimes.reference),
+          tableSeconds: round3(deepTimes.table),
+          ...(memory === undefined ? {} : { memory: { ...memory, bound: deepBound(iterations, sheet), boundRule: DEEP_BOUND_RULE } }),
+        }
+      : { referenceBits: 53 };
   const iterationsChoice = { rule: choice.rule, ...(choice.probe === undefined ? {} : { probe: choice.probe }), probeSeconds: round3(choice.probeSeconds) };
-  return writePlate(sheet, job, { started, workers, tileSize, metadata, arithmetic, precision, iterations, iterationsChoice, ...(options.label === undefined ? {} : { label: options.label }) });
+  return writePlate(sheet, job, {
+    started,
+    workers,
+    tileSize,
+    metadata,
+    arithmetic,
+    precision,
+    iterations,
+    iterationsChoice,
+    ...(options.label === undefined ? {} : { label: options.label }),
+  });
 }
 
 /** How a plate job is run and recorded: everything writePlate needs beyond the sheet and the job. */
@@ -264,7 +290,11 @@ export async function writePlate(sheet: Sheet, job: PlateJob, run: PlateRun): Pr
     const heldRows = bounds.y === 0 ? sheet.height : sheet.height - bounds.y + tileSize;
     const held = sheet.width * heldRows * bytesPerPixel(job) + bounds.width * (bounds.height + 2 * tileSize) * 24;
     if (held > os.totalmem() / 4) {
-      throw new UserError('colour.legendCorner', 'a bottom corner, or colour.legend "beside", for a plate this large (a top inset legend holds the whole plate in memory)', sheet.colour.legendCorner);
+      throw new UserError(
+        'colour.legendCorner',
+        'a bottom corner, or colour.legend "beside", for a plate this large (a top inset legend holds the whole plate in memory)',
+        sheet.colour.legendCorner,
+      );
     }
   }
   // Disk: the image (estimated at a quarter of its raw size, twice for TIFF's bands) plus the exact NPY sizes.
@@ -326,7 +356,15 @@ export async function writePlate(sheet: Sheet, job: PlateJob, run: PlateRun): Pr
       iterations,
       iterationsRule: sheet.iterations === 'auto' ? 'auto' : 'given',
       ...(run.iterationsChoice === undefined ? {} : { iterationsChoice: run.iterationsChoice }),
-      deepIterations: arithmetic === 'deep' ? { stepped: stats.stepped, skipped: stats.skipped, skips: stats.skips, skippedFraction: stats.stepped + stats.skipped > 0 ? stats.skipped / (stats.stepped + stats.skipped) : 0 } : null,
+      deepIterations:
+        arithmetic === 'deep'
+          ? {
+              stepped: stats.stepped,
+              skipped: stats.skipped,
+              skips: stats.skips,
+              skippedFraction: stats.stepped + stats.skipped > 0 ? stats.skipped / (stats.stepped + stats.skipped) : 0,
+            }
+          : null,
       samples: sheet.samples,
       seconds: Math.round(seconds * 1000) / 1000,
       pixels: { total: sheet.width * sheet.height, escaped: stats.escaped, interior: stats.interior, undecided: stats.undecided, refined: stats.refined },

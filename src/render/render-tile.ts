@@ -261,7 +261,9 @@ export function renderTile(job: PlateJob, tile: Tile, scratch: TileScratch, loop
       stats.samples += m;
       for (let o = 0; o < owners.length; o++) {
         const p = owners[o]!;
-        let r = 0, g = 0, b = 0;
+        let r = 0,
+          g = 0,
+          b = 0;
         for (let s = 0; s < K; s++) {
           const q = 3 * (o * K + s);
           r += refinedLinear[q]!;

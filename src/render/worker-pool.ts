@@ -10,7 +10,6 @@ import type { FromWorker, TileDoneMessage, ToWorker } from './tile-messages.js';
 import type { PlateJob } from './plate-job.js';
 import { builtWorkerUrl } from '../threads/built-worker.js';
 
-
 interface Pending {
   tile: Tile;
   resolve: (r: TileDoneMessage) => void;

@@ -66,7 +66,9 @@ export function comparePlateSvg(spec: CompareSpec): string {
   const x = (c: number): number => left + ((c - from) / (to - from)) * W;
   const f = (v: number): string => v.toFixed(2);
   const out: string[] = [];
-  out.push(`<svg xmlns="http://www.w3.org/2000/svg" xmlns:xlink="http://www.w3.org/1999/xlink" width="${totalW}" height="${totalH}" viewBox="0 0 ${totalW} ${totalH}" font-family="sans-serif" font-size="14">`);
+  out.push(
+    `<svg xmlns="http://www.w3.org/2000/svg" xmlns:xlink="http://www.w3.org/1999/xlink" width="${totalW}" height="${totalH}" viewBox="0 0 ${totalW} ${totalH}" font-family="sans-serif" font-size="14">`,
+  );
   out.push(`<rect width="${totalW}" height="${totalH}" fill="white"/>`);
   out.push(`<text x="${left}" y="28" font-size="18">${esc(spec.title)}</text>`);
   out.push(`<image x="${left}" y="${top}" width="${W}" height="${hs}" xlink:href="data:image/png;base64,${spec.stripPng}"/>`);
@@ -83,9 +85,12 @@ export function comparePlateSvg(spec: CompareSpec): string {
     if (m.c < Math.min(from, to) || m.c > Math.max(from, to)) continue;
     const xm = x(m.c);
     const colour = m.kind === 'doubling' ? '#c0392b' : '#1f5f99';
-    out.push(`<line x1="${f(xm)}" y1="${top - 8}" x2="${f(xm)}" y2="${top + hs + hd}" stroke="${colour}" stroke-width="0.8" stroke-dasharray="${m.kind === 'window' ? '5 4' : 'none'}"><title>${esc(m.label)}</title></line>`);
+    out.push(
+      `<line x1="${f(xm)}" y1="${top - 8}" x2="${f(xm)}" y2="${top + hs + hd}" stroke="${colour}" stroke-width="0.8" stroke-dasharray="${m.kind === 'window' ? '5 4' : 'none'}"><title>${esc(m.label)}</title></line>`,
+    );
     // crowded marks (the cascade accumulates) keep their label in the <title> only
-    if (labels.take(m.label, xm, top - 12, 12, 'middle')) out.push(`<text x="${f(xm)}" y="${top - 12}" text-anchor="middle" font-size="12" fill="${colour}">${esc(m.label)}</text>`);
+    if (labels.take(m.label, xm, top - 12, 12, 'middle'))
+      out.push(`<text x="${f(xm)}" y="${top - 12}" text-anchor="middle" font-size="12" fill="${colour}">${esc(m.label)}</text>`);
   }
   out.push(`<rect x="${left}" y="${top}" width="${W}" height="${hs + hd}" fill="none" stroke="black"/>`);
   out.push(`<line x1="${left}" y1="${top + hs}" x2="${left + W}" y2="${top + hs}" stroke="black"/>`);
@@ -108,7 +113,8 @@ export function comparePlateSvg(spec: CompareSpec): string {
   for (const t of niceTicks(-imHalf, imHalf, Math.max(2, Math.floor(hs / 45)))) {
     if (Math.abs(t) > imHalf) continue;
     out.push(`<line class="im-tick" x1="${left - 6}" y1="${f(yIm(t))}" x2="${left}" y2="${f(yIm(t))}" stroke="black"/>`);
-    if (labels.take(String(t), left - 9, yIm(t) + 4, 12, 'end')) out.push(`<text class="im-label" x="${left - 9}" y="${f(yIm(t) + 4)}" text-anchor="end" font-size="12">${t}</text>`);
+    if (labels.take(String(t), left - 9, yIm(t) + 4, 12, 'end'))
+      out.push(`<text class="im-label" x="${left - 9}" y="${f(yIm(t) + 4)}" text-anchor="end" font-size="12">${t}</text>`);
   }
   const s0 = spec.stateFrom ?? 0;
   const s1 = spec.stateTo ?? 1;
@@ -121,7 +127,9 @@ export function comparePlateSvg(spec: CompareSpec): string {
   out.push(`<text x="20" y="${f(top + hs + hd / 2)}" text-anchor="middle" transform="rotate(-90 20 ${f(top + hs + hd / 2)})">x</text>`);
   out.push(`<text x="${left + W / 2}" y="${top - 56}" text-anchor="middle">c (the plane z -> z^2 + c; real axis through the middle of the strip)</text>`);
   out.push(`<text x="${left + W / 2}" y="${top + hs + hd + 50}" text-anchor="middle">r (logistic x -> r x (1 - x)), with c = r/2 - r^2/4: r grows to the left</text>`);
-  out.push(`<text x="${left + W}" y="${totalH - 8}" text-anchor="end" font-size="11" fill="#555">red: period doublings of the cascade; blue dashed: nucleus of each window's component, labelled by period; shaded: window onset to end</text>`);
+  out.push(
+    `<text x="${left + W}" y="${totalH - 8}" text-anchor="end" font-size="11" fill="#555">red: period doublings of the cascade; blue dashed: nucleus of each window's component, labelled by period; shaded: window onset to end</text>`,
+  );
   out.push('</svg>\n');
   return out.join('\n');
 }

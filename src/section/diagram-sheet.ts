@@ -86,12 +86,46 @@ export function parseDiagramSheet(raw: Json, origin: FieldOrigin = {}): DiagramS
   if (windows === 1 || windows === 2) throw new UserError(fields.name('windows'), `0 (none) or a largest period from 3 to ${MAX_WINDOW_PERIOD}`, windows);
   const cascade = fields.boolean('cascade', false);
   const isFigure = /\.(pdf|svg)$/i.test(file);
-  if (!isFigure && (windows > 0 || cascade)) throw new UserError(fields.name(windows > 0 ? 'windows' : 'cascade'), 'an output file ending in .pdf or .svg (windows and the cascade are drawn on figures)', new Received(file));
-  return { kind: 'section-diagram', schema: SHEET_SCHEMA, family: family.name, r, x, pixels, samples, transient, iterations, depth, caption, windows, cascade, output: { file, sidecar } };
+  if (!isFigure && (windows > 0 || cascade))
+    throw new UserError(
+      fields.name(windows > 0 ? 'windows' : 'cascade'),
+      'an output file ending in .pdf or .svg (windows and the cascade are drawn on figures)',
+      new Received(file),
+    );
+  return {
+    kind: 'section-diagram',
+    schema: SHEET_SCHEMA,
+    family: family.name,
+    r,
+    x,
+    pixels,
+    samples,
+    transient,
+    iterations,
+    depth,
+    caption,
+    windows,
+    cascade,
+    output: { file, sidecar },
+  };
 }
 
 /** Everything that fixes the image, in a fixed key order (the sheet embedded in the file). */
 export function diagramRecord(sheet: DiagramSheet): Json {
   const { kind, schema, family, r, x, pixels, samples, transient, iterations, depth, caption, windows, cascade } = sheet;
-  return { kind, schema, family, r: { ...r }, x: { ...x }, pixels: { ...pixels }, samples, transient, iterations, depth, ...(caption === '' ? {} : { caption }), ...(windows === 0 ? {} : { windows }), ...(cascade ? { cascade } : {}) };
+  return {
+    kind,
+    schema,
+    family,
+    r: { ...r },
+    x: { ...x },
+    pixels: { ...pixels },
+    samples,
+    transient,
+    iterations,
+    depth,
+    ...(caption === '' ? {} : { caption }),
+    ...(windows === 0 ? {} : { windows }),
+    ...(cascade ? { cascade } : {}),
+  };
 }

@@ -22,13 +22,7 @@ export interface LyapunovSettings {
  * For each parameter params[k], writes the mean exponent into out[k] and
  * the largest minus smallest over the starts into spread[k].
  */
-export function lyapunovExponents(
-  family: UnimodalFamily,
-  params: Float64Array,
-  settings: LyapunovSettings,
-  out: Float64Array,
-  spread: Float64Array,
-): void {
+export function lyapunovExponents(family: UnimodalFamily, params: Float64Array, settings: LyapunovSettings, out: Float64Array, spread: Float64Array): void {
   const [lo, hi] = family.stateRange;
   const { transient, iterations, starts } = settings;
   for (let k = 0; k < params.length; k++) {

@@ -34,7 +34,10 @@ export const SVG_TEXT: Lettering = {
 const f2 = (v: number): string => v.toFixed(2);
 
 function frame(W: number, H: number): string[] {
-  return [`<svg xmlns="http://www.w3.org/2000/svg" width="${W}" height="${H}" viewBox="0 0 ${W} ${H}" font-family="DejaVu Sans, Helvetica, Arial, sans-serif">`, `<rect width="${W}" height="${H}" fill="white"/>`];
+  return [
+    `<svg xmlns="http://www.w3.org/2000/svg" width="${W}" height="${H}" viewBox="0 0 ${W} ${H}" font-family="DejaVu Sans, Helvetica, Arial, sans-serif">`,
+    `<rect width="${W}" height="${H}" fill="white"/>`,
+  ];
 }
 
 function tickLabel(t: number): string {
@@ -64,9 +67,11 @@ export function orbitPlotSvg(spec: OrbitPlotSpec, lettering: Lettering = SVG_TEX
   const W = spec.width ?? 1000;
   const H = spec.height ?? 560;
   const m = { l: 72, r: 180, t: 48, b: 58 };
-  const pw = W - m.l - m.r, ph = H - m.t - m.b;
+  const pw = W - m.l - m.r,
+    ph = H - m.t - m.b;
   const n = Math.max(...spec.series.map((s) => s.values.length)) - 1;
-  const x0 = spec.first, x1 = Math.max(spec.first + 1, spec.first + n);
+  const x0 = spec.first,
+    x1 = Math.max(spec.first + 1, spec.first + n);
   const [yLo, yHi] = spec.yRange;
   const sx = (i: number): number => m.l + ((i - x0) / (x1 - x0)) * pw;
   const sy = (y: number): number => m.t + ((yHi - Math.max(yLo, Math.min(yHi, y))) / (yHi - yLo)) * ph;
@@ -118,8 +123,10 @@ export interface CobwebSpec {
 export function cobwebSvg(spec: CobwebSpec, lettering: Lettering = SVG_TEXT): string {
   const S = spec.size ?? 760;
   const m = { l: 70, r: 28, t: 70, b: 58 };
-  const W = S, H = S + m.t - 40;
-  const pw = W - m.l - m.r, ph = H - m.t - m.b;
+  const W = S,
+    H = S + m.t - 40;
+  const pw = W - m.l - m.r,
+    ph = H - m.t - m.b;
   const [lo, hi] = spec.range;
   const sx = (x: number): number => m.l + ((x - lo) / (hi - lo)) * pw;
   const sy = (y: number): number => m.t + ((hi - Math.max(lo, Math.min(hi, y))) / (hi - lo)) * ph;
@@ -141,7 +148,8 @@ export function cobwebSvg(spec: CobwebSpec, lettering: Lettering = SVG_TEXT): st
   }
   parts.push(`<path d="${curve}" fill="none" stroke="#0072b2" stroke-width="2"/>`);
   const n = spec.steps.length - 1;
-  let px = spec.steps[0]!, py = lo;
+  let px = spec.steps[0]!,
+    py = lo;
   for (let k = 0; k < n; k++) {
     const next = spec.steps[k + 1]!;
     const opacity = (0.18 + 0.82 * ((k + 1) / n) ** 1.5).toFixed(3);

@@ -60,12 +60,14 @@ function iterate(family: UnimodalFamily, r: number, x: number, p: number): numbe
 function refineCycle(family: UnimodalFamily, r: number, guess: number, p: number): number {
   let x = guess;
   for (let step = 0; step < 50; step++) {
-    let y = x, d = 1;
+    let y = x,
+      d = 1;
     for (let k = 0; k < p; k++) {
       d *= family.dfdx(y, r);
       y = family.f(y, r);
     }
-    const g = y - x, dg = d - 1;
+    const g = y - x,
+      dg = d - 1;
     if (!(Math.abs(dg) > 0)) break;
     const next = x - g / dg;
     if (!Number.isFinite(next) || Math.abs(next - guess) > 1e-3 * (1 + Math.abs(guess))) return guess;
@@ -112,7 +114,8 @@ export function classifyOrbit(family: UnimodalFamily, r: number, x0: number, set
     y = family.f(y, r);
     if (Math.abs(y - x0) <= tol) {
       const c = cycleOf(family, r, refineCycle(family, r, x0, p), p);
-      if (stabilityOf(c.multiplier) !== 'attracting') return { kind: 'on-cycle', period: p, cycle: c.points, multiplier: c.multiplier, stability: stabilityOf(c.multiplier), ...base };
+      if (stabilityOf(c.multiplier) !== 'attracting')
+        return { kind: 'on-cycle', period: p, cycle: c.points, multiplier: c.multiplier, stability: stabilityOf(c.multiplier), ...base };
       break;
     }
   }

@@ -154,7 +154,10 @@ export function plotSvg(spec: PlotSpec): string {
     if (mk.at < Math.min(x0, x1) || mk.at > Math.max(x0, x1)) continue;
     const x = sx(mk.at);
     const w = textWidth(mk.label, 10);
-    for (const [bx, anchor, tx] of [[x + 1, 'start', x + 2], [x - w - 3, 'end', x - 2]] as const) {
+    for (const [bx, anchor, tx] of [
+      [x + 1, 'start', x + 2],
+      [x - w - 3, 'end', x - 2],
+    ] as const) {
       const box = { x: bx, y: labelY - 9, width: w + 2, height: 12 };
       if (box.x < m.l || box.x + box.width > m.l + pw) continue;
       if (placed.some((q) => overlap(q, box)) || markXs.some((mx) => mx > box.x && mx < box.x + box.width)) continue;

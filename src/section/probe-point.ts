@@ -65,20 +65,38 @@ export async function probePoint(c: DecimalPair, options: ProbeOptions): Promise
     const mu = smoothCount(n, zr, zi, Math.log(ESCAPE_RADIUS));
     const de = exteriorDistance(cr, ci, n, zr, zi);
     Object.assign(out, { escapes: true, iterations: n, smoothCount: mu, exteriorDistance: de });
-    lines.push(`escapes           yes, after ${n} iterations (radius 1e6)`, `smooth count      ${mu.toFixed(Math.min(digits, 12))}`, `distance estimate ${significant(de, digits)} (the distance to the set lies between a quarter of this and this)`);
+    lines.push(
+      `escapes           yes, after ${n} iterations (radius 1e6)`,
+      `smooth count      ${mu.toFixed(Math.min(digits, 12))}`,
+      `distance estimate ${significant(de, digits)} (the distance to the set lies between a quarter of this and this)`,
+    );
     // external angle by the ray traced outward (docs/methods.md D5)
     const ray = externalAngleOf(cr, ci, options.angleBits ?? 64, MAX_ANGLE_LEVEL);
     if (ray === null) {
-      if (options.angleBits !== undefined) throw new UserError('--angle-bits', `a c whose orbit escapes within ${MAX_ANGLE_LEVEL} iterations, so that its ray can be traced outward in double precision`, new Received(`c = ${c.re.text}, ${c.im.text}`));
+      if (options.angleBits !== undefined)
+        throw new UserError(
+          '--angle-bits',
+          `a c whose orbit escapes within ${MAX_ANGLE_LEVEL} iterations, so that its ray can be traced outward in double precision`,
+          new Received(`c = ${c.re.text}, ${c.im.text}`),
+        );
       out['externalAngle'] = null;
       lines.push(`external angle    not traced (the orbit escapes after more than ${MAX_ANGLE_LEVEL} iterations)`);
     } else {
       out['externalAngle'] = { binary: `0.${ray.digits}`, digits: ray.digits.length, certainDigits: ray.certain, turns: ray.turns };
       out['potential'] = ray.potential;
-      lines.push(`external angle    0.${ray.digits} (binary; ${ray.certain} of ${ray.digits.length} digits certain)`, `  in turns        ${ray.turns.toPrecision(16)}`, `potential G(c)    ${significant(ray.potential, digits)}`);
+      lines.push(
+        `external angle    0.${ray.digits} (binary; ${ray.certain} of ${ray.digits.length} digits certain)`,
+        `  in turns        ${ray.turns.toPrecision(16)}`,
+        `potential G(c)    ${significant(ray.potential, digits)}`,
+      );
     }
   } else {
-    if (options.angleBits !== undefined) throw new UserError('--angle-bits', 'a c outside the Mandelbrot set (an external angle belongs to an exterior c)', new Received(`c = ${c.re.text}, ${c.im.text}, whose orbit stays bounded for ${iterations} iterations`));
+    if (options.angleBits !== undefined)
+      throw new UserError(
+        '--angle-bits',
+        'a c outside the Mandelbrot set (an external angle belongs to an exterior c)',
+        new Received(`c = ${c.re.text}, ${c.im.text}, whose orbit stays bounded for ${iterations} iterations`),
+      );
     // attracting cycle: try periods in order from the settled orbit (A5)
     const cyc = createCycleResult();
     let period = 0;
@@ -145,7 +163,11 @@ export async function probePoint(c: DecimalPair, options: ProbeOptions): Promise
     for (let k = 0; k + 1 < zs.length; k += 2) points.push({ re: zs[k]!, im: zs[k + 1]! });
     const cycle = findJuliaCycle(cr, ci);
     out['criticalOrbit'] = { points, cycle: { kind: cycle.kind, period: cycle.period, points: cycle.pointsRe.map((re, j) => ({ re, im: cycle.pointsIm[j]! })), note: cycle.note } };
-    lines.push(`-- critical orbit --`, ...points.map((p, k) => `z_${String(k).padEnd(14)} ${p.re.toPrecision(15)} ${p.im < 0 ? '-' : '+'} ${Math.abs(p.im).toPrecision(15)} i`), `settles on        ${cycle.note}`);
+    lines.push(
+      `-- critical orbit --`,
+      ...points.map((p, k) => `z_${String(k).padEnd(14)} ${p.re.toPrecision(15)} ${p.im < 0 ? '-' : '+'} ${Math.abs(p.im).toPrecision(15)} i`),
+      `settles on        ${cycle.note}`,
+    );
   }
   return { json: out, lines };
 }

@@ -70,14 +70,7 @@ export function superstableParameter(family: UnimodalFamily, period: number, gue
  * Solves f_r^p(x) = x and (f_r^p)'(x) = multiplier for (x, r) by Newton on
  * the real 2 x 2 system, from (x0, r0).
  */
-export function multiplierParameter(
-  family: UnimodalFamily,
-  period: number,
-  multiplier: number,
-  guessR: string,
-  guessX: string,
-  digits: number,
-): RealNewtonResult {
+export function multiplierParameter(family: UnimodalFamily, period: number, multiplier: number, guessR: string, guessX: string, digits: number): RealNewtonResult {
   const D = workingDecimal(digits);
   const tol = new D(10).pow(-(digits + 4));
   const m = new D(multiplier);

@@ -84,7 +84,11 @@ function tableCsv(table: SectionTable): string {
 
 function tableText(table: SectionTable): string {
   const widths = table.columns.map((c, i) => Math.max(c.length, ...table.rows.map((r) => cellText(r[i]).length)));
-  const line = (cells: readonly string[]): string => cells.map((c, i) => c.padEnd(widths[i]!)).join('  ').trimEnd();
+  const line = (cells: readonly string[]): string =>
+    cells
+      .map((c, i) => c.padEnd(widths[i]!))
+      .join('  ')
+      .trimEnd();
   const out = [table.title, line(table.columns), line(widths.map((w) => '-'.repeat(w)))];
   for (const row of table.rows) out.push(line(table.columns.map((_, i) => cellText(row[i]))));
   if (table.summary.length > 0) {

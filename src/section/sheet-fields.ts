@@ -91,7 +91,11 @@ export class SheetFields {
     const ok = (n: unknown): n is number => typeof n === 'number' && Number.isInteger(n) && n >= min && n <= max;
     if (!ok(v['width']) || !ok(v['height'])) {
       const from = this.origin[path];
-      throw new UserError(from ?? path, from === undefined ? shape : `a size WxH in pixels, each between ${min} and ${max}`, from === undefined ? v : new Received(`${String(v['width'])}x${String(v['height'])}`));
+      throw new UserError(
+        from ?? path,
+        from === undefined ? shape : `a size WxH in pixels, each between ${min} and ${max}`,
+        from === undefined ? v : new Received(`${String(v['width'])}x${String(v['height'])}`),
+      );
     }
     return { width: v['width'], height: v['height'] };
   }
@@ -115,7 +119,10 @@ export function readInterval(fields: SheetFields, axis: string, lo: number, hi: 
   fields.only(axis, ['from', 'to'], `an object { "from": "...", "to": "..." } of decimal strings`);
   const from = fields.decimal(`${axis}.from`, fallback[0]);
   const to = fields.decimal(`${axis}.to`, fallback[1]);
-  for (const [end, v] of [['from', from], ['to', to]] as const) {
+  for (const [end, v] of [
+    ['from', from],
+    ['to', to],
+  ] as const) {
     const n = Number(v);
     if (!(n >= lo && n <= hi)) throw new UserError(fields.name(`${axis}.${end}`), `${what} between ${lo} and ${hi}`, v);
   }

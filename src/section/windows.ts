@@ -135,7 +135,12 @@ function must(ok: boolean, what: string): void {
 }
 
 /** Every window of period 1..maxPeriod, in increasing order of the parameter. */
-export function findWindows(family: UnimodalFamily, maxPeriod: number, digits: number, onPeriod?: (period: number, windows: number) => void): { windows: PeriodicWindow[]; D: DecimalCtor } {
+export function findWindows(
+  family: UnimodalFamily,
+  maxPeriod: number,
+  digits: number,
+  onPeriod?: (period: number, windows: number) => void,
+): { windows: PeriodicWindow[]; D: DecimalCtor } {
   if (family.maximumOrder !== 2) throw new RangeError(`windows need a quadratic maximum; ${family.name} has order ${family.maximumOrder}`);
   const D = workingDecimal(digits);
   const byWord = new Map<string, PeriodicWindow>();

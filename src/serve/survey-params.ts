@@ -113,7 +113,8 @@ export function tileRect(t: TileRequest): { x0: number; y0: number; w: number; h
 /** "RE,IM" for the probe. */
 export function pointParam(value: string | null, field: string): { re: string; im: string } {
   if (value === null) throw new UserError(field, 'a point RE,IM', new Received('nothing'));
-  if (value.length > 2 * MAX_DECIMAL_LENGTH + 1) throw new UserError(field, `a point RE,IM of at most ${2 * MAX_DECIMAL_LENGTH + 1} characters`, new Received(`${value.length} characters`));
+  if (value.length > 2 * MAX_DECIMAL_LENGTH + 1)
+    throw new UserError(field, `a point RE,IM of at most ${2 * MAX_DECIMAL_LENGTH + 1} characters`, new Received(`${value.length} characters`));
   const parts = value.split(',');
   if (parts.length !== 2) throw new UserError(field, 'a point RE,IM (two decimal numbers and a comma)', value);
   return { re: decimalParam(parts[0]!, `${field} (real part)`, 4), im: decimalParam(parts[1]!, `${field} (imaginary part)`, 4) };

@@ -259,7 +259,13 @@ export async function startSurvey(o: SurveyOptions): Promise<SurveyServer> {
     if (typeof body !== 'object' || body === null || Array.isArray(body)) throw new UserError('body', 'a JSON object { re, im, span, width, height, samples }', body);
     const b = body as Record<string, unknown>;
     // No other field (a file name, say) is ever read; naming one is an error, so nobody believes it was honoured.
-    for (const k of Object.keys(b)) if (!['re', 'im', 'span', 'width', 'height', 'samples'].includes(k)) throw new UserError(`body.${k.slice(0, 40)}`, 'only the fields re, im, span, width, height, samples (the server names the file)', new Received(`a field "${k.slice(0, 40)}"`));
+    for (const k of Object.keys(b))
+      if (!['re', 'im', 'span', 'width', 'height', 'samples'].includes(k))
+        throw new UserError(
+          `body.${k.slice(0, 40)}`,
+          'only the fields re, im, span, width, height, samples (the server names the file)',
+          new Received(`a field "${k.slice(0, 40)}"`),
+        );
     // Decimals as strings (a JSON number would already have lost digits), sizes as numbers.
     const str = (k: string): string | null => (typeof b[k] === 'string' ? (b[k] as string) : null);
     const num = (k: string): string | null => (typeof b[k] === 'number' ? String(b[k]) : null);
@@ -284,7 +290,15 @@ export async function startSurvey(o: SurveyOptions): Promise<SurveyServer> {
         name = `survey-${stamp(new Date())}-${++prints}.png`;
         file = path.join(o.outDir, name);
       } while (existsSync(file));
-      const sheet: Sheet = { ...o.base, title: o.base.title === '' ? 'survey print' : o.base.title, view: { re, im, span, rotation: 0 }, width, height, samples, output: { file, data: null, sidecar: true } };
+      const sheet: Sheet = {
+        ...o.base,
+        title: o.base.title === '' ? 'survey print' : o.base.title,
+        view: { re, im, span, rotation: 0 },
+        width,
+        height,
+        samples,
+        output: { file, data: null, sidecar: true },
+      };
       const summary = await renderSheet(sheet, { workers: o.workers, label: name });
       log(`quadatlas survey: printed ${summary.file} in ${summary.seconds} s`);
       sendJson(res, 200, { file: summary.file, files: summary.files, seconds: summary.seconds, arithmetic: summary.arithmetic, iterations: summary.iterations });

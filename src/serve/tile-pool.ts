@@ -64,13 +64,17 @@ export class TilePool {
     return new Promise((resolve, reject) => {
       const request: Request = { jobKey, job, tile, resolve, reject };
       this.queue.push(request);
-      signal?.addEventListener('abort', () => {
-        const k = this.queue.indexOf(request);
-        if (k >= 0) {
-          this.queue.splice(k, 1);
-          reject(new Withdrawn('withdrawn'));
-        }
-      }, { once: true });
+      signal?.addEventListener(
+        'abort',
+        () => {
+          const k = this.queue.indexOf(request);
+          if (k >= 0) {
+            this.queue.splice(k, 1);
+            reject(new Withdrawn('withdrawn'));
+          }
+        },
+        { once: true },
+      );
       this.pump();
     });
   }

@@ -147,8 +147,15 @@ export class TileService {
     const known = this.jobs.get(key);
     if (known !== undefined) return known;
     const iterations = resolveIterations(sheet);
-    if (iterations > MAX_SURVEY_ITERATIONS) throw new UserError('level', `a view needing at most ${MAX_SURVEY_ITERATIONS} iterations in the survey (use plate for deeper ones)`, iterations);
-    const prepared = sheetJob(sheet, doubleGrid({ centerRe: sheet.view.re, centerIm: sheet.view.im, span: sheet.view.span, width: sheet.width, height: sheet.height, rotation: 0 }), iterations, sheetArithmetic(sheet), { depth: 8, withData: false, labels: [] });
+    if (iterations > MAX_SURVEY_ITERATIONS)
+      throw new UserError('level', `a view needing at most ${MAX_SURVEY_ITERATIONS} iterations in the survey (use plate for deeper ones)`, iterations);
+    const prepared = sheetJob(
+      sheet,
+      doubleGrid({ centerRe: sheet.view.re, centerIm: sheet.view.im, span: sheet.view.span, width: sheet.width, height: sheet.height, rotation: 0 }),
+      iterations,
+      sheetArithmetic(sheet),
+      { depth: 8, withData: false, labels: [] },
+    );
     const entry = { key, job: prepared.job };
     this.jobs.set(key, entry, 0);
     return entry;

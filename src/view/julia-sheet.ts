@@ -73,7 +73,8 @@ export function cardioidPoint(s: number, q: number): { cRe: number; cIm: number;
   // q = 0 stands for the golden mean theta = (sqrt 5 - 1) / 2.
   const turn = q === 0 ? 2 * Math.PI * GOLDEN_MEAN : (2 * Math.PI * s) / q;
   const [mRe, mIm] = exact[`${s}/${q}`] ?? [Math.cos(turn), Math.sin(turn)];
-  const m2Re = mRe * mRe - mIm * mIm, m2Im = 2 * mRe * mIm;
+  const m2Re = mRe * mRe - mIm * mIm,
+    m2Im = 2 * mRe * mIm;
   return { cRe: mRe / 2 - m2Re / 4, cIm: mIm / 2 - m2Im / 4, mRe, mIm };
 }
 
@@ -81,7 +82,8 @@ function parseMarks(value: unknown): JuliaMarks {
   if (value === undefined) return { orbit: 0, cycle: false, fixedPoints: false, rays: [] };
   if (!isObject(value)) throw new UserError('marks', 'an object { "orbit": N, "cycle": true, "fixedPoints": true, "rays": ["1/7"] }', value);
   for (const key of Object.keys(value)) {
-    if (!['orbit', 'cycle', 'fixedPoints', 'rays'].includes(key)) throw new UserError(`marks.${key}`, 'one of the fields orbit, cycle, fixedPoints, rays in marks', new Received(`an unknown field "${key}"`));
+    if (!['orbit', 'cycle', 'fixedPoints', 'rays'].includes(key))
+      throw new UserError(`marks.${key}`, 'one of the fields orbit, cycle, fixedPoints, rays in marks', new Received(`an unknown field "${key}"`));
   }
   const bool = (v: unknown, field: string): boolean => {
     if (v === undefined) return false;
@@ -112,7 +114,11 @@ export function parseJuliaSheet(input: unknown, name = 'julia'): JuliaSheet {
   migrateSheet(value, 'sheet', ['julia']);
   for (const field of ['labels', 'reference'] as const) {
     if (value[field] !== undefined && value[field] !== null && value[field] !== 0) {
-      throw new UserError(field, `no ${field} on a Julia plate (${field === 'labels' ? 'period labels belong to the c-plane' : 'the deep reference is a parameter-plane nucleus'})`, value[field]);
+      throw new UserError(
+        field,
+        `no ${field} on a Julia plate (${field === 'labels' ? 'period labels belong to the c-plane' : 'the deep reference is a parameter-plane nucleus'})`,
+        value[field],
+      );
     }
   }
   const rest: Json = {};
@@ -132,7 +138,8 @@ export function parseJuliaSheet(input: unknown, name = 'julia'): JuliaSheet {
   } else {
     const cIn = value['c'];
     if (!isObject(cIn)) throw new UserError('c', 'an object { "re": "...", "im": "..." } (decimal strings), or a cardioidAngle', cIn);
-    for (const key of Object.keys(cIn)) if (key !== 're' && key !== 'im') throw new UserError(`c.${key}`, 'one of the fields re, im in c', new Received(`an unknown field "${key}"`));
+    for (const key of Object.keys(cIn))
+      if (key !== 're' && key !== 'im') throw new UserError(`c.${key}`, 'one of the fields re, im in c', new Received(`an unknown field "${key}"`));
     c = { re: parseDecimalString(cIn['re'], 'c.re'), im: parseDecimalString(cIn['im'] ?? '0', 'c.im') };
     if (!(Math.hypot(Number(c.re), Number(c.im)) <= 16)) throw new UserError('c', 'a parameter with |c| <= 16', new Received(`${c.re},${c.im}`));
   }

@@ -175,11 +175,17 @@ function parseFigure(value: unknown, file: string, rotation: number): FigureSpec
     noUnknownKeys(internalIn, ['period', 'angles'], 'figure.internalRays');
     const period = parseInteger(internalIn['period'], 'figure.internalRays.period', 1, MAX_LABEL_PERIOD);
     const anglesIn = internalIn['angles'];
-    if (!Array.isArray(anglesIn) || anglesIn.length === 0 || anglesIn.length > MAX_INTERNAL_ANGLES) throw new UserError('figure.internalRays.angles', `a list of 1 to ${MAX_INTERNAL_ANGLES} internal angles, e.g. ["0", "1/3"]`, anglesIn);
+    if (!Array.isArray(anglesIn) || anglesIn.length === 0 || anglesIn.length > MAX_INTERNAL_ANGLES)
+      throw new UserError('figure.internalRays.angles', `a list of 1 to ${MAX_INTERNAL_ANGLES} internal angles, e.g. ["0", "1/3"]`, anglesIn);
     internalRays = { period, angles: anglesIn.map((a: unknown, i: number) => parseInternalAngle(a, `figure.internalRays.angles[${i}]`)) };
   }
   const marksIn = v['marks'] ?? [];
-  if (!Array.isArray(marksIn) || marksIn.length > MAX_MARKS) throw new UserError('figure.marks', `a list of at most ${MAX_MARKS} points { "re", "im", "label" }`, Array.isArray(marksIn) ? new Received(`${marksIn.length} points`) : marksIn);
+  if (!Array.isArray(marksIn) || marksIn.length > MAX_MARKS)
+    throw new UserError(
+      'figure.marks',
+      `a list of at most ${MAX_MARKS} points { "re", "im", "label" }`,
+      Array.isArray(marksIn) ? new Received(`${marksIn.length} points`) : marksIn,
+    );
   const marks = marksIn.map((m: unknown, i: number) => parsePin(m, `figure.marks[${i}]`));
   return { axes, caption, rays, raysOf, equipotentials, outlines, scaleBar, internalRays, marks };
 }
@@ -193,7 +199,28 @@ export const DEFAULT_DPI = 300;
 /** Labels need every component of each period located (the census); beyond 14 that takes too long for a plate. */
 export const MAX_LABEL_PERIOD = 14;
 
-const TOP_KEYS = ['kind', 'schema', 'writtenBy', 'title', 'note', 'view', 'pixels', 'print', 'dpi', 'iterations', 'samples', 'depth', 'colour', 'labels', 'arithmetic', 'skip', 'reference', 'output', 'figure', 'startup'];
+const TOP_KEYS = [
+  'kind',
+  'schema',
+  'writtenBy',
+  'title',
+  'note',
+  'view',
+  'pixels',
+  'print',
+  'dpi',
+  'iterations',
+  'samples',
+  'depth',
+  'colour',
+  'labels',
+  'arithmetic',
+  'skip',
+  'reference',
+  'output',
+  'figure',
+  'startup',
+];
 
 type Json = Record<string, unknown>;
 
@@ -293,7 +320,8 @@ export function parseSheet(input: unknown, name = 'plate'): Sheet {
   const value: Json = { ...input };
   migrateSheet(value, 'sheet', ['plate']);
   noUnknownKeys(value, TOP_KEYS, '');
-  if (value['writtenBy'] !== undefined && typeof value['writtenBy'] !== 'string') throw new UserError('writtenBy', 'a string naming the quadatlas version that wrote the sheet', value['writtenBy']);
+  if (value['writtenBy'] !== undefined && typeof value['writtenBy'] !== 'string')
+    throw new UserError('writtenBy', 'a string naming the quadatlas version that wrote the sheet', value['writtenBy']);
   const text = (v: unknown, field: string): string => {
     if (v === undefined) return '';
     if (typeof v !== 'string') throw new UserError(field, 'a string', v);
@@ -326,7 +354,8 @@ export function parseSheet(input: unknown, name = 'plate'): Sheet {
     noUnknownKeys(pr, ['width_mm', 'height_mm'], 'print');
     width = printPixels(parseNumber(pr['width_mm'], 'print.width_mm', 1, 100_000), dpi);
     height = printPixels(parseNumber(pr['height_mm'], 'print.height_mm', 1, 100_000), dpi);
-    if (width > MAX_SIDE || height > MAX_SIDE) throw new UserError('print', `a print size of at most ${MAX_SIDE} pixels a side at ${dpi} dpi`, new Received(`${width}x${height} pixels`));
+    if (width > MAX_SIDE || height > MAX_SIDE)
+      throw new UserError('print', `a print size of at most ${MAX_SIDE} pixels a side at ${dpi} dpi`, new Received(`${width}x${height} pixels`));
   }
   const outIn = value['output'] ?? {};
   if (!isObject(outIn)) throw new UserError('output', 'an object { "file": ..., "data": ..., "sidecar": ... }', outIn);
@@ -384,7 +413,21 @@ export function renderRecord(sheet: Sheet, version: string): Json {
     arithmetic: sheet.arithmetic,
     skip: sheet.skip,
     reference: sheet.reference === null ? null : { ...sheet.reference },
-    ...(sheet.figure === null ? {} : { figure: { axes: sheet.figure.axes, caption: sheet.figure.caption, rays: [...sheet.figure.rays], raysOf: sheet.figure.raysOf, equipotentials: sheet.figure.equipotentials, outlines: sheet.figure.outlines, scaleBar: sheet.figure.scaleBar, internalRays: sheet.figure.internalRays === null ? null : { period: sheet.figure.internalRays.period, angles: [...sheet.figure.internalRays.angles] }, marks: sheet.figure.marks.map((m) => ({ ...m })) } }),
+    ...(sheet.figure === null
+      ? {}
+      : {
+          figure: {
+            axes: sheet.figure.axes,
+            caption: sheet.figure.caption,
+            rays: [...sheet.figure.rays],
+            raysOf: sheet.figure.raysOf,
+            equipotentials: sheet.figure.equipotentials,
+            outlines: sheet.figure.outlines,
+            scaleBar: sheet.figure.scaleBar,
+            internalRays: sheet.figure.internalRays === null ? null : { period: sheet.figure.internalRays.period, angles: [...sheet.figure.internalRays.angles] },
+            marks: sheet.figure.marks.map((m) => ({ ...m })),
+          },
+        }),
   };
 }
 

@@ -18,7 +18,23 @@ interface Area {
 /** A whole-set render (the view holds |c| <= 2 on the real axis and |Im c| <= 1.23 > the set's 1.13). */
 function wholeSet(size: string, extra: string[] = []): { area: Area; pixels: { total: number; undecided: number } } {
   const dir = tempDir();
-  const r = runCli(['plate', '--center', '-0.75,0', '--span', '2.8', '--size', size, '--iterations', '20000', '--samples', '1', '--out', path.join(dir, 'a.png'), '--json', ...extra]);
+  const r = runCli([
+    'plate',
+    '--center',
+    '-0.75,0',
+    '--span',
+    '2.8',
+    '--size',
+    size,
+    '--iterations',
+    '20000',
+    '--samples',
+    '1',
+    '--out',
+    path.join(dir, 'a.png'),
+    '--json',
+    ...extra,
+  ]);
   expect(r.status, r.stderr).toBe(0);
   return JSON.parse(r.stdout) as { area: Area; pixels: { total: number; undecided: number } };
 }
@@ -30,7 +46,8 @@ function npyBody(file: string): Buffer {
 
 /** Whether the orbit of 0 under z^2 + c leaves |z| <= 2 within n steps: plain doubles, written only here. */
 function escapes(a: number, b: number, n: number): boolean {
-  let x = 0, y = 0;
+  let x = 0,
+    y = 0;
   for (let k = 0; k < n; k++) {
     const t = x * x - y * y + a;
     y = 2 * x * y + b;
@@ -62,7 +79,7 @@ describe('quadatlas plate --json: area with an uncertainty that holds (docs/meth
     expect(runs[0]!.area.uncertainty).toBeLessThan(runs[1]!.area.uncertainty);
   });
 
-  it('counts exactly the pixels the rule names, and the corners of the others lie on their centre\'s side', () => {
+  it("counts exactly the pixels the rule names, and the corners of the others lie on their centre's side", () => {
     // The rule, recomputed from the --data arrays: a decided pixel is near the boundary when its
     // distance estimate is below 2 sqrt 2 spacings (or missing). The others are claimed to lie wholly
     // on one side (true distance >= b/4 >= half the diagonal, docs/methods.md A2, A6): each corner of
@@ -70,21 +87,36 @@ describe('quadatlas plate --json: area with an uncertainty that holds (docs/meth
     // The check has teeth: trusting b itself (a threshold of 1/sqrt 2 spacings) puts 140 corners of
     // this render on the wrong side (measured).
     const dir = tempDir();
-    const W = 200, H = 175, h = 2.8 / W;
+    const W = 200,
+      H = 175,
+      h = 2.8 / W;
     const s = wholeSet(`${W}x${H}`, ['--data', dir]);
     const period = new Int32Array(new Uint8Array(npyBody(path.join(dir, 'period.npy'))).buffer);
     const distance = new Float64Array(new Uint8Array(npyBody(path.join(dir, 'distance.npy'))).buffer);
-    let near = 0, undecided = 0, checked = 0;
+    let near = 0,
+      undecided = 0,
+      checked = 0;
     const wrong: string[] = [];
     for (let j = 0; j < H; j++) {
       for (let i = 0; i < W; i++) {
         const k = j * W + i;
         const p = period[k]!;
-        if (p === -1) { undecided++; continue; }
+        if (p === -1) {
+          undecided++;
+          continue;
+        }
         const r = distance[k]! / h;
-        if (!(r >= 2 * Math.SQRT2)) { near++; continue; }
+        if (!(r >= 2 * Math.SQRT2)) {
+          near++;
+          continue;
+        }
         if (r >= 8) continue;
-        for (const [di, dj] of [[0, 0], [1, 0], [0, 1], [1, 1]] as const) {
+        for (const [di, dj] of [
+          [0, 0],
+          [1, 0],
+          [0, 1],
+          [1, 1],
+        ] as const) {
           const a = -0.75 + (i + di - W / 2) * h;
           const b = (H / 2 - (j + dj)) * h;
           checked++;

@@ -60,19 +60,43 @@ describe('colour flags (COLOUR_OPTIONS)', () => {
       legendPeriods: '20',
     };
     const sheet = applyPlateOptions({}, values);
-    const want = { exterior: 'brass', countScale: 'linear', cycle: 40, offset: 0.25, edge: 3, edgeColour: '#ffffff', interior: 'solid', interiorColour: '#102030', interiorEdge: 0, undecidedColour: '#808080', legend: 'inset', legendCorner: 'top-left', legendPeriods: 20 };
+    const want = {
+      exterior: 'brass',
+      countScale: 'linear',
+      cycle: 40,
+      offset: 0.25,
+      edge: 3,
+      edgeColour: '#ffffff',
+      interior: 'solid',
+      interiorColour: '#102030',
+      interiorEdge: 0,
+      undecidedColour: '#808080',
+      legend: 'inset',
+      legendCorner: 'top-left',
+      legendPeriods: 20,
+    };
     expect(parseColourSettings(sheet['colour'])).toEqual(want);
     // Every key of `values` is a flag's attribute name, so the table was exercised whole.
-    expect(Object.keys(values).sort()).toEqual(COLOUR_OPTIONS.map((s) => attributeName(s.flags)).filter((k) => k !== 'gradient').sort());
+    expect(Object.keys(values).sort()).toEqual(
+      COLOUR_OPTIONS.map((s) => attributeName(s.flags))
+        .filter((k) => k !== 'gradient')
+        .sort(),
+    );
   });
 
   it('an error for a flag names the flag and the sheet field it sets', () => {
     expect(message(() => applyPlateOptions({}, { edge: '-1' }))).toBe('Expected a number in [0, 1000] for --edge (colour.edge) but received -1');
     expect(message(() => applyPlateOptions({}, { edge: 'wide' }))).toBe('Expected a number in [0, 1000] for --edge (colour.edge) but received "wide"');
-    expect(message(() => applyPlateOptions({}, { legendCorner: 'middle' }))).toMatch(/^Expected one of "top-left", .* for --legend-corner \(colour\.legendCorner\) but received "middle"$/);
+    expect(message(() => applyPlateOptions({}, { legendCorner: 'middle' }))).toMatch(
+      /^Expected one of "top-left", .* for --legend-corner \(colour\.legendCorner\) but received "middle"$/,
+    );
     expect(message(() => applyPlateOptions({}, { edgeColour: 'black' }))).toBe('Expected a colour "#rrggbb" (sRGB hex) for --edge-colour (colour.edgeColour) but received "black"');
-    expect(message(() => applyPlateOptions({}, { legendPeriods: '2.5' }))).toBe('Expected an integer between 1 and 64 for --legend-periods (colour.legendPeriods) but received 2.5');
-    expect(message(() => applyPlateOptions({}, { gradient: '/nonexistent/stops.csv' }))).toBe('Expected a readable file of colour stops (JSON or CSV) for --gradient (colour.gradient) but received /nonexistent/stops.csv (ENOENT)');
+    expect(message(() => applyPlateOptions({}, { legendPeriods: '2.5' }))).toBe(
+      'Expected an integer between 1 and 64 for --legend-periods (colour.legendPeriods) but received 2.5',
+    );
+    expect(message(() => applyPlateOptions({}, { gradient: '/nonexistent/stops.csv' }))).toBe(
+      'Expected a readable file of colour stops (JSON or CSV) for --gradient (colour.gradient) but received /nonexistent/stops.csv (ENOENT)',
+    );
   });
 
   it('--gradient copies the stops into the sheet; --exterior drops a gradient the sheet carried; both together are refused', () => {
@@ -80,11 +104,28 @@ describe('colour flags (COLOUR_OPTIONS)', () => {
     const file = path.join(dir, 'stops.csv');
     writeFileSync(file, '0,#000000\n1,#ffffff\n');
     const s = applyPlateOptions({}, { gradient: file });
-    expect(s['colour']).toEqual({ gradient: [{ at: 0, colour: '#000000' }, { at: 1, colour: '#ffffff' }] });
+    expect(s['colour']).toEqual({
+      gradient: [
+        { at: 0, colour: '#000000' },
+        { at: 1, colour: '#ffffff' },
+      ],
+    });
     expect(JSON.stringify(s)).not.toContain('stops.csv');
-    const t = applyPlateOptions({ colour: { gradient: [{ at: 0, colour: '#000000' }, { at: 1, colour: '#ffffff' }] } }, { exterior: 'heather' });
+    const t = applyPlateOptions(
+      {
+        colour: {
+          gradient: [
+            { at: 0, colour: '#000000' },
+            { at: 1, colour: '#ffffff' },
+          ],
+        },
+      },
+      { exterior: 'heather' },
+    );
     expect(t['colour']).toEqual({ exterior: 'heather' });
-    expect(message(() => applyPlateOptions({}, { exterior: 'heather', gradient: file }))).toBe(`Expected either --exterior or --gradient, not both for --gradient but received ${JSON.stringify(file)}`);
+    expect(message(() => applyPlateOptions({}, { exterior: 'heather', gradient: file }))).toBe(
+      `Expected either --exterior or --gradient, not both for --gradient but received ${JSON.stringify(file)}`,
+    );
   });
 });
 
@@ -102,7 +143,10 @@ describe('quadatlas plate with colour flags', () => {
     expect(runCli(['plate', ...SMALL, '--edge', '0', '--out', plain]).status).toBe(0);
     expect(readFileSync(a).equals(readFileSync(plain))).toBe(false);
     const sidecar = JSON.parse(readFileSync(`${a}.json`, 'utf8')) as { metadata: { sheet: { colour: { gradient: unknown } } } };
-    expect(sidecar.metadata.sheet.colour.gradient).toEqual([{ at: 0, colour: '#201040' }, { at: 0.5, colour: '#f0c060' }]);
+    expect(sidecar.metadata.sheet.colour.gradient).toEqual([
+      { at: 0, colour: '#201040' },
+      { at: 0.5, colour: '#f0c060' },
+    ]);
     rmSync(stops);
     const b = path.join(dir, 'b.png');
     const again = runCli(['plate', '--again', a, '--out', b]);
@@ -135,7 +179,8 @@ function diffBox(a: Buffer, b: Buffer): { x0: number; y0: number; x1: number; y1
     for (let x = 0; x < pa.width; x++) {
       const k = 4 * (y * pa.width + x);
       if (pa.data[k] !== pb.data[k] || pa.data[k + 1] !== pb.data[k + 1] || pa.data[k + 2] !== pb.data[k + 2]) {
-        box = box === null ? { x0: x, y0: y, x1: x + 1, y1: y + 1 } : { x0: Math.min(box.x0, x), y0: Math.min(box.y0, y), x1: Math.max(box.x1, x + 1), y1: Math.max(box.y1, y + 1) };
+        box =
+          box === null ? { x0: x, y0: y, x1: x + 1, y1: y + 1 } : { x0: Math.min(box.x0, x), y0: Math.min(box.y0, y), x1: Math.max(box.x1, x + 1), y1: Math.max(box.y1, y + 1) };
       }
     }
   return box;

@@ -25,8 +25,23 @@ interface DeepView {
 function render(v: DeepView, extra: string[] = []): { smooth: Float64Array; period: Int32Array; json: Record<string, unknown>; dir: string } {
   const dir = tempDir();
   const r = runCli([
-    'plate', '--center', `${v.re},${v.im}`, '--span', v.span, '--size', `${v.width}x${v.height}`, '--iterations', String(v.iterations),
-    '--samples', '1', '--out', path.join(dir, 'p.png'), '--data', dir, '--json', ...extra,
+    'plate',
+    '--center',
+    `${v.re},${v.im}`,
+    '--span',
+    v.span,
+    '--size',
+    `${v.width}x${v.height}`,
+    '--iterations',
+    String(v.iterations),
+    '--samples',
+    '1',
+    '--out',
+    path.join(dir, 'p.png'),
+    '--data',
+    dir,
+    '--json',
+    ...extra,
   ]);
   expect(r.status, r.stderr).toBe(0);
   return {
@@ -48,7 +63,8 @@ function directCount(v: DeepView, i: number, j: number, digits: number): number 
   const s = new D(v.span).div(v.width);
   const cr = new D(v.re).plus(s.times(i + 0.5 - v.width / 2));
   const ci = new D(v.im).plus(s.times(v.height / 2 - (j + 0.5)));
-  let x = new D(0), y = new D(0);
+  let x = new D(0),
+    y = new D(0);
   const r2 = DEFAULT_ESCAPE_RADIUS * DEFAULT_ESCAPE_RADIUS;
   for (let n = 1; n <= v.iterations; n++) {
     const nx = x.times(x).minus(y.times(y)).plus(cr);
@@ -63,8 +79,30 @@ function directCount(v: DeepView, i: number, j: number, digits: number): number 
 // pixel escapes after a number of iterations that grows with the depth, so decimal.js can follow them.
 const VIEWS: Array<[string, DeepView, number]> = [
   ['1e-20', { re: '0.0000000000000000000001', im: '1.0000000000000000000037', span: '1e-20', width: 24, height: 18, iterations: 20000 }, 45],
-  ['1e-60', { re: '0.0000000000000000000000000000000000000000000000000000000000001', im: '1.0000000000000000000000000000000000000000000000000000000000037', span: '1e-60', width: 24, height: 18, iterations: 20000 }, 85],
-  ['1e-320', { re: '1e-321', im: '1.0000000000000000000000000000000000000000000000000000000000000000000000000000000000000000000000000000000000000000000000000000000000000000000000000000000000000000000000000000000000000000000000000000000000000000000000000000000000000000000000000000000000000000000000000000000000000000000000000000000000000000000000037', span: '1e-320', width: 24, height: 18, iterations: 20000 }, 345],
+  [
+    '1e-60',
+    {
+      re: '0.0000000000000000000000000000000000000000000000000000000000001',
+      im: '1.0000000000000000000000000000000000000000000000000000000000037',
+      span: '1e-60',
+      width: 24,
+      height: 18,
+      iterations: 20000,
+    },
+    85,
+  ],
+  [
+    '1e-320',
+    {
+      re: '1e-321',
+      im: '1.0000000000000000000000000000000000000000000000000000000000000000000000000000000000000000000000000000000000000000000000000000000000000000000000000000000000000000000000000000000000000000000000000000000000000000000000000000000000000000000000000000000000000000000000000000000000000000000000000000000000000000000000037',
+      span: '1e-320',
+      width: 24,
+      height: 18,
+      iterations: 20000,
+    },
+    345,
+  ],
 ];
 
 describe('deep plates against direct decimal.js iteration', () => {
@@ -140,7 +178,9 @@ describe('deep plates: skipping, reproducibility and the interior', () => {
     const a = readFileSync(path.join(dir, 'a.png'));
     expect(readFileSync(path.join(dir, 'b.png')).equals(a)).toBe(true);
     expect(readFileSync(path.join(dir, 'c.png')).equals(a)).toBe(true);
-    const meta = JSON.parse(readFileSync(path.join(dir, 'a.png.json'), 'utf8')) as { metadata: { arithmetic: string; referenceBits: number; iterations: number; sheet: { view: { re: string } } } };
+    const meta = JSON.parse(readFileSync(path.join(dir, 'a.png.json'), 'utf8')) as {
+      metadata: { arithmetic: string; referenceBits: number; iterations: number; sheet: { view: { re: string } } };
+    };
     expect(meta.metadata.arithmetic).toBe('deep');
     expect(meta.metadata.referenceBits).toBeGreaterThan(190);
     expect(meta.metadata.sheet.view.re).toBe(RE79);
@@ -151,7 +191,11 @@ describe('deep plates, bad input', () => {
   const cases: Array<[string, string[], RegExp]> = [
     ['span of zero', ['--span', '0e-400'], /view\.span/],
     ['non-numeric digits', ['--center', '0.12x4,1'], /view\.re/],
-    ['iteration count beyond the machine for the deep arithmetic', ['--center', '0,1', '--span', '1e-40', '--iterations', '2000000000'], /for --iterations \(sheet field iterations\)/],
+    [
+      'iteration count beyond the machine for the deep arithmetic',
+      ['--center', '0,1', '--span', '1e-40', '--iterations', '2000000000'],
+      /for --iterations \(sheet field iterations\)/,
+    ],
     ['bad arithmetic', ['--arith', 'quad'], /for --arith \(sheet field arithmetic\)/],
   ];
   for (const [name, args, field] of cases) {

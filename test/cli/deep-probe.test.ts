@@ -18,7 +18,8 @@ function npy<T>(file: string, make: (b: ArrayBuffer) => T): T {
 const havePython = requireInCi(spawnSync(PYTHON, ['-c', 'pass']).status === 0, 'python3');
 
 // The view of issue 17: span 1e-1000 at the Misiurewicz point c = i, 16x12 pixels.
-const W = 16, H = 12;
+const W = 16,
+  H = 12;
 const VIEW = ['--center', '0,1', '--span', '1e-1000', '--size', `${W}x${H}`, '--iterations', 'auto', '--samples', '1'];
 
 interface Summary {
@@ -97,7 +98,9 @@ describe.runIf(havePython)('plate --iterations auto at span 1e-1000 near c = i (
     // The probe stopped because its count stopped changing, not at the depth rule's ceiling (7 665 010).
     expect(one.json.iterationsChoice.probe.stop).toBe('stable');
     expect(one.json.iterations).toBeLessThan(one.json.iterationsChoice.probe.ceiling / 100);
-    const meta = JSON.parse(readFileSync(path.join(one.dir, 'p.png.json'), 'utf8')) as { metadata: { iterations: number; iterationsRule: string; iterationsProbe: unknown; sheet: { iterations: unknown } } };
+    const meta = JSON.parse(readFileSync(path.join(one.dir, 'p.png.json'), 'utf8')) as {
+      metadata: { iterations: number; iterationsRule: string; iterationsProbe: unknown; sheet: { iterations: unknown } };
+    };
     expect(meta.metadata.iterations).toBe(one.json.iterations);
     expect(meta.metadata.iterationsRule).toBe('probe');
     expect(meta.metadata.iterationsProbe).toEqual(one.json.iterationsChoice.probe);
@@ -136,7 +139,10 @@ describe.runIf(havePython)('plate --iterations auto at span 1e-1000 near c = i (
     const D = decimalAt(1012);
     const s = new D('1e-1000').div(W);
     const direct = directCounts(one.json.iterations);
-    for (const [i, j] of [[0, 0], [W - 1, H - 1]] as const) {
+    for (const [i, j] of [
+      [0, 0],
+      [W - 1, H - 1],
+    ] as const) {
       const cr = s.times(i + 0.5 - W / 2);
       const ci = new D(1).plus(s.times(H / 2 - (j + 0.5)));
       const n = decimalEscapeCount(D, cr, ci, one.json.iterations, DEFAULT_ESCAPE_RADIUS);
@@ -153,8 +159,24 @@ const IM79 = '0.9999999999999999999999999999971756386712434047927096950958000911
 describe('plate --reference RE,IM,79 --iterations auto', () => {
   it('stores one cycle of the nucleus (80 iterates, Z_0..Z_79) whatever the limit, and states the bound for it', () => {
     const dir = tempDir();
-    const r = runCli(['plate', '--center', `${RE79},${IM79}`, '--span', '3e-58', '--size', '32x24', '--iterations', 'auto', '--samples', '1',
-      '--reference', `${RE79},${IM79},79`, '--out', path.join(dir, 'p.png'), '--json']);
+    const r = runCli([
+      'plate',
+      '--center',
+      `${RE79},${IM79}`,
+      '--span',
+      '3e-58',
+      '--size',
+      '32x24',
+      '--iterations',
+      'auto',
+      '--samples',
+      '1',
+      '--reference',
+      `${RE79},${IM79},79`,
+      '--out',
+      path.join(dir, 'p.png'),
+      '--json',
+    ]);
     expect(r.status, r.stderr).toBe(0);
     const json = JSON.parse(r.stdout) as Summary;
     expect(json.iterations).toBeGreaterThan(79);
@@ -169,7 +191,11 @@ describe('plate --iterations and --reference, bad input', () => {
   const cases: Array<[string, string[], RegExp]> = [
     ['limit that is neither a number nor auto', ['--iterations', 'autox'], /for --iterations \(sheet field iterations\) but received "autox"/],
     ['limit of zero', ['--iterations', '0'], /for --iterations \(sheet field iterations\)/],
-    ['periodic reference that is not a nucleus (c = i has z_3 = -i)', ['--reference', '0,1,3', '--iterations', 'auto'], /Expected a nucleus of period 3 .* for --reference \(sheet field reference\) but received \|z_3\| = 1\.00/],
+    [
+      'periodic reference that is not a nucleus (c = i has z_3 = -i)',
+      ['--reference', '0,1,3', '--iterations', 'auto'],
+      /Expected a nucleus of period 3 .* for --reference \(sheet field reference\) but received \|z_3\| = 1\.00/,
+    ],
   ];
   for (const [name, args, field] of cases) {
     it(`rejects a ${name} with one line, exit code 2 and no file`, () => {

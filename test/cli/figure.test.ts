@@ -109,7 +109,25 @@ describe('plate --axes --out fig.pdf', () => {
     const file = path.join(dir, 'deep.pdf');
     const centre = '-0.74530000000001234';
     const span = 4e-13;
-    const r = runCli(['plate', '--center', `${centre},0.1127`, '--span', String(span), '--size', '300x200', '--iterations', '2000', '--samples', '1', '--dpi', '100', '--axes', '--out', file, '--json']);
+    const r = runCli([
+      'plate',
+      '--center',
+      `${centre},0.1127`,
+      '--span',
+      String(span),
+      '--size',
+      '300x200',
+      '--iterations',
+      '2000',
+      '--samples',
+      '1',
+      '--dpi',
+      '100',
+      '--axes',
+      '--out',
+      file,
+      '--json',
+    ]);
     expect(r.status, r.stderr).toBe(0);
     const plate = (JSON.parse(r.stdout) as { figure: { plate: { x: number; y: number; width: number } } }).figure.plate;
     const words = pdfWords(file);
@@ -161,18 +179,81 @@ describe('figure bytes', () => {
     for (const ext of ['pdf', 'svg']) {
       const a = path.join(dir, `a.${ext}`);
       const b = path.join(dir, `b.${ext}`);
-      expect(runCli(['plate', ...FLAGS, '--axes', '--caption', 'Ünïcode (caption) \\ test', '--rays', '1/3,2/3', '--outlines', '2', '--equipotentials', '3', '--label-periods', '2', '--workers', '1', '--out', a]).status).toBe(0);
-      expect(runCli(['plate', ...FLAGS, '--axes', '--caption', 'Ünïcode (caption) \\ test', '--rays', '1/3,2/3', '--outlines', '2', '--equipotentials', '3', '--label-periods', '2', '--workers', '2', '--out', b]).status).toBe(0);
+      expect(
+        runCli([
+          'plate',
+          ...FLAGS,
+          '--axes',
+          '--caption',
+          'Ünïcode (caption) \\ test',
+          '--rays',
+          '1/3,2/3',
+          '--outlines',
+          '2',
+          '--equipotentials',
+          '3',
+          '--label-periods',
+          '2',
+          '--workers',
+          '1',
+          '--out',
+          a,
+        ]).status,
+      ).toBe(0);
+      expect(
+        runCli([
+          'plate',
+          ...FLAGS,
+          '--axes',
+          '--caption',
+          'Ünïcode (caption) \\ test',
+          '--rays',
+          '1/3,2/3',
+          '--outlines',
+          '2',
+          '--equipotentials',
+          '3',
+          '--label-periods',
+          '2',
+          '--workers',
+          '2',
+          '--out',
+          b,
+        ]).status,
+      ).toBe(0);
       expect(readFileSync(a).equals(readFileSync(b)), ext).toBe(true);
       const again = runCli(['plate', '--again', a, '--workers', '2']);
       expect(again.status, again.stderr).toBe(0);
       expect(readFileSync(path.join(dir, `a-again.${ext}`)).equals(readFileSync(a)), `${ext} --again`).toBe(true);
       const sheet = runCli(['sheet', a]);
       expect(sheet.status, sheet.stderr).toBe(0);
-      expect((JSON.parse(sheet.stdout) as { figure: unknown }).figure).toEqual({ axes: true, caption: 'Ünïcode (caption) \\ test', rays: ['1/3', '2/3'], raysOf: 0, equipotentials: 3, outlines: 2, scaleBar: false, internalRays: null, marks: [] });
+      expect((JSON.parse(sheet.stdout) as { figure: unknown }).figure).toEqual({
+        axes: true,
+        caption: 'Ünïcode (caption) \\ test',
+        rays: ['1/3', '2/3'],
+        raysOf: 0,
+        equipotentials: 3,
+        outlines: 2,
+        scaleBar: false,
+        internalRays: null,
+        marks: [],
+      });
     }
     // nothing but the figures and their sidecars is left (no temporary plate)
-    expect(readdirSync(dir).sort()).toEqual(['a-again.pdf', 'a-again.pdf.json', 'a-again.svg', 'a-again.svg.json', 'a.pdf', 'a.pdf.json', 'a.svg', 'a.svg.json', 'b.pdf', 'b.pdf.json', 'b.svg', 'b.svg.json']);
+    expect(readdirSync(dir).sort()).toEqual([
+      'a-again.pdf',
+      'a-again.pdf.json',
+      'a-again.svg',
+      'a-again.svg.json',
+      'a.pdf',
+      'a.pdf.json',
+      'a.svg',
+      'a.svg.json',
+      'b.pdf',
+      'b.pdf.json',
+      'b.svg',
+      'b.svg.json',
+    ]);
   });
 });
 
@@ -185,7 +266,13 @@ describe('plate --rays', () => {
     const out = JSON.parse(r.stdout) as { rays: Array<{ angle: string; kind: string; landing: { re: string; im: string } }> };
     // exact landings: -3/4 (root of the period-2 disk); -1/8 + (3 sqrt 3/8) i (cardioid formula at internal
     // angle 1/3, docs/methods.md C3); c = i (Misiurewicz, preperiod 1, period 2), by the Douady-Hubbard landing theorem
-    const exact: Record<string, [number, number]> = { '1/3': [-0.75, 0], '2/3': [-0.75, 0], '1/7': [-1 / 8, (3 * Math.sqrt(3)) / 8], '2/7': [-1 / 8, (3 * Math.sqrt(3)) / 8], '1/6': [0, 1] };
+    const exact: Record<string, [number, number]> = {
+      '1/3': [-0.75, 0],
+      '2/3': [-0.75, 0],
+      '1/7': [-1 / 8, (3 * Math.sqrt(3)) / 8],
+      '2/7': [-1 / 8, (3 * Math.sqrt(3)) / 8],
+      '1/6': [0, 1],
+    };
     const pixel = VIEW.span / VIEW.width;
     expect(out.rays.map((x) => x.angle)).toEqual(['1/3', '2/3', '1/7', '2/7', '1/6']);
     for (const ray of out.rays) {
@@ -197,7 +284,9 @@ describe('plate --rays', () => {
     const svg = readFileSync(file, 'utf8');
     const img = /<image x="([\d.]+)" y="([\d.]+)" width="([\d.]+)" height="([\d.]+)"/.exec(svg)!;
     const plate = { x: Number(img[1]), y: Number(img[2]), width: Number(img[3]), height: Number(img[4]) };
-    const ends = [...svg.matchAll(/<polyline points="([^"]+)" fill="none" stroke="#ffffff"/g)].map((m) => m[1]!.trim().split(' ').at(-1)!.split(',').map(Number) as [number, number]);
+    const ends = [...svg.matchAll(/<polyline points="([^"]+)" fill="none" stroke="#ffffff"/g)].map(
+      (m) => m[1]!.trim().split(' ').at(-1)!.split(',').map(Number) as [number, number],
+    );
     expect(ends.length).toBeGreaterThanOrEqual(5);
     for (const ray of out.rays) {
       const [re, im] = exact[ray.angle]!;
@@ -215,7 +304,24 @@ describe('plate --rays', () => {
 describe('plate --rays-of', () => {
   it('draws both rays of every period-3 component in view: 1/7, 2/7 | 3/7, 4/7 | 5/7, 6/7, landing at the roots (angles: Douady-Hubbard, from memory; roots: the window at -7/4, the cardioid formula at internal angle 1/3)', () => {
     const dir = tempDir();
-    const r = runCli(['plate', '--center', '-0.75,0', '--span', '3', '--size', '480x360', '--iterations', '300', '--samples', '1', '--rays-of', '3', '--out', path.join(dir, 'r.pdf'), '--json']);
+    const r = runCli([
+      'plate',
+      '--center',
+      '-0.75,0',
+      '--span',
+      '3',
+      '--size',
+      '480x360',
+      '--iterations',
+      '300',
+      '--samples',
+      '1',
+      '--rays-of',
+      '3',
+      '--out',
+      path.join(dir, 'r.pdf'),
+      '--json',
+    ]);
     expect(r.status, r.stderr).toBe(0);
     const out = JSON.parse(r.stdout) as { rays: Array<{ angle: string; landing: { re: string; im: string } }> };
     const at = (a: string): [number, number] => {
@@ -224,7 +330,14 @@ describe('plate --rays-of', () => {
     };
     expect(out.rays.map((x) => x.angle).sort()).toEqual(['1/7', '2/7', '3/7', '4/7', '5/7', '6/7']);
     const bulb = (3 * Math.sqrt(3)) / 8;
-    for (const [a, re, im] of [['3/7', -1.75, 0], ['4/7', -1.75, 0], ['1/7', -0.125, bulb], ['2/7', -0.125, bulb], ['5/7', -0.125, -bulb], ['6/7', -0.125, -bulb]] as const) {
+    for (const [a, re, im] of [
+      ['3/7', -1.75, 0],
+      ['4/7', -1.75, 0],
+      ['1/7', -0.125, bulb],
+      ['2/7', -0.125, bulb],
+      ['5/7', -0.125, -bulb],
+      ['6/7', -0.125, -bulb],
+    ] as const) {
       const [x, y] = at(a);
       expect(Math.hypot(x - re, y - im), a).toBeLessThan(1e-12);
     }
@@ -237,7 +350,10 @@ describe('plate --label-periods on a figure', () => {
     const file = path.join(dir, 'l.pdf');
     const r = runCli(['plate', ...FLAGS, '--label-periods', '3', '--out', file, '--json']);
     expect(r.status, r.stderr).toBe(0);
-    const out = JSON.parse(r.stdout) as { labels: Array<{ period: number; c: { re: number; im: number } }>; figure: { plate: { x: number; y: number; width: number; height: number } } };
+    const out = JSON.parse(r.stdout) as {
+      labels: Array<{ period: number; c: { re: number; im: number } }>;
+      figure: { plate: { x: number; y: number; width: number; height: number } };
+    };
     expect(out.labels.map((l) => l.period)).toEqual([1, 2]);
     const plate = out.figure.plate;
     const words = pdfWords(file).filter((w) => w.x0 > plate.x && w.x1 < plate.x + plate.width && w.y0 > plate.y && w.y1 < plate.y + plate.height);
@@ -281,7 +397,12 @@ describe('plate --equipotentials', () => {
     const svg = readFileSync(file, 'utf8');
     const img = /<image x="([\d.]+)" y="([\d.]+)" width="([\d.]+)" height="([\d.]+)"/.exec(svg)!;
     const plate = { x: Number(img[1]), y: Number(img[2]), width: Number(img[3]), height: Number(img[4]) };
-    const lines = [...svg.matchAll(/<polyline points="([^"]+)" fill="none" stroke="#e6eeff"/g)].map((m) => m[1]!.trim().split(' ').map((p) => p.split(',').map(Number) as [number, number]));
+    const lines = [...svg.matchAll(/<polyline points="([^"]+)" fill="none" stroke="#e6eeff"/g)].map((m) =>
+      m[1]!
+        .trim()
+        .split(' ')
+        .map((p) => p.split(',').map(Number) as [number, number]),
+    );
     expect(lines.length).toBeGreaterThanOrEqual(3);
     const perPoint = 64 / plate.width;
     for (const line of lines) {
@@ -311,7 +432,12 @@ describe('plate --outlines', () => {
     const svg = readFileSync(file, 'utf8');
     const img = /<image x="([\d.]+)" y="([\d.]+)" width="([\d.]+)" height="([\d.]+)"/.exec(svg)!;
     const plate = { x: Number(img[1]), y: Number(img[2]), width: Number(img[3]), height: Number(img[4]) };
-    const lines = [...svg.matchAll(/<polyline points="([^"]+)" fill="none" stroke="#ffd84a"/g)].map((m) => m[1]!.trim().split(' ').map((p) => p.split(',').map(Number) as [number, number]));
+    const lines = [...svg.matchAll(/<polyline points="([^"]+)" fill="none" stroke="#ffd84a"/g)].map((m) =>
+      m[1]!
+        .trim()
+        .split(' ')
+        .map((p) => p.split(',').map(Number) as [number, number]),
+    );
     expect(lines).toHaveLength(1);
     const pixel = VIEW.span / VIEW.width;
     expect(lines[0]!.length).toBeGreaterThan(90);
@@ -326,17 +452,57 @@ describe('plate --outlines', () => {
 
 describe('figure bad input', () => {
   const cases: Array<[string, string[], RegExp]> = [
-    ['a rotated view with --axes', ['--rotation', '30', '--axes', '--out', 'X.pdf'], /^quadatlas: Expected a view without rotation .* for --axes \(sheet field figure\.axes\) but received rotation 30$/],
-    ['an angle not below 1', ['--rays', '1/3,3/2', '--out', 'X.pdf'], /^quadatlas: Expected an external angle written p\/q with integers 0 <= p < q < 2\^52 \(e\.g\. 1\/3\) for --rays \(sheet field figure\.rays\[1\]\) but received "?3\/2"?$/],
-    ['an angle that is no fraction', ['--rays', 'x', '--out', 'X.svg'], /^quadatlas: Expected an external angle .* for --rays \(sheet field figure\.rays\[0\]\) but received "?x"?$/],
-    ['rays in a view too deep for doubles', ['--span', '1e-15', '--rays', '1/3', '--out', 'X.pdf'], /^quadatlas: Expected a view that doubles resolve \(rays are traced in double precision\) for --rays \(sheet field figure\.rays\) but received "?span 1e-15"?$/],
-    ['outlines of a period with no component in view', ['--center', '0.3,0', '--span', '0.01', '--outlines', '2', '--out', 'X.pdf'], /^quadatlas: Expected a period with a component in view at least 3 pixels across for --outlines \(sheet field figure\.outlines\) but received "?period 2 \(none in view\)"?$/],
-    ['rays of a period with no component in view', ['--center', '0.3,0', '--span', '0.01', '--rays-of', '2', '--out', 'X.pdf'], /^quadatlas: Expected a period with a component in view at least 3 pixels across for --rays-of \(sheet field figure\.raysOf\) but received "?period 2 \(none in view\)"?$/],
+    [
+      'a rotated view with --axes',
+      ['--rotation', '30', '--axes', '--out', 'X.pdf'],
+      /^quadatlas: Expected a view without rotation .* for --axes \(sheet field figure\.axes\) but received rotation 30$/,
+    ],
+    [
+      'an angle not below 1',
+      ['--rays', '1/3,3/2', '--out', 'X.pdf'],
+      /^quadatlas: Expected an external angle written p\/q with integers 0 <= p < q < 2\^52 \(e\.g\. 1\/3\) for --rays \(sheet field figure\.rays\[1\]\) but received "?3\/2"?$/,
+    ],
+    [
+      'an angle that is no fraction',
+      ['--rays', 'x', '--out', 'X.svg'],
+      /^quadatlas: Expected an external angle .* for --rays \(sheet field figure\.rays\[0\]\) but received "?x"?$/,
+    ],
+    [
+      'rays in a view too deep for doubles',
+      ['--span', '1e-15', '--rays', '1/3', '--out', 'X.pdf'],
+      /^quadatlas: Expected a view that doubles resolve \(rays are traced in double precision\) for --rays \(sheet field figure\.rays\) but received "?span 1e-15"?$/,
+    ],
+    [
+      'outlines of a period with no component in view',
+      ['--center', '0.3,0', '--span', '0.01', '--outlines', '2', '--out', 'X.pdf'],
+      /^quadatlas: Expected a period with a component in view at least 3 pixels across for --outlines \(sheet field figure\.outlines\) but received "?period 2 \(none in view\)"?$/,
+    ],
+    [
+      'rays of a period with no component in view',
+      ['--center', '0.3,0', '--span', '0.01', '--rays-of', '2', '--out', 'X.pdf'],
+      /^quadatlas: Expected a period with a component in view at least 3 pixels across for --rays-of \(sheet field figure\.raysOf\) but received "?period 2 \(none in view\)"?$/,
+    ],
     ['rays of period 13', ['--rays-of', '13', '--out', 'X.svg'], /^quadatlas: Expected an integer between 0 and 12 for --rays-of \(sheet field figure\.raysOf\) but received 13$/],
-    ['65 equipotentials', ['--equipotentials', '65', '--out', 'X.pdf'], /^quadatlas: Expected an integer between 0 and 64 for --equipotentials \(sheet field figure\.equipotentials\) but received 65$/],
-    ['equipotentials in a view inside the set', ['--center', '0,0', '--span', '0.01', '--equipotentials', '2', '--out', 'X.pdf'], /^quadatlas: Expected a view with points outside the set for --equipotentials \(sheet field figure\.equipotentials\) but received "?no escaping point on the frame of the view"?$/],
-    ['outlines of period 15', ['--outlines', '15', '--out', 'X.pdf'], /^quadatlas: Expected an integer between 0 and 14 for --outlines \(sheet field figure\.outlines\) but received 15$/],
-    ['an unknown output kind', ['--out', 'X.eps'], /^quadatlas: Expected a file name ending in \.png, \.tif, \.tiff, \.pdf or \.svg for --out \(sheet field output\.file\) but received .*X\.eps"?$/],
+    [
+      '65 equipotentials',
+      ['--equipotentials', '65', '--out', 'X.pdf'],
+      /^quadatlas: Expected an integer between 0 and 64 for --equipotentials \(sheet field figure\.equipotentials\) but received 65$/,
+    ],
+    [
+      'equipotentials in a view inside the set',
+      ['--center', '0,0', '--span', '0.01', '--equipotentials', '2', '--out', 'X.pdf'],
+      /^quadatlas: Expected a view with points outside the set for --equipotentials \(sheet field figure\.equipotentials\) but received "?no escaping point on the frame of the view"?$/,
+    ],
+    [
+      'outlines of period 15',
+      ['--outlines', '15', '--out', 'X.pdf'],
+      /^quadatlas: Expected an integer between 0 and 14 for --outlines \(sheet field figure\.outlines\) but received 15$/,
+    ],
+    [
+      'an unknown output kind',
+      ['--out', 'X.eps'],
+      /^quadatlas: Expected a file name ending in \.png, \.tif, \.tiff, \.pdf or \.svg for --out \(sheet field output\.file\) but received .*X\.eps"?$/,
+    ],
   ];
   for (const [what, flags, line] of cases) {
     it(`${what}: one line, exit 2, no file`, () => {
@@ -355,7 +521,9 @@ describe('figure bad input', () => {
     mkdirSync(path.join(dir, 'd.pdf'));
     const r = runCli(['plate', ...FLAGS, '--out', path.join(dir, 'd.pdf')]);
     expect(r.status).toBe(2);
-    expect(r.stderr.trim()).toMatch(/^quadatlas: Expected a file name \(not an existing directory\) for --out \(sheet field output\.file\) but received .*d\.pdf \(a directory\)"?$/);
+    expect(r.stderr.trim()).toMatch(
+      /^quadatlas: Expected a file name \(not an existing directory\) for --out \(sheet field output\.file\) but received .*d\.pdf \(a directory\)"?$/,
+    );
     expect(readdirSync(dir)).toEqual(['d.pdf']);
   });
 
@@ -367,7 +535,9 @@ describe('figure bad input', () => {
     expect(help.stdout).not.toContain('--axes');
     const r = runCli(['julia', '--c', '-1,0', '--size', '40x30', '--out', path.join(dir, 'j.pdf')]);
     expect(r.status).toBe(2);
-    expect(r.stderr.trim()).toMatch(/^quadatlas: Expected a file name ending in \.png, \.tif or \.tiff \(figures are drawn for plates of the c-plane\) for .*output\.file.* but received .*j\.pdf"?$/);
+    expect(r.stderr.trim()).toMatch(
+      /^quadatlas: Expected a file name ending in \.png, \.tif or \.tiff \(figures are drawn for plates of the c-plane\) for .*output\.file.* but received .*j\.pdf"?$/,
+    );
     expect(readdirSync(dir)).toEqual([]);
   });
 

@@ -71,16 +71,23 @@ describe('plate --out naming an existing directory', () => {
     // 20000x20000 at 100000 iterations would take minutes: only a check before rendering returns at once.
     const r = runCli(['plate', '--size', '20000x20000', '--iterations', '100000', '--out', path.join(dir, 'x.png')]);
     expect(r.status).toBe(2);
-    expect(oneLine(r.stderr)).toMatch(/^quadatlas: Expected a file name \(not an existing directory\) for --out \(sheet field output\.file\) but received .*x\.png \(a directory\)$/);
+    expect(oneLine(r.stderr)).toMatch(
+      /^quadatlas: Expected a file name \(not an existing directory\) for --out \(sheet field output\.file\) but received .*x\.png \(a directory\)$/,
+    );
   });
 });
 
 describe('interrupted plates', () => {
-  for (const [signal, code] of [['SIGINT', 130], ['SIGTERM', 143]] as const) {
+  for (const [signal, code] of [
+    ['SIGINT', 130],
+    ['SIGTERM', 143],
+  ] as const) {
     it(`remove their temporary files on ${signal} and leave no final file`, async () => {
       const dir = tempDir();
       const out = path.join(dir, 'big.png');
-      const child = spawn(process.execPath, [CLI, 'plate', '--size', '4000x3000', '--iterations', '20000', '--samples', '16', '--data', path.join(dir, 'data'), '--out', out], { stdio: 'ignore' });
+      const child = spawn(process.execPath, [CLI, 'plate', '--size', '4000x3000', '--iterations', '20000', '--samples', '16', '--data', path.join(dir, 'data'), '--out', out], {
+        stdio: 'ignore',
+      });
       const exited = new Promise<number | null>((resolve) => child.on('exit', (c) => resolve(c)));
       // The image's own temporary file (a writability probe may come and go before it).
       await until(() => temps(dir).some((n) => n.startsWith('.big.png.')), 60_000, 'the temporary image file');
@@ -174,9 +181,21 @@ describe('citation and version', () => {
 
 describe('--help of every command', () => {
   const commands = [
-    ['plate'], ['pyramid'], ['worker'], ['components'], ['locate'], ['probe'], ['palettes'],
-    ['presets', 'list'], ['presets', 'render'],
-    ['section', 'convert'], ['section', 'cascade'], ['section', 'windows'], ['section', 'lyapunov'], ['section', 'diagram'], ['section', 'compare'],
+    ['plate'],
+    ['pyramid'],
+    ['worker'],
+    ['components'],
+    ['locate'],
+    ['probe'],
+    ['palettes'],
+    ['presets', 'list'],
+    ['presets', 'render'],
+    ['section', 'convert'],
+    ['section', 'cascade'],
+    ['section', 'windows'],
+    ['section', 'lyapunov'],
+    ['section', 'diagram'],
+    ['section', 'compare'],
   ];
   it('states a default on every option line, and uses lowercase placeholders', () => {
     const missing: string[] = [];
@@ -184,7 +203,10 @@ describe('--help of every command', () => {
       const r = runCli([...c, '--help']);
       expect(r.status, c.join(' ')).toBe(0);
       const options = r.stdout.split('Options:')[1] ?? '';
-      const entries = options.split(/\n(?= {2}-)/).map((e) => e.replace(/\s+/g, ' ').trim()).filter((e) => e.startsWith('-') && !e.startsWith('-h, --help'));
+      const entries = options
+        .split(/\n(?= {2}-)/)
+        .map((e) => e.replace(/\s+/g, ' ').trim())
+        .filter((e) => e.startsWith('-') && !e.startsWith('-h, --help'));
       expect(entries.length, c.join(' ')).toBeGreaterThan(0);
       for (const e of entries) {
         if (!/default/i.test(e)) missing.push(`${c.join(' ')}: ${e}`);

@@ -33,7 +33,11 @@ describe('quadatlas julia', () => {
     const dir = tempDir();
     const r = runCli(['julia', '--c', '0,0', '--span', '2.5', '--size', '300x300', '--samples', '1', '--json', '--out', path.join(dir, 'disk.png')]);
     expect(r.status, r.stderr).toBe(0);
-    const s = JSON.parse(r.stdout) as { area: { interior: number }; view: { pixelSpacing: number }; julia: { cycle: { kind: string; period: number; multiplier: { abs: number } } } };
+    const s = JSON.parse(r.stdout) as {
+      area: { interior: number };
+      view: { pixelSpacing: number };
+      julia: { cycle: { kind: string; period: number; multiplier: { abs: number } } };
+    };
     expect(s.julia.cycle.kind).toBe('attracting');
     expect(s.julia.cycle.period).toBe(1);
     expect(s.julia.cycle.multiplier.abs).toBe(0);
@@ -42,7 +46,10 @@ describe('quadatlas julia', () => {
 
   it('--json for c = 1/4 and -3/4 reports a parabolic cycle and interior pixels of period 1 and 2', () => {
     const dir = tempDir();
-    for (const [c, period] of [['0.25,0', 1], ['-0.75,0', 2]] as const) {
+    for (const [c, period] of [
+      ['0.25,0', 1],
+      ['-0.75,0', 2],
+    ] as const) {
       const r = runCli(['julia', '--c', c, '--size', '120x90', '--samples', '1', '--json', '--out', path.join(dir, 'p.png')]);
       expect(r.status, r.stderr).toBe(0);
       const s = JSON.parse(r.stdout) as { pixels: { interior: number }; periods: Record<string, number>; julia: { cycle: { kind: string; classes: number } } };
@@ -57,7 +64,10 @@ describe('quadatlas julia', () => {
     const dir = tempDir();
     // 201 x 101 pixels over [-2, 2] x [-1, 1]: pixel centres fall exactly on z = 0 (i = 100, j = 50) and z = -1 (i = 50, j = 50).
     const base = ['julia', '--c', '-1,0', '--span', '4.02', '--size', '201x101', '--samples', '1'];
-    for (const [i, extra] of [['a', ['--workers', '1', '--tile-size', '64']], ['b', ['--workers', '2', '--tile-size', '16']]] as const) {
+    for (const [i, extra] of [
+      ['a', ['--workers', '1', '--tile-size', '64']],
+      ['b', ['--workers', '2', '--tile-size', '16']],
+    ] as const) {
       const r = runCli([...base, ...extra, '--out', path.join(dir, `${i}.png`), '--data', path.join(dir, i)]);
       expect(r.status, r.stderr).toBe(0);
     }

@@ -37,7 +37,10 @@ function realZero(p: number, c0: string): Decimal {
 
 describe('locate --tune (Douady-Hubbard tuning by angle words, docs/methods.md D6)', () => {
   it('period 2 tuned by itself: the period-4 component of angles 2/5, 3/5 (words 0110, 1001)', () => {
-    for (const args of [['1/3,2/3', '1/3,2/3'], ['1-2', '1-2']]) {
+    for (const args of [
+      ['1/3,2/3', '1/3,2/3'],
+      ['1-2', '1-2'],
+    ]) {
       const out = locate(['--tune', ...args]);
       expect(out.period).toBe(4);
       expect(out.tuning.words).toEqual(['0110', '1001']);

@@ -25,7 +25,13 @@ describe('quadatlas palettes', () => {
   it('--out-dir writes one opaque swatch PNG per gradient and style and a period swatch holding each period colour', () => {
     const dir = tempDir();
     const stops = path.join(dir, 'stops.json');
-    writeFileSync(stops, JSON.stringify([{ at: 0, colour: '#123456' }, { at: 0.5, colour: '#fedcba' }]));
+    writeFileSync(
+      stops,
+      JSON.stringify([
+        { at: 0, colour: '#123456' },
+        { at: 0.5, colour: '#fedcba' },
+      ]),
+    );
     const out = path.join(dir, 'swatches');
     const r = runCli(['palettes', '--out-dir', out, '--gradient', stops, '--json']);
     expect(r.status, r.stderr).toBe(0);
@@ -33,8 +39,16 @@ describe('quadatlas palettes', () => {
     expect(listing.exterior.map((g) => g.name)).toEqual(EXTERIOR_GRADIENT_NAMES);
     expect(listing.exterior.filter((g) => g.default).map((g) => g.name)).toEqual(['tidepool']);
     expect(listing.interior.map((s) => s.name)).toEqual(INTERIOR_STYLES);
-    expect(listing.gradient).toEqual([{ at: 0, colour: '#123456' }, { at: 0.5, colour: '#fedcba' }]);
-    const want = [...EXTERIOR_GRADIENT_NAMES.map((n) => `gradient-${n}.png`), 'gradient-custom.png', ...INTERIOR_STYLES.map((s) => `interior-${s}.png`), 'period-palette.png'].sort();
+    expect(listing.gradient).toEqual([
+      { at: 0, colour: '#123456' },
+      { at: 0.5, colour: '#fedcba' },
+    ]);
+    const want = [
+      ...EXTERIOR_GRADIENT_NAMES.map((n) => `gradient-${n}.png`),
+      'gradient-custom.png',
+      ...INTERIOR_STYLES.map((s) => `interior-${s}.png`),
+      'period-palette.png',
+    ].sort();
     expect(readdirSync(out).sort()).toEqual(want);
     expect(listing.files.map((f) => path.basename(f)).sort()).toEqual(want);
     for (const f of want) {

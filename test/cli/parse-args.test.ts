@@ -26,13 +26,16 @@ describe('parseArgs', () => {
     expect(p.values['digits']).toBe('8');
   });
 
-  it("refuses in one line what commander refuses: an unknown flag, a missing required flag, a missing value", async () => {
+  it('refuses in one line what commander refuses: an unknown flag, a missing required flag, a missing value', async () => {
     for (const [argv, pattern] of [
       [['plate', '--zoom', '4'], /unknown option '--zoom'/],
       [['components'], /--period/],
       [['locate', '--near'], /--near/],
     ] as const) {
-      const err = await parseArgs(argv).then(() => null, (e: unknown) => e as Error);
+      const err = await parseArgs(argv).then(
+        () => null,
+        (e: unknown) => e as Error,
+      );
       expect(err, argv.join(' ')).toBeInstanceOf(Error);
       expect(err!.message).toMatch(pattern);
       expect(err!.message.split('\n')).toHaveLength(1);

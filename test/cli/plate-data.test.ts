@@ -69,7 +69,25 @@ print(json.dumps(out))`,
     const dir = tempDir();
     const data = path.join(dir, 'data');
     const centre = { re: '-0.7436438870371587047', im: '0.1318259042053988143' };
-    const r = runCli(['plate', '--center', `${centre.re},${centre.im}`, '--span', '1e-17', '--rotation', '90', '--size', '16x12', '--samples', '1', '--iterations', '3000', '--data', data, '--out', path.join(dir, 'p.png')]);
+    const r = runCli([
+      'plate',
+      '--center',
+      `${centre.re},${centre.im}`,
+      '--span',
+      '1e-17',
+      '--rotation',
+      '90',
+      '--size',
+      '16x12',
+      '--samples',
+      '1',
+      '--iterations',
+      '3000',
+      '--data',
+      data,
+      '--out',
+      path.join(dir, 'p.png'),
+    ]);
     expect(r.status, r.stderr).toBe(0);
     const off = py(
       `a = np.load(f'{d}/offset_re.npy'); b = np.load(f'{d}/offset_im.npy')

@@ -69,7 +69,23 @@ describe('quadatlas plate', () => {
 
   it('gives data arrays symmetric about the real axis (z -> conj z commutes with the iteration)', () => {
     const dir = tempDir();
-    const r = runCli(['plate', '--center', '-0.6,0', '--span', '2.8', '--size', '120x90', '--iterations', '500', '--samples', '1', '--out', path.join(dir, 'p.png'), '--data', dir]);
+    const r = runCli([
+      'plate',
+      '--center',
+      '-0.6,0',
+      '--span',
+      '2.8',
+      '--size',
+      '120x90',
+      '--iterations',
+      '500',
+      '--samples',
+      '1',
+      '--out',
+      path.join(dir, 'p.png'),
+      '--data',
+      dir,
+    ]);
     expect(r.status, r.stderr).toBe(0);
     const period = new Int32Array(new Uint8Array(npyBody(path.join(dir, 'period.npy'))).buffer);
     const smooth = new Float64Array(new Uint8Array(npyBody(path.join(dir, 'smooth.npy'))).buffer);
@@ -87,7 +103,11 @@ describe('quadatlas plate', () => {
     const dir = tempDir();
     const r = runCli(['plate', ...SMALL, '--out', path.join(dir, 'p.png'), '--json']);
     expect(r.status, r.stderr).toBe(0);
-    const s = JSON.parse(r.stdout) as { area: { interior: number; undecided: number; nearBoundary: number; uncertainty: number; pixelArea: number }; pixels: { interior: number; undecided: number }; view: { pixelSpacing: number } };
+    const s = JSON.parse(r.stdout) as {
+      area: { interior: number; undecided: number; nearBoundary: number; uncertainty: number; pixelArea: number };
+      pixels: { interior: number; undecided: number };
+      view: { pixelSpacing: number };
+    };
     expect(s.area.pixelArea).toBe(s.view.pixelSpacing ** 2);
     expect(s.area.interior / s.area.pixelArea).toBeCloseTo(s.pixels.interior, 6);
     expect(s.area.undecided / s.area.pixelArea).toBeCloseTo(s.pixels.undecided, 6);
@@ -145,7 +165,9 @@ describe('quadatlas plate, bad input', () => {
     writeFileSync(sheet, JSON.stringify({ view: { re: '-0.5', im: '0', span: '3' }, zoom: 4 }));
     const r = runCli(['plate', sheet, '--out', path.join(dir, 'p.png')]);
     expect(r.status).toBe(2);
-    expect(r.stderr.trim()).toBe('quadatlas: Expected one of the fields kind, schema, writtenBy, title, note, view, pixels, print, dpi, iterations, samples, depth, colour, labels, arithmetic, skip, reference, output, figure, startup for zoom but received an unknown field "zoom"');
+    expect(r.stderr.trim()).toBe(
+      'quadatlas: Expected one of the fields kind, schema, writtenBy, title, note, view, pixels, print, dpi, iterations, samples, depth, colour, labels, arithmetic, skip, reference, output, figure, startup for zoom but received an unknown field "zoom"',
+    );
     expect(existsSync(path.join(dir, 'p.png'))).toBe(false);
   });
 
@@ -175,7 +197,15 @@ describe('quadatlas plate --label-periods', () => {
     const n = PNG.sync.read(readFileSync(path.join(dir, 'n.png')));
     const at = (png: PNG, x: number, y: number): number[] => [...png.data.subarray(4 * (y * 200 + x), 4 * (y * 200 + x) + 3)];
     // The label's dot is dark ink (#1c1c1c); the unlabelled plate shows the period-2 colour there.
-    const around = (png: PNG): number => Math.min(...[[99, 74], [100, 74], [99, 75], [100, 75]].map(([x, y]) => Math.max(...at(png, x!, y!))));
+    const around = (png: PNG): number =>
+      Math.min(
+        ...[
+          [99, 74],
+          [100, 74],
+          [99, 75],
+          [100, 75],
+        ].map(([x, y]) => Math.max(...at(png, x!, y!))),
+      );
     expect(around(l)).toBeLessThan(40);
     expect(around(n)).toBeGreaterThan(60);
   });

@@ -15,7 +15,22 @@ const haveChromium = existsSync(CHROMIUM);
 if (!haveChromium) console.warn('skipping the viewer tests: /usr/bin/chromium is missing (apt-get install chromium; .ci/run installs it)');
 
 const VIEW = { re: '-0.75', im: '0.1', span: '2.9', width: 400, height: 256 };
-const ARGS = ['--center', `${VIEW.re},${VIEW.im}`, '--span', VIEW.span, '--size', `${VIEW.width}x${VIEW.height}`, '--iterations', '200', '--samples', '4', '--tile-size', '64', '--title', 'Edges of Stability: the whole set'];
+const ARGS = [
+  '--center',
+  `${VIEW.re},${VIEW.im}`,
+  '--span',
+  VIEW.span,
+  '--size',
+  `${VIEW.width}x${VIEW.height}`,
+  '--iterations',
+  '200',
+  '--samples',
+  '4',
+  '--tile-size',
+  '64',
+  '--title',
+  'Edges of Stability: the whole set',
+];
 
 let root: string;
 let dir: string;
@@ -53,10 +68,14 @@ afterAll(async () => {
 
 /** Waits until OpenSeadragon has drawn every tile the current view needs. */
 async function fullyLoaded(page: Page): Promise<void> {
-  await page.waitForFunction(() => {
-    const v = (globalThis as unknown as { quadatlasViewer?: { world: { getItemAt(i: number): { getFullyLoaded(): boolean } | undefined } } }).quadatlasViewer;
-    return v?.world.getItemAt(0)?.getFullyLoaded() === true;
-  }, null, { timeout: 20_000 });
+  await page.waitForFunction(
+    () => {
+      const v = (globalThis as unknown as { quadatlasViewer?: { world: { getItemAt(i: number): { getFullyLoaded(): boolean } | undefined } } }).quadatlasViewer;
+      return v?.world.getItemAt(0)?.getFullyLoaded() === true;
+    },
+    null,
+    { timeout: 20_000 },
+  );
 }
 
 /** Distinct colours in a screenshot (a blank or black view has a handful). */
@@ -76,7 +95,11 @@ async function openAndZoom(url: string): Promise<{ page: Page; failures: number;
   // Zoom in three levels (8x) about a point on the boundary, drawing each step.
   for (let k = 0; k < 3; k++) {
     await page.evaluate(() => {
-      const v = (globalThis as unknown as { quadatlasViewer: { viewport: { zoomBy(f: number, p: unknown, immediately: boolean): void; imageToViewportCoordinates(x: number, y: number): unknown } } }).quadatlasViewer;
+      const v = (
+        globalThis as unknown as {
+          quadatlasViewer: { viewport: { zoomBy(f: number, p: unknown, immediately: boolean): void; imageToViewportCoordinates(x: number, y: number): unknown } };
+        }
+      ).quadatlasViewer;
       v.viewport.zoomBy(2, v.viewport.imageToViewportCoordinates(140, 120), true);
     });
     await fullyLoaded(page);
@@ -95,13 +118,23 @@ describe.skipIf(!requireInCi(haveChromium, 'chromium'))('the pyramid viewer page
     await page.close();
   });
 
-  it('index.html over http asks only for tiles that exist, and OpenSeadragon\'s URL for every tile of every level is a file of the tree', async () => {
+  it("index.html over http asks only for tiles that exist, and OpenSeadragon's URL for every tile of every level is a file of the tree", async () => {
     const { port } = server!.address() as { port: number };
     const { page, failures, requests } = await openAndZoom(`http://127.0.0.1:${port}/index.html`);
     expect(failures).toBe(0);
     expect(requests.every((u) => u.startsWith(`http://127.0.0.1:${port}/`) || u.startsWith('data:'))).toBe(true);
     const urls = await page.evaluate(() => {
-      const v = (globalThis as unknown as { quadatlasViewer: { world: { getItemAt(i: number): { source: { minLevel: number; maxLevel: number; getNumTiles(l: number): { x: number; y: number }; getTileUrl(l: number, x: number, y: number): string } } } } }).quadatlasViewer;
+      const v = (
+        globalThis as unknown as {
+          quadatlasViewer: {
+            world: {
+              getItemAt(i: number): {
+                source: { minLevel: number; maxLevel: number; getNumTiles(l: number): { x: number; y: number }; getTileUrl(l: number, x: number, y: number): string };
+              };
+            };
+          };
+        }
+      ).quadatlasViewer;
       const s = v.world.getItemAt(0).source;
       const out: string[] = [];
       for (let l = s.minLevel; l <= s.maxLevel; l++) {
@@ -124,15 +157,24 @@ describe.skipIf(!requireInCi(haveChromium, 'chromium'))('the pyramid viewer page
     expect(panel).toContain('400 × 256');
     const at = { x: 200, y: 300 };
     // Under load the zoom animation may still run: wait until the viewport's current zoom equals its target.
-    await page.waitForFunction(() => {
-      const v = (globalThis as unknown as { quadatlasViewer: { viewport: { getZoom(c: boolean): number } } }).quadatlasViewer.viewport;
-      return Math.abs(v.getZoom(true) - v.getZoom(false)) < 1e-9 * v.getZoom(false);
-    }, undefined, { timeout: 30_000 });
+    await page.waitForFunction(
+      () => {
+        const v = (globalThis as unknown as { quadatlasViewer: { viewport: { getZoom(c: boolean): number } } }).quadatlasViewer.viewport;
+        return Math.abs(v.getZoom(true) - v.getZoom(false)) < 1e-9 * v.getZoom(false);
+      },
+      undefined,
+      { timeout: 30_000 },
+    );
     await page.mouse.move(at.x - 1, at.y);
     await page.mouse.move(at.x, at.y);
     const text = (await page.textContent('#pointer')) ?? '';
     const image = await page.evaluate(({ x, y }) => {
-      const w = globalThis as unknown as { OpenSeadragon: { Point: new (x: number, y: number) => unknown }; quadatlasViewer: { viewport: { viewerElementToImageCoordinates(p: unknown): { x: number; y: number }; getZoom(c: boolean): number; viewportToImageZoom(z: number): number } } };
+      const w = globalThis as unknown as {
+        OpenSeadragon: { Point: new (x: number, y: number) => unknown };
+        quadatlasViewer: {
+          viewport: { viewerElementToImageCoordinates(p: unknown): { x: number; y: number }; getZoom(c: boolean): number; viewportToImageZoom(z: number): number };
+        };
+      };
       const v = w.quadatlasViewer.viewport;
       const p = v.viewerElementToImageCoordinates(new w.OpenSeadragon.Point(x, y));
       return { x: p.x, y: p.y, zoom: v.viewportToImageZoom(v.getZoom(true)) };

@@ -43,7 +43,15 @@ describe('quadatlas pyramid', () => {
 
   it('pyramid writes the tiles info.json promises (IIIF 3.0 paths), each a PNG of the promised size, and nothing else', () => {
     const info = JSON.parse(readFileSync(path.join(single, 'tiles/info.json'), 'utf8')) as Parameters<typeof promisedTiles>[0] & Record<string, unknown>;
-    expect(info).toMatchObject({ '@context': 'http://iiif.io/api/image/3/context.json', id: 'http://127.0.0.1:9/p/tiles', type: 'ImageService3', protocol: 'http://iiif.io/api/image', profile: 'level0', width: 400, height: 256 });
+    expect(info).toMatchObject({
+      '@context': 'http://iiif.io/api/image/3/context.json',
+      id: 'http://127.0.0.1:9/p/tiles',
+      type: 'ImageService3',
+      protocol: 'http://iiif.io/api/image',
+      profile: 'level0',
+      width: 400,
+      height: 256,
+    });
     const promised = promisedTiles(info, 'png');
     expect(promised).toHaveLength(TILE_COUNT);
     for (const t of promised) {
@@ -55,7 +63,14 @@ describe('quadatlas pyramid', () => {
     const tileFiles = [...singleTree.keys()].filter((k) => k.startsWith('tiles/') && k.endsWith('.png'));
     expect(tileFiles).toHaveLength(TILE_COUNT);
     const js = singleTree.get('tiles/info.js')!.toString();
-    expect(JSON.parse(js.slice(js.indexOf('=') + 1).trim().replace(/;$/, ''))).toEqual(info);
+    expect(
+      JSON.parse(
+        js
+          .slice(js.indexOf('=') + 1)
+          .trim()
+          .replace(/;$/, ''),
+      ),
+    ).toEqual(info);
     expect(singleTree.has('index.html') && singleTree.has('viewer/openseadragon.min.js') && singleTree.has('viewer/LICENSE.txt')).toBe(true);
   });
 
@@ -118,7 +133,27 @@ describe('quadatlas pyramid', () => {
 
   it('pyramid --format jpg writes JPEG tiles of the promised sizes', async () => {
     const dir = path.join(root, 'jpeg');
-    const r = runWithEnv(['pyramid', '--center', '-0.75,0', '--span', '3', '--size', '150x100', '--iterations', '100', '--samples', '1', '--tile-size', '64', '--format', 'jpg', '--quality', '80', '--out-dir', dir]);
+    const r = runWithEnv([
+      'pyramid',
+      '--center',
+      '-0.75,0',
+      '--span',
+      '3',
+      '--size',
+      '150x100',
+      '--iterations',
+      '100',
+      '--samples',
+      '1',
+      '--tile-size',
+      '64',
+      '--format',
+      'jpg',
+      '--quality',
+      '80',
+      '--out-dir',
+      dir,
+    ]);
     expect(r.status).toBe(0);
     const info = JSON.parse(readFileSync(path.join(dir, 'tiles/info.json'), 'utf8')) as Parameters<typeof promisedTiles>[0];
     for (const t of promisedTiles(info, 'jpg')) {
@@ -138,7 +173,10 @@ describe('quadatlas pyramid: bad input', () => {
 
   it('pyramid into a folder holding another view fails with one line and exit 2, and touches nothing', () => {
     const before = treeFiles(single);
-    oneLine(runWithEnv(['pyramid', ...COMMON, '--span', '2.5', '--out-dir', single]), /Expected an empty folder or one holding this same pyramid for --out-dir but received .*different/);
+    oneLine(
+      runWithEnv(['pyramid', ...COMMON, '--span', '2.5', '--out-dir', single]),
+      /Expected an empty folder or one holding this same pyramid for --out-dir but received .*different/,
+    );
     expect(treeDifferences(treeFiles(single), before)).toEqual([]);
   });
 

@@ -15,12 +15,24 @@ import { runCli, tempDir } from '../helpers/run-cli.js';
 
 const havePoppler = requireInCi(spawnSync('pdftotext', ['-v']).status === 0, 'pdftotext (poppler-utils)');
 
-interface Word { text: string; x0: number; x1: number; y0: number; y1: number }
+interface Word {
+  text: string;
+  x0: number;
+  x1: number;
+  y0: number;
+  y1: number;
+}
 
 function pdfWords(file: string): Word[] {
   const r = spawnSync('pdftotext', ['-bbox', file, '-'], { encoding: 'utf8' });
   expect(r.status, r.stderr).toBe(0);
-  return [...r.stdout.matchAll(/<word xMin="([\d.]+)" yMin="([\d.]+)" xMax="([\d.]+)" yMax="([\d.]+)">([^<]*)<\/word>/g)].map((m) => ({ text: m[5]!, x0: Number(m[1]), y0: Number(m[2]), x1: Number(m[3]), y1: Number(m[4]) }));
+  return [...r.stdout.matchAll(/<word xMin="([\d.]+)" yMin="([\d.]+)" xMax="([\d.]+)" yMax="([\d.]+)">([^<]*)<\/word>/g)].map((m) => ({
+    text: m[5]!,
+    x0: Number(m[1]),
+    y0: Number(m[2]),
+    x1: Number(m[3]),
+    y1: Number(m[4]),
+  }));
 }
 
 function printed(label: string): number {
@@ -34,10 +46,29 @@ function halfDigit(label: string): number {
 
 const R = { from: 3.4, to: 4 };
 const X = { from: 0.1, to: 0.95 };
-const ARGS = ['section', 'diagram', '--r-from', String(R.from), '--r-to', String(R.to), '--x-from', String(X.from), '--x-to', String(X.to), '--size', '600x300', '--samples', '1', '--transient', '200', '--iterations', '300'];
+const ARGS = [
+  'section',
+  'diagram',
+  '--r-from',
+  String(R.from),
+  '--r-to',
+  String(R.to),
+  '--x-from',
+  String(X.from),
+  '--x-to',
+  String(X.to),
+  '--size',
+  '600x300',
+  '--samples',
+  '1',
+  '--transient',
+  '200',
+  '--iterations',
+  '300',
+];
 
 describe('section diagram --out fig.pdf', () => {
-  it.runIf(havePoppler)('labels r below, c = r(2 - r)/4 on top and x at the left, each label the value the sheet\'s axes put at its position', () => {
+  it.runIf(havePoppler)("labels r below, c = r(2 - r)/4 on top and x at the left, each label the value the sheet's axes put at its position", () => {
     const dir = tempDir();
     const file = path.join(dir, 'd.pdf');
     const r = runCli([...ARGS, '--caption', 'Crop of the cascade', '--out', file]);
@@ -88,14 +119,36 @@ describe('section diagram --out fig.pdf', () => {
 
   it('--windows 3 --cascade: shades the period-3 window from its onset r = 1 + sqrt 8 and marks the doublings r = 3 and 1 + sqrt 6 (exact algebra: the tangent bifurcation of f^3 and the flip of the 2-cycle)', () => {
     const file = path.join(tempDir(), 'w.svg');
-    const args = ['section', 'diagram', '--r-from', '2.8', '--r-to', '4', '--size', '600x300', '--samples', '1', '--transient', '100', '--iterations', '200', '--windows', '3', '--cascade', '--out', file];
+    const args = [
+      'section',
+      'diagram',
+      '--r-from',
+      '2.8',
+      '--r-to',
+      '4',
+      '--size',
+      '600x300',
+      '--samples',
+      '1',
+      '--transient',
+      '100',
+      '--iterations',
+      '200',
+      '--windows',
+      '3',
+      '--cascade',
+      '--out',
+      file,
+    ];
     const r = runCli(args);
     expect(r.status, r.stderr).toBe(0);
     const svg = readFileSync(file, 'utf8');
     const img = /<image x="([\d.]+)" y="([\d.]+)" width="([\d.]+)" height="([\d.]+)"/.exec(svg)!;
     const plate = { x: Number(img[1]), width: Number(img[3]) };
     const at = (rv: number): number => plate.x + ((rv - 2.8) / 1.2) * plate.width;
-    const bands = [...svg.matchAll(/<rect x="([\d.]+)" y="[\d.]+" width="([\d.]+)" height="[\d.]+" fill="#2a7fd4"/g)].map((m) => [Number(m[1]), Number(m[1]) + Number(m[2])] as const);
+    const bands = [...svg.matchAll(/<rect x="([\d.]+)" y="[\d.]+" width="([\d.]+)" height="[\d.]+" fill="#2a7fd4"/g)].map(
+      (m) => [Number(m[1]), Number(m[1]) + Number(m[2])] as const,
+    );
     expect(bands).toHaveLength(1);
     expect(Math.abs(bands[0]![0] - at(1 + Math.sqrt(8)))).toBeLessThan(0.01);
     // the window ends at its interior crisis near r = 3.8568 (from memory)
@@ -104,7 +157,11 @@ describe('section diagram --out fig.pdf', () => {
     expect(end).toBeLessThan(3.86);
     expect(svg).toMatch(/class="window" aria-label="3"/);
     const lines = [...svg.matchAll(/<polyline points="([\d.]+),[^"]*" fill="none" stroke="#c0392b"/g)].map((m) => Number(m[1]));
-    for (const rv of [3, 1 + Math.sqrt(6)]) expect(lines.some((x) => Math.abs(x - at(rv)) < 0.01), `doubling at ${rv}`).toBe(true);
+    for (const rv of [3, 1 + Math.sqrt(6)])
+      expect(
+        lines.some((x) => Math.abs(x - at(rv)) < 0.01),
+        `doubling at ${rv}`,
+      ).toBe(true);
     const png = runCli([...args.slice(0, -2), '--out', path.join(tempDir(), 'w.png')]);
     expect(png.status).toBe(2);
     expect(png.stderr.trimEnd().split('\n')).toHaveLength(1);

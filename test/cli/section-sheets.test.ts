@@ -71,8 +71,34 @@ describe.skipIf(!existsSync(path.resolve('dist/src/cli/main.js')))('section imag
 
   it('section diagram: --again, a sheet file and the sidecar give the same bytes; the sheet holds every flag', async () => {
     const dir = tempDir();
-    const sheet = await sameBytesThreeWays('diagram', path.join(dir, 'd.png'), ['--r-from', '3.4', '--r-to', '3.9', '--x-from', '0.2', '--x-to', '0.95', '--size', '90x50', '--samples', '2', '--depth', '8']);
-    expect(sheet).toEqual({ kind: 'section-diagram', schema: 1, family: 'logistic', r: { from: '3.4', to: '3.9' }, x: { from: '0.2', to: '0.95' }, pixels: { width: 90, height: 50 }, samples: 2, transient: 1000, iterations: 1000, depth: 8 });
+    const sheet = await sameBytesThreeWays('diagram', path.join(dir, 'd.png'), [
+      '--r-from',
+      '3.4',
+      '--r-to',
+      '3.9',
+      '--x-from',
+      '0.2',
+      '--x-to',
+      '0.95',
+      '--size',
+      '90x50',
+      '--samples',
+      '2',
+      '--depth',
+      '8',
+    ]);
+    expect(sheet).toEqual({
+      kind: 'section-diagram',
+      schema: 1,
+      family: 'logistic',
+      r: { from: '3.4', to: '3.9' },
+      x: { from: '0.2', to: '0.95' },
+      pixels: { width: 90, height: 50 },
+      samples: 2,
+      transient: 1000,
+      iterations: 1000,
+      depth: 8,
+    });
   });
 
   it('section diagram: flags override the sheet, and change the bytes', async () => {
@@ -96,7 +122,20 @@ describe.skipIf(!existsSync(path.resolve('dist/src/cli/main.js')))('section imag
   it('section compare: SVG and PNG plates, each the same bytes from --again, a sheet file and the sidecar', async () => {
     for (const ext of ['.svg', '.png']) {
       const dir = tempDir();
-      const sheet = await sameBytesThreeWays('compare', path.join(dir, `c${ext}`), ['--c-from', '-1.8', '--c-to', '-1.2', '--x-from', '0.1', '--size', '200x120', '--samples', '1', '--plane-iterations', '500']);
+      const sheet = await sameBytesThreeWays('compare', path.join(dir, `c${ext}`), [
+        '--c-from',
+        '-1.8',
+        '--c-to',
+        '-1.2',
+        '--x-from',
+        '0.1',
+        '--size',
+        '200x120',
+        '--samples',
+        '1',
+        '--plane-iterations',
+        '500',
+      ]);
       expect(sheet).toMatchObject({ c: { from: '-1.8', to: '-1.2' }, x: { from: '0.1', to: '1' }, pixels: { width: 200, height: 120 }, planeIterations: 500 });
     }
   });

@@ -35,7 +35,6 @@ describe('section option parsing', () => {
     expect(() => parseFamily('tent')).toThrow('Expected one of logistic, sine, quartic for --family but received "tent"');
   });
 
-
   it('tableFormat refuses --json together with --csv', () => {
     expect(() => tableFormat({ json: true, csv: true })).toThrow(UserError);
   });

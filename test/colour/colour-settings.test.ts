@@ -58,9 +58,7 @@ describe('parseColourSettings', () => {
 
   it('rejects a bad gradient name, listing the names', () => {
     const e = errorOf(() => parseColourSettings({ exterior: 'rainbow' }));
-    expect(e.message).toBe(
-      'Expected one of "tidepool", "heather", "brass", "vellum" for colour.exterior but received "rainbow"',
-    );
+    expect(e.message).toBe('Expected one of "tidepool", "heather", "brass", "vellum" for colour.exterior but received "rainbow"');
   });
 
   it('rejects malformed colours, offsets, styles and legend settings, each by its own field', () => {

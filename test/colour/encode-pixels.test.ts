@@ -56,8 +56,7 @@ describe('encodePixels', () => {
         for (let j = 0; j < h; j++) tile.set(lin.subarray(3 * ((ty + j) * W + tx), 3 * ((ty + j) * W + tx + w)), 3 * j * w);
         const bytes = new Uint8Array(tile.length);
         encodePixels(tile, w, h, tx, ty, 8, bytes);
-        for (let j = 0; j < h; j++)
-          for (let q = 0; q < 3 * w; q++) expect(bytes[3 * j * w + q]).toBe(whole[3 * ((ty + j) * W + tx) + q]);
+        for (let j = 0; j < h; j++) for (let q = 0; q < 3 * w; q++) expect(bytes[3 * j * w + q]).toBe(whole[3 * ((ty + j) * W + tx) + q]);
       }
   });
 

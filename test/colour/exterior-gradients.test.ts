@@ -1,10 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import {
-  EXTERIOR_GRADIENT_NAMES,
-  gradientLinear,
-  gradientOklab,
-  gradientPosition,
-} from '../../src/colour/exterior-gradients.js';
+import { EXTERIOR_GRADIENT_NAMES, gradientLinear, gradientOklab, gradientPosition } from '../../src/colour/exterior-gradients.js';
 import { oklabDistance, oklabToLinear } from '../../src/colour/oklab.js';
 
 describe('exterior gradients', () => {

@@ -38,9 +38,15 @@ describe('gradientStopsFromText', () => {
   it('names the file, the row and the field in a one-line error', () => {
     expect(message(() => gradientStopsFromText('0,#000000\n1.5,#ffffff\n', 's.csv'))).toBe('Expected a position in [0, 1] for --gradient (s.csv, row 2, at) but received 1.5');
     expect(message(() => gradientStopsFromText('0,#000000\nhalf,#ffffff\n', 's.csv'))).toBe('Expected a position in [0, 1] for --gradient (s.csv, row 2, at) but received "half"');
-    expect(message(() => gradientStopsFromText('0,#000000\n1,white\n', 's.csv'))).toBe('Expected an sRGB colour "#rrggbb" for --gradient (s.csv, row 2, colour) but received "white"');
-    expect(message(() => gradientStopsFromText('0,#000000\n0.5\n', 's.csv'))).toBe('Expected two fields: at,colour (e.g. 0.5,#3a6ea5) for --gradient (s.csv, row 2) but received "0.5"');
-    expect(message(() => gradientStopsFromText('0.6,#000000\n0.5,#ffffff\n', 's.csv'))).toBe("Expected a position at or after the previous stop's 0.6 for --gradient (s.csv, row 2, at) but received 0.5");
+    expect(message(() => gradientStopsFromText('0,#000000\n1,white\n', 's.csv'))).toBe(
+      'Expected an sRGB colour "#rrggbb" for --gradient (s.csv, row 2, colour) but received "white"',
+    );
+    expect(message(() => gradientStopsFromText('0,#000000\n0.5\n', 's.csv'))).toBe(
+      'Expected two fields: at,colour (e.g. 0.5,#3a6ea5) for --gradient (s.csv, row 2) but received "0.5"',
+    );
+    expect(message(() => gradientStopsFromText('0.6,#000000\n0.5,#ffffff\n', 's.csv'))).toBe(
+      "Expected a position at or after the previous stop's 0.6 for --gradient (s.csv, row 2, at) but received 0.5",
+    );
     expect(message(() => gradientStopsFromText('0,#000000\n', 's.csv'))).toBe('Expected between 2 and 256 colour stops for --gradient (s.csv) but received 1 stops');
     expect(message(() => gradientStopsFromText('[{"at": 0, "colour": "#000000"}, {"at": 1, "color": "#ffffff"}]', 's.json'))).toBe(
       'Expected no such key (known: at, colour) for --gradient (s.json, entry 1, color) but received "#ffffff"',
@@ -53,14 +59,29 @@ describe('gradientStopsFromText', () => {
 describe('parseGradientStops (colour.gradient in a sheet)', () => {
   it('is optional: absent stays absent, present is checked and kept', () => {
     expect('gradient' in parseColourSettings({})).toBe(false);
-    const s = parseColourSettings({ gradient: [{ at: 0, colour: '#000000' }, { at: 1, colour: '#FFFFFF' }] });
-    expect(s.gradient).toEqual([{ at: 0, colour: '#000000' }, { at: 1, colour: '#ffffff' }]);
+    const s = parseColourSettings({
+      gradient: [
+        { at: 0, colour: '#000000' },
+        { at: 1, colour: '#FFFFFF' },
+      ],
+    });
+    expect(s.gradient).toEqual([
+      { at: 0, colour: '#000000' },
+      { at: 1, colour: '#ffffff' },
+    ]);
     expect(parseColourSettings(JSON.parse(JSON.stringify(s)))).toEqual(s);
   });
   it('names the sheet field of a bad stop', () => {
-    expect(message(() => parseColourSettings({ gradient: [{ at: 0, colour: '#000000' }, { at: 1, colour: 'red' }] }))).toBe(
-      'Expected an sRGB colour "#rrggbb" for colour.gradient[1].colour but received "red"',
-    );
+    expect(
+      message(() =>
+        parseColourSettings({
+          gradient: [
+            { at: 0, colour: '#000000' },
+            { at: 1, colour: 'red' },
+          ],
+        }),
+      ),
+    ).toBe('Expected an sRGB colour "#rrggbb" for colour.gradient[1].colour but received "red"');
     expect(message(() => parseGradientStops('stops.csv', 'colour.gradient'))).toMatch(/^Expected an array of colour stops/);
   });
 });
@@ -122,7 +143,13 @@ describe('customGradientOklab', () => {
     s.smooth.set([0.5, 3, 40]);
     s.distance.fill(Number.NaN);
     const named = parseColourSettings({ edge: 0 });
-    const custom = parseColourSettings({ edge: 0, gradient: [{ at: 0, colour: '#ff0000' }, { at: 0.5, colour: '#ff0000' }] });
+    const custom = parseColourSettings({
+      edge: 0,
+      gradient: [
+        { at: 0, colour: '#ff0000' },
+        { at: 0.5, colour: '#ff0000' },
+      ],
+    });
     const a = new Float64Array(9);
     const b = new Float64Array(9);
     shadeSamples(s, 0, 3, 1, named, a);

@@ -61,8 +61,7 @@ describe('layoutLegend', () => {
     for (let p = 1; p <= 16; p++) {
       const c = periodLinear(p, [0, 0, 0]);
       let found = false;
-      for (let k = 0; k < L.width * L.height && !found; k++)
-        found = L.rgba[4 * k + 3] === 1 && L.rgba[4 * k] === c[0] && L.rgba[4 * k + 1] === c[1] && L.rgba[4 * k + 2] === c[2];
+      for (let k = 0; k < L.width * L.height && !found; k++) found = L.rgba[4 * k + 3] === 1 && L.rgba[4 * k] === c[0] && L.rgba[4 * k + 1] === c[1] && L.rgba[4 * k + 2] === c[2];
       expect(found, `period ${p}`).toBe(true);
     }
   });
@@ -202,12 +201,18 @@ describe('layoutLegend of the periods present', () => {
   });
   it('legendBounds holds every layout of 1..legendPeriods entries with numbers up to the stated digits, in every corner', () => {
     for (const corner of ['top-left', 'top-right', 'bottom-left', 'bottom-right']) {
-      for (const [W, H, dpi] of [[3000, 2000, 300], [400, 300, 150], [120, 90, 600]] as const) {
+      for (const [W, H, dpi] of [
+        [3000, 2000, 300],
+        [400, 300, 150],
+        [120, 90, 600],
+      ] as const) {
         const s = inset({ legendCorner: corner, legendPeriods: 20 });
         const b = legendBounds(s, W, H, dpi, 4)!;
         for (let n = 1; n <= 20; n++) {
           for (const top of [9, 99, 999, 9999]) {
-            const periods = Array.from({ length: n }, (_, i) => top - i).filter((p) => p > 0).sort((a, c) => a - c);
+            const periods = Array.from({ length: n }, (_, i) => top - i)
+              .filter((p) => p > 0)
+              .sort((a, c) => a - c);
             const L = layoutLegend(s, W, H, dpi, periods)!;
             const x1 = Math.min(W, L.x + L.width);
             const y1 = Math.min(H, L.y + L.height);

@@ -95,7 +95,12 @@ describe('OKLab', () => {
   });
 
   it('maxChromaInGamut gives a chroma on the sRGB gamut boundary', () => {
-    for (const [L, h] of [[0.5, 30], [0.7, 140], [0.4, 260], [0.9, 100]] as const) {
+    for (const [L, h] of [
+      [0.5, 30],
+      [0.7, 140],
+      [0.4, 260],
+      [0.9, 100],
+    ] as const) {
       const c = maxChromaInGamut(L, h);
       const t = oklchToLinear(L, c, h, [0, 0, 0]);
       expect(inSrgbGamut(t[0]!, t[1]!, t[2]!, 0)).toBe(true);

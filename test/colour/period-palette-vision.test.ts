@@ -92,11 +92,14 @@ print(json.dumps(out))
     }
   });
 
-  it.skipIf(!haveColorspacious)(`colorspacious: periods 1..${CVD_PERIODS} at least ${CAM02_APART} CAM02-UCS units apart for each deficiency, 1..${PERIOD_GREYSCALE_DISTINCT} at least 6 in L*`, () => {
-    const ref = run(Array.from({ length: CVD_PERIODS }, (_, i) => periodHex(i + 1)));
-    for (const kind of Object.values(KINDS)) expect(ref[kind]!.min, kind).toBeGreaterThanOrEqual(CAM02_APART);
-    expect(ref.greyLstar).toBeGreaterThanOrEqual(6);
-  });
+  it.skipIf(!haveColorspacious)(
+    `colorspacious: periods 1..${CVD_PERIODS} at least ${CAM02_APART} CAM02-UCS units apart for each deficiency, 1..${PERIOD_GREYSCALE_DISTINCT} at least 6 in L*`,
+    () => {
+      const ref = run(Array.from({ length: CVD_PERIODS }, (_, i) => periodHex(i + 1)));
+      for (const kind of Object.values(KINDS)) expect(ref[kind]!.min, kind).toBeGreaterThanOrEqual(CAM02_APART);
+      expect(ref.greyLstar).toBeGreaterThanOrEqual(6);
+    },
+  );
 
   it.skipIf(!haveColorspacious)('the check has teeth: the palette before the colour-vision change fails it', () => {
     // Periods 1..12 of the palette built for normal vision only (quadatlas before this change).

@@ -1,13 +1,5 @@
 import { describe, expect, it, vi } from 'vitest';
-import {
-  PERIOD_LIGHTNESS_MAX,
-  PERIOD_LIGHTNESS_MIN,
-  PERIOD_PALETTE_SIZE,
-  periodHex,
-  periodLinear,
-  periodOklab,
-  periodsAdjacent,
-} from '../../src/colour/period-palette.js';
+import { PERIOD_LIGHTNESS_MAX, PERIOD_LIGHTNESS_MIN, PERIOD_PALETTE_SIZE, periodHex, periodLinear, periodOklab, periodsAdjacent } from '../../src/colour/period-palette.js';
 import { linearToOklab, oklabDistance, oklabToLinear } from '../../src/colour/oklab.js';
 
 const lab = (p: number): number[] => periodOklab(p, [0, 0, 0]) as number[];
@@ -25,8 +17,7 @@ describe('period palette', () => {
 
   it('periods that meet in the plane (p, p+1, p+2, and multiples) are at least 0.06 apart up to 64 (was 0.08, see above)', () => {
     let min = Infinity;
-    for (let p = 2; p <= PERIOD_PALETTE_SIZE; p++)
-      for (let q = 1; q < p; q++) if (periodsAdjacent(p, q)) min = Math.min(min, oklabDistance(lab(p), lab(q)));
+    for (let p = 2; p <= PERIOD_PALETTE_SIZE; p++) for (let q = 1; q < p; q++) if (periodsAdjacent(p, q)) min = Math.min(min, oklabDistance(lab(p), lab(q)));
     expect(min).toBeGreaterThan(0.06);
   });
 

@@ -30,7 +30,14 @@ describe('findBoundaryPoint', () => {
 
 describe('componentRoot', () => {
   it('the p/q bulb roots equal the cardioid formula at m = e^{2 pi i p/q}, the parent is period 1 at p/q, and the radius is about sin(pi p/q)/q^2', () => {
-    for (const [p, q] of [[1, 2], [1, 3], [1, 4], [2, 5], [1, 6], [3, 7]] as const) {
+    for (const [p, q] of [
+      [1, 2],
+      [1, 3],
+      [1, 4],
+      [2, 5],
+      [1, 6],
+      [3, 7],
+    ] as const) {
       const a = (2 * Math.PI * p) / q;
       const want = { re: Math.cos(a) / 2 - Math.cos(2 * a) / 4, im: Math.sin(a) / 2 - Math.sin(2 * a) / 4 };
       const rad = Math.sin((Math.PI * p) / q) / q ** 2; // Guckenheimer & McGehee (1984), docs/checks.md "p/q bulb radius"

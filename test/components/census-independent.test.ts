@@ -14,7 +14,10 @@ const D = Decimal.clone({ precision: 60 });
 
 /** F_q and F_q' at c (z <- z^2 + c, d <- 2 z d + 1 from 0) in decimal.js. */
 function jet(q: number, re: Decimal, im: Decimal): { fr: Decimal; fi: Decimal; dr: Decimal; di: Decimal } {
-  let zr = new D(0), zi = new D(0), dr = new D(0), di = new D(0);
+  let zr = new D(0),
+    zi = new D(0),
+    dr = new D(0),
+    di = new D(0);
   for (let k = 0; k < q; k += 1) {
     const ndr = zr.times(dr).minus(zi.times(di)).times(2).plus(1);
     di = zr.times(di).plus(zi.times(dr)).times(2);
@@ -29,12 +32,21 @@ function jet(q: number, re: Decimal, im: Decimal): { fr: Decimal; fi: Decimal; d
 /** |F_q / F_q'| at c. */
 function newtonStep(q: number, re: Decimal, im: Decimal): Decimal {
   const j = jet(q, re, im);
-  return j.fr.pow(2).plus(j.fi.pow(2)).div(j.dr.pow(2).plus(j.di.pow(2))).sqrt();
+  return j.fr
+    .pow(2)
+    .plus(j.fi.pow(2))
+    .div(j.dr.pow(2).plus(j.di.pow(2)))
+    .sqrt();
 }
 
 /** Hunt & Ott's size estimate |1 / (beta lambda^2)| (docs/methods.md C4) in doubles, written here. */
 function size(p: number, cr: number, ci: number): number {
-  let zr = 0, zi = 0, lr = 1, li = 0, br = 1, bi = 0;
+  let zr = 0,
+    zi = 0,
+    lr = 1,
+    li = 0,
+    br = 1,
+    bi = 0;
   for (let k = 1; k < p; k += 1) {
     [zr, zi] = [zr * zr - zi * zi + cr, 2 * zr * zi + ci];
     [lr, li] = [2 * (zr * lr - zi * li), 2 * (zr * li + zi * lr)];
@@ -83,7 +95,8 @@ function seeded(seed: number): () => number {
 /** All 2^(p-1) zeros of F_p by Aberth-Ehrlich in doubles, each polished by two decimal.js Newton steps. */
 function aberth(p: number): Array<[Decimal, Decimal]> {
   const n = 2 ** (p - 1);
-  const re = new Float64Array(n), im = new Float64Array(n);
+  const re = new Float64Array(n),
+    im = new Float64Array(n);
   for (let k = 0; k < n; k += 1) {
     const a = (2 * Math.PI * (k + 0.25)) / n;
     re[k] = 2.2 * Math.cos(a);
@@ -92,25 +105,33 @@ function aberth(p: number): Array<[Decimal, Decimal]> {
   for (let sweep = 0; sweep < 2000; sweep += 1) {
     let moved = 0;
     for (let k = 0; k < n; k += 1) {
-      let zr = 0, zi = 0, dr = 0, di = 0;
+      let zr = 0,
+        zi = 0,
+        dr = 0,
+        di = 0;
       for (let j = 0; j < p; j += 1) {
         [dr, di] = [2 * (zr * dr - zi * di) + 1, 2 * (zr * di + zi * dr)];
         [zr, zi] = [zr * zr - zi * zi + re[k]!, 2 * zr * zi + im[k]!];
       }
       const dm = dr * dr + di * di;
-      const nr = (zr * dr + zi * di) / dm, ni = (zi * dr - zr * di) / dm; // N = F / F'
-      let sr = 0, si = 0;
+      const nr = (zr * dr + zi * di) / dm,
+        ni = (zi * dr - zr * di) / dm; // N = F / F'
+      let sr = 0,
+        si = 0;
       for (let j = 0; j < n; j += 1) {
         if (j === k) continue;
-        const xr = re[k]! - re[j]!, xi = im[k]! - im[j]!;
+        const xr = re[k]! - re[j]!,
+          xi = im[k]! - im[j]!;
         const m = xr * xr + xi * xi;
         sr += xr / m;
         si -= xi / m;
       }
       // w = N / (1 - N S)
-      const ar = 1 - (nr * sr - ni * si), ai = -(nr * si + ni * sr);
+      const ar = 1 - (nr * sr - ni * si),
+        ai = -(nr * si + ni * sr);
       const am = ar * ar + ai * ai;
-      const wr = (nr * ar + ni * ai) / am, wi = (ni * ar - nr * ai) / am;
+      const wr = (nr * ar + ni * ai) / am,
+        wi = (ni * ar - nr * ai) / am;
       re[k] -= wr;
       im[k] -= wi;
       moved = Math.max(moved, Math.hypot(wr, wi) / Math.max(1e-300, Math.hypot(re[k]!, im[k]!)));
@@ -118,7 +139,8 @@ function aberth(p: number): Array<[Decimal, Decimal]> {
     if (moved < 1e-15) break;
   }
   return Array.from(re, (r, k) => {
-    let cr = new D(r), ci = new D(im[k]!);
+    let cr = new D(r),
+      ci = new D(im[k]!);
     for (let it = 0; it < 3; it += 1) {
       const j = jet(p, cr, ci);
       const m = j.dr.pow(2).plus(j.di.pow(2));
@@ -140,7 +162,19 @@ function matchAll(p: number, comps: readonly CensusComponent[], zeros: Array<[De
   for (const c of comps) {
     const s = size(p, c.reHi, c.imHi);
     const near = exactZeros
-      .map(([r, i], k) => [k, r.minus(exact(c.reHi)).minus(exact(c.reLo)).pow(2).plus(i.minus(exact(c.imHi)).minus(exact(c.imLo)).pow(2)).sqrt().toNumber()] as const)
+      .map(
+        ([r, i], k) =>
+          [
+            k,
+            r
+              .minus(exact(c.reHi))
+              .minus(exact(c.reLo))
+              .pow(2)
+              .plus(i.minus(exact(c.imHi)).minus(exact(c.imLo)).pow(2))
+              .sqrt()
+              .toNumber(),
+          ] as const,
+      )
       .filter(([, d]) => d < 1e-8 * s);
     expect(near.length, `period ${p} nucleus ${c.reHi}, ${c.imHi}`).toBe(1);
     used.add(near[0]![0]);
@@ -158,7 +192,10 @@ describe('census nuclei checked independently of the census code', () => {
       const comps = (await census(p, { workers: 2 })).components;
       for (let k = 0; k < 40; k += 1) check(p, comps[Math.floor(rand() * comps.length)]!);
       // the component nearest -2 is the smallest (size about 2^(6 - 4p)): always include it
-      check(p, comps.reduce((a, b) => (b.reHi < a.reHi ? b : a)));
+      check(
+        p,
+        comps.reduce((a, b) => (b.reHi < a.reHi ? b : a)),
+      );
     }
   });
   it('the census of periods 2..8 is exactly the set of exact-period-p zeros of F_p from an Aberth-Ehrlich solver written here', async () => {
@@ -180,7 +217,10 @@ for r in polyroots(f[::-1], maxsteps=400, extraprec=400):
     print(mp.nstr(mp.re(r), 35), mp.nstr(mp.im(r), 35))
 `;
     for (let p = 2; p <= 6; p += 1) {
-      const zeros = runMpmath(program(p)).trim().split('\n').map((l) => l.split(' ').map((t) => new D(t)) as [Decimal, Decimal]);
+      const zeros = runMpmath(program(p))
+        .trim()
+        .split('\n')
+        .map((l) => l.split(' ').map((t) => new D(t)) as [Decimal, Decimal]);
       expect(zeros).toHaveLength(2 ** (p - 1));
       matchAll(p, (await census(p)).components, zeros);
     }

@@ -20,7 +20,8 @@ function expectAnglePairs(p: number, pairs: ReadonlyArray<readonly number[]>): v
   const den = 2 ** p - 1;
   const exactPeriod: number[] = [];
   for (let n = 0; n < den; n += 1) {
-    let m = n, k = 0;
+    let m = n,
+      k = 0;
     do {
       m = (2 * m) % den;
       k += 1;
@@ -46,7 +47,11 @@ describe('census', () => {
       expect(r.components.filter((c) => c.real).length, `real, period ${p}`).toBe(A000048[p - 1]);
       expect(r.unpaired).toBe(0);
       expect(r.raysLost).toBe(0);
-      if (p > 1) expectAnglePairs(p, r.components.map((c) => c.angles));
+      if (p > 1)
+        expectAnglePairs(
+          p,
+          r.components.map((c) => c.angles),
+        );
       // every nucleus lies in |c| <= 2 (docs/methods.md C5)
       for (const c of r.components) expect(Math.hypot(c.reHi, c.imHi)).toBeLessThanOrEqual(2);
     }

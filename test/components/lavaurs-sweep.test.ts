@@ -10,7 +10,8 @@ const A000048 = [1, 1, 1, 2, 3, 5, 9, 16, 28, 51, 93, 170, 315, 585, 1091, 2048]
 
 /** Moebius mu(n) by trial division (written here, independent of the census code). */
 function mobius(n: number): number {
-  let m = n, sign = 1;
+  let m = n,
+    sign = 1;
   for (let q = 2; q * q <= m; q += 1) {
     if (m % q !== 0) continue;
     m /= q;
@@ -53,7 +54,14 @@ describe('lavaursSweep', () => {
   });
   it('lavaursSweep(4) gives the period-4 pairs of docs/methods.md D2', () => {
     const s = lavaursSweep(4);
-    expect(Array.from(s.lo, (lo, i) => [lo, s.hi[i]])).toEqual([[1, 2], [3, 4], [6, 9], [7, 8], [11, 12], [13, 14]]); // over 15
+    expect(Array.from(s.lo, (lo, i) => [lo, s.hi[i]])).toEqual([
+      [1, 2],
+      [3, 4],
+      [6, 9],
+      [7, 8],
+      [11, 12],
+      [13, 14],
+    ]); // over 15
   });
   it('lavaursSweep(16) gives A000740(16) pairs, A000048(16) of them symmetric about 1/2, every period-16 angle used once', () => {
     for (const p of [12, 16]) {
@@ -96,13 +104,15 @@ describe('lavaursSweep', () => {
 });
 
 describe('lavaursStream (bounded memory)', () => {
-  it('gives the pairs of Lavaurs\' rule itself (lavaursPairs, quadratic) for periods 2..10, and of the sweep for 11..16', async () => {
+  it("gives the pairs of Lavaurs' rule itself (lavaursPairs, quadratic) for periods 2..10, and of the sweep for 11..16", async () => {
     const { lavaursStream } = await import('../../src/components/lavaurs-stream.js');
     for (let p = 2; p <= 16; p += 1) {
       const s = lavaursStream(p);
       expect(s.lo.length, `period ${p}`).toBe(A000740[p - 1]);
       if (p <= 10) {
-        const byRule = lavaursPairs(p).filter((q) => q.period === p).map((q) => [q.lo, q.hi]);
+        const byRule = lavaursPairs(p)
+          .filter((q) => q.period === p)
+          .map((q) => [q.lo, q.hi]);
         expect(Array.from(s.lo).map((l, i) => [l, s.hi[i]])).toEqual(byRule.sort((x, y) => x[0]! - y[0]!));
       } else {
         const w = lavaursSweep(p);

@@ -7,17 +7,24 @@ const D = Decimal.clone({ precision: 120 });
 
 /** c^3 + 2c^2 + c + 1 evaluated exactly enough in decimal.js (docs/checks.md: period-3 nuclei are its roots). */
 function cubic(re: string, im: string): number {
-  const cr = new D(re), ci = new D(im);
+  const cr = new D(re),
+    ci = new D(im);
   // (a+bi)^2, ^3
-  const r2 = cr.times(cr).minus(ci.times(ci)), i2 = cr.times(ci).times(2);
-  const r3 = r2.times(cr).minus(i2.times(ci)), i3 = r2.times(ci).plus(i2.times(cr));
-  const vr = r3.plus(r2.times(2)).plus(cr).plus(1), vi = i3.plus(i2.times(2)).plus(ci);
+  const r2 = cr.times(cr).minus(ci.times(ci)),
+    i2 = cr.times(ci).times(2);
+  const r3 = r2.times(cr).minus(i2.times(ci)),
+    i3 = r2.times(ci).plus(i2.times(cr));
+  const vr = r3.plus(r2.times(2)).plus(cr).plus(1),
+    vi = i3.plus(i2.times(2)).plus(ci);
   return vr.times(vr).plus(vi.times(vi)).sqrt().toNumber();
 }
 
 /** |F_p(c) / F_p'(c)| with F_p(c) = f_c^p(0), in decimal.js (the length of a Newton step for a zero of F_p). */
 function newtonStep(p: number, cr: Decimal, ci: Decimal): Decimal {
-  let zr = new D(0), zi = new D(0), dr = new D(0), di = new D(0);
+  let zr = new D(0),
+    zi = new D(0),
+    dr = new D(0),
+    di = new D(0);
   for (let k = 0; k < p; k += 1) {
     const ndr = zr.times(dr).minus(zi.times(di)).times(2).plus(1);
     const ndi = zr.times(di).plus(zi.times(dr)).times(2);
@@ -25,7 +32,11 @@ function newtonStep(p: number, cr: Decimal, ci: Decimal): Decimal {
     const nzi = zr.times(zi).times(2).plus(ci);
     [zr, zi, dr, di] = [nzr, nzi, ndr, ndi];
   }
-  return zr.pow(2).plus(zi.pow(2)).div(dr.pow(2).plus(di.pow(2))).sqrt();
+  return zr
+    .pow(2)
+    .plus(zi.pow(2))
+    .div(dr.pow(2).plus(di.pow(2)))
+    .sqrt();
 }
 
 describe('findNucleus', () => {

@@ -31,7 +31,7 @@ function landedOff(p: number, num: number, c: CensusComponent, careful: boolean)
 }
 
 describe('census pairs: the upper ray lands where the lower one did', () => {
-  it('for a seeded sample of 7 rows per period 11..16 plus the row nearest -2, the upper angle lands on the row\'s nucleus', async () => {
+  it("for a seeded sample of 7 rows per period 11..16 plus the row nearest -2, the upper angle lands on the row's nucleus", async () => {
     const rand = seeded(20261203);
     for (let p = 11; p <= 16; p += 1) {
       const comps = (await census(p, { workers: 2 })).components;

@@ -17,12 +17,18 @@ describe('real nuclei of the census equal the superstable logistic parameters', 
     const windows = findWindows(logistic, 9, 30).windows;
     const counts: number[] = [];
     for (let p = 3; p <= 9; p++) {
-      const real = (await census(p)).components.filter((c) => c.real).map((c) => c.reHi + c.reLo).sort((a, b) => a - b);
+      const real = (await census(p)).components
+        .filter((c) => c.real)
+        .map((c) => c.reHi + c.reLo)
+        .sort((a, b) => a - b);
       counts.push(real.length);
-      const fromR = windows.filter((w) => w.period === p).map((w) => {
-        const r = w.superstable.toNumber();
-        return r / 2 - (r * r) / 4;
-      }).sort((a, b) => a - b);
+      const fromR = windows
+        .filter((w) => w.period === p)
+        .map((w) => {
+          const r = w.superstable.toNumber();
+          return r / 2 - (r * r) / 4;
+        })
+        .sort((a, b) => a - b);
       expect(fromR).toHaveLength(real.length);
       // Doubles: both ends are good to ~1e-15 relative; the c(r) map loses a little near r = 4.
       real.forEach((c, i) => expect(Math.abs(fromR[i]! - c), `period ${p}, nucleus ${c}`).toBeLessThan(1e-12));

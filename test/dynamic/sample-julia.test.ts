@@ -14,10 +14,11 @@ function grid(cRe: number, cIm: number, lo: number, hi: number, n: number, itera
   const h = (hi - lo) / n;
   const xs = new Float64Array(n * n);
   const ys = new Float64Array(n * n);
-  for (let j = 0; j < n; j++) for (let i = 0; i < n; i++) {
-    xs[j * n + i] = lo + (i + 0.5) * h;
-    ys[j * n + i] = lo + (j + 0.5) * h;
-  }
+  for (let j = 0; j < n; j++)
+    for (let i = 0; i < n; i++) {
+      xs[j * n + i] = lo + (i + 0.5) * h;
+      ys[j * n + i] = lo + (j + 0.5) * h;
+    }
   const set = sample(cRe, cIm, xs, ys, iterations);
   return { set, xs, ys, h };
 }
@@ -40,7 +41,8 @@ function count(set: JuliaSampleSet, pred: (period: number) => boolean): number {
  * sees f(z) and z together, so this holds only if the partition is right.
  */
 function expectShiftInvariant(cRe: number, cIm: number, set: JuliaSampleSet, xs: Float64Array, ys: Float64Array, iterations: number): number {
-  const fx = new Float64Array(xs.length), fy = new Float64Array(xs.length);
+  const fx = new Float64Array(xs.length),
+    fy = new Float64Array(xs.length);
   for (let k = 0; k < xs.length; k++) {
     fx[k] = xs[k]! * xs[k]! - ys[k]! * ys[k]! + cRe;
     fy[k] = 2 * xs[k]! * ys[k]! + cIm;
@@ -69,7 +71,8 @@ describe('sampleJulia: interiors against exact facts', () => {
     const { set, xs, ys } = grid(-2, 0, -2.5, 2.5, 201, 2000);
     expect(count(set, (p) => p > 0)).toBe(0);
     for (let k = 0; k < xs.length; k++) {
-      const x = xs[k]!, y = ys[k]!;
+      const x = xs[k]!,
+        y = ys[k]!;
       const dx = Math.max(0, Math.abs(x) - 2);
       if (Math.hypot(dx, y) > 0.01) expect(set.period[k]).toBe(0);
     }
@@ -122,7 +125,8 @@ describe('sampleJulia: interiors against exact facts', () => {
     // A small circle about alpha = (1 - sqrt(1 - 4c)) / 2 (Milnor) meets the three immediate basins.
     const f = fixedPoints(cRe, cIm);
     const n = 720;
-    const cx = new Float64Array(n), cy = new Float64Array(n);
+    const cx = new Float64Array(n),
+      cy = new Float64Array(n);
     for (let k = 0; k < n; k++) {
       cx[k] = f.alphaRe + 0.004 * Math.cos((2 * Math.PI * k) / n);
       cy[k] = f.alphaIm + 0.004 * Math.sin((2 * Math.PI * k) / n);
@@ -156,7 +160,8 @@ describe('sampleJulia: interiors against exact facts', () => {
     const cycle = findJuliaCycle(0.25, 0);
     expect(cycle.kind).toBe('parabolic');
     expect(cycle.basinPeriod).toBe(1);
-    const xs = new Float64Array(101), ys = new Float64Array(101);
+    const xs = new Float64Array(101),
+      ys = new Float64Array(101);
     for (let k = 0; k < 101; k++) xs[k] = -0.7 + 0.014 * k;
     const s = sample(0.25, 0, xs, ys, 200000, cycle);
     for (let k = 0; k < 101; k++) {
@@ -212,14 +217,16 @@ describe('sampleJulia: interiors against exact facts', () => {
     const th = 2 * Math.PI * ((Math.sqrt(5) - 1) / 2);
     expect(p.cRe).toBeCloseTo(Math.cos(th) / 2 - Math.cos(2 * th) / 4, 14);
     expect(p.cIm).toBeCloseTo(Math.sin(th) / 2 - Math.sin(2 * th) / 4, 14);
-    const aRe = p.mRe / 2, aIm = p.mIm / 2;
+    const aRe = p.mRe / 2,
+      aIm = p.mIm / 2;
     expect(aRe * aRe - aIm * aIm + p.cRe).toBeCloseTo(aRe, 15);
     expect(2 * aRe * aIm + p.cIm).toBeCloseTo(aIm, 15);
     const cycle = findJuliaCycle(p.cRe, p.cIm, { siegel: { wRe: aRe, wIm: aIm, name: 'golden mean' } });
     expect(cycle.kind).toBe('siegel');
     // Along a ray from alpha the orbit's mean distance grows with the start's distance: nested invariant curves.
     const n = 12;
-    const xs = new Float64Array(n), ys = new Float64Array(n);
+    const xs = new Float64Array(n),
+      ys = new Float64Array(n);
     for (let k = 0; k < n; k++) {
       xs[k] = aRe + 0.01 * (k + 1);
       ys[k] = aIm;
@@ -231,7 +238,10 @@ describe('sampleJulia: interiors against exact facts', () => {
       if (k > 0) expect(s.smooth[k]!).toBeGreaterThan(s.smooth[k - 1]!);
     }
     // Recurrence: from |u| = 0.02 the orbit neither converges to alpha nor leaves (Siegel: conjugate to a rotation).
-    let x = aRe + 0.02, y = aIm, lo = Infinity, hi = 0;
+    let x = aRe + 0.02,
+      y = aIm,
+      lo = Infinity,
+      hi = 0;
     for (let k = 0; k < 100000; k++) {
       const u = x * x - y * y + p.cRe;
       y = 2 * x * y + p.cIm;

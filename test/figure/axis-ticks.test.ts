@@ -25,7 +25,7 @@ describe('axisTicks', () => {
       const x = t.label.replace('\u2212', '-');
       expect(scaled(t.value, K)).toBe(scaled(centre, K) + scaled(x, K - 25));
       // position: (value - (centre - span/2)) / span * 600 pixels
-      expect(t.at).toBeCloseTo((Number(x) + 1.5) / 3 * 600, 9);
+      expect(t.at).toBeCloseTo(((Number(x) + 1.5) / 3) * 600, 9);
     }
   });
 

@@ -22,10 +22,13 @@ export function testPixels(width: number, height: number, channels: 3 | 4, depth
       for (let c = 0; c < channels; c++) {
         seed = (Math.imul(seed, 1664525) + 1013904223) >>> 0;
         let v: number;
-        if (j % 4 === 0) v = Math.round(((i + c * 7) / (width + 21)) * max); // ramp
-        else if (j % 4 === 1) v = i < width / 2 ? 0 : max; // edge, extremes
-        else if (j % 4 === 2) v = seed % (max + 1); // noise
-        else v = Math.round(((j * 3 + i * c) % 97) / 96 * max); // diagonal pattern
+        if (j % 4 === 0)
+          v = Math.round(((i + c * 7) / (width + 21)) * max); // ramp
+        else if (j % 4 === 1)
+          v = i < width / 2 ? 0 : max; // edge, extremes
+        else if (j % 4 === 2)
+          v = seed % (max + 1); // noise
+        else v = Math.round((((j * 3 + i * c) % 97) / 96) * max); // diagonal pattern
         out[(j * width + i) * channels + c] = v;
       }
     }
@@ -37,7 +40,7 @@ export function testPixels(width: number, height: number, channels: 3 | 4, depth
 export function chunkTypes(png: Uint8Array): string[] {
   const b = Buffer.from(png.buffer, png.byteOffset, png.length);
   const types: string[] = [];
-  for (let at = 8; at < b.length; ) {
+  for (let at = 8; at < b.length;) {
     const len = b.readUInt32BE(at);
     types.push(b.toString('latin1', at + 4, at + 8));
     at += 12 + len;
@@ -49,7 +52,7 @@ export function chunkTypes(png: Uint8Array): string[] {
 export function chunksOf(png: Uint8Array, type: string): Buffer[] {
   const b = Buffer.from(png.buffer, png.byteOffset, png.length);
   const found: Buffer[] = [];
-  for (let at = 8; at < b.length; ) {
+  for (let at = 8; at < b.length;) {
     const len = b.readUInt32BE(at);
     if (b.toString('latin1', at + 4, at + 8) === type) found.push(b.subarray(at + 8, at + 8 + len));
     at += 12 + len;

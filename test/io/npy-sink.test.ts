@@ -45,7 +45,11 @@ describe('npyHeader', () => {
   it('pads magic + version + length + header to a multiple of 64 bytes, ending in a newline', () => {
     // numpy.lib.format: "padded with spaces (\x20) to make the total of len(magic string) + 2 +
     // len(length) + HEADER_LEN be evenly divisible by 64"; terminated by '\n'.
-    for (const shape of [[1, 1], [4000, 4000], [123456789, 987654321]] as [number, number][]) {
+    for (const shape of [
+      [1, 1],
+      [4000, 4000],
+      [123456789, 987654321],
+    ] as [number, number][]) {
       const h = npyHeader('<f8', shape);
       expect(h.length % 64).toBe(0);
       expect(h[h.length - 1]).toBe(0x0a);
@@ -65,7 +69,11 @@ describe('openNpySink', () => {
       const sink = await openNpySink(file, dtype, [h, w]);
       const per = values.length / h;
       const bytesPer = values.BYTES_PER_ELEMENT;
-      for (const [r0, n] of [[0, 5], [5, 1], [6, 7]] as const) {
+      for (const [r0, n] of [
+        [0, 5],
+        [5, 1],
+        [6, 7],
+      ] as const) {
         await sink.writeRows(values.subarray(r0 * per, (r0 + n) * per), n); // a view with a non-zero byteOffset
       }
       await sink.finish();
@@ -98,11 +106,9 @@ describe('openNpySink', () => {
     await sink.writeRows(new Float64Array([0.1, -2.5, 1e300, 5e-324]), 2);
     await sink.writeRows(new Float64Array([Math.PI, -0]), 1);
     await sink.finish();
-    const py = spawnSync(
-      'python3',
-      ['-c', 'import sys, numpy as np; a = np.load(sys.argv[1]); print(a.dtype.str, a.shape, [int(x) for x in a.view("<u8").ravel()])', file],
-      { encoding: 'utf8' },
-    );
+    const py = spawnSync('python3', ['-c', 'import sys, numpy as np; a = np.load(sys.argv[1]); print(a.dtype.str, a.shape, [int(x) for x in a.view("<u8").ravel()])', file], {
+      encoding: 'utf8',
+    });
     expect(py.stderr).toBe('');
     // Compare bit patterns, so -0 and the smallest subnormal are checked exactly.
     const bits = Array.from(new BigUint64Array(new Float64Array([0.1, -2.5, 1e300, 5e-324, Math.PI, -0]).buffer));
@@ -133,4 +139,3 @@ describe('openNpySink', () => {
     expect(await readdir(dir)).toEqual([]);
   });
 });
-

@@ -21,13 +21,7 @@ function spec(width: number, height: number, depth: 8 | 16, channels: 3 | 4, dpi
 }
 
 /** Writes `pixels` in bands of `bandRows` rows and returns the file's bytes. */
-async function writePng(
-  file: string,
-  s: RasterSpec,
-  pixels: Uint8Array | Uint16Array,
-  bandRows: number,
-  options: PngSinkOptions = {},
-): Promise<Buffer> {
+async function writePng(file: string, s: RasterSpec, pixels: Uint8Array | Uint16Array, bandRows: number, options: PngSinkOptions = {}): Promise<Buffer> {
   const sink = await openPngSink(file, s, options);
   const rowSamples = s.width * s.channels;
   for (let r = 0; r < s.height; r += bandRows) {
@@ -112,7 +106,7 @@ describe('openPngSink', () => {
     // PNG spec 5.3: CRC over type and data. Checked here by walking the file independently of the writer.
     const bytes = await writePng(path.join(dir, 'p.png'), spec(30, 30, 16, 4, 72), testPixels(30, 30, 4, 16), 4);
     let checked = 0;
-    for (let at = 8; at < bytes.length; ) {
+    for (let at = 8; at < bytes.length;) {
       const len = bytes.readUInt32BE(at);
       expect(bytes.readUInt32BE(at + 8 + len)).toBe(crc32(bytes.subarray(at + 4, at + 8 + len)) >>> 0);
       at += 12 + len;

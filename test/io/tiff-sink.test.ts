@@ -19,13 +19,7 @@ function spec(width: number, height: number, depth: 8 | 16, channels: 3 | 4, dpi
 }
 
 /** Writes in calls of `bandRows` rows; the sink's own band files hold `fileRows` rows (default: one file). */
-async function writeTiff(
-  file: string,
-  s: RasterSpec,
-  pixels: Uint8Array | Uint16Array,
-  bandRows: number,
-  fileRows?: number,
-): Promise<Buffer> {
+async function writeTiff(file: string, s: RasterSpec, pixels: Uint8Array | Uint16Array, bandRows: number, fileRows?: number): Promise<Buffer> {
   const sink = await openTiffSink(file, s, fileRows === undefined ? {} : { bandRows: fileRows });
   const rowSamples = s.width * s.channels;
   for (let r = 0; r < s.height; r += bandRows) {

@@ -31,8 +31,15 @@ describe('attractingCycle', () => {
   });
 
   it('attractingCycle(c = m/2 - m^2/4, p = 1) returns the multiplier m (main cardioid formula, docs/checks.md)', () => {
-    for (const [mr, mi] of [[0.5, 0], [0.3, -0.6], [-0.9, 0.1], [0.05, 0.95], [-0.2, -0.2]] as const) {
-      const cRe = mr / 2 - (mr * mr - mi * mi) / 4, cIm = mi / 2 - (2 * mr * mi) / 4;
+    for (const [mr, mi] of [
+      [0.5, 0],
+      [0.3, -0.6],
+      [-0.9, 0.1],
+      [0.05, 0.95],
+      [-0.2, -0.2],
+    ] as const) {
+      const cRe = mr / 2 - (mr * mr - mi * mi) / 4,
+        cIm = mi / 2 - (2 * mr * mi) / 4;
       const r = attractingCycle(cRe, cIm, 1, 0, 0);
       expect(r.ok).toBe(true);
       // Newton vs formula; 1e-13 covers rounding of c and a few ulps of Newton.

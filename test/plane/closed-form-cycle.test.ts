@@ -4,7 +4,8 @@ import { closedFormCycle } from '../../src/plane/closed-form-cycle.js';
 
 /** c = m/2 - m^2/4 for a multiplier m = r e^{i t} (main cardioid formula, docs/checks.md). */
 function cardioidPoint(r: number, t: number): [number, number] {
-  const mr = r * Math.cos(t), mi = r * Math.sin(t);
+  const mr = r * Math.cos(t),
+    mi = r * Math.sin(t);
   return [mr / 2 - (mr * mr - mi * mi) / 4, mi / 2 - (mr * mi) / 2];
 }
 
@@ -45,8 +46,10 @@ describe('closedFormCycle', () => {
       expect(closedFormCycle(a, b, out)).toBe(2);
       expect(out.mulRe).toBe(4 * (a + 1));
       expect(out.mulIm).toBe(4 * b);
-      const z1r = out.wRe * out.wRe - out.wIm * out.wIm + a, z1i = 2 * out.wRe * out.wIm + b;
-      const z2r = z1r * z1r - z1i * z1i + a, z2i = 2 * z1r * z1i + b;
+      const z1r = out.wRe * out.wRe - out.wIm * out.wIm + a,
+        z1i = 2 * out.wRe * out.wIm + b;
+      const z2r = z1r * z1r - z1i * z1i + a,
+        z2i = 2 * z1r * z1i + b;
       expect(Math.hypot(z2r - out.wRe, z2i - out.wIm)).toBeLessThan(1e-14);
       expect(Math.hypot(z1r - out.wRe, z1i - out.wIm)).toBeGreaterThan(0.1);
     }
@@ -61,9 +64,13 @@ describe('closedFormCycle', () => {
   });
 
   it('closedFormCycle agrees with Newton (attractingCycle) on the multiplier inside both components', () => {
-    const out = createCycleResult(), newton = createCycleResult();
+    const out = createCycleResult(),
+      newton = createCycleResult();
     for (const t of ANGLES) {
-      for (const [[a, b], p] of [[cardioidPoint(0.6, t), 1], [diskPoint(0.6, t), 2]] as const) {
+      for (const [[a, b], p] of [
+        [cardioidPoint(0.6, t), 1],
+        [diskPoint(0.6, t), 2],
+      ] as const) {
         expect(closedFormCycle(a, b, out)).toBe(p);
         attractingCycle(a, b, p, out.wRe + 0.01, out.wIm - 0.01, newton);
         expect(newton.ok).toBe(true);
@@ -76,13 +83,22 @@ describe('closedFormCycle', () => {
   it('closedFormCycle leaves the parabolic points 1/4, -3/4, -5/4 and points outside to the iteration (returns 0)', () => {
     // Exact algebra: m = 1 at c = 1/4; m = -1 at c = -3/4 (and 4(c + 1) = 1); 4(c + 1) = -1 at c = -5/4.
     const out = createCycleResult();
-    for (const [a, b] of [[0.25, 0], [-0.75, 0], [-1.25, 0], [0.3, 0], [-2, 0], [0, 1], [-0.12256116687665362, 0.7448617666197442]]) {
+    for (const [a, b] of [
+      [0.25, 0],
+      [-0.75, 0],
+      [-1.25, 0],
+      [0.3, 0],
+      [-2, 0],
+      [0, 1],
+      [-0.12256116687665362, 0.7448617666197442],
+    ]) {
       expect(closedFormCycle(a!, b!, out)).toBe(0);
     }
   });
 
   it('closedFormCycle(conjugate c) gives the conjugate cycle and multiplier bit for bit', () => {
-    const u = createCycleResult(), v = createCycleResult();
+    const u = createCycleResult(),
+      v = createCycleResult();
     for (const t of ANGLES) {
       for (const [a, b] of [cardioidPoint(0.7, t), diskPoint(0.7, t)]) {
         expect(closedFormCycle(a, -b, v)).toBe(closedFormCycle(a, b, u));

@@ -14,19 +14,24 @@ describe('escapeLoop', () => {
     // same grid and escape rule), which also matches the C benchmark reference program of the
     // project's bench notes built with -ffp-contract=off (247632971). With fused multiply-adds that C
     // program prints 247633556 instead; JavaScript has no FMA and escapeLoop's contract forbids it.
-    const W = 1000, N = 1000;
-    const cr = new Float64Array(W), ci = new Float64Array(W);
+    const W = 1000,
+      N = 1000;
+    const cr = new Float64Array(W),
+      ci = new Float64Array(W);
     const out = createLoopOut(W);
-    for (let i = 0; i < W; i++) cr[i] = -2.0 + 2.5 * (i + 0.5) / W;
-    let total = 0, plain = 0;
+    for (let i = 0; i < W; i++) cr[i] = -2.0 + (2.5 * (i + 0.5)) / W;
+    let total = 0,
+      plain = 0;
     for (let j = 0; j < W; j++) {
-      const b = 1.25 - 2.5 * (j + 0.5) / W;
+      const b = 1.25 - (2.5 * (j + 0.5)) / W;
       ci.fill(b);
       escapeLoop(cr, ci, W, N, 4, 0, out);
       for (let i = 0; i < W; i++) {
         total += out.iterations[i]!;
         const a = cr[i]!;
-        let x = 0, y = 0, n = 0;
+        let x = 0,
+          y = 0,
+          n = 0;
         while (n < N && x * x + y * y <= 4) {
           const t = x * x - y * y + a;
           y = 2 * x * y + b;
@@ -68,7 +73,8 @@ describe('escapeLoop', () => {
   });
 
   it('escapeLoop writes each slot independently of its neighbours', () => {
-    const cr = Float64Array.of(0.3, -1, -0.1, 0.3), ci = Float64Array.of(0.5, 0, 0.65, 0.5);
+    const cr = Float64Array.of(0.3, -1, -0.1, 0.3),
+      ci = Float64Array.of(0.5, 0, 0.65, 0.5);
     const out = createLoopOut(4);
     escapeLoop(cr, ci, 4, 500, 1e6, 1e-24, out);
     for (let k = 0; k < 4; k++) {

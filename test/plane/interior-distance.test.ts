@@ -25,8 +25,14 @@ describe('interiorDistance', () => {
   it('interiorDistance(c = m/2 - m^2/4, w = m/2, p = 1) equals (1 - |m|^2) |1 - m| / 2', () => {
     // Exact algebra: over one step D_z = 2w = m, D_c = 1, D_zz = 2, D_cz = 0, so
     // b = (1 - |m|^2) / |2 / (1 - m)|.
-    for (const [mr, mi] of [[0.5, 0.5], [-0.7, 0.1], [0.9, 0], [0, -0.99]] as const) {
-      const cRe = mr / 2 - (mr * mr - mi * mi) / 4, cIm = mi / 2 - (mr * mi) / 2;
+    for (const [mr, mi] of [
+      [0.5, 0.5],
+      [-0.7, 0.1],
+      [0.9, 0],
+      [0, -0.99],
+    ] as const) {
+      const cRe = mr / 2 - (mr * mr - mi * mi) / 4,
+        cIm = mi / 2 - (mr * mi) / 2;
       const expected = ((1 - mr * mr - mi * mi) * Math.hypot(1 - mr, mi)) / 2;
       expect(interiorDistance(cRe, cIm, mr / 2, mi / 2, 1)).toBeCloseTo(expected, 14);
     }

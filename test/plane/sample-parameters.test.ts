@@ -17,7 +17,8 @@ function run(points: readonly (readonly [number, number])[], settings: EscapeSet
 
 /** c = m/2 - m^2/4 for m = r e^{i t} (main cardioid formula, docs/checks.md). */
 function cardioidPoint(r: number, t: number): [number, number] {
-  const mr = r * Math.cos(t), mi = r * Math.sin(t);
+  const mr = r * Math.cos(t),
+    mi = r * Math.sin(t);
   return [mr / 2 - (mr * mr - mi * mi) / 4, mi / 2 - (mr * mi) / 2];
 }
 
@@ -32,10 +33,12 @@ function distanceToCardioid(x: number, y: number): number {
   const K = 20000;
   let best = 0;
   for (let k = 1; k < K; k++) if (at((2 * Math.PI * k) / K) < at((2 * Math.PI * best) / K)) best = k;
-  let lo = (2 * Math.PI * (best - 1)) / K, hi = (2 * Math.PI * (best + 1)) / K;
+  let lo = (2 * Math.PI * (best - 1)) / K,
+    hi = (2 * Math.PI * (best + 1)) / K;
   const g = (Math.sqrt(5) - 1) / 2;
   for (let i = 0; i < 100; i++) {
-    const u = hi - g * (hi - lo), v = lo + g * (hi - lo);
+    const u = hi - g * (hi - lo),
+      v = lo + g * (hi - lo);
     if (at(u) < at(v)) hi = v;
     else lo = u;
   }
@@ -68,10 +71,19 @@ describe('sampleParameters', () => {
     // the period-4 disk spans about [-1.3681, -1.25] (docs/checks.md: a_3 = 1.3680989, -5/4).
     const [n1r, n1i] = NUCLEI3[1];
     const cases: [number, number, number][] = [
-      [0, 0, 1], [0.1, 0.3, 1], [-0.5, -0.4, 1],
-      [-1, 0, 2], [-1.1, 0.1, 2], [-0.9, -0.12, 2],
-      [n1r + 0.02, n1i, 3], [n1r - 0.01, n1i + 0.015, 3], [n1r, -n1i - 0.02, 3], [-1.7549, 0.001, 3],
-      [-1.3107026413368329, 0, 4], [-1.3, 0.01, 4], [-1.32, -0.02, 4],
+      [0, 0, 1],
+      [0.1, 0.3, 1],
+      [-0.5, -0.4, 1],
+      [-1, 0, 2],
+      [-1.1, 0.1, 2],
+      [-0.9, -0.12, 2],
+      [n1r + 0.02, n1i, 3],
+      [n1r - 0.01, n1i + 0.015, 3],
+      [n1r, -n1i - 0.02, 3],
+      [-1.7549, 0.001, 3],
+      [-1.3107026413368329, 0, 4],
+      [-1.3, 0.01, 4],
+      [-1.32, -0.02, 4],
     ];
     const out = run(cases.map(([a, b]) => [a, b]));
     cases.forEach(([, , p], k) => {
@@ -81,7 +93,14 @@ describe('sampleParameters', () => {
   });
 
   it('sampleParameters(c = m/2 - m^2/4) returns multiplier m; (c in the period-2 disk) returns 4(c + 1)', () => {
-    const ms: [number, number][] = [[0.5, 0], [0.3, -0.6], [-0.9, 0.1], [0.05, 0.95], [-0.2, -0.2], [0.97, 0.1]];
+    const ms: [number, number][] = [
+      [0.5, 0],
+      [0.3, -0.6],
+      [-0.9, 0.1],
+      [0.05, 0.95],
+      [-0.2, -0.2],
+      [0.97, 0.1],
+    ];
     const cs = ms.map(([mr, mi]) => [mr / 2 - (mr * mr - mi * mi) / 4, mi / 2 - (mr * mi) / 2] as const);
     const out = run(cs);
     ms.forEach(([mr, mi], k) => {
@@ -90,7 +109,12 @@ describe('sampleParameters', () => {
       expect(out.mulRe[k]).toBeCloseTo(mr, 13);
       expect(out.mulIm[k]).toBeCloseTo(mi, 13);
     });
-    const ds: [number, number][] = [[-1.2, 0.05], [-0.8, -0.1], [-1, 0.2], [-0.95, 0]];
+    const ds: [number, number][] = [
+      [-1.2, 0.05],
+      [-0.8, -0.1],
+      [-1, 0.2],
+      [-0.95, 0],
+    ];
     const dout = run(ds);
     ds.forEach(([a, b], k) => {
       expect(dout.period[k]).toBe(2);
@@ -106,7 +130,8 @@ describe('sampleParameters', () => {
     // Outside: angles with |2 - m| > 1 too (m and 2 - m give the same c).
     const card = ANGLES.filter((t) => t > 0.2 && t < 2 * Math.PI - 0.2).map((t) => cardioidPoint(1.02, t));
     const disk = ANGLES.map((t) => diskPoint(1.02, t));
-    const oc = run(card), od = run(disk);
+    const oc = run(card),
+      od = run(disk);
     card.forEach((_, k) => expect(oc.period[k]).not.toBe(1));
     disk.forEach((_, k) => expect(od.period[k]).not.toBe(2));
     // At least some are found in neighbouring bulbs (e.g. period 3 beyond m = e^{2 pi i/3}), some escape.
@@ -117,8 +142,10 @@ describe('sampleParameters', () => {
   it('sampleParameters(conjugate c) gives bit-identical period, smooth count and distance, and the conjugate multiplier', () => {
     const pts: [number, number][] = [];
     for (let j = 0; j < 40; j++) for (let i = 0; i < 60; i++) pts.push([-2.2 + (2.8 * (i + 0.37)) / 60, 0.013 + (1.3 * j) / 40]);
-    const a = run(pts), b = run(pts.map(([x, y]) => [x, -y]));
-    let interior = 0, escaped = 0;
+    const a = run(pts),
+      b = run(pts.map(([x, y]) => [x, -y]));
+    let interior = 0,
+      escaped = 0;
     for (let k = 0; k < pts.length; k++) {
       expect(b.period[k]).toBe(a.period[k]);
       expect(b.smooth[k]).toBe(a.smooth[k]);
@@ -145,7 +172,13 @@ describe('sampleParameters', () => {
     // from c = e^{it}/2 - e^{2it}/4) is an upper bound of dist(c, M); at these points
     // the decorations near the cusp are far smaller than the distance, so it is the distance
     // to within them (checked: the ratio dist/b stays in 0.73..0.90 here).
-    const right: [number, number][] = [[0.35, 0], [0.4, 0], [0.5, 0], [0.45, 0.1], [0.4, 0.05]];
+    const right: [number, number][] = [
+      [0.35, 0],
+      [0.4, 0],
+      [0.5, 0],
+      [0.45, 0.1],
+      [0.4, 0.05],
+    ];
     const out = run(right);
     right.forEach(([x, y], k) => {
       const d = distanceToCardioid(x, y);
@@ -171,13 +204,17 @@ describe('sampleParameters', () => {
 
   it('sampleParameters smooth count is continuous along lines outside M (max neighbour jump << 1), unlike with R = 2', () => {
     // docs/methods.md A1: with a large R the bands join; R = 2 leaves seams.
-    const lines = [[0.3, 0, 1.0, 0], [0.5, -1, 0.5, 1]] as const;
+    const lines = [
+      [0.3, 0, 1.0, 0],
+      [0.5, -1, 0.5, 1],
+    ] as const;
     for (const [x0, y0, x1, y1] of lines) {
       const K = 3001;
       const pts = Array.from({ length: K }, (_, k) => [x0 + ((x1 - x0) * k) / (K - 1), y0 + ((y1 - y0) * k) / (K - 1)] as const);
       const jump = (R: number) => {
         const out = run(pts, { ...SETTINGS, escapeRadius: R });
-        let max = 0, bands = 0;
+        let max = 0,
+          bands = 0;
         for (let k = 1; k < K; k++) {
           expect(out.period[k]).toBe(0);
           max = Math.max(max, Math.abs(out.smooth[k]! - out.smooth[k - 1]!));
@@ -194,7 +231,13 @@ describe('sampleParameters', () => {
 
   it('sampleParameters(escapeRadius = MAX_ESCAPE_RADIUS) keeps smooth count and distance finite, the distance within 1 % of R = 2^16', () => {
     // The largest R whose escaped |z|^2 stays finite; a larger R (e.g. 1e100) overflows to Infinity.
-    const pts: [number, number][] = [[1, 0], [-2.1, 0], [0.3, 0], [2, 2], [-0.75, 0.1]];
+    const pts: [number, number][] = [
+      [1, 0],
+      [-2.1, 0],
+      [0.3, 0],
+      [2, 2],
+      [-0.75, 0.1],
+    ];
     const big = run(pts, { ...SETTINGS, escapeRadius: MAX_ESCAPE_RADIUS });
     const usual = run(pts);
     pts.forEach((_, k) => {
@@ -208,7 +251,14 @@ describe('sampleParameters', () => {
 
   it('sampleParameters never gives a period to the Misiurewicz points c = i and c = -2 (docs/checks.md)', () => {
     for (const tolerance of [1e-10, 1e-3, 0]) {
-      const out = run([[0, 1], [-2, 0], [0, -1]], { ...SETTINGS, periodTolerance: tolerance });
+      const out = run(
+        [
+          [0, 1],
+          [-2, 0],
+          [0, -1],
+        ],
+        { ...SETTINGS, periodTolerance: tolerance },
+      );
       for (let k = 0; k < 3; k++) expect(out.period[k]).toBeLessThanOrEqual(0);
     }
   });
@@ -224,7 +274,8 @@ describe('sampleParameters', () => {
     };
     const loose = run(pts, { ...SETTINGS, maxIterations: 3000, periodTolerance: 0.05 }, spy);
     const none = run(pts, { ...SETTINGS, maxIterations: 3000, periodTolerance: 0 });
-    let escaped = 0, resumed = 0;
+    let escaped = 0,
+      resumed = 0;
     pts.forEach(([a, b], k) => {
       if (none.period[k] === 0) {
         escaped++;
@@ -244,7 +295,18 @@ describe('sampleParameters', () => {
       calls.push(count);
       escapeLoop(cr, ci, count, ...rest);
     };
-    run([[0, 0], [-1, 0], [0.3, 0], [-1.75, 0.01], [0.1, 0.2], [1, 1]], SETTINGS, spy);
+    run(
+      [
+        [0, 0],
+        [-1, 0],
+        [0.3, 0],
+        [-1.75, 0.01],
+        [0.1, 0.2],
+        [1, 1],
+      ],
+      SETTINGS,
+      spy,
+    );
     expect(calls).toEqual([3]);
   });
 
@@ -257,7 +319,11 @@ describe('sampleParameters', () => {
     for (let k = pts.length - 1; k >= 0; k--) {
       sampleParameters(Float64Array.of(pts[k]![0]), Float64Array.of(pts[k]![1]), 1, SETTINGS, one, escapeLoop, scratch);
       expect([one.period[0], one.smooth[0], one.distance[0], one.mulRe[0], one.mulIm[0]]).toEqual([
-        whole.period[k], whole.smooth[k], whole.distance[k], whole.mulRe[k], whole.mulIm[k],
+        whole.period[k],
+        whole.smooth[k],
+        whole.distance[k],
+        whole.mulRe[k],
+        whole.mulIm[k],
       ]);
     }
   });
@@ -268,12 +334,17 @@ describe('sampleParameters', () => {
     // counting at spacing h = 2.5/256 errs by a fraction of perimeter * h; the
     // tolerances below (0.005 for the smooth curves of perimeter 4 and pi/2,
     // 0.02 for M, whose undecided boundary cells count as inside) are that bound.
-    const W = 256, h = 2.5 / W;
-    const cr = new Float64Array(W), ci = new Float64Array(W);
+    const W = 256,
+      h = 2.5 / W;
+    const cr = new Float64Array(W),
+      ci = new Float64Array(W);
     for (let i = 0; i < W; i++) cr[i] = -2 + h * (i + 0.5);
-    const out = createSampleSet(W), scratch = createSampleScratch(W);
+    const out = createSampleSet(W),
+      scratch = createSampleScratch(W);
     const settings = { maxIterations: 1000, escapeRadius: DEFAULT_ESCAPE_RADIUS, periodTolerance: 1e-3 * h };
-    let p1 = 0, p2 = 0, inside = 0;
+    let p1 = 0,
+      p2 = 0,
+      inside = 0;
     for (let j = 0; j < W; j++) {
       ci.fill(1.25 - h * (j + 0.5));
       sampleParameters(cr, ci, W, settings, out, escapeLoop, scratch);

@@ -3,7 +3,9 @@ import { smoothCount } from '../../src/plane/smooth-count.js';
 
 /** Orbit of 0 under z^2 + c until |z| > R; returns [n, z_n]. */
 function escape(cRe: number, cIm: number, R: number): [number, number, number] {
-  let x = 0, y = 0, n = 0;
+  let x = 0,
+    y = 0,
+    n = 0;
   while (x * x + y * y <= R * R && n < 100000) {
     [x, y] = [x * x - y * y + cRe, 2 * x * y + cIm];
     n++;
@@ -13,8 +15,16 @@ function escape(cRe: number, cIm: number, R: number): [number, number, number] {
 
 describe('smoothCount', () => {
   it('smoothCount lies in (n - 1, n] for escaped orbits (docs/methods.md A1)', () => {
-    const R = 1024, logR = Math.log(R);
-    for (const [a, b] of [[0.3, 0], [-0.75, 0.1], [0.4, 0.6], [-2.1, 0], [1, 1], [0.45, 0.35]]) {
+    const R = 1024,
+      logR = Math.log(R);
+    for (const [a, b] of [
+      [0.3, 0],
+      [-0.75, 0.1],
+      [0.4, 0.6],
+      [-2.1, 0],
+      [1, 1],
+      [0.45, 0.35],
+    ]) {
       const [n, x, y] = escape(a!, b!, R);
       const mu = smoothCount(n, x, y, logR);
       expect(mu).toBeGreaterThan(n - 1);
@@ -24,10 +34,16 @@ describe('smoothCount', () => {
 
   it('smoothCount barely depends on which escaped iterate it is given (band continuity, docs/methods.md A1)', () => {
     // mu(n, z_n) and mu(n + 1, z_{n+1}) differ by log2(ln|z^2 + c| / (2 ln|z|)) = O(|c| / |z|^2 / ln|z|).
-    for (const [a, b] of [[0.3, 0], [-0.75, 0.1], [0.4, 0.6]]) {
-      const R = 1e4, logR = Math.log(R);
+    for (const [a, b] of [
+      [0.3, 0],
+      [-0.75, 0.1],
+      [0.4, 0.6],
+    ]) {
+      const R = 1e4,
+        logR = Math.log(R);
       const [n, x, y] = escape(a!, b!, R);
-      const x1 = x * x - y * y + a!, y1 = 2 * x * y + b!;
+      const x1 = x * x - y * y + a!,
+        y1 = 2 * x * y + b!;
       expect(Math.abs(smoothCount(n, x, y, logR) - smoothCount(n + 1, x1, y1, logR))).toBeLessThan(1e-8);
     }
   });

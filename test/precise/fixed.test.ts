@@ -1,8 +1,6 @@
 import { describe, expect, it } from 'vitest';
 import { Decimal } from 'decimal.js';
-import {
-  bitsForDigits, cdiv, cmul, csquare, div, fixedScale, fromDecimal, fromNumber, isqrt, mul, sqrt, square, toDecimal, toNumber,
-} from '../../src/precise/fixed.js';
+import { bitsForDigits, cdiv, cmul, csquare, div, fixedScale, fromDecimal, fromNumber, isqrt, mul, sqrt, square, toDecimal, toNumber } from '../../src/precise/fixed.js';
 
 // The independent reference is decimal.js (npm), run at far more digits than the fixed-point scale.
 const D = Decimal.clone({ precision: 400, rounding: Decimal.ROUND_HALF_EVEN });
@@ -11,7 +9,11 @@ const D = Decimal.clone({ precision: 400, rounding: Decimal.ROUND_HALF_EVEN });
 function makeRandom(seed: number): () => string {
   let x = seed >>> 0;
   const next = (): number => {
-    x ^= x << 13; x >>>= 0; x ^= x >>> 17; x ^= x << 5; x >>>= 0;
+    x ^= x << 13;
+    x >>>= 0;
+    x ^= x >>> 17;
+    x ^= x << 5;
+    x >>>= 0;
     return x;
   };
   return () => {
@@ -62,11 +64,23 @@ describe('mul, square, div, sqrt', () => {
     for (let i = 0; i < 100; i += 1) {
       const a = fromDecimal(rnd(), s);
       const b = fromDecimal(rnd(), s);
-      const ea = exact(a, bits), eb = exact(b, bits);
+      const ea = exact(a, bits),
+        eb = exact(b, bits);
       // correctly rounded results are within half an ulp; allow exactly that (+ nothing)
-      expect(exact(mul(a, b, s), bits).minus(ea.times(eb)).abs().lte(ulp.div(2))).toBe(true);
+      expect(
+        exact(mul(a, b, s), bits)
+          .minus(ea.times(eb))
+          .abs()
+          .lte(ulp.div(2)),
+      ).toBe(true);
       expect(exact(square(a, s), bits).minus(ea.times(ea)).abs().lte(ulp.div(2))).toBe(true);
-      if (b !== 0n) expect(exact(div(a, b, s), bits).minus(ea.div(eb)).abs().lte(ulp.div(2))).toBe(true);
+      if (b !== 0n)
+        expect(
+          exact(div(a, b, s), bits)
+            .minus(ea.div(eb))
+            .abs()
+            .lte(ulp.div(2)),
+        ).toBe(true);
       const aa = a < 0n ? -a : a;
       expect(exact(sqrt(aa, s), bits).minus(exact(aa, bits).sqrt()).abs().lte(ulp.div(2))).toBe(true);
     }
@@ -81,15 +95,40 @@ describe('mul, square, div, sqrt', () => {
       const b = { re: fromDecimal(rnd(), s), im: fromDecimal(rnd(), s) };
       const [ar, ai, br, bi] = [exact(a.re, bits), exact(a.im, bits), exact(b.re, bits), exact(b.im, bits)];
       const p = cmul(a, b, s);
-      expect(exact(p.re, bits).minus(ar.times(br).minus(ai.times(bi))).abs().lte(ulp)).toBe(true);
-      expect(exact(p.im, bits).minus(ar.times(bi).plus(ai.times(br))).abs().lte(ulp)).toBe(true);
+      expect(
+        exact(p.re, bits)
+          .minus(ar.times(br).minus(ai.times(bi)))
+          .abs()
+          .lte(ulp),
+      ).toBe(true);
+      expect(
+        exact(p.im, bits)
+          .minus(ar.times(bi).plus(ai.times(br)))
+          .abs()
+          .lte(ulp),
+      ).toBe(true);
       const q = csquare(a, s);
-      expect(exact(q.re, bits).minus(ar.times(ar).minus(ai.times(ai))).abs().lte(ulp)).toBe(true);
+      expect(
+        exact(q.re, bits)
+          .minus(ar.times(ar).minus(ai.times(ai)))
+          .abs()
+          .lte(ulp),
+      ).toBe(true);
       expect(exact(q.im, bits).minus(ar.times(ai).times(2)).abs().lte(ulp)).toBe(true);
       const den = br.times(br).plus(bi.times(bi));
       const d = cdiv(a, b, s);
-      expect(exact(d.re, bits).minus(ar.times(br).plus(ai.times(bi)).div(den)).abs().lte(ulp)).toBe(true);
-      expect(exact(d.im, bits).minus(ai.times(br).minus(ar.times(bi)).div(den)).abs().lte(ulp)).toBe(true);
+      expect(
+        exact(d.re, bits)
+          .minus(ar.times(br).plus(ai.times(bi)).div(den))
+          .abs()
+          .lte(ulp),
+      ).toBe(true);
+      expect(
+        exact(d.im, bits)
+          .minus(ai.times(br).minus(ar.times(bi)).div(den))
+          .abs()
+          .lte(ulp),
+      ).toBe(true);
     }
   });
   it('isqrt(n) is the floor square root', () => {

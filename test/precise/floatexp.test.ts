@@ -1,18 +1,15 @@
 import { describe, expect, it } from 'vitest';
 import { Decimal } from 'decimal.js';
-import {
-  add, compare, div, exponentOf, floatExp, fromDecimalString, ldexp, mul, set, sqrt, sub, toNumber,
-} from '../../src/precise/floatexp.js';
+import { add, compare, div, exponentOf, floatExp, fromDecimalString, ldexp, mul, set, sqrt, sub, toNumber } from '../../src/precise/floatexp.js';
 import type { FloatExp } from '../../src/precise/floatexp.js';
 
 // decimal.js (npm) is the independent reference; 60 digits is far beyond a double.
 const D = Decimal.clone({ precision: 60, minE: -9e15, maxE: 9e15 });
 const TWO = new D(2);
 // exact binary value: new Decimal(number) would go through the shortest decimal string
-const exact = (a: FloatExp): Decimal => new D((BigInt(a.m * 2 ** 60)).toString()).times(TWO.pow(a.e - 60));
+const exact = (a: FloatExp): Decimal => new D(BigInt(a.m * 2 ** 60).toString()).times(TWO.pow(a.e - 60));
 /** |x - ref| / |ref| as a double. */
-const relErr = (x: FloatExp, ref: Decimal): number =>
-  ref.isZero() ? Math.abs(x.m) : exact(x).minus(ref).abs().div(ref.abs()).toNumber();
+const relErr = (x: FloatExp, ref: Decimal): number => (ref.isZero() ? Math.abs(x.m) : exact(x).minus(ref).abs().div(ref.abs()).toNumber());
 
 /** Deterministic generator (mulberry32), so failures reproduce. */
 function rng(seed: number): () => number {

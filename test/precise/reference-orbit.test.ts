@@ -1,7 +1,15 @@
 import { describe, expect, it } from 'vitest';
 import { Decimal } from 'decimal.js';
 import {
-  computeReferenceOrbit, extendReferenceOrbit, orbitComplete, orbitSnapshot, referenceBits, referenceOffset, shareReferenceOrbit, startReferenceOrbit, TINY_ITERATE,
+  computeReferenceOrbit,
+  extendReferenceOrbit,
+  orbitComplete,
+  orbitSnapshot,
+  referenceBits,
+  referenceOffset,
+  shareReferenceOrbit,
+  startReferenceOrbit,
+  TINY_ITERATE,
 } from '../../src/precise/reference-orbit.js';
 
 // decimal.js (npm) is the independent reference for every orbit value here.

@@ -26,7 +26,13 @@ function differenceFromDownsample(fine: Uint8Array, coarse: Uint8Array, w: numbe
     for (let i = 0; i < w; i++) {
       for (let c = 0; c < 3; c++) {
         let lin = 0;
-        for (const [di, dj] of [[0, 0], [1, 0], [0, 1], [1, 1]] as const) lin += toLinear(fine[3 * ((2 * j + dj) * 2 * w + 2 * i + di) + c]! / 255);
+        for (const [di, dj] of [
+          [0, 0],
+          [1, 0],
+          [0, 1],
+          [1, 1],
+        ] as const)
+          lin += toLinear(fine[3 * ((2 * j + dj) * 2 * w + 2 * i + di) + c]! / 255);
         const d = 255 * toSrgb(lin / 4) - coarse[3 * (j * w + i) + c]!;
         sum += Math.abs(d);
         signed += d;
@@ -43,7 +49,11 @@ describe('levelJob', () => {
       const g = levelJob(setup, s).grid;
       expect(g.spacing).toBe(base.spacing * s);
       expect([g.width, g.height]).toEqual([384 / s, 256 / s]);
-      for (const [i, j] of [[0, 0], [5, 3], [384 / s - 1, 256 / s - 1]] as const) {
+      for (const [i, j] of [
+        [0, 0],
+        [5, 3],
+        [384 / s - 1, 256 / s - 1],
+      ] as const) {
         const a = pixelToC(g, i + 0.5, j + 0.5, new Float64Array(2));
         const b = pixelToC(base, s * (i + 0.5), s * (j + 0.5), new Float64Array(2));
         // Same point up to rounding of two double expressions (a few ulps of |c| ~ 1).

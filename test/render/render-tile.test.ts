@@ -30,7 +30,9 @@ function assemble(j: PlateJob, tileSize: number): { pixels: Uint16Array | Uint8A
   const smooth = new Float64Array(width * height);
   const scratch = createTileScratch(tileSize);
   // Visit tiles in reverse order: order must not matter either.
-  const tiles = planStrips(width, height, tileSize, tileSize).flatMap((s) => s.tiles).reverse();
+  const tiles = planStrips(width, height, tileSize, tileSize)
+    .flatMap((s) => s.tiles)
+    .reverse();
   for (const t of tiles) {
     const r = renderTile(j, t, scratch);
     for (let y = 0; y < t.h; y++) {

@@ -87,13 +87,15 @@ describe('computeCascade on other families', () => {
     expect(c.delta.value.minus(DELTA).abs().toNumber()).toBeGreaterThan(2);
   });
 
-  it.skipIf(!requireInCi(haveMpmath, 'python3-mpmath'))('computeCascade on the quartic family matches superstable parameters found by an mpmath scan and bracketing solver, levels 2..10', () => {
-    // The oracle, written only here: s_k is the first zero of g(r) = f_r^(2^k)(0), f_r(x) = r - x^4,
-    // after s_(k-1). Below the accumulation point f_r^(2^k)(0) has no zeros in (s_(k-1), s_k) (the
-    // only superstable orbits there are the cascade's), so a scan of (s_(k-1), s_(k-1) + d/2],
-    // d = s_(k-1) - s_(k-2), finds s_k as its first sign change, and mpmath's bracketing solver
-    // (Anderson-Bjorck, mpmath.findroot solver='anderson') pins it at 30 digits.
-    const out = runMpmath(`
+  it.skipIf(!requireInCi(haveMpmath, 'python3-mpmath'))(
+    'computeCascade on the quartic family matches superstable parameters found by an mpmath scan and bracketing solver, levels 2..10',
+    () => {
+      // The oracle, written only here: s_k is the first zero of g(r) = f_r^(2^k)(0), f_r(x) = r - x^4,
+      // after s_(k-1). Below the accumulation point f_r^(2^k)(0) has no zeros in (s_(k-1), s_k) (the
+      // only superstable orbits there are the cascade's), so a scan of (s_(k-1), s_(k-1) + d/2],
+      // d = s_(k-1) - s_(k-2), finds s_k as its first sign change, and mpmath's bracketing solver
+      // (Anderson-Bjorck, mpmath.findroot solver='anderson') pins it at 30 digits.
+      const out = runMpmath(`
 from mpmath import mp, mpf, findroot
 mp.dps = 30
 def g(r, n):
@@ -119,20 +121,24 @@ for k in range(2, 11):
 for r in R:
     print(mp.nstr(r, 28))
 `);
-    const ref = out.trim().split('\n').map((t) => new D(t));
-    expect(ref).toHaveLength(11);
-    const c = computeCascade(familySolver(quartic, 30), 10, 30);
-    for (let k = 2; k <= 10; k += 1) {
-      expect(c.levels[k]!.superstable.minus(ref[k]!).abs().toNumber(), `level ${k}`).toBeLessThan(1e-24);
-    }
-    // delta_10 from the oracle's own parameters, against the paper: the level-by-level estimates
-    // approach it from above with errors shrinking about 3x per level (measured: 1.4e-4 at level 9,
-    // 4.6e-5 at level 10), so 1e-4 at level 10.
-    const delta10 = ref[8]!.minus(ref[9]!).div(ref[9]!.minus(ref[10]!));
-    expect(delta10.minus(c.levels[10]!.delta!).abs().toNumber()).toBeLessThan(1e-15);
-    expect(delta10.minus('7.2846862170733').toNumber()).toBeGreaterThan(0);
-    expect(delta10.minus('7.2846862170733').toNumber()).toBeLessThan(1e-4);
-  });
+      const ref = out
+        .trim()
+        .split('\n')
+        .map((t) => new D(t));
+      expect(ref).toHaveLength(11);
+      const c = computeCascade(familySolver(quartic, 30), 10, 30);
+      for (let k = 2; k <= 10; k += 1) {
+        expect(c.levels[k]!.superstable.minus(ref[k]!).abs().toNumber(), `level ${k}`).toBeLessThan(1e-24);
+      }
+      // delta_10 from the oracle's own parameters, against the paper: the level-by-level estimates
+      // approach it from above with errors shrinking about 3x per level (measured: 1.4e-4 at level 9,
+      // 4.6e-5 at level 10), so 1e-4 at level 10.
+      const delta10 = ref[8]!.minus(ref[9]!).div(ref[9]!.minus(ref[10]!));
+      expect(delta10.minus(c.levels[10]!.delta!).abs().toNumber()).toBeLessThan(1e-15);
+      expect(delta10.minus('7.2846862170733').toNumber()).toBeGreaterThan(0);
+      expect(delta10.minus('7.2846862170733').toNumber()).toBeLessThan(1e-4);
+    },
+  );
 });
 
 describe.skipIf(process.env['QUADATLAS_SLOW'] === undefined && process.env['CI'] !== 'true')('computeCascade to 12 digits (QUADATLAS_SLOW=1 or CI=true)', () => {

@@ -49,7 +49,10 @@ describe('comparePlateSvg', () => {
     it(`at ${width} px wide no label overprints another (DejaVu Sans advances, read by fontkit)`, async () => {
       const { createRequire } = await import('node:module');
       const fontkit = await import('fontkit');
-      const font = fontkit.openSync(createRequire(import.meta.url).resolve('dejavu-fonts-ttf/ttf/DejaVuSans.ttf')) as unknown as { unitsPerEm: number; layout(t: string): { positions: Array<{ xAdvance: number }> } };
+      const font = fontkit.openSync(createRequire(import.meta.url).resolve('dejavu-fonts-ttf/ttf/DejaVuSans.ttf')) as unknown as {
+        unitsPerEm: number;
+        layout(t: string): { positions: Array<{ xAdvance: number }> };
+      };
       const w = (t: string, size: number): number => (font.layout(t).positions.reduce((a, p) => a + p.xAdvance, 0) / font.unitsPerEm) * size;
       const marks = [...spec.marks, { c: -1.368, label: '4->8', kind: 'doubling' as const }, { c: -1.394, label: '8->16', kind: 'doubling' as const }];
       const svg = comparePlateSvg({ ...spec, width, marks });
@@ -62,11 +65,12 @@ describe('comparePlateSvg', () => {
         return { t: m[4]!, x0, x1: x0 + tw, y0: y - 9.1, y1: y + 2.9 };
       });
       expect(boxes.length).toBeGreaterThan(4);
-      for (let i = 0; i < boxes.length; i++) for (let j = i + 1; j < boxes.length; j++) {
-        const a = boxes[i]!;
-        const b = boxes[j]!;
-        expect(a.x0 < b.x1 && b.x0 < a.x1 && a.y0 < b.y1 && b.y0 < a.y1, `${a.t} / ${b.t}`).toBe(false);
-      }
+      for (let i = 0; i < boxes.length; i++)
+        for (let j = i + 1; j < boxes.length; j++) {
+          const a = boxes[i]!;
+          const b = boxes[j]!;
+          expect(a.x0 < b.x1 && b.x0 < a.x1 && a.y0 < b.y1 && b.y0 < a.y1, `${a.t} / ${b.t}`).toBe(false);
+        }
     });
   }
 });

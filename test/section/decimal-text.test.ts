@@ -52,7 +52,7 @@ describe('toPlaces', () => {
       'decimal.getcontext().prec = 100',
       'for line in sys.stdin:',
       '    v, p = line.split()',
-      "    q = decimal.Decimal(v).quantize(decimal.Decimal(1).scaleb(-int(p)), rounding=decimal.ROUND_HALF_EVEN)",
+      '    q = decimal.Decimal(v).quantize(decimal.Decimal(1).scaleb(-int(p)), rounding=decimal.ROUND_HALF_EVEN)',
       "    s = format(q, 'f')",
       "    s = s.rstrip('0').rstrip('.') if '.' in s else s",
       "    print('0' if s == '-0' else s)",

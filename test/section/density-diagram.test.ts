@@ -10,7 +10,12 @@ describe('diagramColumns', () => {
   it('diagramColumns gives the same bytes whatever the split of the columns', () => {
     const whole = diagramColumns(logistic, axis, settings, 0, 40, new Uint16Array(40 * 50), new Float64Array(50));
     const parts = new Uint16Array(40 * 50);
-    for (const [a, b] of [[0, 7], [7, 8], [8, 40]] as const) parts.set(diagramColumns(logistic, axis, settings, a, b, new Uint16Array((b - a) * 50), new Float64Array(50)), a * 50);
+    for (const [a, b] of [
+      [0, 7],
+      [7, 8],
+      [8, 40],
+    ] as const)
+      parts.set(diagramColumns(logistic, axis, settings, a, b, new Uint16Array((b - a) * 50), new Float64Array(50)), a * 50);
     expect(parts).toEqual(whole);
   });
 

@@ -111,7 +111,12 @@ describe('quadatlas section orbit / cobweb', () => {
     expect(r.status, r.stderr).toBe(0);
     const j = JSON.parse(r.stdout) as { rows: unknown[]; orbits: Array<{ classification: { kind: string; period: number } }> };
     expect(j.rows).toHaveLength(4 * 61);
-    expect(j.orbits.map((o) => [o.classification.kind, o.classification.period])).toEqual([['cycle', 1], ['cycle', 2], ['cycle', 4], ['none', 0]]);
+    expect(j.orbits.map((o) => [o.classification.kind, o.classification.period])).toEqual([
+      ['cycle', 1],
+      ['cycle', 2],
+      ['cycle', 4],
+      ['none', 0],
+    ]);
     const svg = readFileSync(path.join(dir, 'o.svg'), 'utf8');
     for (const v of ['2.8', '3.2', '3.5', '3.9']) expect(svg).toContain(`r = ${v}</text>`);
     const c = runCli(['section', 'cobweb', '--r', '3.83', '--out', path.join(dir, 'c.svg'), '--csv']);

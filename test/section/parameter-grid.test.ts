@@ -17,7 +17,11 @@ describe('parameterGrid', () => {
 
   it('each point is within half a unit of its last place of the exact r_k = a + (b - a) k / (n - 1)', () => {
     // Exact rational arithmetic in BigInt, independent of decimal.js.
-    for (const [a, b, n] of [['2.8', '4', 2000], ['-2', '0.25', 333], ['0.7', '1', 10007]] as const) {
+    for (const [a, b, n] of [
+      ['2.8', '4', 2000],
+      ['-2', '0.25', 333],
+      ['0.7', '1', 10007],
+    ] as const) {
       const grid = parameterGrid(a, b, n);
       const p = gridPlaces(a, b, n);
       const q = p + 1;

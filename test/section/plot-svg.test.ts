@@ -9,13 +9,22 @@ import * as fontkit from 'fontkit';
 import { describe, expect, it } from 'vitest';
 import { plotSvg } from '../../src/section/plot-svg.js';
 
-const font = fontkit.openSync(createRequire(import.meta.url).resolve('dejavu-fonts-ttf/ttf/DejaVuSans.ttf')) as unknown as { unitsPerEm: number; layout(t: string): { positions: Array<{ xAdvance: number }> } };
+const font = fontkit.openSync(createRequire(import.meta.url).resolve('dejavu-fonts-ttf/ttf/DejaVuSans.ttf')) as unknown as {
+  unitsPerEm: number;
+  layout(t: string): { positions: Array<{ xAdvance: number }> };
+};
 
 function width(text: string, size: number): number {
   return (font.layout(text).positions.reduce((a, p) => a + p.xAdvance, 0) / font.unitsPerEm) * size;
 }
 
-interface Label { text: string; x0: number; x1: number; y0: number; y1: number }
+interface Label {
+  text: string;
+  x0: number;
+  x1: number;
+  y0: number;
+  y1: number;
+}
 
 /** The 10 px labels (band and mark labels) with their boxes from DejaVu Sans advances. */
 function labels(svg: string): Label[] {
@@ -66,7 +75,7 @@ describe('plotSvg', () => {
     });
   }
 
-  it('draws a clip mark under each run of values below yMin (and -infinity), at the run\'s middle, and a note of the clip level', () => {
+  it("draws a clip mark under each run of values below yMin (and -infinity), at the run's middle, and a note of the clip level", () => {
     const svg = crowded(1000);
     const clips = [...svg.matchAll(/<path class="clip" d="M([\d.]+) [\d.]+L([\d.]+)/g)].map((m) => (Number(m[1]) + Number(m[2])) / 2);
     // runs at x = 0.3 (values -10 + sin) and 0.7 (-infinity), plot 1000 - 70 - 20 wide from x = 70
@@ -82,7 +91,12 @@ describe('plotSvg', () => {
 describe('niceTicks', () => {
   it('gives exact multiples of a 1, 2 or 5 step, 0 itself where the range holds it (never -1.7e-17)', async () => {
     const { niceTicks } = await import('../../src/section/plot-svg.js');
-    for (const [lo, hi, n] of [[-0.125, 0.125, 5], [-0.3, 0.7, 10], [2.8, 4, 10], [-1e-3, 3e-3, 4]] as const) {
+    for (const [lo, hi, n] of [
+      [-0.125, 0.125, 5],
+      [-0.3, 0.7, 10],
+      [2.8, 4, 10],
+      [-1e-3, 3e-3, 4],
+    ] as const) {
       const ticks = niceTicks(lo, hi, n);
       const step = ticks[1]! - ticks[0]!;
       const mant = step / 10 ** Math.floor(Math.log10(step) + 1e-9);

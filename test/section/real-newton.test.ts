@@ -24,7 +24,13 @@ describe('superstableParameter', () => {
 
   it('superstableParameter(sine, 2) solves r sin(pi r) = 1/2', () => {
     const r = superstableParameter(sine, 2, '0.78', 30).r;
-    expect(r.times(D.sin(D.acos(-1).times(r))).minus('0.5').abs().toNumber()).toBeLessThan(1e-30);
+    expect(
+      r
+        .times(D.sin(D.acos(-1).times(r)))
+        .minus('0.5')
+        .abs()
+        .toNumber(),
+    ).toBeLessThan(1e-30);
   });
 });
 

@@ -4,7 +4,10 @@ import { formatTable, integerCell, numberCell, type SectionTable } from '../../s
 const table: SectionTable = {
   title: 'demo',
   columns: ['n', 'word'],
-  rows: [['1', 'R,L'], ['2', '']],
+  rows: [
+    ['1', 'R,L'],
+    ['2', ''],
+  ],
   summary: [{ name: 'delta', value: '4.669', note: '4 digits' }],
 };
 
@@ -15,7 +18,10 @@ describe('formatTable', () => {
 
   it('formatTable json keeps decimal strings as strings and empty cells as null', () => {
     const j = JSON.parse(formatTable(table, 'json')) as { rows: Record<string, unknown>[]; summary: Record<string, unknown> };
-    expect(j.rows).toEqual([{ n: '1', word: 'R,L' }, { n: '2', word: null }]);
+    expect(j.rows).toEqual([
+      { n: '1', word: 'R,L' },
+      { n: '2', word: null },
+    ]);
     expect(j.summary['delta']).toEqual({ value: '4.669', note: '4 digits' });
   });
 
@@ -30,7 +36,10 @@ describe('formatTable', () => {
       title: 'typed',
       columns: ['period', 'onset_r', 'size'],
       rows: [[integerCell(3), '3.8284271247461900976', numberCell(0.019035515913132, '1.90355e-2')]],
-      summary: [{ name: 'windows per period', value: '1 1 1' }, { name: 'r_inf', value: '3.5699' }],
+      summary: [
+        { name: 'windows per period', value: '1 1 1' },
+        { name: 'r_inf', value: '3.5699' },
+      ],
     };
     const j = JSON.parse(formatTable(t, 'json')) as { rows: Record<string, unknown>[]; summary: Record<string, unknown> };
     expect(j.rows[0]).toEqual({ period: 3, onsetR: '3.8284271247461900976', size: 0.019035515913132 });

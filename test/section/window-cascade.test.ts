@@ -33,7 +33,12 @@ describe('the cascade inside the period-3 window of the logistic family', () => 
       const c = r.div(2).minus(r.pow(2).div(4));
       const p = 3 * 2 ** level.level;
       expect(F(p, c).abs().toNumber(), `period ${p}`).toBeLessThan(1e-30);
-      if (level.level > 0) expect(F(p / 2, c).abs().toNumber()).toBeGreaterThan(1e-12);
+      if (level.level > 0)
+        expect(
+          F(p / 2, c)
+            .abs()
+            .toNumber(),
+        ).toBeGreaterThan(1e-12);
     }
   });
 

@@ -12,7 +12,7 @@ const { windows } = findWindows(logistic, 7, 30);
 const period3 = windows.find((w) => w.period === 3)!;
 
 describe('findWindows on the logistic family', () => {
-  it('findWindows puts each window\'s superstable r where the critical orbit has exact period p and the window\'s MSS word', () => {
+  it("findWindows puts each window's superstable r where the critical orbit has exact period p and the window's MSS word", () => {
     // The window list has one entry per MSS word by construction (the word count is tested against
     // OEIS A000048 in kneading.test.ts); what can fail is where Newton put each one. Checked here in
     // decimal.js, independently of src/section: x_0 = 1/2, x_(k+1) = r x_k (1 - x_k) returns to 1/2 at
@@ -63,7 +63,7 @@ describe('findWindows on the logistic family', () => {
     expect(Math.abs(orbit[9]! - orbit[6]!)).toBeLessThan(1e-9);
   });
 
-  it('findWindows puts each doubling where the window\'s p-cycle has multiplier -1 (decimal.js Newton written here)', () => {
+  it("findWindows puts each doubling where the window's p-cycle has multiplier -1 (decimal.js Newton written here)", () => {
     // The order onset < superstable < doubling < end is enforced inside findWindows; this checks the
     // doubling itself by another route than its 2x2 system: Newton in x on f^p(x) = x at r = doubling,
     // from x = 1/2 (the cycle point nearest the critical point), then the multiplier prod r (1 - 2 x_k).
@@ -71,14 +71,16 @@ describe('findWindows on the logistic family', () => {
       const r = w.doubling;
       let x = new D('0.5');
       for (let it = 0; it < 60; it++) {
-        let y = x, dy = new D(1);
+        let y = x,
+          dy = new D(1);
         for (let k = 0; k < w.period; k++) {
           dy = dy.times(r.times(new D(1).minus(y.times(2))));
           y = r.times(y).times(new D(1).minus(y));
         }
         x = x.minus(y.minus(x).div(dy.minus(1)));
       }
-      let y = x, m = new D(1);
+      let y = x,
+        m = new D(1);
       for (let k = 0; k < w.period; k++) {
         m = m.times(r.times(new D(1).minus(y.times(2))));
         y = r.times(y).times(new D(1).minus(y));
@@ -153,7 +155,10 @@ describe('superstable parameters against the plane', () => {
       }
       const sorted = cs.map((c) => c.toNumber()).sort((a, b) => a - b);
       for (let i = 1; i < sorted.length; i++) expect(sorted[i]! - sorted[i - 1]!, `period ${p}`).toBeGreaterThan(1e-12);
-      const real = (await census(p, { workers: 1 })).components.filter((c) => c.real).map((c) => c.reHi + c.reLo).sort((a, b) => a - b);
+      const real = (await census(p, { workers: 1 })).components
+        .filter((c) => c.real)
+        .map((c) => c.reHi + c.reLo)
+        .sort((a, b) => a - b);
       expect(real.length, `period ${p}`).toBe(sorted.length);
       for (let i = 0; i < real.length; i++) expect(Math.abs(real[i]! - sorted[i]!), `period ${p} #${i}`).toBeLessThan(1e-12);
     }

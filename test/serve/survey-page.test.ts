@@ -56,7 +56,19 @@ beforeAll(async () => {
     });
   });
   const { chromium } = await import('playwright-core');
-  browser = await chromium.launch({ executablePath: CHROMIUM, args: ['--headless', '--no-sandbox', '--disable-gpu', '--disable-background-networking', '--disable-component-update', '--disable-sync', '--no-first-run', '--force-color-profile=srgb'] });
+  browser = await chromium.launch({
+    executablePath: CHROMIUM,
+    args: [
+      '--headless',
+      '--no-sandbox',
+      '--disable-gpu',
+      '--disable-background-networking',
+      '--disable-component-update',
+      '--disable-sync',
+      '--no-first-run',
+      '--force-color-profile=srgb',
+    ],
+  });
 }, 60_000);
 
 afterAll(async () => {
@@ -123,10 +135,14 @@ describe.skipIf(!haveChromium)('survey page', () => {
     expect(facts).toMatch(/angles\s+1\/7, 2\/7/);
     await expect(page.locator('#to-nucleus').isVisible()).resolves.toBe(true);
     // The Julia inset of the clicked c arrives beside the facts.
-    await page.waitForFunction(() => {
-      const img = (globalThis as WithSurvey).document.getElementById('julia');
-      return img.complete && img.naturalWidth === 240;
-    }, null, { timeout: 30_000 });
+    await page.waitForFunction(
+      () => {
+        const img = (globalThis as WithSurvey).document.getElementById('julia');
+        return img.complete && img.naturalWidth === 240;
+      },
+      null,
+      { timeout: 30_000 },
+    );
     expect(await page.locator('#julia-cmd').innerText()).toMatch(/^quadatlas julia --c -0\.122\d*,0\.744\d*$/);
     // Recentre on the nucleus: the view centre becomes the nucleus the probe reported, exactly.
     await page.click('#to-nucleus');
@@ -140,7 +156,11 @@ describe.skipIf(!haveChromium)('survey page', () => {
     const re = '-1.7400623825793399052343';
     const im = '0.0281753397792110489924';
     const page = await open(`#re=${re}&im=${im}&span=1e-20`);
-    await page.waitForFunction(() => (globalThis as WithSurvey).survey?.view !== undefined && (globalThis as WithSurvey).document.getElementById('centre-re')!.textContent !== '', null, { timeout: 20_000 });
+    await page.waitForFunction(
+      () => (globalThis as WithSurvey).survey?.view !== undefined && (globalThis as WithSurvey).document.getElementById('centre-re')!.textContent !== '',
+      null,
+      { timeout: 20_000 },
+    );
     const v = await page.evaluate(() => (globalThis as WithSurvey).survey.view());
     // The view centre is the address's centre, digit for digit.
     expect(new Decimal(v.re).eq(re) && new Decimal(v.im).eq(im)).toBe(true);
@@ -150,13 +170,24 @@ describe.skipIf(!haveChromium)('survey page', () => {
     const places = Math.max(2, -Math.floor(Decimal.log10(spacing).toNumber()) + 1);
     expect(places).toBeGreaterThanOrEqual(23);
     const seen: string[] = [];
-    for (const [i, j] of [[123, 77], [124, 77], [v.width - 1, v.height - 1]] as const) {
+    for (const [i, j] of [
+      [123, 77],
+      [124, 77],
+      [v.width - 1, v.height - 1],
+    ] as const) {
       await page.mouse.move(box.x + i + 0.5, box.y + j + 0.5);
       const shownRe = await page.locator('#pointer-re').innerText();
       const shownIm = await page.locator('#pointer-im').innerText();
       // c at the centre of pixel (i, j): centre + ((i + 1/2 - W/2) s, (H/2 - j - 1/2) s), in decimal.js, rounded half away from zero.
       const D = Decimal.clone({ precision: 200, rounding: Decimal.ROUND_HALF_UP });
-      const wantRe = new D(v.re).plus(new D(i).plus(0.5).minus(v.width / 2).times(v.spacing)).toFixed(places);
+      const wantRe = new D(v.re)
+        .plus(
+          new D(i)
+            .plus(0.5)
+            .minus(v.width / 2)
+            .times(v.spacing),
+        )
+        .toFixed(places);
       const wantIm = new D(v.im).plus(new D(v.height / 2).minus(j).minus(0.5).times(v.spacing)).toFixed(places);
       expect(shownRe, `re at pixel ${i},${j}`).toBe(wantRe);
       expect(shownIm, `im at pixel ${i},${j}`).toBe(wantIm);
@@ -188,7 +219,11 @@ describe.skipIf(!haveChromium)('survey page', () => {
     await download.saveAs(sheetFile);
     await settled(page);
     const v = await page.evaluate(() => (globalThis as WithSurvey).survey.view());
-    const sheet = JSON.parse(readFileSync(sheetFile, 'utf8')) as { view: { re: string; im: string; span: string }; pixels: { width: number; height: number }; output: { file: string } };
+    const sheet = JSON.parse(readFileSync(sheetFile, 'utf8')) as {
+      view: { re: string; im: string; span: string };
+      pixels: { width: number; height: number };
+      output: { file: string };
+    };
     expect(new Decimal(sheet.view.re).eq(v.re) && new Decimal(sheet.view.im).eq(v.im)).toBe(true);
     expect(new Decimal(sheet.view.span).eq(new Decimal(v.spacing).times(v.width))).toBe(true);
     expect(sheet.pixels).toEqual({ width: v.width, height: v.height });

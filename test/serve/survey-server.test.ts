@@ -29,11 +29,14 @@ const agent = new Agent({ keepAlive: false, maxSockets: 250 });
 /** One request with the path sent exactly as written and any Host header. */
 function send(pathText: string, options: { method?: string; headers?: Record<string, string>; body?: string } = {}): Promise<Reply> {
   return new Promise((resolve, reject) => {
-    const req = request({ host: '127.0.0.1', port: server.port, path: pathText, method: options.method ?? 'GET', headers: { host: `127.0.0.1:${server.port}`, ...options.headers }, agent }, (res) => {
-      const parts: Buffer[] = [];
-      res.on('data', (d: Buffer) => parts.push(d));
-      res.on('end', () => resolve({ status: res.statusCode ?? 0, headers: res.headers, body: Buffer.concat(parts) }));
-    });
+    const req = request(
+      { host: '127.0.0.1', port: server.port, path: pathText, method: options.method ?? 'GET', headers: { host: `127.0.0.1:${server.port}`, ...options.headers }, agent },
+      (res) => {
+        const parts: Buffer[] = [];
+        res.on('data', (d: Buffer) => parts.push(d));
+        res.on('end', () => resolve({ status: res.statusCode ?? 0, headers: res.headers, body: Buffer.concat(parts) }));
+      },
+    );
     req.on('error', reject);
     req.end(options.body);
   });
@@ -73,7 +76,22 @@ describe('survey server', () => {
   });
 
   it('answers path traversal, plain and encoded, with 404 and never a file outside the list', async () => {
-    const attempts = ['/../package.json', '/../../../../etc/passwd', '/%2e%2e/package.json', '/%2E%2E%2Fpackage.json', '/..%2f..%2fetc%2fpasswd', '/..%5c..%5cpackage.json', '/survey.js/../../package.json', '//etc/passwd', '/./survey.js', '/survey.js%00.html', '/%252e%252e/package.json', '/page/survey.js', '/survey-server.js', '/tile/../package.json'];
+    const attempts = [
+      '/../package.json',
+      '/../../../../etc/passwd',
+      '/%2e%2e/package.json',
+      '/%2E%2E%2Fpackage.json',
+      '/..%2f..%2fetc%2fpasswd',
+      '/..%5c..%5cpackage.json',
+      '/survey.js/../../package.json',
+      '//etc/passwd',
+      '/./survey.js',
+      '/survey.js%00.html',
+      '/%252e%252e/package.json',
+      '/page/survey.js',
+      '/survey-server.js',
+      '/tile/../package.json',
+    ];
     for (const p of attempts) {
       const r = await send(p);
       expect(r.status, p).toBe(404);
@@ -92,7 +110,14 @@ describe('survey server', () => {
   });
 
   it('needs the run token for tiles, probes and the base sheet', async () => {
-    for (const p of [`/tile?${FRAME}&tx=0&ty=0`, `/tile?${FRAME}&tx=0&ty=0&t=${'0'.repeat(32)}`, '/probe?c=0,0', '/julia?c=0,0&size=64', '/strip?re0=-2&re1=0&w=100&h=50', `/base?t=${server.token.slice(1)}`]) {
+    for (const p of [
+      `/tile?${FRAME}&tx=0&ty=0`,
+      `/tile?${FRAME}&tx=0&ty=0&t=${'0'.repeat(32)}`,
+      '/probe?c=0,0',
+      '/julia?c=0,0&size=64',
+      '/strip?re0=-2&re1=0&w=100&h=50',
+      `/base?t=${server.token.slice(1)}`,
+    ]) {
       const r = await send(p);
       expect(r.status, p).toBe(403);
       expect(errorOf(r)).toMatch(/token/);
@@ -193,7 +218,7 @@ describe('survey server', () => {
     for (let k = 0; k < 1000; k++) {
       const level = k % 5;
       const tx = (k % 40) - 20;
-      const ty = Math.floor(k / 40) % 30 - 15;
+      const ty = (Math.floor(k / 40) % 30) - 15;
       asks.push(send(`/tile?${FRAME.replace('level=0', `level=${level}`)}&tx=${tx}&ty=${ty}&${t}`));
     }
     const replies = await Promise.all(asks);
@@ -217,18 +242,35 @@ describe('survey server', () => {
 describe('survey server, one client', () => {
   it('holds one client to its limit of tiles in flight (503 beyond it)', async () => {
     // Slow tiles (a boundary view at 20000 iterations) so that the first two are still rendering when the rest arrive.
-    const slow = await startSurvey({ host: '127.0.0.1', port: 0, base: surveyBase(parseSheet({ iterations: 20000, samples: 1 })), outDir, workers: 1, perClient: 2, log: () => {} });
+    const slow = await startSurvey({
+      host: '127.0.0.1',
+      port: 0,
+      base: surveyBase(parseSheet({ iterations: 20000, samples: 1 })),
+      outDir,
+      workers: 1,
+      perClient: 2,
+      log: () => {},
+    });
     try {
       const frame = 're=-0.7453&im=0.1127&span=0.002&w=1024&h=1024&level=0&size=256';
       const asks = [];
       for (let k = 0; k < 8; k++) {
         asks.push(
           new Promise<Reply>((resolve, reject) => {
-            const req = request({ host: '127.0.0.1', port: slow.port, path: `/tile?${frame}&tx=${(k % 4) - 2}&ty=${Math.floor(k / 4) - 2}&t=${slow.token}`, headers: { host: `127.0.0.1:${slow.port}` }, agent }, (res) => {
-              const parts: Buffer[] = [];
-              res.on('data', (d: Buffer) => parts.push(d));
-              res.on('end', () => resolve({ status: res.statusCode ?? 0, headers: res.headers, body: Buffer.concat(parts) }));
-            });
+            const req = request(
+              {
+                host: '127.0.0.1',
+                port: slow.port,
+                path: `/tile?${frame}&tx=${(k % 4) - 2}&ty=${Math.floor(k / 4) - 2}&t=${slow.token}`,
+                headers: { host: `127.0.0.1:${slow.port}` },
+                agent,
+              },
+              (res) => {
+                const parts: Buffer[] = [];
+                res.on('data', (d: Buffer) => parts.push(d));
+                res.on('end', () => resolve({ status: res.statusCode ?? 0, headers: res.headers, body: Buffer.concat(parts) }));
+              },
+            );
             req.on('error', reject);
             req.end();
           }),
@@ -248,7 +290,10 @@ describe('survey server, one client', () => {
 
 describe('quadatlas survey', () => {
   it('refuses a host that is not loopback without --allow-remote, and a wildcard, in one line with exit 2', () => {
-    for (const args of [['--host', '192.0.2.1'], ['--host', '0.0.0.0', '--allow-remote']]) {
+    for (const args of [
+      ['--host', '192.0.2.1'],
+      ['--host', '0.0.0.0', '--allow-remote'],
+    ]) {
       const r = runCli(['survey', ...args]);
       expect(r.status).toBe(2);
       expect(r.stderr.trim().split('\n')).toHaveLength(1);

@@ -70,15 +70,54 @@ describe('survey tiles', () => {
     const base = surveyBase(parseSheet({ iterations: 300, samples: 4 }));
     const frame: Frame = { re: '-0.75', im: '0.1', span: '3', width: 180, height: 120 };
     // size 64: tiles from the centre corner (90, 60); (-2, -1) starts at x = -38, so it is cut to 26 columns.
-    await checkFrame(base, frame, 0, 64, [[0, 0], [-1, -1], [-2, -1], [1, 0], [-2, 0]], 'double0', false);
-    await checkFrame(base, { ...frame, re: '-0.16', im: '1.04' }, 2, 64, [[0, 0], [-1, 0], [1, -1]], 'double2', false);
+    await checkFrame(
+      base,
+      frame,
+      0,
+      64,
+      [
+        [0, 0],
+        [-1, -1],
+        [-2, -1],
+        [1, 0],
+        [-2, 0],
+      ],
+      'double0',
+      false,
+    );
+    await checkFrame(
+      base,
+      { ...frame, re: '-0.16', im: '1.04' },
+      2,
+      64,
+      [
+        [0, 0],
+        [-1, 0],
+        [1, -1],
+      ],
+      'double2',
+      false,
+    );
   }, 120_000);
 
   it('equal the crops of plate of the frame on the deep path (span 1e-20, one reference orbit per frame)', async () => {
     // c = i is a Misiurewicz point on the boundary (z -> z^2 + i: 0, i, i - 1, -i, i - 1, ...; exact algebra), so every depth shows structure.
     const base = surveyBase(parseSheet({ iterations: 3000, samples: 4 }));
     const frame: Frame = { re: '0.000000000000000000003', im: '1', span: '4e-19', width: 96, height: 64 };
-    await checkFrame(base, frame, 4, 32, [[0, 0], [-1, -1], [-2, 0], [1, -1]], 'deep', true);
+    await checkFrame(
+      base,
+      frame,
+      4,
+      32,
+      [
+        [0, 0],
+        [-1, -1],
+        [-2, 0],
+        [1, -1],
+      ],
+      'deep',
+      true,
+    );
   }, 180_000);
 
   it('draw the Julia inset as quadatlas julia renders its sheet, byte for byte', async () => {

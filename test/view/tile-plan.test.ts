@@ -3,7 +3,12 @@ import { planStrips } from '../../src/view/tile-plan.js';
 
 describe('planStrips', () => {
   it('covers every pixel exactly once for awkward sizes', () => {
-    for (const [w, h, t, rows] of [[100, 37, 16, 32], [1, 1, 64, 64], [257, 300, 64, 128], [64, 64, 64, 1]] as const) {
+    for (const [w, h, t, rows] of [
+      [100, 37, 16, 32],
+      [1, 1, 64, 64],
+      [257, 300, 64, 128],
+      [64, 64, 64, 1],
+    ] as const) {
       const seen = new Uint8Array(w * h);
       for (const s of planStrips(w, h, t, rows)) {
         for (const tile of s.tiles) {

@@ -9,7 +9,21 @@ import type { Command } from 'commander';
 import type { Decimal } from 'decimal.js';
 import { toPlaces } from '../../section/decimal-text.js';
 import { formatTable, integerCell, type Cell, type SectionTable } from '../../section/section-table.js';
-import { addOptions, clearProgress, CSV_OPTION, digitsOption, FAMILY_OPTION, guarded, JSON_OPTION, parseFamily, progressLine, tableFormat, type SectionOption, type Values, writeStdout } from './section-options.js';
+import {
+  addOptions,
+  clearProgress,
+  CSV_OPTION,
+  digitsOption,
+  FAMILY_OPTION,
+  guarded,
+  JSON_OPTION,
+  parseFamily,
+  progressLine,
+  tableFormat,
+  type SectionOption,
+  type Values,
+  writeStdout,
+} from './section-options.js';
 import { optionalInteger } from '../../check/fields.js';
 import { parseWindowWord, windowSolver } from '../../section/window-cascade.js';
 
@@ -17,8 +31,14 @@ const DEFAULT_DIGITS = 24;
 
 export const CASCADE_OPTIONS: readonly SectionOption[] = [
   FAMILY_OPTION,
-  { flags: '--window <word>', description: 'the cascade inside the periodic window of this MSS word (e.g. RL: periods 3, 6, 12, ...; see `section windows`); default: the main cascade' },
-  { flags: '--levels <n>', description: 'cascade levels: periods 1, 2, 4, ..., 2^k, k from 2 to 22 (default 16 for logistic: delta to about 16 significant digits, alpha to 12; 9 otherwise)' },
+  {
+    flags: '--window <word>',
+    description: 'the cascade inside the periodic window of this MSS word (e.g. RL: periods 3, 6, 12, ...; see `section windows`); default: the main cascade',
+  },
+  {
+    flags: '--levels <n>',
+    description: 'cascade levels: periods 1, 2, 4, ..., 2^k, k from 2 to 22 (default 16 for logistic: delta to about 16 significant digits, alpha to 12; 9 otherwise)',
+  },
   digitsOption(DEFAULT_DIGITS, 'the parameters and ratios, from 8 to 500'),
   JSON_OPTION,
   CSV_OPTION,
@@ -75,8 +95,16 @@ export async function cascadeTable(values: Values, progress: (s: string) => void
   });
   const acc = cascade.accumulation;
   const summary = [
-    { name: 'delta', value: trusted(cascade.delta.value, cascade.delta.digits, digits), note: `${cascade.delta.digits} significant digits trusted, repeated Aitken x${cascade.delta.passes}` },
-    { name: 'alpha', value: trusted(cascade.alpha.value, cascade.alpha.digits, digits), note: `${cascade.alpha.digits} significant digits trusted, repeated Aitken x${cascade.alpha.passes}` },
+    {
+      name: 'delta',
+      value: trusted(cascade.delta.value, cascade.delta.digits, digits),
+      note: `${cascade.delta.digits} significant digits trusted, repeated Aitken x${cascade.delta.passes}`,
+    },
+    {
+      name: 'alpha',
+      value: trusted(cascade.alpha.value, cascade.alpha.digits, digits),
+      note: `${cascade.alpha.digits} significant digits trusted, repeated Aitken x${cascade.alpha.passes}`,
+    },
     { name: `${p}_inf`, value: trusted(acc.value, acc.digits, digits), note: `${acc.digits} significant digits trusted, accumulation point` },
   ];
   // Beside the cascade's own estimates: the renormalisation fixed point of the family's order (docs/methods.md E9).
@@ -90,13 +118,17 @@ export async function cascadeTable(values: Values, progress: (s: string) => void
   if (toC && acc.digits > 0) {
     const { Decimal } = await import('decimal.js');
     summary.push({ name: 'c_inf', value: trusted(new Decimal(toC(acc.value, work)), acc.digits, digits), note: `${acc.digits} significant digits, from ${p}_inf` });
-  }  summary.push(
+  }
+  summary.push(
     { name: 'delta (fixed point)', value: fixed.delta, note: `order ${family.maximumOrder}; ${deltaRight} of the cascade's ${cascade.delta.digits} trusted digits agree` },
     { name: 'alpha (fixed point)', value: fixed.alpha, note: `order ${family.maximumOrder}; ${alphaRight} of the cascade's ${cascade.alpha.digits} trusted digits agree` },
   );
 
   return {
-    title: word === undefined ? `period-doubling cascade of the ${family.name} family ${family.formula}` : `period-doubling cascade inside the window ${word} (period ${p0}) of the ${family.name} family ${family.formula}`,
+    title:
+      word === undefined
+        ? `period-doubling cascade of the ${family.name} family ${family.formula}`
+        : `period-doubling cascade inside the window ${word} (period ${p0}) of the ${family.name} family ${family.formula}`,
     columns,
     rows,
     summary,

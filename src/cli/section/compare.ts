@@ -11,14 +11,33 @@ import { compareHeights, compareRecord, parseCompareSheet, type CompareSheet } f
 import { reportWrote } from '../wrote.js';
 import { againOutput, loadSectionSheet } from './load-section-sheet.js';
 import { prepareOutput, sectionMetadata, writeOutput, writeSidecar } from './section-output.js';
-import { addOptions, againOption, applySectionFlags, clearProgress, guarded, integerText, NO_SIDECAR_OPTION, parseWorkers, progressLine, sizeText, WORKERS_OPTION, type SectionOption, type Values } from './section-options.js';
+import {
+  addOptions,
+  againOption,
+  applySectionFlags,
+  clearProgress,
+  guarded,
+  integerText,
+  NO_SIDECAR_OPTION,
+  parseWorkers,
+  progressLine,
+  sizeText,
+  WORKERS_OPTION,
+  type SectionOption,
+  type Values,
+} from './section-options.js';
 
 export const COMPARE_OPTIONS: readonly SectionOption[] = [
   { flags: '--c-from <c>', description: 'left end of the axis in c, -2 to 0.25 (default -2)', field: 'c.from' },
   { flags: '--c-to <c>', description: 'right end of the axis in c, -2 to 0.25 (default -0.7)', field: 'c.to' },
   { flags: '--x-from <x>', description: 'bottom edge of the diagram state axis x (default 0)', field: 'x.from' },
   { flags: '--x-to <x>', description: 'top edge of the diagram state axis x (default 1)', field: 'x.to' },
-  { flags: '--size <WxH>', description: 'plate size in pixels without margins, 100x100 to 20000x20000; the strip takes the top third (default 2400x1500)', field: 'pixels', value: sizeText('--size') },
+  {
+    flags: '--size <WxH>',
+    description: 'plate size in pixels without margins, 100x100 to 20000x20000; the strip takes the top third (default 2400x1500)',
+    field: 'pixels',
+    value: sizeText('--size'),
+  },
   { flags: '--samples <n>', description: 'jittered parameter samples per diagram column, 1 to 1024 (default 4)', field: 'samples', value: integerText },
   { flags: '--transient <n>', description: 'diagram iterations discarded per sample (default 2000)', field: 'transient', value: integerText },
   { flags: '--iterations <n>', description: 'diagram iterations plotted per sample (default 2 x diagram height, at least 2000)', field: 'iterations', value: integerText },
@@ -49,13 +68,25 @@ export async function compareSvg(sheet: CompareSheet, workers: number, progress:
   const { strip: stripHeight, diagram: diagramHeight } = compareHeights(sheet.pixels.height);
   progress('plane strip');
   const strip = planeStrip(from, to, width, stripHeight, sheet.planeIterations);
-  const stripPng = await sharp(strip, { raw: { width, height: stripHeight, channels: 3 } }).png().toBuffer();
+  const stripPng = await sharp(strip, { raw: { width, height: stripHeight, channels: 3 } })
+    .png()
+    .toBuffer();
   progress('diagram');
-  const settings = { width, height: diagramHeight, samples: sheet.samples, transient: sheet.transient, iterations: sheet.iterations, stateTop: Number(sheet.x.to), stateBottom: Number(sheet.x.from) };
+  const settings = {
+    width,
+    height: diagramHeight,
+    samples: sheet.samples,
+    transient: sheet.transient,
+    iterations: sheet.iterations,
+    stateTop: Number(sheet.x.to),
+    stateBottom: Number(sheet.x.from),
+  };
   const ink = await renderDiagram(logistic, { kind: 'c', from, to }, settings, workers);
   const grey = new Uint8Array(ink.length);
   for (let k = 0; k < ink.length; k++) grey[k] = Math.round(ink[k]! / 257);
-  const diagramPng = await sharp(grey, { raw: { width, height: diagramHeight, channels: 1 } }).png().toBuffer();
+  const diagramPng = await sharp(grey, { raw: { width, height: diagramHeight, channels: 1 } })
+    .png()
+    .toBuffer();
   progress('landmarks');
   const marks = await landmarks(logistic, sheet.maxPeriod);
   const cOf = (r: number): number => r / 2 - (r * r) / 4;

@@ -12,13 +12,29 @@ import { agreeingDigits, constantsPlan, MAX_ORDER, MIN_ORDER, type ConstantsPlan
 import { formatTable, integerCell, type SectionTable } from '../../section/section-table.js';
 import { UserError } from '../../check/user-error.js';
 import { optionalInteger } from '../../check/fields.js';
-import { addOptions, clearProgress, CSV_OPTION, guarded, JSON_OPTION, parseWorkers, progressLine, tableFormat, WORKERS_OPTION, type SectionOption, type Values, writeStdout } from './section-options.js';
+import {
+  addOptions,
+  clearProgress,
+  CSV_OPTION,
+  guarded,
+  JSON_OPTION,
+  parseWorkers,
+  progressLine,
+  tableFormat,
+  WORKERS_OPTION,
+  type SectionOption,
+  type Values,
+  writeStdout,
+} from './section-options.js';
 
 const DEFAULT_DIGITS = 50;
 const MAX_DIGITS = 100000;
 
 export const CONSTANTS_OPTIONS: readonly SectionOption[] = [
-  { flags: '--digits <digits>', description: `digits after the decimal point of alpha and delta, 1 to what memory allows (default ${DEFAULT_DIGITS}); only digits two truncations agree on are shown` },
+  {
+    flags: '--digits <digits>',
+    description: `digits after the decimal point of alpha and delta, 1 to what memory allows (default ${DEFAULT_DIGITS}); only digits two truncations agree on are shown`,
+  },
   { flags: '--order <Z>', description: `order of the maximum: the family x -> r - |x|^Z, an integer from ${MIN_ORDER} to ${MAX_ORDER} (default 2)` },
   WORKERS_OPTION,
   JSON_OPTION,
@@ -31,7 +47,8 @@ export function parseOrder(value: unknown): number {
   const text = String(value).trim();
   const z = /^[+-]?(\d+(\.\d*)?|\.\d+)([eE][+-]?\d+)?$/.test(text) ? Number(text) : NaN;
   if (Number.isNaN(z)) throw new UserError('--order', `a number: the order of the maximum, an integer from ${MIN_ORDER} to ${MAX_ORDER}`, value);
-  if (!Number.isInteger(z)) throw new UserError('--order', `an integer order from ${MIN_ORDER} to ${MAX_ORDER} (the fixed point is a series in |x|^Z; non-integer orders are not supported)`, value);
+  if (!Number.isInteger(z))
+    throw new UserError('--order', `an integer order from ${MIN_ORDER} to ${MAX_ORDER} (the fixed point is a series in |x|^Z; non-integer orders are not supported)`, value);
   if (z < MIN_ORDER || z > MAX_ORDER) throw new UserError('--order', `an integer order from ${MIN_ORDER} to ${MAX_ORDER}`, value);
   return z;
 }
@@ -64,7 +81,7 @@ function eta(seconds: number, fraction: number): string {
 
 export async function constantsTable(values: Values, progress: (s: string) => void, timing?: (seconds: number, workers: number) => void): Promise<SectionTable> {
   const order = parseOrder(values['order']);
-  const digits = (optionalInteger(values['digits'], '--digits', 1, MAX_DIGITS) ?? DEFAULT_DIGITS);
+  const digits = optionalInteger(values['digits'], '--digits', 1, MAX_DIGITS) ?? DEFAULT_DIGITS;
   const workers = parseWorkers(values['workers']);
   const plan = checkedPlan(order, digits, heapBudget(), values['digits']);
   const { constantsOnWorkers } = await import('../../render/feigenbaum-pool.js');
@@ -93,7 +110,11 @@ export async function constantsTable(values: Values, progress: (s: string) => vo
     ],
     summary: [
       { name: 'alpha', value: alpha.text, note: `-1/g(1); ${alpha.significant} significant digits on which ${terms} Chebyshev terms agree, truncated` },
-      { name: 'delta', value: delta.text, note: `eigenvalue of the linearised doubling operator; ${delta.significant} significant digits on which ${terms} terms agree, truncated` },
+      {
+        name: 'delta',
+        value: delta.text,
+        note: `eigenvalue of the linearised doubling operator; ${delta.significant} significant digits on which ${terms} terms agree, truncated`,
+      },
     ],
     extra: { order, digits, bits: plan.bits, terms: plan.terms },
   };
@@ -113,4 +134,3 @@ export function register(section: Command): void {
     }),
   );
 }
-

@@ -13,8 +13,22 @@ import { Received, UserError } from '../../check/user-error.js';
 import { toolVersion } from '../../io/tool-version.js';
 import { againOutput, loadSectionSheet } from './load-section-sheet.js';
 import { prepareOutput, sectionMetadata, writeOutput, writeSidecar } from './section-output.js';
-import { addOptions, againOption, applySectionFlags, clearProgress, FAMILY_OPTION, guarded, integerText, NO_SIDECAR_OPTION, parseWorkers, progressLine, sizeText, WORKERS_OPTION, type SectionOption, type Values } from './section-options.js';
-
+import {
+  addOptions,
+  againOption,
+  applySectionFlags,
+  clearProgress,
+  FAMILY_OPTION,
+  guarded,
+  integerText,
+  NO_SIDECAR_OPTION,
+  parseWorkers,
+  progressLine,
+  sizeText,
+  WORKERS_OPTION,
+  type SectionOption,
+  type Values,
+} from './section-options.js';
 
 export const DIAGRAM_OPTIONS: readonly SectionOption[] = [
   FAMILY_OPTION,
@@ -27,9 +41,19 @@ export const DIAGRAM_OPTIONS: readonly SectionOption[] = [
   { flags: '--transient <n>', description: 'iterations discarded per sample before plotting (default 1000)', field: 'transient', value: integerText },
   { flags: '--iterations <n>', description: 'iterations plotted per sample (default 2 x height, at least 1000)', field: 'iterations', value: integerText },
   { flags: '--depth <bits>', description: 'bits per channel of the PNG: 8 or 16 (default 16)', field: 'depth', value: integerText },
-  { flags: '--out <file>', description: 'output file: a PNG (ticks of r marked in the pixels), or a figure .pdf or .svg with labelled axes: r below, c on top (logistic), x at the left (default out/FAMILY-diagram.png)', field: 'output.file' },
+  {
+    flags: '--out <file>',
+    description:
+      'output file: a PNG (ticks of r marked in the pixels), or a figure .pdf or .svg with labelled axes: r below, c on top (logistic), x at the left (default out/FAMILY-diagram.png)',
+    field: 'output.file',
+  },
   { flags: '--caption <text>', description: 'figures (.pdf, .svg): text drawn below the figure (default none)', field: 'caption' },
-  { flags: '--windows <n>', description: 'figures: shade the periodic windows of period 3 to n (up to 8), onset to end, labelled by period; 0 for none (default 0)', field: 'windows', value: integerText },
+  {
+    flags: '--windows <n>',
+    description: 'figures: shade the periodic windows of period 3 to n (up to 8), onset to end, labelled by period; 0 for none (default 0)',
+    field: 'windows',
+    value: integerText,
+  },
   { flags: '--cascade', description: 'figures: mark the period doublings of the cascade with a line each (default: none)' },
   NO_SIDECAR_OPTION,
   againOption('section diagram'),
@@ -103,9 +127,16 @@ async function writeDiagramFigure(sheet: DiagramSheet, ink: Uint16Array, metadat
     const { landmarks } = await import('../../section/landmarks.js');
     const marks = sheet.windows > 0 || sheet.cascade ? await landmarks(family, sheet.windows) : { doublings: [], windows: [] };
     const model = diagramFigureModel({
-      width, height, dpi: DIAGRAM_FIGURE_DPI, parameter: family.parameter, r: sheet.r, x: sheet.x,
-      cAxis: family.name === 'logistic' && Number(sheet.r.from) >= 1, caption: sheet.caption,
-      windows: sheet.windows > 0 ? marks.windows : [], doublings: sheet.cascade ? marks.doublings : [],
+      width,
+      height,
+      dpi: DIAGRAM_FIGURE_DPI,
+      parameter: family.parameter,
+      r: sheet.r,
+      x: sheet.x,
+      cAxis: family.name === 'logistic' && Number(sheet.r.from) >= 1,
+      caption: sheet.caption,
+      windows: sheet.windows > 0 ? marks.windows : [],
+      doublings: sheet.cascade ? marks.doublings : [],
     });
     const font = figureFont();
     const scene = layoutFigure(model, DIAGRAM_FIGURE_DPI, font);
@@ -132,7 +163,15 @@ export async function diagramRun(sheet: DiagramSheet, workers: number, field: st
   const { niceTicks } = await import('../../section/plot-svg.js');
   const { width, height } = sheet.pixels;
   const [from, to] = [Number(sheet.r.from), Number(sheet.r.to)];
-  const settings = { width, height, samples: sheet.samples, transient: sheet.transient, iterations: sheet.iterations, stateTop: Number(sheet.x.to), stateBottom: Number(sheet.x.from) };
+  const settings = {
+    width,
+    height,
+    samples: sheet.samples,
+    transient: sheet.transient,
+    iterations: sheet.iterations,
+    stateTop: Number(sheet.x.to),
+    stateBottom: Number(sheet.x.from),
+  };
   const started = Date.now();
   const ink = await renderDiagram(family, { kind: 'parameter', from, to }, settings, workers, (d, n) => progress(`diagram ${Math.round((100 * d) / n)} %`));
   let metadata: string;
@@ -141,7 +180,13 @@ export async function diagramRun(sheet: DiagramSheet, workers: number, field: st
     await writeDiagramFigure(sheet, ink, metadata, field);
   } else {
     const ticks = niceTicks(from, to, 10);
-    drawTicks(ink, width, height, ticks.map((t) => (t - from) / (to - from)), Math.max(4, Math.round(height / 100)));
+    drawTicks(
+      ink,
+      width,
+      height,
+      ticks.map((t) => (t - from) / (to - from)),
+      Math.max(4, Math.round(height / 100)),
+    );
     // The tick marks are drawn as pixels; their values travel in the metadata.
     metadata = sectionMetadata(diagramRecord(sheet), { formula: family.formula, ticks: { r: ticks } });
     await writeInkPng(file, ink, width, height, sheet.depth, metadata, field);

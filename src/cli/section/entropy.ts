@@ -17,7 +17,23 @@ import { againOutput, loadSectionSheet } from './load-section-sheet.js';
 import { SHEET_SCHEMA } from '../../view/sheet-kind.js';
 import { toolVersion } from '../../io/tool-version.js';
 import { plotFileBytes, prepareOutput, sectionMetadata, writeOutput, writeSidecar } from './section-output.js';
-import { addOptions, againOption, clearProgress, CSV_OPTION, digitsOption, FAMILY_OPTION, guarded, JSON_OPTION, NO_SIDECAR_OPTION, parseFamily, progressLine, tableFormat, type SectionOption, type Values, writeStdout } from './section-options.js';
+import {
+  addOptions,
+  againOption,
+  clearProgress,
+  CSV_OPTION,
+  digitsOption,
+  FAMILY_OPTION,
+  guarded,
+  JSON_OPTION,
+  NO_SIDECAR_OPTION,
+  parseFamily,
+  progressLine,
+  tableFormat,
+  type SectionOption,
+  type Values,
+  writeStdout,
+} from './section-options.js';
 
 const DEFAULT_DIGITS = 8;
 /** Letters per parameter: BigInt arithmetic makes the logistic family cheap; decimal.js sin and powers are not. */
@@ -39,7 +55,8 @@ export const ENTROPY_OPTIONS: readonly SectionOption[] = [
 
 function parameterOf(value: unknown, field: string, fallback: string, family: UnimodalFamily): string {
   if (value === undefined) return fallback;
-  if (typeof value !== 'string' || !isDecimalText(value)) throw new UserError(field, `a decimal number in the ${family.name} range ${family.range[0]} to ${family.range[1]}`, value);
+  if (typeof value !== 'string' || !isDecimalText(value))
+    throw new UserError(field, `a decimal number in the ${family.name} range ${family.range[0]} to ${family.range[1]}`, value);
   const v = new Decimal(value.trim());
   if (v.lt(family.range[0]) || v.gt(family.range[1])) throw new UserError(field, `a decimal number in the ${family.name} range ${family.range[0]} to ${family.range[1]}`, value);
   return value.trim();
@@ -109,7 +126,13 @@ export async function entropyRun(values: Values, progress: (s: string) => void):
 async function againValues(values: Values): Promise<Values> {
   const { raw, again } = await loadSectionSheet('section-entropy', undefined, values['again']);
   const r = (raw['r'] ?? {}) as { from?: unknown; to?: unknown };
-  const from: Values = { family: raw['family'], rFrom: r.from, rTo: r.to, steps: raw['steps'] === undefined ? undefined : String(raw['steps']), letters: raw['letters'] === undefined ? undefined : String(raw['letters']) };
+  const from: Values = {
+    family: raw['family'],
+    rFrom: r.from,
+    rTo: r.to,
+    steps: raw['steps'] === undefined ? undefined : String(raw['steps']),
+    letters: raw['letters'] === undefined ? undefined : String(raw['letters']),
+  };
   const out = typeof values['out'] === 'string' ? {} : { out: againOutput(again!, ['.svg', '.png']) };
   const given = Object.fromEntries(Object.entries(values).filter(([k, v]) => v !== undefined && k !== 'again'));
   return { ...from, ...out, ...given };

@@ -36,7 +36,11 @@ export async function sheetFromOutput(file: string, field: string): Promise<Json
   try {
     text = await readPlateMetadata(file);
   } catch (err) {
-    throw new UserError(field, 'a PNG, SVG or JSON file that quadatlas wrote', new Received(`${file} (${(err as NodeJS.ErrnoException).code ?? (err as Error).message.split('\n')[0]})`));
+    throw new UserError(
+      field,
+      'a PNG, SVG or JSON file that quadatlas wrote',
+      new Received(`${file} (${(err as NodeJS.ErrnoException).code ?? (err as Error).message.split('\n')[0]})`),
+    );
   }
   if (text === undefined) throw new UserError(field, 'a file carrying quadatlas metadata', new Received(`${file} (none found)`));
   let meta: unknown;

@@ -25,7 +25,6 @@ import {
   integerText,
   JSON_OPTION,
   NO_SIDECAR_OPTION,
-  
   tableFormat,
   type SectionOption,
   type Values,

@@ -60,7 +60,11 @@ export function describeClass(c: OrbitClass): string {
 
 /** A short phrase for a figure caption. */
 export function shortClass(c: OrbitClass): string {
-  const pts = c.cycle.slice(0, 3).map((x) => String(Number(x.toPrecision(4)))).join(', ') + (c.cycle.length > 3 ? ', ...' : '');
+  const pts =
+    c.cycle
+      .slice(0, 3)
+      .map((x) => String(Number(x.toPrecision(4))))
+      .join(', ') + (c.cycle.length > 3 ? ', ...' : '');
   const mult = String(Number(c.multiplier.toPrecision(3)));
   if (c.kind === 'none') return `no period found, Lyapunov exponent ${c.lyapunov.toFixed(4)}`;
   const what = c.period === 1 ? 'fixed point' : `${c.period}-cycle`;
@@ -68,7 +72,16 @@ export function shortClass(c: OrbitClass): string {
 }
 
 function classRecord(c: OrbitClass): Record<string, unknown> {
-  return { kind: c.kind, period: c.period, cycle: c.cycle, multiplier: c.multiplier, stability: c.stability, lyapunov: c.lyapunov, lyapunovSteps: c.lyapunovSteps, description: describeClass(c) };
+  return {
+    kind: c.kind,
+    period: c.period,
+    cycle: c.cycle,
+    multiplier: c.multiplier,
+    stability: c.stability,
+    lyapunov: c.lyapunov,
+    lyapunovSteps: c.lyapunovSteps,
+    description: describeClass(c),
+  };
 }
 
 export interface OrbitRun {
@@ -89,7 +102,8 @@ export async function orbitRun(values: Values): Promise<OrbitRun> {
   const digits = optionalInteger(values['digits'], '--digits', 1, MAX_ORBIT_DIGITS) ?? 0;
   const iterations = optionalInteger(values['iterations'], '--iterations', 1, precise ? MAX_PRECISE_STEPS : MAX_ORBIT_STEPS) ?? 60;
   const transient = optionalInteger(values['transient'], '--transient', 0, MAX_ORBIT_STEPS) ?? 0;
-  if (transient + iterations > (precise ? MAX_PRECISE_STEPS : MAX_ORBIT_STEPS)) throw new UserError('--iterations', `transient + iterations at most ${precise ? MAX_PRECISE_STEPS : MAX_ORBIT_STEPS}`, transient + iterations);
+  if (transient + iterations > (precise ? MAX_PRECISE_STEPS : MAX_ORBIT_STEPS))
+    throw new UserError('--iterations', `transient + iterations at most ${precise ? MAX_PRECISE_STEPS : MAX_ORBIT_STEPS}`, transient + iterations);
   const p = family.parameter;
   const rows: string[][] = [];
   const summary: Array<{ name: string; value: string; note?: string }> = [];
@@ -106,13 +120,31 @@ export async function orbitRun(values: Values): Promise<OrbitRun> {
       const po = preciseOrbit(family, r, x0, transient + iterations, digits, cls.lyapunov);
       for (let n = transient; n <= transient + iterations; n++) rows.push([r, String(n), po.values[n]!, String(po.agree[n]!), n < po.trustedSteps ? 'yes' : 'no']);
       const trusted = `${Math.min(po.trustedSteps, transient + iterations + 1)} of ${transient + iterations + 1} steps`;
-      const estimate = po.stepsPerDigit === null ? 'the orbit does not expand errors (Lyapunov <= 0)' : `one digit lost every ${po.stepsPerDigit.toFixed(2)} steps; ${digits} digits last about ${po.estimate!.toFixed(0)} steps at ${digits}-digit precision`;
-      summary.push({ name: `trusted (${p} = ${r})`, value: trusted, note: `computed at ${po.workingDigits} digits, confirmed against ${po.checkDigits}; first disagreement ${po.firstDisagreement === null ? 'none' : `at step ${po.firstDisagreement}`}; ${estimate}` });
-      Object.assign(record, { trustedSteps: po.trustedSteps, firstDisagreement: po.firstDisagreement, workingDigits: po.workingDigits, checkDigits: po.checkDigits, stepsPerDigit: po.stepsPerDigit, estimate: po.estimate });
+      const estimate =
+        po.stepsPerDigit === null
+          ? 'the orbit does not expand errors (Lyapunov <= 0)'
+          : `one digit lost every ${po.stepsPerDigit.toFixed(2)} steps; ${digits} digits last about ${po.estimate!.toFixed(0)} steps at ${digits}-digit precision`;
+      summary.push({
+        name: `trusted (${p} = ${r})`,
+        value: trusted,
+        note: `computed at ${po.workingDigits} digits, confirmed against ${po.checkDigits}; first disagreement ${po.firstDisagreement === null ? 'none' : `at step ${po.firstDisagreement}`}; ${estimate}`,
+      });
+      Object.assign(record, {
+        trustedSteps: po.trustedSteps,
+        firstDisagreement: po.firstDisagreement,
+        workingDigits: po.workingDigits,
+        checkDigits: po.checkDigits,
+        stepsPerDigit: po.stepsPerDigit,
+        estimate: po.estimate,
+      });
     } else {
       for (let n = 0; n < shown.length; n++) rows.push([r, String(transient + n), fmt(shown[n]!)]);
     }
-    summary.push({ name: `${p} = ${r}`, value: cls.kind === 'none' ? 'no period found' : cls.period === 1 && cls.kind === 'cycle' ? 'fixed point' : `period ${cls.period}`, note: describeClass(cls) });
+    summary.push({
+      name: `${p} = ${r}`,
+      value: cls.kind === 'none' ? 'no period found' : cls.period === 1 && cls.kind === 'cycle' ? 'fixed point' : `period ${cls.period}`,
+      note: describeClass(cls),
+    });
     orbits.push(record);
   }
   return {
@@ -142,7 +174,9 @@ async function writeFigure(file: string, svg: (lettering?: import('../../section
   if (/\.png$/i.test(file)) {
     const { BITMAP_LETTERING } = await import('../../section/bitmap-lettering.js');
     const sharp = (await import('sharp')).default;
-    body = await sharp(Buffer.from(svg(BITMAP_LETTERING)), { density: 144 }).png().toBuffer();
+    body = await sharp(Buffer.from(svg(BITMAP_LETTERING)), { density: 144 })
+      .png()
+      .toBuffer();
   } else body = svg();
   try {
     await writeFileAtomic(file, body);
@@ -187,7 +221,13 @@ export async function cobwebRun(values: Values): Promise<{ table: SectionTable; 
     );
   const rows = Array.from(xs, (x, n) => [String(n * K), fmt(x)]);
   return {
-    table: { title: `cobweb of the ${family.name} family at ${p} = ${r} from x_0 = ${x0}${K > 1 ? ` (iterate ${K})` : ''}`, columns: ['n', 'x'], rows, summary: [{ name: `${p} = ${r}`, value: cls.kind === 'none' ? 'no period found' : `period ${cls.period}`, note: describeClass(cls) }], extra: { family: family.name, r, x0, iterate: K, classification: classRecord(cls) } },
+    table: {
+      title: `cobweb of the ${family.name} family at ${p} = ${r} from x_0 = ${x0}${K > 1 ? ` (iterate ${K})` : ''}`,
+      columns: ['n', 'x'],
+      rows,
+      summary: [{ name: `${p} = ${r}`, value: cls.kind === 'none' ? 'no period found' : `period ${cls.period}`, note: describeClass(cls) }],
+      extra: { family: family.name, r, x0, iterate: K, classification: classRecord(cls) },
+    },
     svg,
   };
 }
@@ -197,7 +237,10 @@ export const ORBIT_OPTIONS: readonly OptionSpec[] = [
   { flags: '--x0 <x>', description: 'start (default 0.2 for the logistic family)' },
   { flags: '--iterations <n>', description: 'steps shown (default 60)' },
   { flags: '--transient <n>', description: 'steps skipped before those shown (default 0)' },
-  { flags: '--digits <n>', description: 'print to n digits after the point, computed in decimal arithmetic, with the count of trusted steps (default: doubles, 12 significant digits)' },
+  {
+    flags: '--digits <n>',
+    description: 'print to n digits after the point, computed in decimal arithmetic, with the count of trusted steps (default: doubles, 12 significant digits)',
+  },
   { flags: '--family <name>', description: 'the unimodal family (default logistic)' },
   { flags: '--json', description: 'write the table as JSON to stdout (default: aligned text)' },
   { flags: '--csv', description: 'write the table as CSV to stdout (default: aligned text)' },
@@ -217,7 +260,10 @@ export const COBWEB_OPTIONS: readonly OptionSpec[] = [
 
 /** Registers `orbit` and `cobweb` under `section`. */
 export function registerOrbitCommands(section: Command): void {
-  const orbitCmd = addOptions(section.command('orbit').description('orbits x_0, x_1, ... for one or more parameters: table, classification, and a plot of x_n against n'), ORBIT_OPTIONS);
+  const orbitCmd = addOptions(
+    section.command('orbit').description('orbits x_0, x_1, ... for one or more parameters: table, classification, and a plot of x_n against n'),
+    ORBIT_OPTIONS,
+  );
   orbitCmd.action(async (values: Values) => {
     const format = tableFormat(values);
     const run = await orbitFigure(values);
@@ -241,7 +287,15 @@ export async function orbitFigure(values: Values): Promise<OrbitRun> {
     const { orbitPlotSvg } = await import('../../section/orbit-figures.js');
     const p = run.family.parameter;
     await writeFigure(file, (lettering) =>
-      orbitPlotSvg({ title: `Orbits of ${run.family.formula} from x_0 = ${run.x0}`, series: run.series.map((s) => ({ label: `${p} = ${s.r}`, values: s.values })), yRange: run.family.stateRange, first: run.first }, lettering),
+      orbitPlotSvg(
+        {
+          title: `Orbits of ${run.family.formula} from x_0 = ${run.x0}`,
+          series: run.series.map((s) => ({ label: `${p} = ${s.r}`, values: s.values })),
+          yRange: run.family.stateRange,
+          first: run.first,
+        },
+        lettering,
+      ),
     );
   }
   return run;

@@ -86,7 +86,11 @@ export const FAMILY_OPTION: SectionOption = { flags: '--family <name>', descript
 export const JSON_OPTION: SectionOption = { flags: '--json', description: 'write the table as JSON to stdout (default: aligned text)' };
 export const CSV_OPTION: SectionOption = { flags: '--csv', description: 'write the table as CSV to stdout (default: aligned text)' };
 export const WORKERS_OPTION: SectionOption = { flags: '--workers <n>', description: 'worker threads (default: all cores); never changes the output' };
-export const NO_SIDECAR_OPTION: SectionOption = { flags: '--no-sidecar', description: 'do not write the JSON sidecar FILE.json beside the output (default: write it)', field: 'output.sidecar' };
+export const NO_SIDECAR_OPTION: SectionOption = {
+  flags: '--no-sidecar',
+  description: 'do not write the JSON sidecar FILE.json beside the output (default: write it)',
+  field: 'output.sidecar',
+};
 export function againOption(kind: string): SectionOption {
   return { flags: '--again <file>', description: `render again from the sheet stored in a PNG, SVG or JSON sidecar that a ${kind} run wrote (default: none)` };
 }

@@ -14,7 +14,20 @@ import type { UnimodalFamily } from '../../section/unimodal-family.js';
 import { UserError } from '../../check/user-error.js';
 import { optionalInteger } from '../../check/fields.js';
 import { checkedPlan, heapBudget, parseOrder } from './constants.js';
-import { addOptions, clearProgress, CSV_OPTION, guarded, JSON_OPTION, parseWorkers, progressLine, tableFormat, WORKERS_OPTION, type SectionOption, type Values, writeStdout } from './section-options.js';
+import {
+  addOptions,
+  clearProgress,
+  CSV_OPTION,
+  guarded,
+  JSON_OPTION,
+  parseWorkers,
+  progressLine,
+  tableFormat,
+  WORKERS_OPTION,
+  type SectionOption,
+  type Values,
+  writeStdout,
+} from './section-options.js';
 
 const DEFAULT_DIGITS = 30;
 
@@ -30,7 +43,9 @@ export const UNIVERSALITY_OPTIONS: readonly SectionOption[] = [
 /** "2,4,6" -> [2, 4, 6]: each an order as parseOrder reads it, no repeats. */
 export function parseOrders(value: unknown): number[] {
   if (value === undefined) return [2, 3, 4, 6, 8];
-  const parts = String(value).split(',').map((p) => p.trim());
+  const parts = String(value)
+    .split(',')
+    .map((p) => p.trim());
   if (parts.some((p) => p === '')) throw new UserError('--orders', `comma-separated orders, integers from ${MIN_ORDER} to ${MAX_ORDER} (e.g. 2,4,6,8)`, value);
   const orders = parts.map((p) => {
     try {
@@ -54,7 +69,7 @@ async function cascadeFamily(order: number): Promise<{ family: UnimodalFamily; r
 
 export async function universalityTable(values: Values, progress: (s: string) => void): Promise<SectionTable> {
   const orders = parseOrders(values['orders']);
-  const digits = (optionalInteger(values['digits'], '--digits', 1, 200) ?? DEFAULT_DIGITS);
+  const digits = optionalInteger(values['digits'], '--digits', 1, 200) ?? DEFAULT_DIGITS;
   const workers = parseWorkers(values['workers']);
   const levelsGiven = values['cascadeLevels'] === undefined ? undefined : (optionalInteger(values['cascadeLevels'], '--cascade-levels', 0, 16) ?? 0);
   if (levelsGiven !== undefined && levelsGiven > 0 && levelsGiven < 4) throw new UserError('--cascade-levels', '0 (none) or an integer from 4 to 16', values['cascadeLevels']);

@@ -11,7 +11,21 @@ import { Decimal } from 'decimal.js';
 import { toExponent, toPlaces } from '../../section/decimal-text.js';
 import { formatTable, integerCell, numberCell, type Cell, type SectionTable } from '../../section/section-table.js';
 import { UserError } from '../../check/user-error.js';
-import { addOptions, CSV_OPTION, digitsOption, FAMILY_OPTION, guarded, JSON_OPTION, parseFamily, tableFormat, type SectionOption, type Values, writeStdout, progressLine, clearProgress } from './section-options.js';
+import {
+  addOptions,
+  CSV_OPTION,
+  digitsOption,
+  FAMILY_OPTION,
+  guarded,
+  JSON_OPTION,
+  parseFamily,
+  tableFormat,
+  type SectionOption,
+  type Values,
+  writeStdout,
+  progressLine,
+  clearProgress,
+} from './section-options.js';
 import { optionalInteger } from '../../check/fields.js';
 
 const DEFAULT_DIGITS = 15;
@@ -50,7 +64,12 @@ export async function windowsTable(values: Values): Promise<SectionTable> {
   if (toC) columns.push('stable_width_c', 'window_width_c', 'nucleus_c', 'size', 'shape');
   const rows = windows.map((w) => {
     const ps = [w.onset, w.superstable, w.doubling, w.end];
-    const row: Cell[] = [integerCell(w.period), w.word === '' ? '(C)' : w.word, w.satellite ? 'doubled' : w.period === 1 ? 'main' : 'primitive', ...ps.map((v) => toPlaces(v, digits))];
+    const row: Cell[] = [
+      integerCell(w.period),
+      w.word === '' ? '(C)' : w.word,
+      w.satellite ? 'doubled' : w.period === 1 ? 'main' : 'primitive',
+      ...ps.map((v) => toPlaces(v, digits)),
+    ];
     const inC = toC ? ps.map((v) => new W(toC(v.toString(), work))) : [];
     row.push(...inC.map((v) => toPlaces(v, digits)));
     row.push(toExponent(w.doubling.minus(w.onset).abs(), digits), toExponent(w.end.minus(w.onset).abs(), digits));

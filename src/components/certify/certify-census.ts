@@ -79,7 +79,7 @@ export async function certifyCensus(result: CensusResult, options: CertifyCensus
   const disks: IntDisk[] = [];
   comps.forEach((c, i) => {
     const t = c.imHi > 0 || (c.imHi === 0 && c.imLo >= 0) ? index.get(key(c.reHi, c.reLo, c.imHi, c.imLo)) : index.get(key(c.reHi, c.reLo, -c.imHi, -c.imLo));
-    const reason = t === undefined ? 'its conjugate is not in the census' : got.reasons[t] ?? null;
+    const reason = t === undefined ? 'its conjugate is not in the census' : (got.reasons[t] ?? null);
     const r = t === undefined ? 0n : got.radii[t]!;
     radii.push(reason === null ? r : 0n);
     if (reason !== null) failures.push({ index: i, reason });
@@ -128,4 +128,3 @@ async function certifyAll(period: number, centres: Float64Array, bits: number, o
   }
   return { radii, reasons };
 }
-

@@ -85,7 +85,7 @@ export function ballOrbit(period: number, cr: bigint, ci: bigint, rho: bigint, b
   for (let k = 1; k <= period; k += 1) {
     const a2 = zr * zr;
     const b2 = zi * zi;
-    const mz = modulusUp(zr, zi) ;
+    const mz = modulusUp(zr, zi);
     // d <- 2 z d + 1: midpoint error < 1 unit; radius 2(|z| rd + |d| rz + rz rd)
     const md = modulusUp(dr, di);
     const ndr = ((zr * dr - zi * di + half) >> sh1) + one;
@@ -116,7 +116,7 @@ export function certifyNucleusFixed(period: number, cr: bigint, ci: bigint, bits
   const at = ballOrbit(period, cr, ci, 0n, bits);
   // Y = 1 / F_p'(m), approximately (any Y works)
   const den = at.dr * at.dr + at.di * at.di;
-  if (den === 0n) return fail('F_p\' vanishes at the centre');
+  if (den === 0n) return fail("F_p' vanishes at the centre");
   const shift2 = 2n * sh;
   const yr = (at.dr << shift2) / den;
   const yi = (-at.di << shift2) / den;

@@ -69,7 +69,15 @@ function jet(k: number, w: Ball, c: Ball, t: Ball, bits: number): Jet {
     z = badd(bmul(z, z, bits), c);
     if (n < k && checks.includes(n) && !bexcludesZero(bsub(z, w))) periodOk = false;
   }
-  return { g1: bsub(z, w), g2: bsub(dz, t), j: [[bsub(dz, one), dc], [dzz, dcz]], periodOk };
+  return {
+    g1: bsub(z, w),
+    g2: bsub(dz, t),
+    j: [
+      [bsub(dz, one), dc],
+      [dzz, dcz],
+    ],
+    periodOk,
+  };
 }
 
 /**
@@ -150,7 +158,12 @@ export function unitRootBall(j: number, q: number, bits: number): Ball | null {
  * about (w, printed root). The result's radius is rounded up and covers the
  * rounding of the printed root to binary.
  */
-export function certifyRootDecimal(period: number, nucleus: ComplexDecimal, root: ComplexDecimal, digits: number): { ok: boolean; radius: string | null; reason: string | null; satellite: boolean } {
+export function certifyRootDecimal(
+  period: number,
+  nucleus: ComplexDecimal,
+  root: ComplexDecimal,
+  digits: number,
+): { ok: boolean; radius: string | null; reason: string | null; satellite: boolean } {
   // a root lies on its component's boundary, about a quarter to a half of the size estimate from the
   // nucleus (docs/methods.md C4); one much farther away belongs to another component
   const probe = fixedScale(bitsForDigits(digits, 32));

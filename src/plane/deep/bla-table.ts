@@ -143,14 +143,21 @@ export function buildBlaTable(orbit: ReferenceOrbit, unitExponent: number, delta
         continue;
       }
       const y = x + 1;
-      const axr = aRe[x]!, axi = aIm[x]!, ayr = aRe[y]!, ayi = aIm[y]!;
+      const axr = aRe[x]!,
+        axi = aIm[x]!,
+        ayr = aRe[y]!,
+        ayi = aIm[y]!;
       aRe[d] = ayr * axr - ayi * axi;
       aIm[d] = ayr * axi + ayi * axr;
       // B = A_y B_x + B_y, aligned to the larger exponent
-      const ex = bExp[x]!, ey = bExp[y]!;
-      const bxr = bRe[x]!, bxi = bIm[x]!;
-      let tr = ayr * bxr - ayi * bxi, ti = ayr * bxi + ayi * bxr;
-      let byr = bRe[y]!, byi = bIm[y]!;
+      const ex = bExp[x]!,
+        ey = bExp[y]!;
+      const bxr = bRe[x]!,
+        bxi = bIm[x]!;
+      let tr = ayr * bxr - ayi * bxi,
+        ti = ayr * bxi + ayi * bxr;
+      let byr = bRe[y]!,
+        byi = bIm[y]!;
       let e = ex;
       if (ey > ex) {
         tr = ldexp(tr, ex - ey);
@@ -160,7 +167,8 @@ export function buildBlaTable(orbit: ReferenceOrbit, unitExponent: number, delta
         byr = ldexp(byr, ey - ex);
         byi = ldexp(byi, ey - ex);
       }
-      let br = tr + byr, bi = ti + byi;
+      let br = tr + byr,
+        bi = ti + byi;
       const big = Math.max(Math.abs(br), Math.abs(bi));
       if (big !== 0 && Number.isFinite(big)) {
         const k = exponentOf(big);
@@ -201,7 +209,18 @@ export function buildBlaTable(orbit: ReferenceOrbit, unitExponent: number, delta
     levels,
     offsets: Int32Array.from(offsets),
     counts: Int32Array.from(counts),
-    aRe, aIm, bRe, bIm, bExp, bTileRe, bTileIm, logRadius, radius2, skip, minNorm, minAt,
+    aRe,
+    aIm,
+    bRe,
+    bIm,
+    bExp,
+    bTileRe,
+    bTileIm,
+    logRadius,
+    radius2,
+    skip,
+    minNorm,
+    minAt,
     epsilon,
     unitExponent,
   };

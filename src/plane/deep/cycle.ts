@@ -38,11 +38,14 @@ export function confirmCycle(
 ): boolean {
   const R2 = settings.escapeRadius * settings.escapeRadius;
   const U = settings.unitExponent;
-  let wr = w0r, wi = w0i, wk = w0k;
+  let wr = w0r,
+    wi = w0i,
+    wk = w0k;
   const scratch = work.state;
   const d = work.gap;
   let converged = false;
-  let lr = 0, li = 0;
+  let lr = 0,
+    li = 0;
   for (let it = 0; it < NEWTON_STEPS; it++) {
     startState(scratch, wr, wi, wk, dlr, dli, U);
     const ev = run(o, bla, scratch, p, false, R2, U, stats);
@@ -53,7 +56,8 @@ export function confirmCycle(
     li = ldexp(scratch[PI]!, scratch[PE]!);
     // residual F^p(w) - w
     diffScaled(scratch[FR]!, scratch[FI]!, scratch[FK]!, wr, wi, wk, d);
-    const gr = lr - 1, gi = li;
+    const gr = lr - 1,
+      gi = li;
     const g2 = gr * gr + gi * gi;
     if (!(g2 > 0) || !Number.isFinite(g2)) return false;
     // step = residual / (D_z - 1), in units of 2^d[2]

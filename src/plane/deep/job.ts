@@ -11,7 +11,16 @@
 import { Decimal } from 'decimal.js';
 import { buildBlaTable, shareBlaTable, type BlaTable } from './bla-table.js';
 import type { DeepGeometry } from './offsets.js';
-import { extendReferenceOrbit, orbitBytes, orbitSnapshot, referenceOffset, shareReferenceOrbit, startReferenceOrbit, type ReferenceBuilder, type ReferenceOrbit } from '../../precise/reference-orbit.js';
+import {
+  extendReferenceOrbit,
+  orbitBytes,
+  orbitSnapshot,
+  referenceOffset,
+  shareReferenceOrbit,
+  startReferenceOrbit,
+  type ReferenceBuilder,
+  type ReferenceOrbit,
+} from '../../precise/reference-orbit.js';
 import { rotationCosSin } from '../rotation.js';
 import { Received, UserError } from '../../check/user-error.js';
 
@@ -85,7 +94,12 @@ export function deepFrame(view: DeepView, centre: { readonly re: string; readonl
     stepYIm: -spacing * cos,
   };
   let deltaMax = 0;
-  for (const [x, y] of [[-1.5, -1.5], [view.width + 0.5, -1.5], [-1.5, view.height + 0.5], [view.width + 0.5, view.height + 0.5]] as const) {
+  for (const [x, y] of [
+    [-1.5, -1.5],
+    [view.width + 0.5, -1.5],
+    [-1.5, view.height + 0.5],
+    [view.width + 0.5, view.height + 0.5],
+  ] as const) {
     const re = geometry.originRe + x * geometry.stepXRe + y * geometry.stepYRe;
     const im = geometry.originIm + x * geometry.stepXIm + y * geometry.stepYIm;
     deltaMax = Math.max(deltaMax, Math.abs(re), Math.abs(im));
@@ -112,7 +126,8 @@ export function startViewReference(view: DeepView, bits: number, escapeRadius: n
  */
 export function checkNucleus(b: ReferenceBuilder): void {
   if (b.period === 0 || b.escaped || b.length < b.period) {
-    if (b.period > 0 && b.escaped) throw new UserError('reference', `a nucleus of period ${b.period} (its orbit of 0 returns to 0)`, new Received(`an orbit that escapes at iteration ${b.length}`));
+    if (b.period > 0 && b.escaped)
+      throw new UserError('reference', `a nucleus of period ${b.period} (its orbit of 0 returns to 0)`, new Received(`an orbit that escapes at iteration ${b.length}`));
     return;
   }
   const z = Math.hypot(b.re[b.period]!, b.im[b.period]!);

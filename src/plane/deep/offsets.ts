@@ -26,15 +26,7 @@ export interface DeepGeometry {
  * row-major into outRe/outIm (length >= width * height); returns the
  * largest |offset| component written (a bound for the table's deltaMax).
  */
-export function fillDeepOffsets(
-  g: DeepGeometry,
-  x0: number,
-  y0: number,
-  width: number,
-  height: number,
-  outRe: Float64Array,
-  outIm: Float64Array,
-): number {
+export function fillDeepOffsets(g: DeepGeometry, x0: number, y0: number, width: number, height: number, outRe: Float64Array, outIm: Float64Array): number {
   let max = 0;
   for (let j = 0; j < height; j++) {
     const y = y0 + j;

@@ -68,14 +68,19 @@ export function probeDeepLimit(
   fillDeepOffsets(probe.geometry, 0, 0, size.width, size.height, dcRe, dcIm);
   const out = createSampleSet(count);
   const stats = createDeepStats();
-  const outcome = raiseLimit(count, ceiling, (limit) => {
-    checkNucleus(extendReferenceOrbit(builder, limit));
-    const orbit = orbitSnapshot(builder);
-    const bla = skip ? buildBlaTable(orbit, unitExponent, plateDelta) : null;
-    sampleDeep(orbit, bla, dcRe, dcIm, count, { maxIterations: limit, escapeRadius, unitExponent }, out, stats);
-    let undecided = 0;
-    for (let k = 0; k < count; k++) if (out.period[k] === PERIOD_UNDECIDED) undecided += 1;
-    return undecided;
-  }, rule);
+  const outcome = raiseLimit(
+    count,
+    ceiling,
+    (limit) => {
+      checkNucleus(extendReferenceOrbit(builder, limit));
+      const orbit = orbitSnapshot(builder);
+      const bla = skip ? buildBlaTable(orbit, unitExponent, plateDelta) : null;
+      sampleDeep(orbit, bla, dcRe, dcIm, count, { maxIterations: limit, escapeRadius, unitExponent }, out, stats);
+      let undecided = 0;
+      for (let k = 0; k < count; k++) if (out.period[k] === PERIOD_UNDECIDED) undecided += 1;
+      return undecided;
+    },
+    rule,
+  );
   return { ...outcome, ...size, builder };
 }

@@ -73,7 +73,27 @@ import { smoothCount } from '../smooth-count.js';
 import { confirmCycle, exactPeriod } from './cycle.js';
 import { interiorDistanceDeep, interiorDistanceScaled } from './interior-distance.js';
 import { run } from './step-loop.js';
-import { type DeepSettings, type DeepStats, EV_ESCAPED, EV_NEWMIN, EV_STOP, FI, FK, FR, GI, GR, N, PE, PI, PR, STATE, diffScaled, makeOrbit, startState, createDeepWork } from './state.js';
+import {
+  type DeepSettings,
+  type DeepStats,
+  EV_ESCAPED,
+  EV_NEWMIN,
+  EV_STOP,
+  FI,
+  FK,
+  FR,
+  GI,
+  GR,
+  N,
+  PE,
+  PI,
+  PR,
+  STATE,
+  diffScaled,
+  makeOrbit,
+  startState,
+  createDeepWork,
+} from './state.js';
 
 export { createDeepStats, type DeepSettings, type DeepStats } from './state.js';
 
@@ -112,7 +132,8 @@ export function sampleDeep(
   const d = new Float64Array(3);
   const { period, smooth, distance, mulRe, mulIm } = out;
   for (let idx = 0; idx < count; idx++) {
-    const dlr = dcRe[idx]!, dli = dcIm[idx]!;
+    const dlr = dcRe[idx]!,
+      dli = dcIm[idx]!;
     startState(st, 0, 0, 0, dlr, dli, U);
     // Checks come in pairs: arm (save the full value, reset the product) and,
     // one candidate period later, test. Arms sit at n_min + 2^t p (doubling,
@@ -122,7 +143,9 @@ export function sampleDeep(
     let doubling = 1;
     let armed = false;
     let nextCheck = Infinity;
-    let savedR = 0, savedI = 0, savedK = 0;
+    let savedR = 0,
+      savedI = 0,
+      savedK = 0;
     let newtonLeft = budget;
     let result = PERIOD_UNDECIDED;
     period[idx] = PERIOD_UNDECIDED;
@@ -134,7 +157,8 @@ export function sampleDeep(
       const stop = Math.min(maxIterations, nextCheck);
       const ev = run(o, bla, st, stop, interior, R2, U, stats);
       if (ev === EV_ESCAPED) {
-        const fr = st[FR]!, fi = st[FI]!;
+        const fr = st[FR]!,
+          fi = st[FI]!;
         period[idx] = PERIOD_ESCAPED;
         smooth[idx] = smoothCount(st[N]!, fr, fi, logR);
         const mod2 = fr * fr + fi * fi;
@@ -151,7 +175,8 @@ export function sampleDeep(
         armed = false; // arm right here
       } else if (armed) {
         // test: one candidate period after the arm
-        const lr = ldexp(st[PR]!, st[PE]!), li = ldexp(st[PI]!, st[PE]!);
+        const lr = ldexp(st[PR]!, st[PE]!),
+          li = ldexp(st[PI]!, st[PE]!);
         diffScaled(st[FR]!, st[FI]!, st[FK]!, savedR, savedI, savedK, d);
         const gap = Math.hypot(d[0]!, d[1]!) * 2 ** Math.max(-1000, Math.min(1000, d[2]! - savedK));
         // Gate for Newton: the orbit contracted over the last period. The
@@ -165,9 +190,10 @@ export function sampleDeep(
             smooth[idx] = st[N]!;
             mulRe[idx] = res[3]!;
             mulIm[idx] = res[4]!;
-            distance[idx] = U < -900
-              ? interiorDistanceScaled(o, work, p, res[0]!, res[1]!, res[2]!, dlr, dli, settings, stats)
-              : interiorDistanceDeep(o, p, res[0]!, res[1]!, res[2]!, dlr, dli, U);
+            distance[idx] =
+              U < -900
+                ? interiorDistanceScaled(o, work, p, res[0]!, res[1]!, res[2]!, dlr, dli, settings, stats)
+                : interiorDistanceDeep(o, p, res[0]!, res[1]!, res[2]!, dlr, dli, U);
             result = p;
             break;
           }

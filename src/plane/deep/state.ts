@@ -45,10 +45,24 @@ export function createDeepStats(): DeepStats {
   return { stepped: 0, skipped: 0, skips: 0, rebases: 0, newtonIterations: 0 };
 }
 
-
 // Pixel state layout (a Float64Array, so helpers share it without objects).
-export const N = 0, M_ = 1, K = 2, WR = 3, WI = 4, GR = 5, GI = 6, PR = 7, PI = 8, PE = 9;
-export const FR = 10, FI = 11, FK = 12, MINN = 13, MINK = 14, DLR = 15, DLI = 16;
+export const N = 0,
+  M_ = 1,
+  K = 2,
+  WR = 3,
+  WI = 4,
+  GR = 5,
+  GI = 6,
+  PR = 7,
+  PI = 8,
+  PE = 9;
+export const FR = 10,
+  FI = 11,
+  FK = 12,
+  MINN = 13,
+  MINK = 14,
+  DLR = 15,
+  DLI = 16;
 export const STATE = 17;
 
 export const EV_STOP = 0;
@@ -105,7 +119,8 @@ export function lessNorm(a: number, ka: number, b: number, kb: number): boolean 
  */
 export function normalise(st: Float64Array): void {
   const k = st[K]!;
-  const wr = st[WR]!, wi = st[WI]!;
+  const wr = st[WR]!,
+    wi = st[WI]!;
   const aw = Math.abs(wr) + Math.abs(wi);
   if (aw === 0) return;
   const e = exponentOf(aw);

@@ -6,39 +6,83 @@
  */
 import type { BlaTable } from './bla-table.js';
 import { exponentOf, ldexp } from '../../precise/floatexp.js';
-import { DLI, DLR, type DeepStats, EV_ESCAPED, EV_NEWMIN, EV_STOP, FI, FK, FR, GI, GR, K, MINK, MINN, MIN_DROP, M_, N, type Orbit, PE, PI, PR, P_HIGH, P_LOW, SCALED_BELOW, WI, WR, W_HIGH, W_LOW, lessNorm, normalise } from './state.js';
+import {
+  DLI,
+  DLR,
+  type DeepStats,
+  EV_ESCAPED,
+  EV_NEWMIN,
+  EV_STOP,
+  FI,
+  FK,
+  FR,
+  GI,
+  GR,
+  K,
+  MINK,
+  MINN,
+  MIN_DROP,
+  M_,
+  N,
+  type Orbit,
+  PE,
+  PI,
+  PR,
+  P_HIGH,
+  P_LOW,
+  SCALED_BELOW,
+  WI,
+  WR,
+  W_HIGH,
+  W_LOW,
+  lessNorm,
+  normalise,
+} from './state.js';
 
 /**
  * Advances the pixel until n = stopAt, escape, or (when `track`) a new
  * atom-domain minimum. Returns EV_*. The running product of 2 (Z_m + z_n)
  * (D_z of the orbit since the last reset) is kept in st[PR, PI] * 2^st[PE].
  */
-export function run(
-  o: Orbit,
-  bla: BlaTable | null,
-  st: Float64Array,
-  stopAt: number,
-  track: boolean,
-  escapeRadius2: number,
-  unitExponent: number,
-  stats: DeepStats,
-): number {
-  const re = o.re, im = o.im, M = o.M;
-  let n = st[N]! | 0, m = st[M_]! | 0, k = st[K]! | 0;
-  let wr = st[WR]!, wi = st[WI]!, gr = st[GR]!, gi = st[GI]!;
-  let pr = st[PR]!, pi = st[PI]!, pe = st[PE]!;
-  let fr = st[FR]!, fi = st[FI]!, fk = st[FK]!;
-  let minN = st[MINN]!, minK = st[MINK]!;
-  const dlr = st[DLR]!, dli = st[DLI]!;
+export function run(o: Orbit, bla: BlaTable | null, st: Float64Array, stopAt: number, track: boolean, escapeRadius2: number, unitExponent: number, stats: DeepStats): number {
+  const re = o.re,
+    im = o.im,
+    M = o.M;
+  let n = st[N]! | 0,
+    m = st[M_]! | 0,
+    k = st[K]! | 0;
+  let wr = st[WR]!,
+    wi = st[WI]!,
+    gr = st[GR]!,
+    gi = st[GI]!;
+  let pr = st[PR]!,
+    pi = st[PI]!,
+    pe = st[PE]!;
+  let fr = st[FR]!,
+    fi = st[FI]!,
+    fk = st[FK]!;
+  let minN = st[MINN]!,
+    minK = st[MINK]!;
+  const dlr = st[DLR]!,
+    dli = st[DLI]!;
   // plain mode holds |z| >= 2^-500, next to which u and c below 2^-1000 are
   // negligible; flushing them avoids slow subnormal arithmetic
   const u = unitExponent < -1000 ? 0 : ldexp(1, unitExponent);
-  const pdr = dlr * u, pdi = dli * u;
+  const pdr = dlr * u,
+    pdi = dli * u;
   // rescaled-mode constants, refreshed whenever k changes
   // (no closure here: captured locals would live on the heap and slow the loop)
-  let s = 1, sdr = pdr, sdi = pdi, hs = u, lim = 0;
+  let s = 1,
+    sdr = pdr,
+    sdi = pdi,
+    hs = u,
+    lim = 0;
   if (k !== 0) {
-    s = k < -1000 ? 0 : ldexp(1, k); sdr = ldexp(dlr, unitExponent - k); sdi = ldexp(dli, unitExponent - k); hs = ldexp(1, unitExponent - k); lim = ldexp(1, k + 66);
+    s = k < -1000 ? 0 : ldexp(1, k);
+    sdr = ldexp(dlr, unitExponent - k);
+    sdi = ldexp(dli, unitExponent - k);
+    hs = ldexp(1, unitExponent - k);
+    lim = ldexp(1, k + 66);
   }
   let event = EV_STOP;
   let stepped = 0;
@@ -61,7 +105,8 @@ export function run(
         const e = bla.offsets[j]! + i;
         const l = bla.skip[e]!;
         if ((k === 0 ? w2 < bla.radius2[e]! : logZ < bla.logRadius[e]!) && l <= maxSkip && bla.minNorm[e]! >= minLimit) {
-          const ar = bla.aRe[e]!, ai = bla.aIm[e]!;
+          const ar = bla.aRe[e]!,
+            ai = bla.aIm[e]!;
           // B c and B u in the units of w: B 2^(U - k)
           let cr: number, ci: number, ur: number, ui: number;
           if (k === 0) {
@@ -70,7 +115,8 @@ export function run(
             cr = ur * dlr - ui * dli;
             ci = ur * dli + ui * dlr;
           } else {
-            const br = bla.bRe[e]!, bi = bla.bIm[e]!;
+            const br = bla.bRe[e]!,
+              bi = bla.bIm[e]!;
             const fe = bla.bExp[e]! + unitExponent - k;
             cr = br * dlr - bi * dli;
             ci = br * dli + bi * dlr;
@@ -78,9 +124,15 @@ export function run(
             ui = bi;
             if (fe >= -1022 && fe <= 1023) {
               const f = 2 ** fe;
-              cr *= f; ci *= f; ur *= f; ui *= f;
+              cr *= f;
+              ci *= f;
+              ur *= f;
+              ui *= f;
             } else {
-              cr = ldexp(cr, fe); ci = ldexp(ci, fe); ur = ldexp(ur, fe); ui = ldexp(ui, fe);
+              cr = ldexp(cr, fe);
+              ci = ldexp(ci, fe);
+              ur = ldexp(ur, fe);
+              ui = ldexp(ui, fe);
             }
           }
           const nwr = ar * wr - ai * wi + cr;
@@ -104,7 +156,8 @@ export function run(
     if (k === 0) {
       // ---------------------------------------------------------------- plain mode
       if (!skipped) {
-        const zr = re[m]!, zi = im[m]!;
+        const zr = re[m]!,
+          zi = im[m]!;
         // derivative before z (A2): G <- 2 (Z + z) G + u, with Z + z = f
         const ngr = 2 * (fr * gr - fi * gi) + u;
         gi = 2 * (fr * gi + fi * gr);
@@ -153,7 +206,11 @@ export function run(
           gr = st[GR]!;
           gi = st[GI]!;
           if (k !== 0) {
-            s = k < -1000 ? 0 : ldexp(1, k); sdr = ldexp(dlr, unitExponent - k); sdi = ldexp(dli, unitExponent - k); hs = ldexp(1, unitExponent - k); lim = ldexp(1, k + 66);
+            s = k < -1000 ? 0 : ldexp(1, k);
+            sdr = ldexp(dlr, unitExponent - k);
+            sdi = ldexp(dli, unitExponent - k);
+            hs = ldexp(1, unitExponent - k);
+            lim = ldexp(1, k + 66);
           }
         }
       } else if (nz < 1e-300 && nz !== 0 && unitExponent < -400) {
@@ -170,7 +227,11 @@ export function run(
         gr = st[GR]!;
         gi = st[GI]!;
         if (k !== 0) {
-          s = k < -1000 ? 0 : ldexp(1, k); sdr = ldexp(dlr, unitExponent - k); sdi = ldexp(dli, unitExponent - k); hs = ldexp(1, unitExponent - k); lim = ldexp(1, k + 66);
+          s = k < -1000 ? 0 : ldexp(1, k);
+          sdr = ldexp(dlr, unitExponent - k);
+          sdi = ldexp(dli, unitExponent - k);
+          hs = ldexp(1, unitExponent - k);
+          lim = ldexp(1, k + 66);
         }
       }
       if (track && (minK !== 0 ? false : nf < MIN_DROP * minN)) {
@@ -182,21 +243,26 @@ export function run(
     } else {
       // ---------------------------------------------------------------- rescaled mode (B6b)
       if (!skipped) {
-        const zr = re[m]!, zi = im[m]!;
+        const zr = re[m]!,
+          zi = im[m]!;
         let tiny = -1;
         if (o.tinySlot !== null) tiny = o.tinySlot[m]!;
         if (tiny >= 0 || (zr === 0 && zi === 0)) {
           // Z is as small as z (m = 0 after a rebase, or a tiny reference
           // iterate): work in units of 2^k, z' = 2^k w (2 Zs + w) + c
-          let zsr = 0, zsi = 0;
+          let zsr = 0,
+            zsi = 0;
           if (tiny >= 0) {
             zsr = ldexp(o.tinyRe[tiny]!, o.tinyExp[tiny]! - k);
             zsi = ldexp(o.tinyIm[tiny]!, o.tinyExp[tiny]! - k);
           }
-          const tr = 2 * zsr + wr, ti = 2 * zsi + wi; // 2 Zs + w
-          const ur = 2 * (zsr + wr), ui = 2 * (zsi + wi); // 2 (Z + z) / 2^k
+          const tr = 2 * zsr + wr,
+            ti = 2 * zsi + wi; // 2 Zs + w
+          const ur = 2 * (zsr + wr),
+            ui = 2 * (zsi + wi); // 2 (Z + z) / 2^k
           // G <- 2 (Z + z) G + u; the factor may underflow only where the term is negligible
-          const fcr = ldexp(ur, k), fci = ldexp(ui, k);
+          const fcr = ldexp(ur, k),
+            fci = ldexp(ui, k);
           const ngr = fcr * gr - fci * gi + hs;
           gi = fcr * gi + fci * gr;
           gr = ngr;
@@ -204,13 +270,15 @@ export function run(
           pi = ur * pi + ui * pr;
           pr = npr;
           pe += k;
-          const qr = wr * tr - wi * ti, qi = wr * ti + wi * tr;
+          const qr = wr * tr - wi * ti,
+            qi = wr * ti + wi * tr;
           wr = ldexp(qr, k) + sdr;
           wi = ldexp(qi, k) + sdi;
         } else {
           // |Z| >= 2^-500 >> |z|: s = 2^k is flushed to 0 below 2^-1000, where
           // s w is below 2^-436 |Z| (and subnormal products would be slow)
-          const fcr = 2 * (zr + s * wr), fci = 2 * (zi + s * wi);
+          const fcr = 2 * (zr + s * wr),
+            fci = 2 * (zi + s * wi);
           const ngr = fcr * gr - fci * gi + hs;
           gi = fcr * gi + fci * gr;
           gr = ngr;
@@ -233,7 +301,8 @@ export function run(
         pe += e;
       }
       // full value and rebasing: only possible when |Z_m| < 2^(k+66)
-      const nzr = re[m]!, nzi = im[m]!;
+      const nzr = re[m]!,
+        nzi = im[m]!;
       const az = Math.abs(nzr) + Math.abs(nzi);
       let rebased = false;
       let tiny2 = -1;
@@ -304,9 +373,12 @@ export function run(
         gr = st[GR]!;
         gi = st[GI]!;
         if (k !== 0) {
-          s = k < -1000 ? 0 : ldexp(1, k); sdr = ldexp(dlr, unitExponent - k); sdi = ldexp(dli, unitExponent - k); hs = ldexp(1, unitExponent - k); lim = ldexp(1, k + 66);
-        }
-        else {
+          s = k < -1000 ? 0 : ldexp(1, k);
+          sdr = ldexp(dlr, unitExponent - k);
+          sdi = ldexp(dli, unitExponent - k);
+          hs = ldexp(1, unitExponent - k);
+          lim = ldexp(1, k + 66);
+        } else {
           fr = re[m]! + wr;
           fi = im[m]! + wi;
           fk = 0;

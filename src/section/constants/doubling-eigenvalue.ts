@@ -56,7 +56,7 @@ export function inverseIteration(m: readonly bigint[][], b: readonly bigint[][],
   } catch {
     return undefined;
   }
-  let v = m.map((_, i) => (i === 0 ? 1n << shift : 1n << (shift - BigInt(i % 7 + 1))));
+  let v = m.map((_, i) => (i === 0 ? 1n << shift : 1n << (shift - BigInt((i % 7) + 1))));
   let last = NaN;
   for (let k = 0; k < steps; k++) {
     const w = luSolve(lu, matVec(b, v, shift));
@@ -98,7 +98,10 @@ export function deltaEstimate(lower: FixedPointSolution, upper: FixedPointSoluti
   const a = scan(lower, lower.bits);
   const b = scan(upper, upper.bits);
   const common = a.filter((x) => b.some((y) => Math.abs(x - y) < 1e-6 * x));
-  if (common.length === 0) throw Object.assign(new Error(`order ${lower.order}: no eigenvalue of the doubling operator is stable between ${lower.terms} and ${upper.terms} terms`), { name: 'NoConvergenceError' });
+  if (common.length === 0)
+    throw Object.assign(new Error(`order ${lower.order}: no eigenvalue of the doubling operator is stable between ${lower.terms} and ${upper.terms} terms`), {
+      name: 'NoConvergenceError',
+    });
   return Math.max(...common);
 }
 

@@ -138,7 +138,15 @@ function log2Of(n: bigint, bits: number): number {
 /** Newton (chord) iterations at `bits` with the Jacobian factorised at `jacobianBits` from c, until the correction is below 2^-(bits - 40). */
 function chordNewton(c: bigint[], xs: readonly number[], order: number, bits: number, jacobianBits: number, maxSteps: number, step?: (s: NewtonStep) => void): bigint[] {
   const xsHigh = xs.map((x) => exactFixed(x, bits));
-  let lu = luFactor(jacobian(rescaleAll(c, bits, jacobianBits), xs.map((x) => exactFixed(x, jacobianBits)), order, jacobianBits), jacobianBits);
+  let lu = luFactor(
+    jacobian(
+      rescaleAll(c, bits, jacobianBits),
+      xs.map((x) => exactFixed(x, jacobianBits)),
+      order,
+      jacobianBits,
+    ),
+    jacobianBits,
+  );
   let previous = -1n;
   for (let k = 0; k < maxSteps; k++) {
     const e = residual(c, xsHigh, order, bits);
@@ -148,7 +156,16 @@ function chordNewton(c: bigint[], xs: readonly number[], order: number, bits: nu
     step?.({ stage: 'fixed point', bits, terms: c.length, correctionLog2: log2Of(m, bits) });
     if (m < 1n << 40n) return c;
     // A chord that stopped contracting (a stale Jacobian): factorise again where we are.
-    if (previous >= 0n && m > previous / 4n) lu = luFactor(jacobian(rescaleAll(c, bits, jacobianBits), xs.map((x) => exactFixed(x, jacobianBits)), order, jacobianBits), jacobianBits);
+    if (previous >= 0n && m > previous / 4n)
+      lu = luFactor(
+        jacobian(
+          rescaleAll(c, bits, jacobianBits),
+          xs.map((x) => exactFixed(x, jacobianBits)),
+          order,
+          jacobianBits,
+        ),
+        jacobianBits,
+      );
     previous = m;
   }
   throw Object.assign(new Error(`fixed point of order ${order} with ${c.length} terms: Newton did not settle at ${bits} bits`), { name: 'NoConvergenceError' });

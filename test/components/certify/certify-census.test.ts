@@ -55,8 +55,18 @@ describe('certifyCensus', () => {
 
 describe('firstOverlap', () => {
   it('finds touching and overlapping disks, also when their left edges are far apart in the order', () => {
-    expect(firstOverlap([{ re: 0n, im: 0n, r: 1n }, { re: 3n, im: 0n, r: 1n }])).toBeNull();
-    expect(firstOverlap([{ re: 0n, im: 0n, r: 1n }, { re: 2n, im: 0n, r: 1n }])).toEqual([0, 1]); // touching: closed disks meet
+    expect(
+      firstOverlap([
+        { re: 0n, im: 0n, r: 1n },
+        { re: 3n, im: 0n, r: 1n },
+      ]),
+    ).toBeNull();
+    expect(
+      firstOverlap([
+        { re: 0n, im: 0n, r: 1n },
+        { re: 2n, im: 0n, r: 1n },
+      ]),
+    ).toEqual([0, 1]); // touching: closed disks meet
     // a big disk first, many small ones inside its projection, and an overlap at the far end
     const disks = [{ re: 0n, im: 0n, r: 100n }, ...Array.from({ length: 50 }, (_, k) => ({ re: BigInt(-90 + 3 * k), im: 200n, r: 1n })), { re: 95n, im: 20n, r: 1n }];
     expect(firstOverlap(disks)).toEqual([0, 51]);

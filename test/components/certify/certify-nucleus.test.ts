@@ -14,7 +14,10 @@ const toD = (n: bigint): Decimal => new D(n.toString()).times(unit);
 
 /** F_p and F_p' at c in decimal.js (z <- z^2 + c, d <- 2 z d + 1 from 0), written here independently of src/. */
 function orbit(p: number, re: Decimal, im: Decimal): { fr: Decimal; fi: Decimal; dr: Decimal; di: Decimal } {
-  let zr = new D(0), zi = new D(0), dr = new D(0), di = new D(0);
+  let zr = new D(0),
+    zi = new D(0),
+    dr = new D(0),
+    di = new D(0);
   for (let k = 0; k < p; k += 1) {
     const ndr = zr.times(dr).minus(zi.times(di)).times(2).plus(1);
     di = zr.times(di).plus(zi.times(dr)).times(2);
@@ -68,8 +71,9 @@ describe('certifyNucleusFixed', () => {
     expect(certifyNucleusFixed(4, -S.one, 0n, BITS).ok).toBe(false);
     expect(certifyNucleusFixed(2, -S.one, 0n, BITS).ok).toBe(true);
   });
-  it('ballOrbit encloses F_p and F_p\' at 40 points of its disk, evaluated in decimal.js (period 7)', () => {
-    const cr = fromDecimal('-0.1565201668', S), ci = fromDecimal('1.0322471089', S);
+  it("ballOrbit encloses F_p and F_p' at 40 points of its disk, evaluated in decimal.js (period 7)", () => {
+    const cr = fromDecimal('-0.1565201668', S),
+      ci = fromDecimal('1.0322471089', S);
     const rho = fromDecimal('1e-6', S);
     const ball = ballOrbit(7, cr, ci, rho, BITS);
     for (let k = 0; k < 40; k += 1) {
@@ -78,8 +82,22 @@ describe('certifyNucleusFixed', () => {
       const re = toD(cr).plus(toD(rho).times(f * Math.cos(t)));
       const im = toD(ci).plus(toD(rho).times(f * Math.sin(t)));
       const o = orbit(7, re, im);
-      expect(o.fr.minus(toD(ball.zr)).pow(2).plus(o.fi.minus(toD(ball.zi)).pow(2)).sqrt().lte(toD(ball.zrad))).toBe(true);
-      expect(o.dr.minus(toD(ball.dr)).pow(2).plus(o.di.minus(toD(ball.di)).pow(2)).sqrt().lte(toD(ball.drad))).toBe(true);
+      expect(
+        o.fr
+          .minus(toD(ball.zr))
+          .pow(2)
+          .plus(o.fi.minus(toD(ball.zi)).pow(2))
+          .sqrt()
+          .lte(toD(ball.zrad)),
+      ).toBe(true);
+      expect(
+        o.dr
+          .minus(toD(ball.dr))
+          .pow(2)
+          .plus(o.di.minus(toD(ball.di)).pow(2))
+          .sqrt()
+          .lte(toD(ball.drad)),
+      ).toBe(true);
     }
   });
   it('primeDivisors(p) lists the primes dividing p', () => {

@@ -46,11 +46,22 @@ describe('unitRootBall', () => {
   it('encloses e^{2 pi i j/q} (decimal.js cos and sin) for j/q = 1/5, 2/7, 5/12', () => {
     const bits = 160;
     const unit = new D(2).pow(-bits);
-    for (const [j, q] of [[1, 5], [2, 7], [5, 12]] as const) {
+    for (const [j, q] of [
+      [1, 5],
+      [2, 7],
+      [5, 12],
+    ] as const) {
       const b = unitRootBall(j, q, bits)!;
       expect(b).not.toBeNull();
-      const a = D.acos(-1).times(2 * j).div(q);
-      const dist = new D(b.re.toString()).times(unit).minus(D.cos(a)).pow(2).plus(new D(b.im.toString()).times(unit).minus(D.sin(a)).pow(2)).sqrt();
+      const a = D.acos(-1)
+        .times(2 * j)
+        .div(q);
+      const dist = new D(b.re.toString())
+        .times(unit)
+        .minus(D.cos(a))
+        .pow(2)
+        .plus(new D(b.im.toString()).times(unit).minus(D.sin(a)).pow(2))
+        .sqrt();
       expect(dist.lte(new D(b.r.toString()).times(unit))).toBe(true);
       expect(new D(b.r.toString()).times(unit).lt(1e-40)).toBe(true);
     }

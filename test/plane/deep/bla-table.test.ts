@@ -26,13 +26,24 @@ describe('buildBlaTable', () => {
 
   it('merged coefficients equal the composed single steps: A = prod 2 Z, B = sum of the linearised c terms (mathr deep-zoom section 3)', () => {
     const { re, im } = orbit;
-    for (const [j, i] of [[3, 5], [5, 7], [6, 1], [7, 2]] as const) {
+    for (const [j, i] of [
+      [3, 5],
+      [5, 7],
+      [6, 1],
+      [7, 2],
+    ] as const) {
       const e = entry(j, i);
       const m = 1 + i * 2 ** j;
       // direct linearised iteration: z_{t+1} = 2 Z z_t (A), B_{t+1} = 2 Z B_t + 1 (c units)
-      let ar = 1, ai = 0, br = 0, bi = 0, minNorm = Infinity, minAt = 0;
+      let ar = 1,
+        ai = 0,
+        br = 0,
+        bi = 0,
+        minNorm = Infinity,
+        minAt = 0;
       for (let t = 0; t < table.skip[e]!; t++) {
-        const zr = 2 * re[m + t]!, zi = 2 * im[m + t]!;
+        const zr = 2 * re[m + t]!,
+          zi = 2 * im[m + t]!;
         [ar, ai] = [zr * ar - zi * ai, zr * ai + zi * ar];
         [br, bi] = [zr * br - zi * bi + 1, zr * bi + zi * br];
         const n2 = re[m + t + 1]! ** 2 + im[m + t + 1]! ** 2;
@@ -70,10 +81,13 @@ describe('buildBlaTable', () => {
       expect(e).toBeGreaterThanOrEqual(0);
       const r = 2 ** table.logRadius[e]!;
       // a delta at half the radius, and the largest offset
-      let zr = 0.5 * r, zi = 0;
-      const dr = DELTA_MAX * u, di = 0;
+      let zr = 0.5 * r,
+        zi = 0;
+      const dr = DELTA_MAX * u,
+        di = 0;
       for (let t = 0; t < table.skip[e]!; t++) {
-        const Zr = re[m + t]!, Zi = im[m + t]!;
+        const Zr = re[m + t]!,
+          Zi = im[m + t]!;
         [zr, zi] = [2 * (Zr * zr - Zi * zi) + zr * zr - zi * zi + dr, 2 * (Zr * zi + Zi * zr) + 2 * zr * zi + di];
       }
       const tb = 2 ** table.bExp[e]!;

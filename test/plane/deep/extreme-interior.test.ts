@@ -73,7 +73,8 @@ describe('sampleDeep around a period-427 minibrot at span 3e-320 (rescaled itera
   });
 
   it('matches decimal.js escape counts on sampled exterior pixels', () => {
-    let checked = 0, mismatched = 0;
+    let checked = 0,
+      mismatched = 0;
     // the three exterior pixels with the lowest counts (decimal.js at 380 digits costs ~1 ms per iteration)
     const exterior = Array.from(out.period.keys()).filter((k) => out.period[k] === PERIOD_ESCAPED);
     exterior.sort((a, b) => out.smooth[a]! - out.smooth[b]! || a - b);
@@ -88,7 +89,8 @@ describe('sampleDeep around a period-427 minibrot at span 3e-320 (rescaled itera
   });
 
   it('skipping keeps every period and escape count within 1 iteration on 2% of pixels, and skips most iterations', () => {
-    let changed = 0, worst = 0;
+    let changed = 0,
+      worst = 0;
     for (let k = 0; k < SIZE * SIZE; k++) {
       if (out.period[k] === PERIOD_ESCAPED && skipped.period[k] === PERIOD_ESCAPED) {
         const d = Math.abs(Math.ceil(out.smooth[k]!) - Math.ceil(skipped.smooth[k]!));

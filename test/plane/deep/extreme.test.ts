@@ -34,7 +34,10 @@ describe.each(CASES)('sampleDeep at span $span near c = i', ({ span, unit, digit
 
   it('gives the escape counts, smooth counts and distances (in units of 2^unit) of direct decimal.js iteration on sampled pixels', () => {
     const u = new D(2).pow(unit);
-    let checked = 0, mismatched = 0, smoothErr = 0, distErr = 0;
+    let checked = 0,
+      mismatched = 0,
+      smoothErr = 0,
+      distErr = 0;
     for (let k = 0; k < size * size; k += stride) {
       const cr = exactDouble(D, off.re[k]!).times(u);
       const ci = new D(1).plus(exactDouble(D, off.im[k]!).times(u));
@@ -56,7 +59,8 @@ describe.each(CASES)('sampleDeep at span $span near c = i', ({ span, unit, digit
   });
 
   it('keeps every escape count with skipping on (tolerance: 1 iteration on 1% of pixels) and skips iterations', () => {
-    let changed = 0, worst = 0;
+    let changed = 0,
+      worst = 0;
     for (let k = 0; k < size * size; k++) {
       expect(skipped.period[k]).toBe(plain.period[k]);
       const d = Math.abs(Math.ceil(skipped.smooth[k]!) - Math.ceil(plain.smooth[k]!));

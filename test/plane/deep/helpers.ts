@@ -73,7 +73,10 @@ export function decimalEscapeDistance(
     if (n2.gt(r2)) {
       const mu = n - Math.log2(n2.ln().div(2).toNumber() / Math.log(escapeRadius));
       if (!withDistance) return { n, mu };
-      const distance = n2.sqrt().times(n2.ln()).div(dx.times(dx).plus(dy.times(dy)).sqrt());
+      const distance = n2
+        .sqrt()
+        .times(n2.ln())
+        .div(dx.times(dx).plus(dy.times(dy)).sqrt());
       return { n, mu, distance };
     }
   }
@@ -86,14 +89,7 @@ export function decimalEscapeDistance(
  * pixel (i, j) is at x = (i + 0.5)/size - 0.5, y = 0.5 - (j + 0.5)/size
  * (j grows downwards, imaginary part upwards), row-major.
  */
-export function gridOffsets(
-  D: typeof Decimal,
-  viewMinusRefRe: Dec,
-  viewMinusRefIm: Dec,
-  span: Dec,
-  size: number,
-  unitExponent: number,
-): { re: Float64Array; im: Float64Array } {
+export function gridOffsets(D: typeof Decimal, viewMinusRefRe: Dec, viewMinusRefIm: Dec, span: Dec, size: number, unitExponent: number): { re: Float64Array; im: Float64Array } {
   const re = new Float64Array(size * size);
   const im = new Float64Array(size * size);
   const unit = new D(2).pow(unitExponent);
@@ -140,7 +136,10 @@ export function decimalNucleus(D: typeof Decimal, period: number, gr: Dec, gi: D
   let cr = gr;
   let ci = gi;
   for (let s = 0; s < steps; s++) {
-    let x = new D(0), y = new D(0), dx = new D(0), dy = new D(0);
+    let x = new D(0),
+      y = new D(0),
+      dx = new D(0),
+      dy = new D(0);
     for (let n = 0; n < period; n++) {
       const ndx = x.times(dx).minus(y.times(dy)).times(2).plus(1);
       dy = x.times(dy).plus(y.times(dx)).times(2);
@@ -166,10 +165,15 @@ export function decimalNucleus(D: typeof Decimal, period: number, gr: Dec, gi: D
  * steps, stopping once a step is below 10^-stopDigits.
  */
 export function decimalMultiplier(D: typeof Decimal, cr: Dec, ci: Dec, p: number, steps: number, stopDigits: number): [number, number] {
-  let wr = new D(0), wi = new D(0);
-  let lr = new D(0), li = new D(0);
+  let wr = new D(0),
+    wi = new D(0);
+  let lr = new D(0),
+    li = new D(0);
   for (let s = 0; s < steps; s++) {
-    let x = wr, y = wi, dr = new D(1), di = new D(0);
+    let x = wr,
+      y = wi,
+      dr = new D(1),
+      di = new D(0);
     for (let n = 0; n < p; n++) {
       const ndr = x.times(dr).minus(y.times(di)).times(2);
       di = x.times(di).plus(y.times(dr)).times(2);
@@ -181,8 +185,10 @@ export function decimalMultiplier(D: typeof Decimal, cr: Dec, ci: Dec, p: number
     lr = dr;
     li = di;
     // w <- w - (F(w) - w) / (D - 1)
-    const fr = x.minus(wr), fi = y.minus(wi);
-    const gr = dr.minus(1), gi = di;
+    const fr = x.minus(wr),
+      fi = y.minus(wi);
+    const gr = dr.minus(1),
+      gi = di;
     const g2 = gr.times(gr).plus(gi.times(gi));
     const sr = fr.times(gr).plus(fi.times(gi)).div(g2);
     const si = fi.times(gr).minus(fr.times(gi)).div(g2);
@@ -198,7 +204,10 @@ export function decimalMultiplier(D: typeof Decimal, cr: Dec, ci: Dec, p: number
  * nucleus of period p at c (docs/methods.md C2); tiny when c is a nucleus.
  */
 export function decimalNucleusStep(D: typeof Decimal, re: string, im: string, period: number): Dec {
-  let x = new D(0), y = new D(0), dx = new D(0), dy = new D(0);
+  let x = new D(0),
+    y = new D(0),
+    dx = new D(0),
+    dy = new D(0);
   for (let n = 0; n < period; n++) {
     const ndx = x.times(dx).minus(y.times(dy)).times(2).plus(1);
     dy = x.times(dy).plus(y.times(dx)).times(2);
@@ -207,5 +216,9 @@ export function decimalNucleusStep(D: typeof Decimal, re: string, im: string, pe
     y = x.times(y).times(2).plus(im);
     x = nx;
   }
-  return x.times(x).plus(y.times(y)).div(dx.times(dx).plus(dy.times(dy))).sqrt();
+  return x
+    .times(x)
+    .plus(y.times(y))
+    .div(dx.times(dx).plus(dy.times(dy)))
+    .sqrt();
 }

@@ -61,7 +61,9 @@ describe('sampleDeep around a period-79 minibrot at span 2.4e-58 (periodic refer
   });
 
   it('matches decimal.js escape counts on sampled exterior pixels and leaves few undecided', () => {
-    let checked = 0, mismatched = 0, undecided = 0;
+    let checked = 0,
+      mismatched = 0,
+      undecided = 0;
     for (let k = 0; k < SIZE * SIZE; k++) if (out.period[k] === PERIOD_UNDECIDED) undecided++;
     for (let k = 3; k < SIZE * SIZE; k += 23) {
       if (out.period[k] !== PERIOD_ESCAPED) continue;
@@ -80,7 +82,8 @@ describe('sampleDeep around a period-79 minibrot at span 2.4e-58 (periodic refer
     const skipped = createSampleSet(SIZE * SIZE);
     const s2 = createDeepStats();
     sampleDeep(orbit, buildBlaTable(orbit, 0, new D(SPAN).toNumber()), off.re, off.im, SIZE * SIZE, settings, skipped, s2);
-    let changed = 0, worst = 0;
+    let changed = 0,
+      worst = 0;
     for (let k = 0; k < SIZE * SIZE; k++) {
       if (out.period[k] === PERIOD_ESCAPED && skipped.period[k] === PERIOD_ESCAPED) {
         const d = Math.abs(Math.ceil(out.smooth[k]!) - Math.ceil(skipped.smooth[k]!));
@@ -105,11 +108,14 @@ describe('sampleDeep with a tile unit of 2^-1000 on the same view', () => {
     const sa = createDeepStats();
     sampleDeep(orbit, null, off.re, off.im, SIZE * SIZE, settings, a, sa);
     const scale = 2 ** 1000;
-    const re = off.re.map((x) => x * scale), im = off.im.map((y) => y * scale);
+    const re = off.re.map((x) => x * scale),
+      im = off.im.map((y) => y * scale);
     const b = createSampleSet(SIZE * SIZE);
     const sb = createDeepStats();
     sampleDeep(orbit, null, re, im, SIZE * SIZE, { ...settings, unitExponent: -1000 }, b, sb);
-    let interior = 0, worst = 0, periods = 0;
+    let interior = 0,
+      worst = 0,
+      periods = 0;
     for (let k = 0; k < SIZE * SIZE; k++) {
       expect(b.period[k]).toBe(a.period[k]);
       expect(b.smooth[k]).toBe(a.smooth[k]);

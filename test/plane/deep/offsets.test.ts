@@ -9,7 +9,8 @@ describe('fillDeepOffsets', () => {
     fillDeepOffsets(g, 0, 0, 8, 8, whole.re, whole.im);
     for (let ty = 0; ty < 8; ty += 2) {
       for (let tx = 0; tx < 8; tx += 2) {
-        const re = new Float64Array(4), im = new Float64Array(4);
+        const re = new Float64Array(4),
+          im = new Float64Array(4);
         fillDeepOffsets(g, tx, ty, 2, 2, re, im);
         for (let j = 0; j < 2; j++) {
           for (let i = 0; i < 2; i++) {
@@ -22,7 +23,8 @@ describe('fillDeepOffsets', () => {
   });
 
   it('follows origin + i stepX + j stepY (exact in binary fractions) and returns the largest component', () => {
-    const re = new Float64Array(6), im = new Float64Array(6);
+    const re = new Float64Array(6),
+      im = new Float64Array(6);
     const max = fillDeepOffsets(g, 1, 2, 3, 2, re, im);
     // pixel (x, y) = (2, 3) sits at k = 1 * 3 + 1
     expect(re[4]).toBe(-3.5 + 2 * 0.5 + 3 * 0.125);

@@ -21,19 +21,27 @@ describe('sampleDeep against the shallow kernel (span 0.1, double offsets)', () 
     const cr = off.re.map((x) => -1.3 + x);
     const ci = off.im.map((y) => 0.05 + y);
     // the shallow kernel samples c = C + offset rounded to double; give the deep kernel the same points
-    const dr = new Float64Array(size * size), di = new Float64Array(size * size);
+    const dr = new Float64Array(size * size),
+      di = new Float64Array(size * size);
     for (let k = 0; k < size * size; k++) {
       dr[k] = new D(exactDouble(D, cr[k]!)).minus('-1.3').toNumber();
       di[k] = new D(exactDouble(D, ci[k]!)).minus('0.05').toNumber();
     }
     const shallow = createSampleSet(size * size);
-    sampleParameters(cr, ci, size * size, { maxIterations: 4000, escapeRadius: R, periodTolerance: 1e-3 * 0.1 / size }, shallow);
+    sampleParameters(cr, ci, size * size, { maxIterations: 4000, escapeRadius: R, periodTolerance: (1e-3 * 0.1) / size }, shallow);
     const deep = createSampleSet(size * size);
     sampleDeep(orbit, null, dr, di, size * size, { maxIterations: 4000, escapeRadius: R, unitExponent: 0 }, deep, createDeepStats());
-    let escapedBoth = 0, countDiff = 0, interiorBoth = 0, periodDiff = 0, classDiff = 0;
-    let smoothErr = 0, distErr = 0, mulErr = 0;
+    let escapedBoth = 0,
+      countDiff = 0,
+      interiorBoth = 0,
+      periodDiff = 0,
+      classDiff = 0;
+    let smoothErr = 0,
+      distErr = 0,
+      mulErr = 0;
     for (let k = 0; k < size * size; k++) {
-      const a = shallow.period[k]!, b = deep.period[k]!;
+      const a = shallow.period[k]!,
+        b = deep.period[k]!;
       if (a === PERIOD_ESCAPED && b === PERIOD_ESCAPED) {
         escapedBoth++;
         if (Math.ceil(shallow.smooth[k]!) !== Math.ceil(deep.smooth[k]!)) countDiff++;
@@ -75,7 +83,9 @@ function compareWithDecimal(
   stride: number,
 ): { checked: number; mismatched: number; smoothErr: number } {
   const unit = new D(2).pow(unitExponent);
-  let checked = 0, mismatched = 0, smoothErr = 0;
+  let checked = 0,
+    mismatched = 0,
+    smoothErr = 0;
   for (let k = 0; k < off.re.length; k += stride) {
     const cr = refRe.plus(exactDouble(D, off.re[k]!).times(unit));
     const ci = refIm.plus(exactDouble(D, off.im[k]!).times(unit));

@@ -24,16 +24,19 @@ describe('sampleDeep at span ~1e-1000 near c = i, by self-similarity with span 1
     const span = new D('1e-60');
     const off1 = gridOffsets(D, span.times(0.1), span.times(0.37), span, size, 0);
     // rho^k as an exact complex decimal
-    let pr = new D(1), pi = new D(0);
+    let pr = new D(1),
+      pi = new D(0);
     for (let j = 0; j < K; j++) [pr, pi] = [pr.minus(pi).times(4), pr.plus(pi).times(4)];
     const p2 = pr.times(pr).plus(pi.times(pi));
     const UNIT = -3400; // 2^-3400 ~ 1e-1023
     const unit = new D(2).pow(UNIT);
     const n = size * size;
-    const re2 = new Float64Array(n), im2 = new Float64Array(n);
+    const re2 = new Float64Array(n),
+      im2 = new Float64Array(n);
     let deltaMax = 0;
     for (let k = 0; k < n; k++) {
-      const a = exactDouble(D, off1.re[k]!), b = exactDouble(D, off1.im[k]!);
+      const a = exactDouble(D, off1.re[k]!),
+        b = exactDouble(D, off1.im[k]!);
       // (a + ib) / (pr + i pi)
       re2[k] = a.times(pr).plus(b.times(pi)).div(p2).div(unit).toNumber();
       im2[k] = b.times(pr).minus(a.times(pi)).div(p2).div(unit).toNumber();
@@ -52,7 +55,8 @@ describe('sampleDeep at span ~1e-1000 near c = i, by self-similarity with span 1
       const deep = createSampleSet(n);
       const stats = createDeepStats();
       sampleDeep(orbit2, bla, re2, im2, n, settings2, deep, stats);
-      let mismatched = 0, smoothErr = 0;
+      let mismatched = 0,
+        smoothErr = 0;
       for (let k = 0; k < n; k++) {
         expect(shallow.period[k]).toBe(PERIOD_ESCAPED);
         expect(deep.period[k]).toBe(PERIOD_ESCAPED);

@@ -142,13 +142,17 @@ describe('Feigenbaum constants of order 2 from the fixed point', () => {
     expect(ours.delta.slice(0, DELTA_OEIS.length)).toBe(DELTA_OEIS);
   });
 
-  it.runIf(requireInCi(haveMpmath, 'python3-mpmath'))(`alpha and delta match an independent mpmath power-series computation to ${digits} places`, () => {
-    // mpmath reference: power series and Gauss-Legendre points, 44 terms give about 60 digits, 75 about 105 (measured).
-    const ref = mpmathConstants(2, CI ? 75 : 44, digits, '4.67');
-    expect(agreesTo(ref.alpha, ALPHA_OEIS, 39)).toBe(true);
-    expect(agreesTo(ours.alpha, ref.alpha, digits)).toBe(true);
-    expect(agreesTo(ours.delta, ref.delta, digits)).toBe(true);
-  }, 240_000);
+  it.runIf(requireInCi(haveMpmath, 'python3-mpmath'))(
+    `alpha and delta match an independent mpmath power-series computation to ${digits} places`,
+    () => {
+      // mpmath reference: power series and Gauss-Legendre points, 44 terms give about 60 digits, 75 about 105 (measured).
+      const ref = mpmathConstants(2, CI ? 75 : 44, digits, '4.67');
+      expect(agreesTo(ref.alpha, ALPHA_OEIS, 39)).toBe(true);
+      expect(agreesTo(ours.alpha, ref.alpha, digits)).toBe(true);
+      expect(agreesTo(ours.delta, ref.delta, digits)).toBe(true);
+    },
+    240_000,
+  );
 });
 
 describe('Feigenbaum constants of order 4 from the fixed point', () => {
@@ -220,7 +224,11 @@ describe('fixedPointDefect of the returned g', () => {
     return [...mids, ...grid];
   }
 
-  for (const [order, digits] of [[2, 100], [4, 50], [6, 50]] as const) {
+  for (const [order, digits] of [
+    [2, 100],
+    [4, 50],
+    [6, 50],
+  ] as const) {
     it(`solveFixedPoint(order ${order}) for ${digits} digits leaves s g(x) - g(g(s x)) below 10^-${digits + 2} off the collocation points`, () => {
       const plan = constantsPlan(order, digits);
       const sol = solveFixedPoint(order, plan.terms[0], plan.bits);

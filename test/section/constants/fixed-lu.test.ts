@@ -37,6 +37,14 @@ describe('luFactor and luSolve', () => {
 
   it('luFactor refuses a singular matrix', () => {
     const one = 1n << 64n;
-    expect(() => luFactor([[one, 2n * one], [2n * one, 4n * one]], 64)).toThrow(RangeError);
+    expect(() =>
+      luFactor(
+        [
+          [one, 2n * one],
+          [2n * one, 4n * one],
+        ],
+        64,
+      ),
+    ).toThrow(RangeError);
   });
 });
