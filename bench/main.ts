@@ -16,6 +16,7 @@ import { sliceSection } from './slice-section.js';
 import { constantsSection } from './constants-section.js';
 import { certifySection } from './certify-section.js';
 import { juliaSection } from './julia-section.js';
+import { pipelineSection } from './pipeline-section.js';
 
 /**
  * The section registry, run in this order.
@@ -25,6 +26,7 @@ import { juliaSection } from './julia-section.js';
  */
 export const SECTIONS: readonly BenchSection[] = [
   kernelSection,
+  pipelineSection,
   plateSection,
   juliaSection,
   deepSection,
