@@ -7,7 +7,7 @@ import path from 'node:path';
 import { fileURLToPath } from 'node:url';
 import type { BenchRow, BenchSection } from './bench-section.js';
 import { kernelSection } from './kernel-section.js';
-import { plateSection } from './plate-section.js';
+import { plateSection, posterSection } from './plate-section.js';
 import { deepSection } from './deep-section.js';
 import { deepAutoSection } from './deep-auto-section.js';
 import { pyramidSection } from './pyramid-section.js';
@@ -28,6 +28,7 @@ export const SECTIONS: readonly BenchSection[] = [
   kernelSection,
   pipelineSection,
   plateSection,
+  posterSection,
   juliaSection,
   deepSection,
   deepAutoSection,
