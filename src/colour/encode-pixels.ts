@@ -90,13 +90,42 @@ function encode16(linear: Float64Array, n: number, out: Uint16Array): void {
     let q: number;
     if (v > POWER_FROM && v < 0.999) {
       const e = srgbEstimate(v) * max;
-      const lo = Math.round(e - slack);
-      q = lo === Math.round(e + slack) ? lo : Math.round(linearToSrgb(v) * max);
+      q = certainRound(e, slack);
+      if (q < 0) q = Math.round(linearToSrgb(v) * max);
     } else {
       q = v >= 1 ? max : v > 0 ? Math.round(linearToSrgb(v) * max) : 0;
     }
     out[p] = q < 0 ? 0 : q > max ? max : q;
   }
+}
+
+/**
+ * mix32 with the result left as a signed int32 (the same 32 bits), so the
+ * caller's bit operations stay in integers.
+ */
+function mixBits(x: number): number {
+  x ^= x >>> 16;
+  x = Math.imul(x, 0x7feb352d);
+  x ^= x >>> 15;
+  x = Math.imul(x, 0x846ca68b);
+  x ^= x >>> 16;
+  return x | 0;
+}
+
+/**
+ * Math.round of every value in [e - slack, e + slack] when they all round to
+ * one integer, else -1 (then the caller decides with the exact curve).
+ * floor(x + 0.5) equals Math.round(x) for every double x >= 0.5 (x + 0.5
+ * either is exact or stays in x's binade without reaching an integer), so
+ * the faster floor is used there; below 0.5 the answer is left to the caller.
+ * The dither's difference of uniforms, (a + 1/2)/2^16 - (b + 1/2)/2^16, is
+ * computed as (a - b)/2^16: both are exact, so they are the same double.
+ */
+function certainRound(e: number, slack: number): number {
+  const lo = e - slack;
+  if (!(lo >= 0.5)) return -1;
+  const q = Math.floor(lo + 0.5);
+  return q === Math.floor(e + slack + 0.5) ? q : -1;
 }
 
 /** Per-column halves of ditherAt for one call: mix32(mix32(ch + K) ^ x) for each (x, ch), filled on demand. */
@@ -125,11 +154,11 @@ function encode8(linear: Float64Array, width: number, rows: number, x0: number, 
       let q: number;
       if (v > POWER_FROM && v < 0.999) {
         // The power segment, away from white: the table decides unless the rounding is in doubt.
-        const h = mix32(seeds[c]! ^ y);
-        const shift = ((h & 0xffff) + 0.5) / 65536 - ((h >>> 16) + 0.5) / 65536;
+        const h = mixBits(seeds[c]! ^ y);
+        const shift = ((h & 0xffff) - (h >>> 16)) * (1 / 65536);
         const e = srgbEstimate(v) * max + shift;
-        const lo = Math.round(e - slack);
-        q = lo === Math.round(e + slack) ? lo : Math.round(linearToSrgb(v) * max + shift);
+        q = certainRound(e, slack);
+        if (q < 0) q = Math.round(linearToSrgb(v) * max + shift);
       } else if (v >= 1) {
         // v >= 1 maps to max exactly (1.055 - 0.055 rounds just below 1 in doubles); white stays undithered.
         q = max;
@@ -137,8 +166,8 @@ function encode8(linear: Float64Array, width: number, rows: number, x0: number, 
         const e = linearToSrgb(v) * max;
         if (e >= max) q = max;
         else {
-          const h = mix32(seeds[c]! ^ y);
-          q = Math.round(e + (((h & 0xffff) + 0.5) / 65536 - ((h >>> 16) + 0.5) / 65536));
+          const h = mixBits(seeds[c]! ^ y);
+          q = Math.round(e + ((h & 0xffff) - (h >>> 16)) * (1 / 65536));
         }
       } else {
         // Exact black (and NaN) stays exact, so print blacks are clean.

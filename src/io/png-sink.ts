@@ -27,6 +27,11 @@ export interface PngSinkOptions {
   iccProfile?: Uint8Array;
 }
 
+/** The filter (undefined: the per-row heuristic), zlib level and strategy plates use at a depth (docs/methods.md F5). */
+export function pngCompression(depth: 8 | 16): { filter: 4 | undefined; level: number; strategy: number } {
+  return depth === 8 ? { filter: 4, level: 6, strategy: constants.Z_RLE } : { filter: undefined, level: 6, strategy: constants.Z_DEFAULT_STRATEGY };
+}
+
 /**
  * Opens a streaming PNG encoder (PNG spec, W3C 2nd ed. / ISO 15948) writing
  * `spec` to `path`; see RasterSink for the band protocol.
@@ -115,9 +120,10 @@ export async function openPngSink(path: string, spec: RasterSpec, options: PngSi
   } catch (err) {
     return fail(err);
   }
-  const filter = options.filter ?? (depth === 8 ? 4 : undefined);
-  const strategy = options.strategy ?? (depth === 8 ? constants.Z_RLE : constants.Z_DEFAULT_STRATEGY);
-  deflate = createDeflate({ level: options.compressionLevel ?? 6, strategy });
+  const chosen = pngCompression(depth);
+  const filter = options.filter ?? chosen.filter;
+  const strategy = options.strategy ?? chosen.strategy;
+  deflate = createDeflate({ level: options.compressionLevel ?? chosen.level, strategy });
   deflate.on('data', (chunk: Buffer) => {
     pending.push(chunk);
     pendingBytes += chunk.length;
