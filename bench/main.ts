@@ -7,7 +7,7 @@ import path from 'node:path';
 import { fileURLToPath } from 'node:url';
 import type { BenchRow, BenchSection } from './bench-section.js';
 import { kernelSection } from './kernel-section.js';
-import { plateSection } from './plate-section.js';
+import { plateSection, posterSection } from './plate-section.js';
 import { deepSection } from './deep-section.js';
 import { deepAutoSection } from './deep-auto-section.js';
 import { pyramidSection } from './pyramid-section.js';
@@ -16,6 +16,7 @@ import { sliceSection } from './slice-section.js';
 import { constantsSection } from './constants-section.js';
 import { certifySection } from './certify-section.js';
 import { juliaSection } from './julia-section.js';
+import { pipelineSection } from './pipeline-section.js';
 
 /**
  * The section registry, run in this order.
@@ -25,7 +26,9 @@ import { juliaSection } from './julia-section.js';
  */
 export const SECTIONS: readonly BenchSection[] = [
   kernelSection,
+  pipelineSection,
   plateSection,
+  posterSection,
   juliaSection,
   deepSection,
   deepAutoSection,

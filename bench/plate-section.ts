@@ -1,63 +1,162 @@
 /**
- * Renderer benchmarks, run through the built command line as a user would:
- * the speed-up of one plate from 1 worker to all workers, and the wall time
- * and peak memory of a full-set plate at 4000 x 4000 with 4 samples per pixel.
+ * Renderer benchmarks, run through the built command line as a user would.
+ * Every figure is the plate's own time from job start to the final rename
+ * (the summary's `seconds`), median of RUNS runs with min and max; process
+ * start (Node, module loading, worker start-up) is the rest of the wall time
+ * and is reported separately.
+ *
+ * - 2-worker speed-up (1 worker against 2, same plate, same run) on the
+ *   1600x1600 whole-set plate (3000 iterations, 1 sample), the 4000x4000
+ *   whole-set plate at 4 samples, and the A3 poster preset;
+ * - the A3 poster against the previous commit built beside this one, when
+ *   QUADATLAS_BENCH_BASE names that checkout (built: its dist/ present),
+ *   for example `git worktree add ../base HEAD~1 && (cd ../base && npm ci && npm run build)`.
  */
 import { spawnSync } from 'node:child_process';
-import { mkdtempSync, rmSync } from 'node:fs';
+import { existsSync, mkdtempSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
 import os from 'node:os';
 import path from 'node:path';
 import type { BenchContext, BenchRow, BenchSection } from './bench-section.js';
 
+const RUNS = 3;
+
 interface Summary {
   seconds: number;
   peakMemoryMiB: number;
-  kernelSamples: number;
   pixels: { refined: number; total: number };
 }
 
-function plate(root: string, args: readonly string[]): Summary {
+interface Timed {
+  plate: number;
+  wall: number;
+  peakMiB: number;
+  refined: number;
+}
+
+function run(root: string, args: readonly string[]): Timed {
   const dir = mkdtempSync(path.join(os.tmpdir(), 'quadatlas-bench-'));
   try {
     const cli = path.join(root, 'dist/src/cli/main.js');
-    const r = spawnSync(process.execPath, [cli, 'plate', ...args, '--out', path.join(dir, 'p.png'), '--no-sidecar', '--json'], { encoding: 'utf8' });
-    if (r.status !== 0) throw new Error(`plate failed: ${r.stderr}`);
-    return JSON.parse(r.stdout) as Summary;
+    const t0 = process.hrtime.bigint();
+    const r = spawnSync(process.execPath, [cli, ...args.map((a) => a.replace('{dir}', dir))], { encoding: 'utf8', maxBuffer: 64 * 1024 * 1024 });
+    const wall = Number(process.hrtime.bigint() - t0) / 1e9;
+    if (r.status !== 0) throw new Error(`${args.join(' ')} failed: ${r.stderr}`);
+    const s = JSON.parse(r.stdout) as Summary;
+    return { plate: s.seconds, wall, peakMiB: s.peakMemoryMiB, refined: (100 * s.pixels.refined) / s.pixels.total };
   } finally {
     rmSync(dir, { recursive: true, force: true });
   }
 }
 
-const WHOLE = ['--center', '-0.75,0', '--span', '3', '--iterations', '2000'];
+interface Spread {
+  median: number;
+  min: number;
+  max: number;
+}
+
+function spread(values: number[]): Spread {
+  const s = [...values].sort((a, b) => a - b);
+  return { median: s[Math.floor(s.length / 2)]!, min: s[0]!, max: s[s.length - 1]! };
+}
+
+function plateArgs(args: readonly string[]): string[] {
+  return ['plate', ...args, '--out', '{dir}/p.png', '--no-sidecar', '--json'];
+}
+
+/** The A3 poster preset rendered from its sheet file (a sidecar holding the sheet), into the run's folder. */
+function posterArgs(sheetFile: string): string[] {
+  return ['plate', '--again', sheetFile, '--out', '{dir}/poster.tif', '--no-sidecar', '--json'];
+}
+
+function row(label: string, runs: Timed[], extra: Record<string, number | string> = {}): BenchRow {
+  const p = spread(runs.map((r) => r.plate));
+  const start = spread(runs.map((r) => r.wall - r.plate));
+  return {
+    label,
+    figures: {
+      seconds: p.median,
+      min: p.min,
+      max: p.max,
+      'start s': start.median,
+      'peak MiB': Math.max(...runs.map((r) => r.peakMiB)),
+      ...extra,
+    },
+  };
+}
+
+/** Runs `args` RUNS times with 1 worker and RUNS times with 2, interleaved, and returns the two rows. */
+function speedUp(root: string, name: string, args: string[]): BenchRow[] {
+  const one: Timed[] = [];
+  const two: Timed[] = [];
+  for (let k = 0; k < RUNS; k++) {
+    one.push(run(root, [...args, '--workers', '1']));
+    two.push(run(root, [...args, '--workers', '2']));
+  }
+  const ratio = spread(one.map((o, k) => o.plate / two[k]!.plate));
+  return [
+    row(`${name}, 1 worker`, one),
+    row(`${name}, 2 workers`, two, { 'speed-up': ratio.median, 'speed-up min': ratio.min, 'speed-up max': ratio.max, 'refined %': two[0]!.refined }),
+  ];
+}
 
 export const plateSection: BenchSection = {
   name: 'plate',
-  title: 'plates through the CLI: worker speed-up, and a 4000x4000 full-set plate at 4 samples',
+  title: 'plates through the CLI: 2-worker speed-up (job start to final rename, median of 3 with min and max)',
   run(context: BenchContext): BenchRow[] {
-    const cores = os.availableParallelism();
-    const light = [...WHOLE, '--size', '1600x1200', '--samples', '4'];
-    // A print-like plate where rendering dominates: the spiral inlet preset's view, 9 samples, 6000 iterations.
-    const heavy = ['--center', '-0.7453,0.1127', '--span', '0.0065', '--iterations', '6000', '--size', '1600x1200', '--samples', '9'];
-    plate(context.root, [...WHOLE, '--size', '200x150', '--samples', '1']); // warm-up (disk cache, JIT of the CLI)
+    const root = context.root;
+    const whole = ['--center', '-0.75,0', '--span', '3'];
+    run(root, plateArgs([...whole, '--size', '200x150', '--iterations', '500'])); // warm-up (disk cache)
     const rows: BenchRow[] = [];
-    for (const [name, args] of [
-      ['whole set 1600x1200, 4 samples, 2000 it.', light],
-      ['spiral inlet 1600x1200, 9 samples, 6000 it.', heavy],
-    ] as const) {
-      const one = plate(context.root, [...args, '--workers', '1']);
-      const all = plate(context.root, [...args, '--workers', String(cores)]);
-      rows.push({ label: `${name}, 1 worker`, figures: { seconds: one.seconds, 'peak MiB': one.peakMemoryMiB, 'speed-up': 1 } });
-      rows.push({ label: `${name}, ${cores} workers`, figures: { seconds: all.seconds, 'peak MiB': all.peakMemoryMiB, 'speed-up': one.seconds / all.seconds } });
-    }
-    const big = plate(context.root, [...WHOLE, '--size', '4000x4000', '--samples', '4']);
-    rows.push({
-      label: `4000x4000 full set, 4 samples, ${cores} workers`,
-      figures: { seconds: big.seconds, 'peak MiB': big.peakMemoryMiB, 'refined %': (100 * big.pixels.refined) / big.pixels.total },
-    });
-    context.note(
-      `speed-up = wall time with 1 worker / wall time with ${cores} workers, same plate, one run each; a fixed ~0.5 s (start-up, per-worker warm-up, the last strip's encoding) weighs on short plates`,
-    );
+    rows.push(...speedUp(root, 'whole set 1600x1600, 3000 it., 1 sample', plateArgs([...whole, '--size', '1600x1600', '--iterations', '3000', '--samples', '1'])));
+    rows.push(...speedUp(root, 'whole set 4000x4000, 2000 it., 4 samples', plateArgs([...whole, '--size', '4000x4000', '--iterations', '2000', '--samples', '4'])));
+    context.note('speed-up = plate seconds with 1 worker / with 2 workers, paired runs; "start s" = wall time of the process minus the plate time');
     context.note('peak memory is the maxRSS of the whole process (main thread and all workers)');
     return rows;
+  },
+};
+
+/** The A3 poster preset (4961x3508, 16 samples, 4000 it., 16-bit TIFF): speed-up, and the previous commit beside this one. */
+export const posterSection: BenchSection = {
+  name: 'poster',
+  title: 'the A3 poster preset: 2-worker speed-up, and this commit against the previous one built beside it',
+  run(context: BenchContext): BenchRow[] {
+    const root = context.root;
+    const dir = mkdtempSync(path.join(os.tmpdir(), 'quadatlas-bench-sheet-'));
+    try {
+      const sheetFile = path.join(dir, 'poster.tif.json');
+      const show = spawnSync(process.execPath, [path.join(root, 'dist/src/cli/main.js'), 'presets', 'show', 'edges-poster-a3'], { encoding: 'utf8' });
+      if (show.status !== 0) throw new Error(`presets show failed: ${show.stderr}`);
+      writeFileSync(
+        sheetFile,
+        JSON.stringify({
+          metadata: {
+            tool: 'quadatlas',
+            version: (JSON.parse(readFileSync(path.join(root, 'package.json'), 'utf8')) as { version: string }).version,
+            sheet: JSON.parse(show.stdout) as unknown,
+          },
+        }),
+      );
+      const args = posterArgs(sheetFile);
+      const rows = speedUp(root, 'A3 poster', args);
+      const base = process.env['QUADATLAS_BENCH_BASE'];
+      if (base !== undefined && existsSync(path.join(base, 'dist/src/cli/main.js'))) {
+        const before: Timed[] = [];
+        const after: Timed[] = [];
+        for (let k = 0; k < RUNS; k++) {
+          before.push(run(base, [...args, '--workers', '2']));
+          after.push(run(root, [...args, '--workers', '2']));
+        }
+        const ratio = spread(before.map((b, k) => b.plate / after[k]!.plate));
+        const commit = readFileSync(path.join(base, '.git'), 'utf8').trim();
+        rows.push(row('A3 poster, previous commit, 2 workers', before));
+        rows.push(row('A3 poster, this commit, 2 workers', after, { faster: ratio.median, 'faster min': ratio.min, 'faster max': ratio.max }));
+        context.note(`previous commit: the checkout at ${base} (${commit.startsWith('gitdir') ? 'a worktree' : 'a clone'}); faster = its plate seconds / ours, paired runs`);
+      } else {
+        context.note('QUADATLAS_BENCH_BASE unset (or not built): the comparison with the previous commit was skipped');
+      }
+      return rows;
+    } finally {
+      rmSync(dir, { recursive: true, force: true });
+    }
   },
 };

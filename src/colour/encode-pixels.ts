@@ -77,32 +77,103 @@ export function srgbEstimate(v: number): number {
  * (linearToSrgb) channel for channel; the table above only saves time.
  */
 export function encodePixels(linear: Float64Array, width: number, rows: number, x0: number, y0: number, depth: 8 | 16, out: Uint8Array | Uint16Array): void {
-  const max = depth === 16 ? 65535 : 255;
+  if (depth === 16) encode16(linear, width * rows * 3, out as Uint16Array);
+  else encode8(linear, width, rows, x0, y0, out as Uint8Array);
+}
+
+/** Depth 16: round to nearest, no dither. */
+function encode16(linear: Float64Array, n: number, out: Uint16Array): void {
+  const max = 65535;
   const slack = TABLE_ERROR * max;
+  for (let p = 0; p < n; p++) {
+    const v = linear[p]!;
+    let q: number;
+    if (v > POWER_FROM && v < 0.999) {
+      const e = srgbEstimate(v) * max;
+      q = certainRound(e, slack);
+      if (q < 0) q = Math.round(linearToSrgb(v) * max);
+    } else {
+      q = v >= 1 ? max : v > 0 ? Math.round(linearToSrgb(v) * max) : 0;
+    }
+    out[p] = q < 0 ? 0 : q > max ? max : q;
+  }
+}
+
+/**
+ * mix32 with the result left as a signed int32 (the same 32 bits), so the
+ * caller's bit operations stay in integers.
+ */
+function mixBits(x: number): number {
+  x ^= x >>> 16;
+  x = Math.imul(x, 0x7feb352d);
+  x ^= x >>> 15;
+  x = Math.imul(x, 0x846ca68b);
+  x ^= x >>> 16;
+  return x | 0;
+}
+
+/**
+ * Math.round of every value in [e - slack, e + slack] when they all round to
+ * one integer, else -1 (then the caller decides with the exact curve).
+ * floor(x + 0.5) equals Math.round(x) for every double x >= 0.5 (x + 0.5
+ * either is exact or stays in x's binade without reaching an integer), so
+ * the faster floor is used there; below 0.5 the answer is left to the caller.
+ * The dither's difference of uniforms, (a + 1/2)/2^16 - (b + 1/2)/2^16, is
+ * computed as (a - b)/2^16: both are exact, so they are the same double.
+ */
+function certainRound(e: number, slack: number): number {
+  const lo = e - slack;
+  if (!(lo >= 0.5)) return -1;
+  const q = Math.floor(lo + 0.5);
+  return q === Math.floor(e + slack + 0.5) ? q : -1;
+}
+
+/** Per-column halves of ditherAt for one call: mix32(mix32(ch + K) ^ x) for each (x, ch), filled on demand. */
+let columnSeeds = new Uint32Array(0);
+
+/**
+ * Depth 8 with TPDF dither. ditherAt(x, y, ch) is mix32(s(x, ch) ^ y) with
+ * s(x, ch) = mix32(mix32(ch + K) ^ x), so s is computed once per column and
+ * channel, and each channel costs one mix32; the values are ditherAt's.
+ */
+function encode8(linear: Float64Array, width: number, rows: number, x0: number, y0: number, out: Uint8Array): void {
+  const max = 255;
+  const slack = TABLE_ERROR * max;
+  if (columnSeeds.length < width * 3) columnSeeds = new Uint32Array(width * 3);
+  const seeds = columnSeeds;
+  for (let ch = 0; ch < 3; ch++) {
+    const base = mix32(ch + 0x9e3779b9);
+    for (let i = 0; i < width; i++) seeds[3 * i + ch] = mix32(base ^ (x0 + i));
+  }
   for (let j = 0; j < rows; j++) {
     const y = y0 + j;
-    for (let i = 0; i < width; i++) {
-      const x = x0 + i;
-      const p = 3 * (j * width + i);
-      for (let ch = 0; ch < 3; ch++) {
-        const v = linear[p + ch]!;
-        let q: number;
-        if (v > POWER_FROM && v < 0.999) {
-          // The power segment, away from white: the table decides unless the rounding is in doubt.
-          const shift = depth === 16 ? 0 : ditherAt(x, y, ch);
-          const e = srgbEstimate(v) * max + shift;
-          const lo = Math.round(e - slack);
-          q = lo === Math.round(e + slack) ? lo : Math.round(linearToSrgb(v) * max + shift);
-        } else {
-          // v >= 1 maps to max exactly (1.055 - 0.055 rounds just below 1 in doubles).
-          const e = v >= 1 ? max : v > 0 ? linearToSrgb(v) * max : 0;
-          // Exact black and white stay exact (no dither), so print blacks are clean.
-          q = depth === 16 || e <= 0 || e >= max ? Math.round(e) : Math.round(e + ditherAt(x, y, ch));
+    const rowStart = 3 * j * width;
+    for (let c = 0; c < 3 * width; c++) {
+      const p = rowStart + c;
+      const v = linear[p]!;
+      let q: number;
+      if (v > POWER_FROM && v < 0.999) {
+        // The power segment, away from white: the table decides unless the rounding is in doubt.
+        const h = mixBits(seeds[c]! ^ y);
+        const shift = ((h & 0xffff) - (h >>> 16)) * (1 / 65536);
+        const e = srgbEstimate(v) * max + shift;
+        q = certainRound(e, slack);
+        if (q < 0) q = Math.round(linearToSrgb(v) * max + shift);
+      } else if (v >= 1) {
+        // v >= 1 maps to max exactly (1.055 - 0.055 rounds just below 1 in doubles); white stays undithered.
+        q = max;
+      } else if (v > 0) {
+        const e = linearToSrgb(v) * max;
+        if (e >= max) q = max;
+        else {
+          const h = mixBits(seeds[c]! ^ y);
+          q = Math.round(e + ((h & 0xffff) - (h >>> 16)) * (1 / 65536));
         }
-        if (q < 0) q = 0;
-        else if (q > max) q = max;
-        out[p + ch] = q;
+      } else {
+        // Exact black (and NaN) stays exact, so print blacks are clean.
+        q = 0;
       }
+      out[p] = q < 0 ? 0 : q > max ? max : q;
     }
   }
 }

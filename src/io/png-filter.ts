@@ -81,12 +81,20 @@ export function filterScanline(out: Uint8Array, offset: number, cur: Uint8Array,
     case 3:
       for (let i = 0; i < n; i++) out[o + i] = cur[i]! - (((i >= bpp ? cur[i - bpp]! : 0) + prev[i]!) >> 1);
       break;
-    default:
-      for (let i = 0; i < n; i++) {
-        const a = i >= bpp ? cur[i - bpp]! : 0;
-        const c = i >= bpp ? prev[i - bpp]! : 0;
-        out[o + i] = cur[i]! - paeth(a, prev[i]!, c);
+    default: {
+      // With no left neighbour (a = c = 0) Paeth predicts b.
+      const lead = Math.min(bpp, n);
+      for (let i = 0; i < lead; i++) out[o + i] = cur[i]! - prev[i]!;
+      for (let i = lead; i < n; i++) {
+        const a = cur[i - bpp]!;
+        const b = prev[i]!;
+        const c = prev[i - bpp]!;
+        const pa = Math.abs(b - c);
+        const pb = Math.abs(a - c);
+        const pc = Math.abs(a + b - c - c);
+        out[o + i] = cur[i]! - (pa <= pb && pa <= pc ? a : pb <= pc ? b : c);
       }
+    }
   }
   return best;
 }

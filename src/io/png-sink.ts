@@ -2,7 +2,7 @@ import { once } from 'node:events';
 import type { FileHandle } from 'node:fs/promises';
 import { open, rename, rm } from 'node:fs/promises';
 import { basename, dirname } from 'node:path';
-import { createDeflate } from 'node:zlib';
+import { constants, createDeflate } from 'node:zlib';
 import type { Deflate } from 'node:zlib';
 import { ihdrChunk, iccpChunk, itxtChunk, METADATA_KEYWORD, physChunk, PNG_SIGNATURE, pngChunk, srgbChunks, textChunk } from './png-chunk.js';
 import { filterScanline } from './png-filter.js';
@@ -19,10 +19,17 @@ const FEED_BYTES = 1024 * 1024;
 export interface PngSinkOptions {
   /** zlib level, default 6. */
   compressionLevel?: number;
-  /** A fixed filter type for every row instead of the per-row heuristic. */
+  /** zlib strategy; default Z_RLE for 8-bit images, the default strategy for 16-bit ones (see openPngSink). */
+  strategy?: number;
+  /** A fixed filter type for every row instead of the per-row heuristic; default Paeth (4) for 8-bit images. */
   filter?: 0 | 1 | 2 | 3 | 4;
   /** Embed this ICC profile (iCCP, named "sRGB") instead of the sRGB/gAMA/cHRM chunks. */
   iccProfile?: Uint8Array;
+}
+
+/** The filter (undefined: the per-row heuristic), zlib level and strategy plates use at a depth (docs/methods.md F5). */
+export function pngCompression(depth: 8 | 16): { filter: 4 | undefined; level: number; strategy: number } {
+  return depth === 8 ? { filter: 4, level: 6, strategy: constants.Z_RLE } : { filter: undefined, level: 6, strategy: constants.Z_DEFAULT_STRATEGY };
 }
 
 /**
@@ -32,9 +39,16 @@ export interface PngSinkOptions {
  * Layout: signature, IHDR, then before any IDAT: sRGB + gAMA + cHRM (or iCCP),
  * pHYs when `spec.dpi` is set, iTXt "quadatlas-sheet" holding `spec.metadata`
  * (compressed UTF-8), tEXt "Software"; then IDAT chunks of at most 256 KiB cut
- * from one zlib stream (level 6) of the filtered scanlines, each row filtered
- * by the minimum-sum-of-absolute-differences heuristic; IEND. 16-bit samples
- * are written big-endian. Memory stays bounded by one band plus scratch rows,
+ * from one zlib stream (level 6) of the filtered scanlines; IEND. 16-bit
+ * samples are written big-endian.
+ *
+ * Filter and compression by depth (docs/methods.md F5): 8-bit rows get the
+ * Paeth filter and zlib's run-length strategy (Z_RLE). A plate's 8-bit pixels
+ * carry dither, so deflate's match search finds little beyond runs: measured on
+ * the 1600x1600 whole-set plate, Paeth + Z_RLE gives a file within 0.5% of the
+ * per-row heuristic with level-6 matching, for about a tenth of the time.
+ * 16-bit rows keep the per-row minimum-sum-of-absolute-differences heuristic
+ * and level-6 matching (there Z_RLE made files a third larger). Memory stays bounded by one band plus scratch rows,
  * whatever the height; the deflate stream's backpressure is respected.
  */
 export async function openPngSink(path: string, spec: RasterSpec, options: PngSinkOptions = {}): Promise<RasterSink> {
@@ -106,7 +120,10 @@ export async function openPngSink(path: string, spec: RasterSpec, options: PngSi
   } catch (err) {
     return fail(err);
   }
-  deflate = createDeflate({ level: options.compressionLevel ?? 6 });
+  const chosen = pngCompression(depth);
+  const filter = options.filter ?? chosen.filter;
+  const strategy = options.strategy ?? chosen.strategy;
+  deflate = createDeflate({ level: options.compressionLevel ?? chosen.level, strategy });
   deflate.on('data', (chunk: Buffer) => {
     pending.push(chunk);
     pendingBytes += chunk.length;
@@ -148,7 +165,7 @@ export async function openPngSink(path: string, spec: RasterSpec, options: PngSi
             const s = (r0 + r) * samplesPerRow;
             if (depth === 8) cur.set(pixels.subarray(s, s + samplesPerRow));
             else bigEndian16(cur, pixels as Uint16Array, s, samplesPerRow);
-            filterScanline(out, r * (stride + 1), cur, prev, bpp, options.filter);
+            filterScanline(out, r * (stride + 1), cur, prev, bpp, filter);
             const t = prev;
             prev = cur;
             cur = t;

@@ -129,13 +129,22 @@ describe('openPngSink', () => {
     expect(sizes.size).toBeGreaterThan(1); // the filters really differ
   });
 
-  it('uses more than one filter type on mixed content with the heuristic', async () => {
-    const bytes = await writePng(path.join(dir, 'p.png'), spec(64, 40, 8, 3), testPixels(64, 40, 3, 8), 40);
+  it('uses more than one filter type on mixed 16-bit content with the heuristic', async () => {
+    const bytes = await writePng(path.join(dir, 'p.png'), spec(64, 40, 16, 3), testPixels(64, 40, 3, 16), 40);
     const raw = inflateSync(Buffer.concat(chunksOf(bytes, 'IDAT')));
     const filters = new Set<number>();
-    for (let r = 0; r < 40; r++) filters.add(raw[r * (64 * 3 + 1)]!);
+    for (let r = 0; r < 40; r++) filters.add(raw[r * (64 * 3 * 2 + 1)]!);
     expect(filters.size).toBeGreaterThan(1);
     for (const f of filters) expect(f).toBeLessThanOrEqual(4);
+  });
+
+  it('filters every 8-bit row with Paeth by default, and pngjs decodes the Paeth rows exactly', async () => {
+    // PNG spec 9.4: filter type byte 4 = Paeth; decoding by pngjs (independent) checks the predictor.
+    const px = testPixels(64, 40, 3, 8);
+    const bytes = await writePng(path.join(dir, 'p.png'), spec(64, 40, 8, 3), px, 9);
+    const raw = inflateSync(Buffer.concat(chunksOf(bytes, 'IDAT')));
+    for (let r = 0; r < 40; r++) expect(raw[r * (64 * 3 + 1)]).toBe(4);
+    expect(decodeWithPngjs(bytes, 8, 3).samples).toEqual(Array.from(px));
   });
 
   it('writes the same bytes in many bands as in one band, and splits long data into several IDAT chunks', async () => {

@@ -31,6 +31,10 @@ const STATUS: usize = memory.data(CAPACITY, 16);
 // locals: the loop reads them as memory operands, and the 16 xmm registers
 // V8 allocates go to x, y, x2, y2 and c (measured: +5% over locals).
 const DONE: usize = memory.data(64, 16);
+// The group's state (x, y, x^2, y^2 of 4 vectors) saved before a block of
+// BLOCK unchecked steps, restored when the block turns out to cross an escape.
+const SAVE: usize = memory.data(256, 16);
+const BLOCK: i32 = 4;
 
 const MAXED: u8 = 0;
 const ESCAPED: u8 = 1;
@@ -63,6 +67,14 @@ function settleVector(slot: i32, stop: v128, n: i32, x: v128, y: v128, x2: v128,
   if (i64x2.extract_lane(stop, 1) != 0) {
     settle(slot + 1, n, f64x2.extract_lane(x, 1), f64x2.extract_lane(y, 1), f64x2.extract_lane(x2, 1), f64x2.extract_lane(y2, 1), r2, tripped, cycle);
   }
+}
+
+/** The largest |c|^2 over the 8 lanes (padding lanes may hold stale values: they can only turn blocks off). */
+function maxC2(cr0: v128, ci0: v128, cr1: v128, ci1: v128, cr2: v128, ci2: v128, cr3: v128, ci3: v128): f64 {
+  const a = f64x2.max(f64x2.add(f64x2.mul(cr0, cr0), f64x2.mul(ci0, ci0)), f64x2.add(f64x2.mul(cr1, cr1), f64x2.mul(ci1, ci1)));
+  const b = f64x2.max(f64x2.add(f64x2.mul(cr2, cr2), f64x2.mul(ci2, ci2)), f64x2.add(f64x2.mul(cr3, cr3), f64x2.mul(ci3, ci3)));
+  const m = f64x2.max(a, b);
+  return max<f64>(f64x2.extract_lane(m, 0), f64x2.extract_lane(m, 1));
 }
 
 /** Whether every lane of the group in flight is done. */
@@ -103,6 +115,9 @@ function group8(base: i32, count: i32, maxIterations: i32, r2: f64): void {
   let x2 = x0, y2 = x0, xx2 = x0, yy2 = x0;
   let x3 = x0, y3 = x0, xx3 = x0, yy3 = x0;
   let n = 0;
+  // Blocks are safe when R >= 2 and every lane's |c| <= R (see below); else every step is tested.
+  const fast = r2 >= 4 && maxC2(cr0, ci0, cr1, ci1, cr2, ci2, cr3, ci3) <= r2;
+  let slow = 0;
   while (n < maxIterations) {
     const go0 = v128.or(f64x2.le(f64x2.add(xx0, yy0), r), v128.load(DONE));
     const go1 = v128.or(f64x2.le(f64x2.add(xx1, yy1), r), v128.load(DONE, 16));
@@ -119,6 +134,45 @@ function group8(base: i32, count: i32, maxIterations: i32, r2: f64): void {
       v128.store(DONE, v128.or(v128.load(DONE, 48), v128.not(go3)), 48);
       if (allDone()) return;
     }
+    if (fast && slow == 0 && n + BLOCK <= maxIterations) {
+      // BLOCK steps with no test, then one test: an escaped lane stays
+      // escaped (|z| > R >= 2 and |c| <= R give |z^2 + c| > R^2 - R >= R),
+      // and an overflow to infinity or NaN fails the test as well, so if every
+      // lane passes at the end, every lane passed at each step. Otherwise the
+      // state is restored and the same steps are taken one at a time.
+      v128.store(SAVE, x0); v128.store(SAVE, y0, 16); v128.store(SAVE, xx0, 32); v128.store(SAVE, yy0, 48);
+      v128.store(SAVE, x1, 64); v128.store(SAVE, y1, 80); v128.store(SAVE, xx1, 96); v128.store(SAVE, yy1, 112);
+      v128.store(SAVE, x2, 128); v128.store(SAVE, y2, 144); v128.store(SAVE, xx2, 160); v128.store(SAVE, yy2, 176);
+      v128.store(SAVE, x3, 192); v128.store(SAVE, y3, 208); v128.store(SAVE, xx3, 224); v128.store(SAVE, yy3, 240);
+      for (let k = 0; k < BLOCK; k++) {
+        y0 = f64x2.add(f64x2.mul(f64x2.add(x0, x0), y0), ci0);
+        y1 = f64x2.add(f64x2.mul(f64x2.add(x1, x1), y1), ci1);
+        y2 = f64x2.add(f64x2.mul(f64x2.add(x2, x2), y2), ci2);
+        y3 = f64x2.add(f64x2.mul(f64x2.add(x3, x3), y3), ci3);
+        x0 = f64x2.add(f64x2.sub(xx0, yy0), cr0);
+        x1 = f64x2.add(f64x2.sub(xx1, yy1), cr1);
+        x2 = f64x2.add(f64x2.sub(xx2, yy2), cr2);
+        x3 = f64x2.add(f64x2.sub(xx3, yy3), cr3);
+        xx0 = f64x2.mul(x0, x0); yy0 = f64x2.mul(y0, y0);
+        xx1 = f64x2.mul(x1, x1); yy1 = f64x2.mul(y1, y1);
+        xx2 = f64x2.mul(x2, x2); yy2 = f64x2.mul(y2, y2);
+        xx3 = f64x2.mul(x3, x3); yy3 = f64x2.mul(y3, y3);
+      }
+      const b0 = v128.or(f64x2.le(f64x2.add(xx0, yy0), r), v128.load(DONE));
+      const b1 = v128.or(f64x2.le(f64x2.add(xx1, yy1), r), v128.load(DONE, 16));
+      const b2 = v128.or(f64x2.le(f64x2.add(xx2, yy2), r), v128.load(DONE, 32));
+      const b3 = v128.or(f64x2.le(f64x2.add(xx3, yy3), r), v128.load(DONE, 48));
+      if (i64x2.bitmask(v128.and(v128.and(b0, b1), v128.and(b2, b3))) == 3) {
+        n += BLOCK;
+        continue;
+      }
+      x0 = v128.load(SAVE); y0 = v128.load(SAVE, 16); xx0 = v128.load(SAVE, 32); yy0 = v128.load(SAVE, 48);
+      x1 = v128.load(SAVE, 64); y1 = v128.load(SAVE, 80); xx1 = v128.load(SAVE, 96); yy1 = v128.load(SAVE, 112);
+      x2 = v128.load(SAVE, 128); y2 = v128.load(SAVE, 144); xx2 = v128.load(SAVE, 160); yy2 = v128.load(SAVE, 176);
+      x3 = v128.load(SAVE, 192); y3 = v128.load(SAVE, 208); xx3 = v128.load(SAVE, 224); yy3 = v128.load(SAVE, 240);
+      slow = BLOCK;
+    }
+    if (slow > 0) slow--;
     y0 = f64x2.add(f64x2.mul(f64x2.add(x0, x0), y0), ci0);
     y1 = f64x2.add(f64x2.mul(f64x2.add(x1, x1), y1), ci1);
     y2 = f64x2.add(f64x2.mul(f64x2.add(x2, x2), y2), ci2);
