@@ -79,7 +79,16 @@ export function register(program: Command): void {
         if (o['json'] === true) {
           const extra = proof === null ? {} : { certified: proof.ok, certifySeconds: proof.seconds };
           process.stdout.write(
-            `${JSON.stringify({ period, real: o['real'] === true, count: n, seconds: Number(seconds.toFixed(2)), raysTraced: result.raysTraced, unpaired: result.unpaired, ...extra })}\n`,
+            `${JSON.stringify({
+              period,
+              real: o['real'] === true,
+              count: n,
+              seconds: Number(seconds.toFixed(2)),
+              raysTraced: result.raysTraced,
+              unpaired: result.unpaired,
+              ...extra,
+              statistics: result.statistics,
+            })}\n`,
           );
         } else process.stdout.write(`${n}\n`);
         process.stderr.write(`quadatlas: period ${period}: ${n} components located in ${seconds.toFixed(2)} s (${result.raysTraced} rays, ${workers} workers)\n`);
@@ -106,7 +115,11 @@ export function register(program: Command): void {
       if (o['json'] === true)
         process.stdout.write(
           `${JSON.stringify(
-            rows.map((r, i) => (radii === null ? componentJson(r) : { ...componentJson(r), certifiedRadius: radii[i] })),
+            {
+              period,
+              statistics: result.statistics,
+              components: rows.map((r, i) => (radii === null ? componentJson(r) : { ...componentJson(r), certifiedRadius: radii[i] })),
+            },
             null,
             2,
           )}\n`,
