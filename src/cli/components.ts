@@ -15,7 +15,8 @@ import { parseBox, componentJson } from './component-report.js';
 import { certifyListing, MAX_CERTIFY_PERIOD, reportCensusCertificate } from './certify-report.js';
 import { UserError } from '../check/user-error.js';
 import { parseInteger } from '../check/fields.js';
-import { addOptions, type OptionSpec } from './option-spec.js';
+import { addOptions, PROGRESS_JSON_OPTION, type OptionSpec } from './option-spec.js';
+import { createProgress, type Progress } from '../render/progress.js';
 import { TABLE_EXTENSIONS, writeTableFile, type ColumnType } from '../io/table-file.js';
 import { prepareOutputFile } from '../io/check-writable-directory.js';
 
@@ -33,6 +34,7 @@ export const COMPONENTS_OPTIONS: readonly OptionSpec[] = [
   { flags: '--json', description: 'JSON output (default: aligned text)' },
   { flags: '--csv', description: 'CSV output with snake_case columns (default: aligned text)' },
   { flags: '--out <file>', description: 'also write the rows to FILE: .csv, .json or .parquet (typed columns), by its extension (default: stdout only)' },
+  PROGRESS_JSON_OPTION,
 ];
 
 export function register(program: Command): void {
@@ -59,13 +61,23 @@ export function register(program: Command): void {
         await prepareOutputFile(out, '--out');
       }
       const t0 = performance.now();
-      const progress = process.stderr.isTTY
-        ? (done: number, total: number): void => {
-            process.stderr.write(`\rquadatlas: period ${period}: ${done}/${total} rays`);
+      const progressJson = o['progressJson'] === true;
+      // a terminal line once the census has run a second (shorter ones print nothing), or JSON lines from the start
+      // (the pairing reports only its start and end; the landing's clock starts with its first chunk, so its ETA leaves the pairing out)
+      const pairing = createProgress(`quadatlas: period ${period}:`, { json: progressJson, unit: 'steps', phase: 'pairing', delayMs: 1000 });
+      pairing.update(0, 1);
+      let landing: Progress | null = null;
+      const result = await census(period, {
+        workers,
+        onProgress: (d, t) => {
+          if (landing === null) {
+            pairing.update(1, 1);
+            landing = createProgress(`quadatlas: period ${period}:`, { json: progressJson, unit: 'rays', phase: 'landing', delayMs: 1000 });
           }
-        : undefined;
-      const result = await census(period, progress === undefined ? { workers } : { workers, onProgress: progress });
-      if (progress !== undefined) process.stderr.write('\n');
+          landing.update(d, t);
+        },
+      });
+      (landing as Progress | null)?.end();
       const seconds = (performance.now() - t0) / 1000;
       let comps: readonly CensusComponent[] = result.components;
       if (o['real'] === true) comps = comps.filter((c) => c.real);
@@ -94,13 +106,9 @@ export function register(program: Command): void {
         process.stderr.write(`quadatlas: period ${period}: ${n} components located in ${seconds.toFixed(2)} s (${result.raysTraced} rays, ${workers} workers)\n`);
         return;
       }
-      const listing = process.stderr.isTTY
-        ? (done: number, total: number): void => {
-            process.stderr.write(`\rquadatlas: period ${period}: ${done}/${total} rows`);
-          }
-        : undefined;
-      const rows = await listComponents(period, comps, digits, workers, listing);
-      if (listing !== undefined) process.stderr.write('\n');
+      const listing = createProgress(`quadatlas: period ${period}:`, { json: progressJson, unit: 'rows', phase: 'listing', delayMs: 1000 });
+      const rows = await listComponents(period, comps, digits, workers, (d, t) => listing.update(d, t));
+      listing.end();
       const radii = certify ? certifyListing(period, rows, digits) : null;
       if (out !== null) {
         const head = radii === null ? HEADER : [...HEADER, 'certified_radius'];
