@@ -134,11 +134,13 @@ export function register(program: Command): void {
             raysTraced: result.raysTraced,
             unpaired: result.unpaired,
             ...extra,
+            ...(shard === null ? {} : { shard: shardHeader(period, shard, n) }),
             statistics: result.statistics,
           })}\n`,
         );
       } else process.stdout.write(`${n}\n`);
-      process.stderr.write(`quadatlas: period ${period}: ${n} components located in ${seconds.toFixed(2)} s (${result.raysTraced} rays, ${workers} workers)\n`);
+      const slice = shard === null ? '' : ` (shard ${shard.index}/${shard.count})`;
+      process.stderr.write(`quadatlas: period ${period}${slice}: ${n} components located in ${seconds.toFixed(2)} s (${result.raysTraced} rays, ${workers} workers)\n`);
       return;
     }
     const listing = createProgress(`quadatlas: period ${period}:`, { json: progressJson, unit: 'rows', phase: 'listing', delayMs: 1000 });

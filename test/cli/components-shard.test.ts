@@ -77,11 +77,29 @@ describe('components --shard and components merge', () => {
     expect(readFileSync(path.join(b, 'components-p12-shard-2-of-4.csv'), 'utf8')).toBe(want);
   });
 
-  it('refuses a shard spec out of range in one line', () => {
-    const r = runWithEnv(['components', '--period', '12', '--shard', '4/4', '--count']);
-    expect(r.status).toBe(2);
-    expect(r.stderr.trim().split('\n')).toHaveLength(1);
-    expect(r.stderr).toMatch(/--shard/);
+  it('refuses a shard spec out of range, --certify with a shard and a shard to Parquet, in one line', () => {
+    const dir = tempDir();
+    for (const [args, pattern] of [
+      [['--shard', '4/4', '--count'], /--shard/],
+      [['--shard', '0/4', '--certify', '--count'], /--certify/],
+      [['--shard', '0/4', '--out', path.join(dir, 's.parquet')], /a \.csv file or a folder/],
+    ] as const) {
+      const r = runWithEnv(['components', '--period', '12', ...args]);
+      expect(r.status, args.join(' ')).toBe(2);
+      expect(r.stderr.trim().split('\n')).toHaveLength(1);
+      expect(r.stderr).toMatch(pattern);
+    }
+    expect(readdirSync(dir)).toEqual([]);
+  });
+
+  it('--count --json of a shard names the shard and counts its slice; the four slices add up to A000740(12) = 2010', () => {
+    let total = 0;
+    for (let i = 0; i < 4; i++) {
+      const j = JSON.parse(runWithEnv(['components', '--period', '12', '--shard', `${i}/4`, '--count', '--json']).stdout) as { count: number; shard: { shard: string } };
+      expect(j.shard.shard).toBe(`${i}/4`);
+      total += j.count;
+    }
+    expect(total).toBe(2010);
   });
 
   it('refuses incomplete, mixed, overlapping and duplicated sets in one line, exit 2, nothing written', () => {
