@@ -120,7 +120,7 @@ export function register(program: Command): void {
     if (result.unpaired > 0 || result.raysLost > 0) {
       process.stderr.write(`quadatlas: warning: ${result.unpaired} angle pairs could not be given a nucleus of their own, ${result.raysLost} rays were lost\n`);
     }
-    const proof = certify ? await reportCensusCertificate(result, workers) : null;
+    const proof = certify ? await reportCensusCertificate(result, workers, progressJson) : null;
     if (count) {
       const n = comps.length;
       if (o['json'] === true) {

@@ -40,6 +40,12 @@ describe('--progress-json', () => {
     const l = last(lines, 'landing');
     expect([l.done, l.total]).toEqual([1090, 1090]);
   });
+  it('--certify reports its nuclei: components --period 10 --count --certify ends at (495 + 51) / 2 = 273 (OEIS A000740, A000048)', () => {
+    const r = runCli(['components', '--period', '10', '--count', '--certify', '--progress-json', '--workers', '2']);
+    expect(r.status).toBe(0);
+    const l = last(progressLines(r.stderr), 'certifying');
+    expect([l.done, l.total]).toEqual([273, 273]);
+  });
   it('the listing reports its rows: components --period 6 ends at A000740(6) = 27 rows', () => {
     const r = runCli(['components', '--period', '6', '--csv', '--progress-json', '--workers', '1']);
     expect(r.status).toBe(0);
