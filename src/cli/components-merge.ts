@@ -9,6 +9,7 @@ import { readdir, readFile, stat } from 'node:fs/promises';
 import path from 'node:path';
 import { UserError } from '../check/user-error.js';
 import { checkShardSet, parseShardComment, type ShardRows } from '../components/census-shard.js';
+import { exactPeriodCount } from '../components/certify/exact-period-count.js';
 import { prepareOutputFile } from '../io/check-writable-directory.js';
 import { csvCells, writeTableFile, type ColumnType } from '../io/table-file.js';
 import { addOptions, type OptionSpec } from './option-spec.js';
@@ -77,7 +78,12 @@ export function registerMerge(components: Command, types: Readonly<Record<string
         head.map((name) => ({ name, type: types[name] ?? 'string' })),
         rows,
       );
-      process.stderr.write(`quadatlas: merged ${ordered.length} shards of period ${ordered[0]!.header.period}: ${rows.length} rows to ${out}\n`);
+      const period = ordered[0]!.header.period;
+      process.stderr.write(`quadatlas: merged ${ordered.length} shards of period ${period}: ${rows.length} rows to ${out}\n`);
+      // every component of the period, or fewer (shards listed with --real or --within, or pairs the census could not place)
+      const all = Number(exactPeriodCount(period));
+      if (rows.length !== all)
+        process.stderr.write(`quadatlas: note: period ${period} has ${all} components (sum over d | ${period} of mu(${period}/d) 2^(d-1)); these shards hold ${rows.length}\n`);
     },
   );
 }
