@@ -31,6 +31,8 @@ export { findNucleus, type ComplexDecimal } from './components/nucleus.js';
 export { findBoundaryPoint } from './components/boundary-point.js';
 export { sizeEstimate } from './components/size-estimate.js';
 export { census, type CensusComponent, type CensusResult } from './components/census.js';
+export { CensusStatisticsAccumulator, satelliteParentPeriod, componentAreaEstimate, type CensusStatistics, type SizeBin } from './components/census-statistics.js';
+export { shardAngleRange } from './components/census-shard.js';
 export { componentsInBox, type BoxedNucleus } from './components/components-in-box.js';
 export { componentInfo, type ComponentInfo } from './components/component-info.js';
 export { lavaursPairs, type AnglePair } from './components/lavaurs.js';

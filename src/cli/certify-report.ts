@@ -10,6 +10,7 @@ import { certifyCensus } from '../components/certify/certify-census.js';
 import { certifyNucleusDecimal } from '../components/certify/certify-decimal.js';
 import { certifyRootDecimal } from '../components/certify/certify-root.js';
 import { UserError } from '../check/user-error.js';
+import { createProgress } from '../render/progress.js';
 
 /** Largest period of a certified census: every disk is kept in memory (about 400 bytes each). */
 export const MAX_CERTIFY_PERIOD = 22;
@@ -20,13 +21,11 @@ export function digitsNeeded(log10Size: number): number {
 }
 
 /** Certifies the census of `result` and says so on stderr; sets exit code 1 when the proof fails. */
-export async function reportCensusCertificate(result: CensusResult, workers: number): Promise<{ ok: boolean; seconds: number }> {
+export async function reportCensusCertificate(result: CensusResult, workers: number, progressJson = false): Promise<{ ok: boolean; seconds: number }> {
   const t0 = performance.now();
-  const progress = process.stderr.isTTY
-    ? (done: number, total: number): void => void process.stderr.write(`\rperiod ${result.period}: ${done}/${total} nuclei certified`)
-    : undefined;
-  const cert = await certifyCensus(result, progress === undefined ? { workers } : { workers, onProgress: progress });
-  if (progress !== undefined) process.stderr.write('\n');
+  const progress = createProgress(`period ${result.period}: certifying`, { json: progressJson, unit: 'nuclei', phase: 'certifying', delayMs: 1000 });
+  const cert = await certifyCensus(result, { workers, onProgress: (d, t) => progress.update(d, t) });
+  progress.end();
   const seconds = Number(((performance.now() - t0) / 1000).toFixed(2));
   const p = result.period;
   if (cert.ok) {

@@ -15,9 +15,15 @@ import { parseBox, componentJson } from './component-report.js';
 import { certifyListing, MAX_CERTIFY_PERIOD, reportCensusCertificate } from './certify-report.js';
 import { UserError } from '../check/user-error.js';
 import { parseInteger } from '../check/fields.js';
-import { addOptions, type OptionSpec } from './option-spec.js';
+import { addOptions, PROGRESS_JSON_OPTION, type OptionSpec } from './option-spec.js';
+import { createProgress, type Progress } from '../render/progress.js';
 import { TABLE_EXTENSIONS, writeTableFile, type ColumnType } from '../io/table-file.js';
 import { prepareOutputFile } from '../io/check-writable-directory.js';
+import { mkdir, stat } from 'node:fs/promises';
+import path from 'node:path';
+import { resolveShard } from '../render/pyramid-shard.js';
+import { shardAngleRange, shardCommentLine, shardHeader } from '../components/census-shard.js';
+import { registerMerge } from './components-merge.js';
 
 /** Longest listing period (the listing refines every nucleus and root to D digits). */
 export const MAX_LIST_PERIOD = 16;
@@ -32,89 +38,141 @@ export const COMPONENTS_OPTIONS: readonly OptionSpec[] = [
   { flags: '--certify', description: 'prove each nucleus (a disk holding exactly one, of exact period P) and the census complete (default: computed, not proved)' },
   { flags: '--json', description: 'JSON output (default: aligned text)' },
   { flags: '--csv', description: 'CSV output with snake_case columns (default: aligned text)' },
-  { flags: '--out <file>', description: 'also write the rows to FILE: .csv, .json or .parquet (typed columns), by its extension (default: stdout only)' },
+  {
+    flags: '--out <file>',
+    description: 'also write the rows to FILE: .csv, .json or .parquet (typed columns), by its extension; with --shard a .csv or a folder (default: stdout only)',
+  },
+  {
+    flags: '--shard <i/n>',
+    description:
+      'only the components whose lower angle lies in the I-th of N ranges; `components merge` joins them (default from SLURM_ARRAY_TASK_ID/_COUNT or JOB_COMPLETION_INDEX, else all)',
+  },
+  { flags: '--shards <n>', description: 'number of shards, with JOB_COMPLETION_INDEX (Kubernetes Indexed Job) (default: no sharding)' },
+  PROGRESS_JSON_OPTION,
 ];
 
 export function register(program: Command): void {
-  addOptions(program.command('components').description('list or count the hyperbolic components of exact period P'), COMPONENTS_OPTIONS).action(
-    async (o: Record<string, unknown>) => {
-      const count = o['count'] === true;
-      const certify = o['certify'] === true;
-      const period = parseInteger(o['period'], '--period', 1, count ? MAX_CENSUS_PERIOD : MAX_LIST_PERIOD);
-      if (certify && period > MAX_CERTIFY_PERIOD) {
-        throw new UserError(
-          '--period',
-          `a period of at most ${MAX_CERTIFY_PERIOD} with --certify (every certified disk is kept in memory; period ${period} would need about ${Math.ceil((2 ** (period - 1) * 400) / 2 ** 30)} GB)`,
-          period,
-        );
-      }
-      const digits = parseInteger(o['digits'], '--digits', 1, 2000);
-      const workers = o['workers'] === undefined ? availableParallelism() : parseInteger(o['workers'], '--workers', 0, 256);
-      const box = o['within'] === undefined ? null : parseBox(o['within'], '--within');
-      if (o['json'] === true && o['csv'] === true) throw new UserError('--json, --csv', 'one of --json or --csv', '--json --csv');
-      const out = typeof o['out'] === 'string' ? o['out'] : null;
-      if (out !== null) {
-        if (count) throw new UserError('--out', 'a listing (without --count) to write', '--count');
-        if (!TABLE_EXTENSIONS.some((e) => out.toLowerCase().endsWith(e))) throw new UserError('--out', 'a file name ending in .csv, .json or .parquet', out);
-        await prepareOutputFile(out, '--out');
-      }
-      const t0 = performance.now();
-      const progress = process.stderr.isTTY
-        ? (done: number, total: number): void => {
-            process.stderr.write(`\rquadatlas: period ${period}: ${done}/${total} rays`);
-          }
-        : undefined;
-      const result = await census(period, progress === undefined ? { workers } : { workers, onProgress: progress });
-      if (progress !== undefined) process.stderr.write('\n');
-      const seconds = (performance.now() - t0) / 1000;
-      let comps: readonly CensusComponent[] = result.components;
-      if (o['real'] === true) comps = comps.filter((c) => c.real);
-      if (box !== null) comps = comps.filter((c) => inBox(c, box));
-      if (result.unpaired > 0 || result.raysLost > 0) {
-        process.stderr.write(`quadatlas: warning: ${result.unpaired} angle pairs could not be given a nucleus of their own, ${result.raysLost} rays were lost\n`);
-      }
-      const proof = certify ? await reportCensusCertificate(result, workers) : null;
-      if (count) {
-        const n = comps.length;
-        if (o['json'] === true) {
-          const extra = proof === null ? {} : { certified: proof.ok, certifySeconds: proof.seconds };
-          process.stdout.write(
-            `${JSON.stringify({ period, real: o['real'] === true, count: n, seconds: Number(seconds.toFixed(2)), raysTraced: result.raysTraced, unpaired: result.unpaired, ...extra })}\n`,
-          );
-        } else process.stdout.write(`${n}\n`);
-        process.stderr.write(`quadatlas: period ${period}: ${n} components located in ${seconds.toFixed(2)} s (${result.raysTraced} rays, ${workers} workers)\n`);
-        return;
-      }
-      const listing = process.stderr.isTTY
-        ? (done: number, total: number): void => {
-            process.stderr.write(`\rquadatlas: period ${period}: ${done}/${total} rows`);
-          }
-        : undefined;
-      const rows = await listComponents(period, comps, digits, workers, listing);
-      if (listing !== undefined) process.stderr.write('\n');
-      const radii = certify ? certifyListing(period, rows, digits) : null;
-      if (out !== null) {
-        const head = radii === null ? HEADER : [...HEADER, 'certified_radius'];
-        await writeTableFile(
-          out,
-          head.map((name) => ({ name, type: COLUMN_TYPES[name] ?? 'string' })),
-          rows.map((r, i) => (radii === null ? flat(r) : [...flat(r), radii[i]!])),
-        );
-        process.stderr.write(`quadatlas: wrote ${out} (${rows.length} rows)\n`);
-        return;
-      }
-      if (o['json'] === true)
+  const cmd = program.command('components').description('list or count the hyperbolic components of exact period P; `components merge DIR` joins shards');
+  // `components merge DIR` takes no --period: commander checks a parent's required options in its subcommands too
+  cmd.hook('preSubcommand', (c) => {
+    for (const opt of c.options) if (opt.long === '--period') opt.mandatory = false;
+  });
+  registerMerge(cmd, COLUMN_TYPES);
+  addOptions(cmd, COMPONENTS_OPTIONS).action(async (o: Record<string, unknown>) => {
+    const count = o['count'] === true;
+    const certify = o['certify'] === true;
+    const period = parseInteger(o['period'], '--period', 1, count ? MAX_CENSUS_PERIOD : MAX_LIST_PERIOD);
+    const shard = resolveShard(typeof o['shard'] === 'string' ? o['shard'] : undefined, typeof o['shards'] === 'string' ? o['shards'] : undefined, process.env);
+    if (shard !== null && certify)
+      throw new UserError(
+        '--certify',
+        'a whole census (the proof of completeness needs every shard; certify after merging is not offered)',
+        `--shard ${shard.index}/${shard.count}`,
+      );
+    if (certify && period > MAX_CERTIFY_PERIOD) {
+      throw new UserError(
+        '--period',
+        `a period of at most ${MAX_CERTIFY_PERIOD} with --certify (every certified disk is kept in memory; period ${period} would need about ${Math.ceil((2 ** (period - 1) * 400) / 2 ** 30)} GB)`,
+        period,
+      );
+    }
+    const digits = parseInteger(o['digits'], '--digits', 1, 2000);
+    const workers = o['workers'] === undefined ? availableParallelism() : parseInteger(o['workers'], '--workers', 0, 256);
+    const box = o['within'] === undefined ? null : parseBox(o['within'], '--within');
+    if (o['json'] === true && o['csv'] === true) throw new UserError('--json, --csv', 'one of --json or --csv', '--json --csv');
+    let out = typeof o['out'] === 'string' ? o['out'] : null;
+    if (out !== null) {
+      if (count) throw new UserError('--out', 'a listing (without --count) to write', '--count');
+      if (shard !== null) {
+        // a shard goes to a CSV with its header line (period, I/N, angle range), by default named after itself in a folder
+        const isDir = out.endsWith('/') || (await stat(out).catch(() => null))?.isDirectory() === true;
+        if (isDir) {
+          await mkdir(out, { recursive: true });
+          out = path.join(out, `components-p${period}-shard-${shard.index}-of-${shard.count}.csv`);
+        } else if (!out.toLowerCase().endsWith('.csv')) throw new UserError('--out', 'a .csv file or a folder for a shard (`components merge` writes Parquet)', out);
+      } else if (!TABLE_EXTENSIONS.some((e) => out!.toLowerCase().endsWith(e))) throw new UserError('--out', 'a file name ending in .csv, .json or .parquet', out);
+      await prepareOutputFile(out, '--out');
+    }
+    const angleRange = shard === null ? undefined : shardAngleRange(period, shard);
+    const t0 = performance.now();
+    const progressJson = o['progressJson'] === true;
+    // a terminal line once the census has run a second (shorter ones print nothing), or JSON lines from the start
+    // (the pairing reports only its start and end; the landing's clock starts with its first chunk, so its ETA leaves the pairing out)
+    const pairing = createProgress(`quadatlas: period ${period}:`, { json: progressJson, unit: 'steps', phase: 'pairing', delayMs: 1000 });
+    pairing.update(0, 1);
+    let landing: Progress | null = null;
+    const result = await census(period, {
+      workers,
+      ...(angleRange === undefined ? {} : { angleRange }),
+      onProgress: (d, t) => {
+        if (landing === null) {
+          pairing.update(1, 1);
+          landing = createProgress(`quadatlas: period ${period}:`, { json: progressJson, unit: 'rays', phase: 'landing', delayMs: 1000 });
+        }
+        landing.update(d, t);
+      },
+    });
+    (landing as Progress | null)?.end();
+    const seconds = (performance.now() - t0) / 1000;
+    let comps: readonly CensusComponent[] = result.components;
+    if (o['real'] === true) comps = comps.filter((c) => c.real);
+    if (box !== null) comps = comps.filter((c) => inBox(c, box));
+    if (result.unpaired > 0 || result.raysLost > 0) {
+      process.stderr.write(`quadatlas: warning: ${result.unpaired} angle pairs could not be given a nucleus of their own, ${result.raysLost} rays were lost\n`);
+    }
+    const proof = certify ? await reportCensusCertificate(result, workers, progressJson) : null;
+    if (count) {
+      const n = comps.length;
+      if (o['json'] === true) {
+        const extra = proof === null ? {} : { certified: proof.ok, certifySeconds: proof.seconds };
         process.stdout.write(
-          `${JSON.stringify(
-            rows.map((r, i) => (radii === null ? componentJson(r) : { ...componentJson(r), certifiedRadius: radii[i] })),
-            null,
-            2,
-          )}\n`,
+          `${JSON.stringify({
+            period,
+            real: o['real'] === true,
+            count: n,
+            seconds: Number(seconds.toFixed(2)),
+            raysTraced: result.raysTraced,
+            unpaired: result.unpaired,
+            ...extra,
+            ...(shard === null ? {} : { shard: shardHeader(period, shard, n) }),
+            statistics: result.statistics,
+          })}\n`,
         );
-      else if (o['csv'] === true) process.stdout.write(toCsv(rows, radii));
-      else process.stdout.write(toTable(rows, radii));
-    },
-  );
+      } else process.stdout.write(`${n}\n`);
+      const slice = shard === null ? '' : ` (shard ${shard.index}/${shard.count})`;
+      process.stderr.write(`quadatlas: period ${period}${slice}: ${n} components located in ${seconds.toFixed(2)} s (${result.raysTraced} rays, ${workers} workers)\n`);
+      return;
+    }
+    const listing = createProgress(`quadatlas: period ${period}:`, { json: progressJson, unit: 'rows', phase: 'listing', delayMs: 1000 });
+    const rows = await listComponents(period, comps, digits, workers, (d, t) => listing.update(d, t));
+    listing.end();
+    const radii = certify ? certifyListing(period, rows, digits) : null;
+    if (out !== null) {
+      const head = radii === null ? HEADER : [...HEADER, 'certified_radius'];
+      await writeTableFile(
+        out,
+        head.map((name) => ({ name, type: COLUMN_TYPES[name] ?? 'string' })),
+        rows.map((r, i) => (radii === null ? flat(r) : [...flat(r), radii[i]!])),
+        shard === null ? undefined : shardCommentLine(shardHeader(period, shard, rows.length)),
+      );
+      process.stderr.write(`quadatlas: wrote ${out} (${rows.length} rows)\n`);
+      return;
+    }
+    if (o['json'] === true)
+      process.stdout.write(
+        `${JSON.stringify(
+          {
+            period,
+            statistics: result.statistics,
+            components: rows.map((r, i) => (radii === null ? componentJson(r) : { ...componentJson(r), certifiedRadius: radii[i] })),
+          },
+          null,
+          2,
+        )}\n`,
+      );
+    else if (o['csv'] === true) process.stdout.write(toCsv(rows, radii));
+    else process.stdout.write(toTable(rows, radii));
+  });
 }
 
 function inBox(c: CensusComponent, b: { re0: number; im0: number; re1: number; im1: number }): boolean {

@@ -32,3 +32,9 @@ export function addOptions(cmd: Command, options: readonly OptionSpec[]): Comman
   }
   return cmd;
 }
+
+/** `--progress-json`, the same on every long command (census and listing, pyramid, section constants); render/progress.ts writes the lines. */
+export const PROGRESS_JSON_OPTION: OptionSpec = {
+  flags: '--progress-json',
+  description: 'progress on stderr as one JSON line per update, {"done","total","eta_s","phase"}, at most one a second (default: a line on a terminal only)',
+};

@@ -29,7 +29,7 @@ import { DOUBLE_MIN_RELATIVE_SPACING, fitsDouble } from '../view/view.js';
 import { sheetFromPlate } from './plate.js';
 import { COLOUR_OPTIONS } from './colour-options.js';
 import { applyPlateOptions, attributeName, PLATE_OPTIONS } from './plate-options.js';
-import { addOptions, type OptionSpec } from './option-spec.js';
+import { addOptions, PROGRESS_JSON_OPTION, type OptionSpec } from './option-spec.js';
 import { readSheetFile, sheetName } from './sheet-file.js';
 import { Received, UserError } from '../check/user-error.js';
 import { toolVersion } from '../io/tool-version.js';
@@ -56,6 +56,7 @@ export const PYRAMID_OPTIONS: readonly OptionSpec[] = [
   { flags: '--finish', description: 'check that every tile exists, then write info.json and the viewer page (default: render, then finish when every tile is there)' },
   { flags: '--queue <url>', description: 'put the tiles on a Redis queue redis://host:port for `quadatlas worker`, wait, then finish (default: render here)' },
   { flags: '--json', description: 'print a JSON summary on stdout (default: a one-line report on stderr)' },
+  PROGRESS_JSON_OPTION,
 ];
 
 export const DEFAULT_PYRAMID_TILE = 256;
@@ -239,7 +240,7 @@ export async function runPyramid(sheetFile: string | undefined, values: Record<s
       // Nothing else would tell a log reader what the run is waiting for.
       process.stderr.write(`quadatlas: ${todo.length} tiles on ${queueUrl}; waiting for \`quadatlas worker --queue ${queueUrl}\`\n`);
     }
-    const progress = createProgress('pyramid (queue)');
+    const progress = createProgress('pyramid (queue)', { json: values['progressJson'] === true, phase: 'tiles' });
     let r;
     try {
       r = await enqueueAndWait({
@@ -282,7 +283,7 @@ export async function runPyramid(sheetFile: string | undefined, values: Record<s
   const shard: Shard | null = resolveShard(shardFlag, shardsFlag, process.env);
   await preparePyramidDir(dir, spec);
   const pool = new PyramidPool(workers);
-  const progress = createProgress(shard === null ? 'pyramid' : `pyramid shard ${shard.index}/${shard.count}`);
+  const progress = createProgress(shard === null ? 'pyramid' : `pyramid shard ${shard.index}/${shard.count}`, { json: values['progressJson'] === true, phase: 'tiles' });
   let result;
   try {
     result = await renderPyramidShare({

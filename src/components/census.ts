@@ -25,6 +25,7 @@ import { landRays, RAY_RECORD } from './land-rays.js';
 import { lavaursStream } from './lavaurs-stream.js';
 import { periodicNumerators, properDivisors } from './periodic-angles.js';
 import { builtWorkerUrl } from '../threads/built-worker.js';
+import { CensusStatisticsAccumulator, type CensusStatistics } from './census-statistics.js';
 
 /** One component found by the census; c = nucleus, angles are numerators over 2^p - 1 (lower first). */
 export interface CensusComponent {
@@ -53,6 +54,8 @@ export interface CensusResult {
   readonly unpaired: number;
   /** Rays re-landed in careful mode. */
   readonly relanded: number;
+  /** Count, real, primitive and satellite components, sizes and areas, gathered as the components were listed (census-statistics.ts). */
+  readonly statistics: CensusStatistics;
 }
 
 export interface CensusOptions {
@@ -60,6 +63,12 @@ export interface CensusOptions {
   readonly workers?: number;
   /** Called after each chunk with (rays landed, rays to land). */
   readonly onProgress?: (done: number, total: number) => void;
+  /**
+   * Only the components whose lower angle's numerator n lies in [from, to)
+   * (a shard, census-shard.ts): only the pairs of those components and of
+   * their mirror images are landed; the statistics are the slice's.
+   */
+  readonly angleRange?: { readonly from: number; readonly to: number };
 }
 
 /** Largest period the census accepts (angles are numerators below 2^p fitting a double exactly). */
@@ -67,21 +76,32 @@ export const MAX_CENSUS_PERIOD = 30;
 
 /** Runs the census of exact period p. */
 export async function census(period: number, options: CensusOptions = {}): Promise<CensusResult> {
+  const range = options.angleRange ?? { from: 0, to: 2 ** period - 1 };
+  const inRange = (n: number): boolean => n >= range.from && n < range.to;
   if (period === 1) {
+    const stats = new CensusStatisticsAccumulator(1);
+    const cardioid = inRange(0);
+    if (cardioid) stats.add([0], true, 1);
     return {
       period,
-      components: [{ period: 1, reHi: 0, reLo: 0, imHi: 0, imLo: 0, size: 1, angles: [0], real: true }],
+      components: cardioid ? [{ period: 1, reHi: 0, reLo: 0, imHi: 0, imLo: 0, size: 1, angles: [0], real: true }] : [],
       raysTraced: 0,
       raysLost: 0,
       unpaired: 0,
       relanded: 0,
+      statistics: stats.result(),
     };
   }
   const den = 2 ** period - 1;
   const pairs = lavaursStream(period);
   // One pair of each mirror couple: lo + hi < den (upper half plane) or = den (real).
   const keep: number[] = [];
-  for (let i = 0; i < pairs.lo.length; i += 1) if (pairs.lo[i]! + pairs.hi[i]! <= den) keep.push(i);
+  // (a pair stands for its own component, lower angle lo, and unless real for its mirror image, lower angle den - hi)
+  for (let i = 0; i < pairs.lo.length; i += 1) {
+    const a = pairs.lo[i]!;
+    const b = pairs.hi[i]!;
+    if (a + b <= den && (inRange(a) || (a + b < den && inRange(den - b)))) keep.push(i);
+  }
   const lo = Float64Array.from(keep, (i) => pairs.lo[i]!);
   const hi = Float64Array.from(keep, (i) => pairs.hi[i]!);
   const records = await landAll(period, lo, false, options);
@@ -94,13 +114,16 @@ export async function census(period: number, options: CensusOptions = {}): Promi
     found.suspects.forEach((i, j) => records.set(again.subarray(j * RAY_RECORD, (j + 1) * RAY_RECORD), i * RAY_RECORD));
     found = distinctNuclei(period, lo, hi, records);
   }
+  const stats = new CensusStatisticsAccumulator(period);
+  const components = found.components(stats, inRange);
   return {
     period,
-    components: found.components(),
+    components,
     raysTraced: lo.length + relanded,
     raysLost: countLost(records),
     unpaired: found.suspects.length,
     relanded,
+    statistics: stats.result(),
   };
 }
 
@@ -121,7 +144,12 @@ function countLost(records: Float64Array): number {
  * `components()` builds the component list (kept lazy: the census calls this
  * again after re-landing suspects).
  */
-export function distinctNuclei(period: number, lo: Float64Array, hi: Float64Array, rec: Float64Array): { components: () => CensusComponent[]; suspects: number[] } {
+export function distinctNuclei(
+  period: number,
+  lo: Float64Array,
+  hi: Float64Array,
+  rec: Float64Array,
+): { components: (stats?: CensusStatisticsAccumulator, keep?: (lowerAngle: number) => boolean) => CensusComponent[]; suspects: number[] } {
   const den = 2 ** period - 1;
   const suspect = new Uint8Array(lo.length);
   // Entries: 2i for pair i, 2i + 1 for its mirror image (absent for real pairs).
@@ -178,7 +206,7 @@ export function distinctNuclei(period: number, lo: Float64Array, hi: Float64Arra
       }
     }
   }
-  const components = (): CensusComponent[] => {
+  const components = (stats?: CensusStatisticsAccumulator, keep?: (lowerAngle: number) => boolean): CensusComponent[] => {
     // Components in the order of their lower angle (distinct numerators below 2^p).
     const lower = (e: number): number => ((e & 1) === 1 ? den - hi[e >> 1]! : lo[e >> 1]!);
     let byAngle: Int32Array;
@@ -198,6 +226,9 @@ export function distinctNuclei(period: number, lo: Float64Array, hi: Float64Arra
       const a = lo[e >> 1]!;
       const b = hi[e >> 1]!;
       const real = a + b === den && Math.abs(rec[o + 2]! + rec[o + 3]!) <= 1e-3 * rec[o + 4]!;
+      const angles = mirror ? [den - b, den - a] : [a, b];
+      if (keep !== undefined && !keep(angles[0]!)) continue;
+      stats?.add(angles, real, rec[o + 4]!);
       list.push({
         period,
         reHi: rec[o]!,
@@ -205,7 +236,7 @@ export function distinctNuclei(period: number, lo: Float64Array, hi: Float64Arra
         imHi: real ? 0 : mirror ? -rec[o + 2]! : rec[o + 2]!,
         imLo: real ? 0 : mirror ? -rec[o + 3]! : rec[o + 3]!,
         size: rec[o + 4]!,
-        angles: mirror ? [den - b, den - a] : [a, b],
+        angles,
         real,
       });
     }

@@ -27,9 +27,10 @@ function typed(v: string, type: ColumnType): string | number | null {
 }
 
 /** The bytes of the table in the format of `file`'s extension. */
-export async function tableBytes(file: string, columns: readonly TableColumn[], rows: readonly (readonly string[])[]): Promise<string | Uint8Array> {
+export async function tableBytes(file: string, columns: readonly TableColumn[], rows: readonly (readonly string[])[], comment?: string): Promise<string | Uint8Array> {
   const lower = file.toLowerCase();
-  if (lower.endsWith('.csv')) return [columns.map((c) => c.name).join(','), ...rows.map((r) => r.map(csvCell).join(','))].join('\n') + '\n';
+  if (lower.endsWith('.csv'))
+    return [...(comment === undefined ? [] : [comment]), columns.map((c) => c.name).join(','), ...rows.map((r) => r.map(csvCell).join(','))].join('\n') + '\n';
   if (lower.endsWith('.json'))
     return `${JSON.stringify(
       rows.map((r) => Object.fromEntries(columns.map((c, i) => [c.name, typed(r[i] ?? '', c.type)]))),
@@ -45,6 +46,38 @@ export async function tableBytes(file: string, columns: readonly TableColumn[], 
   return new Uint8Array(parquetWriteBuffer({ columnData }));
 }
 
-export async function writeTableFile(file: string, columns: readonly TableColumn[], rows: readonly (readonly string[])[]): Promise<void> {
-  await writeFileAtomic(file, await tableBytes(file, columns, rows));
+/** Writes the table; `comment`, a whole line, goes before a CSV file's header (a shard's record of itself). */
+export async function writeTableFile(file: string, columns: readonly TableColumn[], rows: readonly (readonly string[])[], comment?: string): Promise<void> {
+  await writeFileAtomic(file, await tableBytes(file, columns, rows, comment));
+}
+
+/** The cells of one CSV line as tableBytes writes them (quoted cells with doubled quotes). */
+export function csvCells(line: string): string[] {
+  const cells: string[] = [];
+  let i = 0;
+  for (;;) {
+    if (line[i] === '"') {
+      let v = '';
+      i += 1;
+      for (;;) {
+        const q = line.indexOf('"', i);
+        if (q < 0) throw new Error('unterminated quote');
+        v += line.slice(i, q);
+        if (line[q + 1] === '"') {
+          v += '"';
+          i = q + 2;
+        } else {
+          i = q + 1;
+          break;
+        }
+      }
+      cells.push(v);
+    } else {
+      const c = line.indexOf(',', i);
+      cells.push(line.slice(i, c < 0 ? line.length : c));
+      i = c < 0 ? line.length : c;
+    }
+    if (i >= line.length) return cells;
+    i += 1; // the comma
+  }
 }

@@ -22,8 +22,19 @@ describe('quadatlas components / locate / describe', () => {
     expect(run('components', '--period', '10', '--count', '--real').out.trim()).toBe('51');
   });
   it('components --period 3 --json lists 3 components with the period-3 angle pairs of docs/checks.md', () => {
-    const rows = JSON.parse(run('components', '--period', '3', '--json').out) as Array<{ externalAngles: string[] }>;
-    expect(rows.map((r) => r.externalAngles.join(' '))).toEqual(['1/7 2/7', '3/7 4/7', '5/7 6/7']);
+    const j = JSON.parse(run('components', '--period', '3', '--json').out) as { components: Array<{ externalAngles: string[] }>; statistics: { satellite: number } };
+    expect(j.components.map((r) => r.externalAngles.join(' '))).toEqual(['1/7 2/7', '3/7 4/7', '5/7 6/7']);
+    // the 1/3 and 2/3 bulbs of the cardioid: N(1) phi(3) = 2 satellites (Douady-Hubbard, docs/methods.md C6)
+    expect(j.statistics.satellite).toBe(2);
+  });
+  it('components --period 8 --count --json carries the statistics: 120 (OEIS A000740), 16 real (OEIS A000048(8)), 12 satellites', () => {
+    const j = JSON.parse(run('components', '--period', '8', '--count', '--json').out) as {
+      count: number;
+      statistics: { count: number; real: number; satellite: number; primitive: number; sizeHistogram: Array<{ count: number }> };
+    };
+    // satellites of period 8: N(1) phi(8) + N(2) phi(4) + N(4) phi(2) = 4 + 2 + 6 = 12 (divisor formula, OEIS A000740)
+    expect([j.count, j.statistics.count, j.statistics.real, j.statistics.satellite, j.statistics.primitive]).toEqual([120, 120, 16, 12, 108]);
+    expect(j.statistics.sizeHistogram.reduce((a, b) => a + b.count, 0)).toBe(120);
   });
   it('locate --address 1-2-4 finds the period-4 disk on the period-2 disk at -1.3107...', () => {
     const r = run('locate', '--address', '1-2-4', '--digits', '15', '--json');

@@ -12,6 +12,8 @@ import { agreeingDigits, constantsPlan, MAX_ORDER, MIN_ORDER, type ConstantsPlan
 import { formatTable, integerCell, type SectionTable } from '../../section/section-table.js';
 import { UserError } from '../../check/user-error.js';
 import { optionalInteger } from '../../check/fields.js';
+import { createProgress } from '../../render/progress.js';
+import { PROGRESS_JSON_OPTION } from '../option-spec.js';
 import {
   addOptions,
   clearProgress,
@@ -39,6 +41,7 @@ export const CONSTANTS_OPTIONS: readonly SectionOption[] = [
   WORKERS_OPTION,
   JSON_OPTION,
   CSV_OPTION,
+  PROGRESS_JSON_OPTION,
 ];
 
 /** The order Z: an integer from 2 to 16; a non-integer order is refused by name (the series is in |x|^Z with integer Z). */
@@ -79,7 +82,11 @@ function eta(seconds: number, fraction: number): string {
   return left < 90 ? `, about ${Math.ceil(left)} s left` : `, about ${Math.ceil(left / 60)} min left`;
 }
 
-export async function constantsTable(values: Values, progress: (s: string) => void, timing?: (seconds: number, workers: number) => void): Promise<SectionTable> {
+export async function constantsTable(
+  values: Values,
+  progress: (s: string, fraction: number, stage: string) => void,
+  timing?: (seconds: number, workers: number) => void,
+): Promise<SectionTable> {
   const order = parseOrder(values['order']);
   const digits = optionalInteger(values['digits'], '--digits', 1, MAX_DIGITS) ?? DEFAULT_DIGITS;
   const workers = parseWorkers(values['workers']);
@@ -89,7 +96,7 @@ export async function constantsTable(values: Values, progress: (s: string) => vo
   const places = digits + 4;
   const [low, high] = await constantsOnWorkers(plan, Math.min(workers, 2), places, (fraction, step) => {
     const s = (Date.now() - started) / 1000;
-    progress(`${step.stage} with ${step.terms} terms at ${step.bits} bits: ${Math.round(fraction * 100)}% in ${s.toFixed(1)} s${eta(s, fraction)}`);
+    progress(`${step.stage} with ${step.terms} terms at ${step.bits} bits: ${Math.round(fraction * 100)}% in ${s.toFixed(1)} s${eta(s, fraction)}`, fraction, step.stage);
   });
   timing?.((Date.now() - started) / 1000, Math.min(workers, 2));
   const shown = (a: string, b: string): { text: string; significant: number } => {
@@ -126,7 +133,12 @@ export function register(section: Command): void {
   cmd.action(
     guarded(async (values: Values) => {
       const format = tableFormat(values);
-      const table = await constantsTable(values, progressLine, (seconds, workers) => {
+      // --progress-json: the shared reporter, counting thousandths of the weighted work (the plan's own measure of progress)
+      const json = values['progressJson'] === true ? createProgress('constants', { json: true }) : null;
+      const report = json === null ? progressLine : (_: string, fraction: number, stage: string): void => json.update(Math.round(fraction * 1000), 1000, stage);
+      const table = await constantsTable(values, report, (seconds, workers) => {
+        // the truncations' own fractions stop short of 1 once their digits agree: the last line says the work is done
+        json?.update(1000, 1000, 'done');
         clearProgress();
         process.stderr.write(`quadatlas: constants in ${seconds.toFixed(2)} s on ${workers} worker${workers === 1 ? '' : 's'}\n`);
       });
