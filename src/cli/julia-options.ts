@@ -6,7 +6,7 @@
  */
 import { attributeName, PLATE_OPTIONS } from './plate-options.js';
 import type { OptionSpec } from './option-spec.js';
-import { UserError } from '../check/user-error.js';
+import { Received, UserError } from '../check/user-error.js';
 
 /** Figure flags of plates whose Julia meaning differs: `--rays` (dynamic rays here, declared below) and those read in z. */
 const REPLACED = new Set(['--rays <angles>', '--axes', '--scale-bar', '--equipotentials <n>', '--marks <file.csv>', '--center <re,im>', '--span <width>']);
@@ -105,7 +105,12 @@ export function applyJuliaOptions(sheet: Record<string, unknown>, values: Record
     const key = attributeName(flags);
     const given = flags.startsWith('--no-') ? values[key] === false : values[key] !== undefined;
     const flag = flags.split(' ')[0]!;
-    if (given) throw new UserError(flag, `an option of Julia plates (${REFUSED_WHY[flag] ?? 'this one belongs to c-plane plates'})`, flag);
+    if (given)
+      throw new UserError(
+        flag,
+        `an option of Julia plates (${REFUSED_WHY[flag] ?? 'this one belongs to c-plane plates'})`,
+        new Received(typeof values[key] === 'string' ? `${flag} ${String(values[key])}` : flag),
+      );
   }
   for (const spec of JULIA_OPTIONS) {
     if (!spec.apply) continue;

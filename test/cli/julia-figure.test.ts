@@ -6,7 +6,7 @@
  * (test/cli/figure.test.ts).
  */
 import { spawnSync } from 'node:child_process';
-import { readFileSync, writeFileSync } from 'node:fs';
+import { readdirSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
 import path from 'node:path';
 import { describe, expect, it } from 'vitest';
 import { requireInCi } from '../helpers/require-in-ci.js';
@@ -224,4 +224,116 @@ describe('julia --equipotentials', () => {
     expect(r.stderr.trim().split('\n')).toHaveLength(1);
     expect(r.stderr).toMatch(/^quadatlas: Expected at most \d+ levels in this view \(c is outside the set: levels must lie above 2 G_c\(0\)/);
   });
+});
+
+/** Polylines of an SVG figure with this stroke colour, as lists of page points. */
+function polylines(svg: string, stroke: string): Array<Array<[number, number]>> {
+  return [...svg.matchAll(new RegExp(`<polyline points="([^"]+)" fill="none" stroke="${stroke}"`, 'g'))].map((m) =>
+    m[1]!
+      .trim()
+      .split(' ')
+      .map((p) => p.split(',').map(Number) as [number, number]),
+  );
+}
+
+/** The centre of a closed polyline (its points but the repeated last one). */
+function centre(line: Array<[number, number]>): [number, number] {
+  const pts = line.slice(0, -1);
+  return [pts.reduce((a, p) => a + p[0], 0) / pts.length, pts.reduce((a, p) => a + p[1], 0) / pts.length];
+}
+
+describe('julia figure marks', () => {
+  it('--marks FILE.csv rings each point z where the view puts it and records the rows, so --again needs no file; --fixed-points are discs at alpha and beta, (1 -+ sqrt(1 - 4c))/2', () => {
+    const dir = tempDir();
+    const csv = path.join(dir, 'm.csv');
+    // the rabbit's period-3 cycle point nearest 0 is not known in closed form; these points are plain positions in z
+    writeFileSync(csv, 're,im,label\n0,0,critical point\n-0.5,0.5,a point\n9,9,far away\n');
+    const file = path.join(dir, 'm.svg');
+    const r = runCli(['julia', ...FLAGS, '--marks', csv, '--fixed-points', '--out', file, '--json']);
+    expect(r.status, r.stderr).toBe(0);
+    const out = JSON.parse(r.stdout) as { marks: Array<{ label: string; inView: boolean }>; figure: { plate: Plate } };
+    expect(out.marks.map((m) => [m.label, m.inView])).toEqual([
+      ['critical point', true],
+      ['a point', true],
+      ['far away', false],
+    ]);
+    const svg = readFileSync(file, 'utf8');
+    const plate = out.figure.plate;
+    const spacing = VIEW.span / VIEW.width;
+    const zAt = ([x, y]: [number, number]): [number, number] => [
+      VIEW.re + (((x - plate.x) / plate.width) * VIEW.width - VIEW.width / 2) * spacing,
+      VIEW.im + (VIEW.height / 2 - ((y - plate.y) / plate.height) * VIEW.height) * spacing,
+    ];
+    // coordinates are printed to 1/1000 pt; a quarter pixel is far more than that
+    const near = (centres: Array<[number, number]>, re: number, im: number): boolean => centres.some(([a, b]) => Math.hypot(a - re, b - im) < spacing / 4);
+    const rings = polylines(svg, '#ffffff')
+      .filter((l) => l.length === 17)
+      .map((l) => zAt(centre(l)));
+    expect(near(rings, 0, 0)).toBe(true);
+    expect(near(rings, -0.5, 0.5)).toBe(true);
+    // alpha and beta from the formula, with the principal square root (exact algebra), computed here
+    const [cr, ci] = RABBIT.split(',').map(Number) as [number, number];
+    const [ur, ui] = [1 - 4 * cr, -4 * ci];
+    const m = Math.hypot(ur, ui);
+    const [sr, si] = [Math.sqrt((m + ur) / 2), (ui < 0 ? -1 : 1) * Math.sqrt((m - ur) / 2)];
+    const alpha = polylines(svg, '#e8364f').map((l) => zAt(centre(l)));
+    const beta = polylines(svg, '#2f9bff').map((l) => zAt(centre(l)));
+    expect(alpha).toHaveLength(1);
+    expect(beta).toHaveLength(1);
+    expect(near(alpha, (1 - sr) / 2, -si / 2)).toBe(true);
+    expect(near(beta, (1 + sr) / 2, si / 2)).toBe(true);
+    const labels = [...svg.matchAll(/class="mark" aria-label="([^"]+)"/g)].map((x) => x[1]);
+    expect(labels).toEqual(expect.arrayContaining(['critical point', 'a point', '\u03b1', '\u03b2']));
+    rmSync(csv);
+    const again = runCli(['julia', '--again', file]);
+    expect(again.status, again.stderr).toBe(0);
+    expect(readFileSync(path.join(dir, 'm-again.svg')).equals(readFileSync(file))).toBe(true);
+  });
+
+  it('--rays 1/7,2/7,4/7 on the rabbit are vector curves labelled with their angles, each ending within a pixel of alpha (Douady-Hubbard: they land at alpha)', () => {
+    const dir = tempDir();
+    const file = path.join(dir, 'r.svg');
+    const r = runCli(['julia', ...FLAGS, '--rays', '1/7,2/7,4/7', '--out', file, '--json']);
+    expect(r.status, r.stderr).toBe(0);
+    const out = JSON.parse(r.stdout) as { figure: { plate: Plate } };
+    const svg = readFileSync(file, 'utf8');
+    const plate = out.figure.plate;
+    const rays = polylines(svg, '#ffffff').filter((l) => l.length > 17);
+    expect(rays.length).toBeGreaterThanOrEqual(3);
+    const [cr, ci] = RABBIT.split(',').map(Number) as [number, number];
+    const [ur, ui] = [1 - 4 * cr, -4 * ci];
+    const m = Math.hypot(ur, ui);
+    const alpha = [(1 - Math.sqrt((m + ur) / 2)) / 2, ((ui < 0 ? 1 : -1) * Math.sqrt((m - ur) / 2)) / 2];
+    const spacing = VIEW.span / VIEW.width;
+    const zAt = ([x, y]: [number, number]): [number, number] => [
+      VIEW.re + (((x - plate.x) / plate.width) * VIEW.width - VIEW.width / 2) * spacing,
+      VIEW.im + (VIEW.height / 2 - ((y - plate.y) / plate.height) * VIEW.height) * spacing,
+    ];
+    // Traced to potential 2^-48 ln R, a ray of period 3 is still about G^(ln|lambda^3| / ln 8) from alpha, lambda = 2 alpha
+    // (|lambda| = 1.108, so 2^-45^0.148 ~ 0.01): the drawn end must lie within 0.02 of alpha.
+    for (const ray of rays) {
+      const [re, im] = zAt(ray.at(-1)!);
+      expect(Math.hypot(re - alpha[0]!, im - alpha[1]!)).toBeLessThan(0.02);
+    }
+    const labels = [...svg.matchAll(/class="ray" aria-label="([^"]+)"/g)].map((x) => x[1]);
+    expect(labels.sort()).toEqual(['1/7', '2/7', '4/7']);
+  });
+});
+
+describe('julia refuses the options of c-plane figures', () => {
+  for (const [flag, value] of [
+    ['--rays-of', '3'],
+    ['--label-periods', '4'],
+    ['--internal-rays', '1:0,1/3'],
+    ['--outlines', '2'],
+  ] as const) {
+    it(`${flag}: one line naming the option, exit 2, no file`, () => {
+      const dir = tempDir();
+      const r = runCli(['julia', '--c', '-1,0', '--size', '40x30', flag, value, '--out', path.join(dir, 'j.pdf')]);
+      expect(r.status).toBe(2);
+      expect(r.stderr.trim().split('\n')).toHaveLength(1);
+      expect(r.stderr.trim()).toMatch(new RegExp(`^quadatlas: Expected an option of Julia plates \\(.+\\) for ${flag} but received ${flag} ${value.replace('/', '\\/')}$`));
+      expect(readdirSync(dir)).toEqual([]);
+    });
+  }
 });
