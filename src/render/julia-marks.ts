@@ -3,6 +3,7 @@ import type { Stroke } from '../colour/paint-strokes.js';
 import { criticalOrbit } from '../dynamic/critical-orbit.js';
 import { dynamicRay, rayAngle, DEFAULT_RAY_OPTIONS } from '../dynamic/dynamic-ray.js';
 import { fixedPoints } from '../dynamic/fixed-points.js';
+import { rayLanding } from '../dynamic/ray-landing.js';
 import type { JuliaCycle } from '../dynamic/julia-cycle.js';
 import type { JuliaMarks } from '../view/julia-sheet.js';
 import { cToPixel, type DoubleGrid } from '../view/view.js';
@@ -36,7 +37,7 @@ export interface JuliaMarkGeometry {
 
 /** The marks of a Julia sheet in z (doubles), before any drawing: for the plate's strokes and the figure's vector annotations alike. */
 export interface JuliaMarkPoints {
-  /** Each ray from radius R inward: z values (re, im, ...). */
+  /** Each ray from radius R inward, z values (re, im, ...), ending at its landing point where Newton found it. */
   readonly rays: ReadonlyArray<{ readonly angle: string; readonly points: readonly number[] }>;
   /** The critical orbit's first points (re, im, ...), or null. */
   readonly orbit: readonly number[] | null;
@@ -55,12 +56,19 @@ export function juliaMarkPoints(marks: JuliaMarks, cRe: number, cIm: number, cyc
   const record: Record<string, unknown> = {};
   const rays: Array<{ angle: string; points: number[] }> = [];
   if (marks.rays.length > 0) {
-    const summary: Array<{ angle: string; end: { re: number; im: number }; points: number }> = [];
+    const summary: Array<{ angle: string; end: { re: number; im: number }; landing: { re: number; im: number } | null; points: number }> = [];
     for (const text of marks.rays) {
       const [num, den] = rayAngle(text)!;
       const zs = dynamicRay(cRe, cIm, num, den, { ...DEFAULT_RAY_OPTIONS, depth: RAY_DEPTH });
-      rays.push({ angle: `${num}/${den}`, points: zs });
-      summary.push({ angle: `${num}/${den}`, end: { re: zs[zs.length - 2]!, im: zs[zs.length - 1]! }, points: zs.length / 2 });
+      // finished at its landing point where Newton finds it (the trace alone may stop short of a weakly repelling point)
+      const landing = rayLanding(cRe, cIm, num, den, zs, DEFAULT_RAY_OPTIONS.sharpness);
+      rays.push({ angle: `${num}/${den}`, points: landing === null ? zs : [...zs, ...landing] });
+      summary.push({
+        angle: `${num}/${den}`,
+        end: { re: zs[zs.length - 2]!, im: zs[zs.length - 1]! },
+        landing: landing === null ? null : { re: landing[0], im: landing[1] },
+        points: zs.length / 2,
+      });
     }
     record['rays'] = summary;
   }

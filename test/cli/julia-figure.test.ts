@@ -290,7 +290,7 @@ describe('julia figure marks', () => {
     expect(readFileSync(path.join(dir, 'm-again.svg')).equals(readFileSync(file))).toBe(true);
   });
 
-  it('--rays 1/7,2/7,4/7 on the rabbit are vector curves labelled with their angles, each ending within a pixel of alpha (Douady-Hubbard: they land at alpha)', () => {
+  it('--rays 1/7,2/7,4/7 on the rabbit are vector curves labelled with their angles, each finished at alpha (Douady-Hubbard: they land there)', () => {
     const dir = tempDir();
     const file = path.join(dir, 'r.svg');
     const r = runCli(['julia', ...FLAGS, '--rays', '1/7,2/7,4/7', '--out', file, '--json']);
@@ -309,12 +309,13 @@ describe('julia figure marks', () => {
       VIEW.re + (((x - plate.x) / plate.width) * VIEW.width - VIEW.width / 2) * spacing,
       VIEW.im + (VIEW.height / 2 - ((y - plate.y) / plate.height) * VIEW.height) * spacing,
     ];
-    // Traced to potential 2^-48 ln R, a ray of period 3 is still about G^(ln|lambda^3| / ln 8) from alpha, lambda = 2 alpha
-    // (|lambda| = 1.108, so 2^-45^0.148 ~ 0.01): the drawn end must lie within 0.02 of alpha.
+    // each ray is finished at its landing point, alpha, to the SVG's printed precision (1/1000 pt, both ways)
     for (const ray of rays) {
       const [re, im] = zAt(ray.at(-1)!);
-      expect(Math.hypot(re - alpha[0]!, im - alpha[1]!)).toBeLessThan(0.02);
+      expect(Math.hypot(re - alpha[0]!, im - alpha[1]!)).toBeLessThan((2 * (VIEW.span / plate.width)) / 1000);
     }
+    const landed = (JSON.parse(r.stdout) as { julia: { marks: { rays: Array<{ landing: { re: number; im: number } }> } } }).julia.marks.rays;
+    for (const ray of landed) expect(Math.hypot(ray.landing.re - alpha[0]!, ray.landing.im - alpha[1]!)).toBeLessThan(1e-12);
     const labels = [...svg.matchAll(/class="ray" aria-label="([^"]+)"/g)].map((x) => x[1]);
     expect(labels.sort()).toEqual(['1/7', '2/7', '4/7']);
   });
