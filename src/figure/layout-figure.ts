@@ -378,7 +378,7 @@ function placeRayLabel(
   return null;
 }
 
-/** Where a point's label goes: right of the ring, then left, above, below; null when none of those is free. */
+/** Where a point's label goes: right of the ring, then left, above, below, then the four diagonals; null when none of those is free. */
 function placePointLabel(
   font: FigureFont,
   text: string,
@@ -400,6 +400,12 @@ function placePointLabel(
     { x: cx - off - bw, y: cy - bh / 2 },
     { x: cx - bw / 2, y: cy - off - bh },
     { x: cx - bw / 2, y: cy + off },
+    // then the diagonals, for a point where curves cross (a Julia plate's alpha, with its rays and the orbit)
+    // (the box's corner off the ring's box by the same gap both ways)
+    { x: cx + off - 1, y: cy - off + 1 - bh },
+    { x: cx - off + 1 - bw, y: cy - off + 1 - bh },
+    { x: cx + off - 1, y: cy + off - 1 },
+    { x: cx - off + 1 - bw, y: cy + off - 1 },
   ];
   for (const c of candidates) {
     const box = { x: c.x, y: c.y, width: bw, height: bh };
