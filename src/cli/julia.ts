@@ -8,6 +8,7 @@ import type { Command } from 'commander';
 import { parseJuliaSheet } from '../view/julia-sheet.js';
 import { applyJuliaOptions, JULIA_OPTIONS } from './julia-options.js';
 import { applyMarksFile, sheetFromPlate } from './plate.js';
+import { nameTheFlag } from './plate-options.js';
 import { renderJuliaSheet } from '../render/render-julia.js';
 import { readSheetFile, sheetName } from './sheet-file.js';
 import { UserError } from '../check/user-error.js';
@@ -43,11 +44,17 @@ export function register(program: Command): void {
     if (raw['c'] === undefined && raw['cardioidAngle'] === undefined && values['c'] === undefined && values['cardioidAngle'] === undefined) {
       throw new UserError('--c', 'a parameter --c RE,IM (or --cardioid-angle THETA, or a sheet holding c)', values['c']);
     }
-    const sheet = parseJuliaSheet(await applyMarksFile(applyJuliaOptions(raw, values), values), name);
     const workers = optionalInteger(values['workers'], '--workers', 1, 256);
     const tileSize = optionalInteger(values['tileSize'], '--tile-size', 8, 1024);
     const options = { ...(workers === undefined ? {} : { workers }), ...(tileSize === undefined ? {} : { tileSize }) };
-    const summary = sheet.figure === null ? await renderJuliaSheet(sheet, options) : await (await import('../render/render-julia-figure.js')).renderJuliaFigure(sheet, options);
+    let summary;
+    try {
+      const sheet = parseJuliaSheet(await applyMarksFile(applyJuliaOptions(raw, values), values), name);
+      summary = sheet.figure === null ? await renderJuliaSheet(sheet, options) : await (await import('../render/render-julia-figure.js')).renderJuliaFigure(sheet, options);
+    } catch (err) {
+      // a sheet field set by a flag is named with the flag: "--equipotentials (sheet field figure.equipotentials)"
+      throw nameTheFlag(err, values);
+    }
     if (values['json'] === true) process.stdout.write(`${JSON.stringify(summary, null, 2)}\n`);
     else process.stderr.write(`wrote ${summary.files.join(', ')} (${summary.seconds} s)\n`);
   });
