@@ -527,18 +527,21 @@ describe('figure bad input', () => {
     expect(readdirSync(dir)).toEqual(['d.pdf']);
   });
 
-  it('julia keeps its own --rays and refuses a figure output in one line', () => {
+  it('julia keeps its own --rays (dynamic rays) and refuses the parameter rays of a sheet (figure.rays) in one line', () => {
     const dir = tempDir();
     const help = runCli(['julia', '--help']);
     expect(help.status, help.stderr).toBe(0);
     expect(help.stdout).toContain('dynamic rays');
-    expect(help.stdout).not.toContain('--axes');
-    const r = runCli(['julia', '--c', '-1,0', '--size', '40x30', '--out', path.join(dir, 'j.pdf')]);
-    expect(r.status).toBe(2);
-    expect(r.stderr.trim()).toMatch(
-      /^quadatlas: Expected a file name ending in \.png, \.tif or \.tiff \(figures are drawn for plates of the c-plane\) for .*output\.file.* but received .*j\.pdf"?$/,
+    expect(help.stdout).toContain('Re z and Im z');
+    const sheet = path.join(dir, 'j.json');
+    writeFileSync(
+      sheet,
+      JSON.stringify({ kind: 'julia', c: { re: '-1', im: '0' }, pixels: { width: 40, height: 30 }, output: { file: path.join(dir, 'j.pdf') }, figure: { rays: ['1/3'] } }),
     );
-    expect(readdirSync(dir)).toEqual([]);
+    const r = runCli(['julia', sheet]);
+    expect(r.status).toBe(2);
+    expect(r.stderr.trim()).toBe('quadatlas: Expected no parameter rays on a Julia figure (its dynamic rays are marks.rays, --rays) for figure.rays but received ["1/3"]');
+    expect(readdirSync(dir)).toEqual(['j.json']);
   });
 
   it('a sheet whose figure.caption is not a string names the field', () => {
