@@ -1,6 +1,6 @@
 /**
  * Every Misiurewicz point of exact preperiod K and period P (docs/methods.md
- * D6), with the external angles that land on each.
+ * D7), with the external angles that land on each.
  *
  * Points: all roots of the Hutz-Towsley polynomial H by Aberth-Ehrlich in
  * doubles (misiurewicz-points.ts), each refined by Newton in fixed point,
@@ -114,7 +114,13 @@ function landDouble(preperiod: number, period: number, cr: number, ci: number): 
 }
 
 /** Lists the (K, P) points to `digits` digits; progress on each stage through `onProgress`. */
-export function listMisiurewicz(preperiod: number, period: number, digits: number, onProgress?: (stage: string, done: number, total: number) => void): MisiurewiczListing {
+export function listMisiurewicz(
+  preperiod: number,
+  period: number,
+  digits: number,
+  onProgress?: (stage: string, done: number, total: number) => void,
+  withAngles = true,
+): MisiurewiczListing {
   const expected = misiurewiczCount(preperiod, period);
   const aberth = aberthMisiurewicz(preperiod, period, onProgress === undefined ? undefined : (d, t) => onProgress('roots', d, t));
   const points: ListedMisiurewicz[] = [];
@@ -139,7 +145,7 @@ export function listMisiurewicz(preperiod: number, period: number, digits: numbe
     points.push({ ...p, re, im, angles: [] });
     onProgress?.('refine', i + 1, expected);
   }
-  const { anglePeriods, raysTraced } = attachAngles(preperiod, period, points, onProgress);
+  const { anglePeriods, raysTraced } = withAngles ? attachAngles(preperiod, period, points, onProgress) : { anglePeriods: [], raysTraced: 0 };
   for (const p of points) p.angles.sort((a, b) => (a.num * b.den < b.num * a.den ? -1 : 1));
   // rows by their lowest angle (counter-clockwise from the cusp), points without a found angle last, by re then im
   points.sort((a, b) => {

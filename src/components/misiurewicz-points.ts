@@ -1,5 +1,5 @@
 /**
- * Misiurewicz points of exact preperiod K and period P (docs/methods.md D6).
+ * Misiurewicz points of exact preperiod K and period P (docs/methods.md D7).
  *
  * Convention: K and P are the preperiod and period of the critical value's
  * orbit, z_1 = c, z_{n+1} = z_n^2 + c: z_{K+1+P} = z_{K+1}, with K and P the
