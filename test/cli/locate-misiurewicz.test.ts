@@ -82,6 +82,7 @@ describe('bad input: one line naming the field, exit 2', () => {
     [['components', '--misiurewicz', '12,12'], '--misiurewicz'],
     [['components', '--misiurewicz', '-1,2'], '--misiurewicz preperiod'],
     [['components', '--misiurewicz', '2,2', '--period', '3'], '--misiurewicz'],
+    [['components'], '--period'],
   ] as const) {
     it(`${args.join(' ')} names ${field}`, () => {
       const r = runCli([...args]);
