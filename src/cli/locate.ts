@@ -25,9 +25,10 @@ import { parseInteger } from '../check/fields.js';
 import { addOptions, type OptionSpec } from './option-spec.js';
 import { componentName, parseComponent, tune } from '../components/tuning.js';
 import { componentSpan, plateCommandLine } from './plate-command.js';
-import { misiurewiczSpan, orbitType, parseMisiurewiczType, refineMisiurewicz } from '../components/misiurewicz-points.js';
+import { misiurewiczSpan, parseMisiurewiczType, refineMisiurewicz } from '../components/misiurewicz-points.js';
+import type { MisiurewiczPoint } from '../components/misiurewicz-points.js';
 import { attachAngles } from '../components/misiurewicz-list.js';
-import { bitsForDigits, fixedScale, fromDecimal, toNumber } from '../precise/fixed.js';
+import { toNumber } from '../precise/fixed.js';
 
 /** Spans below this are rendered in deep arithmetic: the printed plate command names the nucleus as reference. */
 const DEEP_SPAN = 1e-10;
@@ -127,7 +128,7 @@ export function register(program: Command): void {
           if (!end.ok) throw new UserError('--angle', 'an angle whose ray can be traced in double-double precision', angleText(angle));
           const found = findMisiurewicz(orbit.preperiod, p, end, digits);
           // the orbit's own period may divide the angle's (q rays meeting at each point of the cycle: 5/12 lands on the fixed point alpha)
-          const point = refineMisiurewicz(orbit.preperiod, orbitPeriod(found, orbit.preperiod, p, digits), found, digits, '--angle');
+          const point = refineForAngle(orbit.preperiod, p, found, digits);
           const span = misiurewiczSpan(point, orbit.preperiod);
           out = { misiurewicz: point.c, preperiod: orbit.preperiod, period: point.type.period, anglePeriod: p, externalAngle: angleText(angle), plateSpan: span.span };
           lines = [
@@ -206,11 +207,23 @@ export function register(program: Command): void {
   );
 }
 
-/** The exact period of the orbit at a point found for an angle of preperiod k and period p (a divisor of p). */
-function orbitPeriod(c: { re: string; im: string }, k: number, p: number, digits: number): number {
-  const s = fixedScale(bitsForDigits(digits, 32));
-  const t = orbitType({ re: fromDecimal(c.re, s), im: fromDecimal(c.im, s) }, s, k, p);
-  return t === null ? p : t.period;
+/**
+ * The point of preperiod k whose orbit period divides the angle's period p, refined and checked
+ * (q rays meeting at each point of the cycle make the orbit's period p / q: 1/7 after a
+ * preperiod lands on the fixed point alpha when c is in the 1/3 limb). Divisors are tried from
+ * the smallest; the first whose Newton converges to a point of exactly that type is it.
+ */
+function refineForAngle(k: number, p: number, found: { re: string; im: string }, digits: number): MisiurewiczPoint {
+  let last: unknown = null;
+  for (let d = 1; d <= p; d += 1) {
+    if (p % d !== 0) continue;
+    try {
+      return refineMisiurewicz(k, d, found, digits, '--angle');
+    } catch (e) {
+      last = e;
+    }
+  }
+  throw last;
 }
 
 function toAngle(n: number, den: number): Angle {
