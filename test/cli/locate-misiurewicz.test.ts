@@ -93,3 +93,18 @@ describe('bad input: one line naming the field, exit 2', () => {
     });
   }
 });
+
+describe('README: the deep plate found by navigation alone', () => {
+  it('the plate command under "angles in, picture out" is centred where locate --angle lands the ray', async () => {
+    const { readFileSync } = await import('node:fs');
+    const { ROOT } = await import('../helpers/run-cli.js');
+    const readme = readFileSync(path.join(ROOT, 'README.md'), 'utf8');
+    const m = /npx quadatlas locate --angle (\d+\/\d+) --digits (\d+)[^\n]*\nnpx quadatlas plate --center (\S+)/.exec(readme);
+    expect(m).not.toBeNull();
+    const r = runCli(['locate', '--json', '--angle', m![1]!, '--digits', m![2]!]);
+    expect(r.status, r.stderr).toBe(0);
+    const j = JSON.parse(r.stdout) as Located;
+    expect(m![3]).toBe(`${j.misiurewicz.re},${j.misiurewicz.im}`);
+    expect(j.plateCommand).toContain(`--center ${m![3]!} `);
+  });
+});
