@@ -94,13 +94,13 @@ export function register(program: Command): void {
           angleSearch: { periods: search.anglePeriods, raysTraced: search.raysTraced },
           plateSpan: span.span,
         };
-        const where = search.anglePeriods.length === 0 ? 'none searched (preperiod or period too large for the ray search)' : `searched periods ${search.anglePeriods.join(', ')}`;
+        const where = search.anglePeriods.length === 0 ? null : `searched periods ${search.anglePeriods.join(', ')}`;
         lines = [
           `Misiurewicz point ${point.c.re}, ${point.c.im}`,
           `preperiod         ${k}`,
           `period            ${p}`,
           `orbit check       z_${k + 1 + p} = z_${k + 1}; z_${k + p} != z_${k}${p > 1 ? ` and z_${k + 1}..z_${k + p} distinct` : ''} (nearest pair 2^${point.type.log2Separation} apart)`,
-          `external angles   ${angles.length > 0 ? angles.join(' ') : 'none found'} (${where})`,
+          `external angles   ${where === null ? 'not searched (preperiod above 40 or too many rays for the ray search)' : `${angles.length > 0 ? angles.join(' ') : 'none found'} (${where})`}`,
         ];
       } else if (o['near'] !== undefined) {
         if (period === null) throw new UserError('--period', 'an integer period with --near', 'nothing');
