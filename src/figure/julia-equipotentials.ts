@@ -4,7 +4,7 @@
  * complement, traced exactly by the tracer of equipotentials.ts. The
  * Böttcher coordinate phi_c conjugates f_c to w -> w^2 near infinity and
  * G_c = ln|phi_c| (Milnor, "Dynamics in One Complex Variable", section 9,
- * docs/methods.md D7), so each point of the
+ * docs/methods.md D8), so each point of the
  * level G solves
  *   f_c^(k-1)(z) = e^(2^(k-1) (G + 2 pi i theta)),
  * the parameter plane's equation with F^k(0, c) replaced by f_c^(k-1)(z)
