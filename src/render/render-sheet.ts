@@ -17,6 +17,7 @@ import type { RasterSink, RasterSpec } from '../io/raster-sink.js';
 import { openTiffSink } from '../io/tiff-sink.js';
 import { writeFileAtomic } from '../io/write-file-atomic.js';
 import { legendBounds, legendSvg, presentPeriods } from '../colour/legend.js';
+import { figureFont } from '../figure/figure-font.js';
 import { DEFAULT_ESCAPE_RADIUS } from '../plane/sample-parameters.js';
 import type { PlateJob, TileStats } from './plate-job.js';
 import { createProgress } from './progress.js';
@@ -207,7 +208,7 @@ export async function renderSheet(sheet: Sheet, options: RenderSheetOptions = {}
   const workers = options.workers ?? os.availableParallelism();
   const tileSize = options.tileSize ?? DEFAULT_TILE_SIZE;
   // Periods never exceed the iteration limit, which bounds the legend's number width.
-  const bounds = legendBounds(sheet.colour, sheet.width, sheet.height, sheet.dpi, String(iterations).length);
+  const bounds = legendBounds(sheet.colour, sheet.width, sheet.height, sheet.dpi, String(iterations).length, figureFont());
   const { job, referenceSeconds, tableSeconds, memory } = sheetJob(
     sheet,
     grid,
