@@ -10,7 +10,7 @@
  * Pure string building: the two rasters arrive as PNG data, text is set and
  * measured by the caller's Lettering (lettering.ts).
  */
-import type { Lettering } from './lettering.js';
+import { wrapLines, type Lettering } from './lettering.js';
 import { niceTicks } from './plot-svg.js';
 
 export interface CompareMark {
@@ -55,6 +55,10 @@ class Labels {
   }
 }
 
+const C_TITLE = 'c (the plane z -> z^2 + c; real axis through the middle of the strip)';
+const R_TITLE = 'r (logistic x -> r x (1 - x)), with c = r/2 - r^2/4: r grows to the left';
+const FOOTNOTE = "red: period doublings of the cascade; blue dashed: nucleus of each window's component, labelled by period; shaded: window onset to end";
+
 function esc(s: string): string {
   return s.replace(/&/g, '&amp;').replace(/</g, '&lt;').replace(/>/g, '&gt;');
 }
@@ -64,16 +68,28 @@ export function comparePlateSvg(spec: CompareSpec, lettering: Lettering): string
   const { from, to, width: W, stripHeight: hs, diagramHeight: hd } = spec;
   const left = 84;
   const right = 60;
-  const top = 116;
-  const bottom = 80;
   const totalW = W + left + right;
-  const totalH = top + hs + hd + bottom;
+  // Text rows from the top: title (18 px, wrapped to the page), the c axis title (14 px, wrapped, centred on the
+  // panels), the c tick labels, the mark labels, then the panels; below them the r tick labels, the r axis
+  // title and the footnote (11 px, wrapped, right-aligned). Each wrapped line pushes what follows down, so no
+  // text runs off the page or onto a tick at any size; with one line each the rows sit as they always did.
+  const centreHalf = Math.min(left + W / 2, totalW - left - W / 2) - 8;
+  const titleLines = wrapLines(L, spec.title, 18, totalW - left - 8);
+  const cTitleLines = wrapLines(L, C_TITLE, 14, 2 * centreHalf);
+  const rTitleLines = wrapLines(L, R_TITLE, 14, 2 * centreHalf);
+  const noteLines = wrapLines(L, FOOTNOTE, 11, left + W - 8);
+  const cTitleY = 28 + 22 * (titleLines.length - 1) + 32;
+  const top = cTitleY + 18 * (cTitleLines.length - 1) + 56;
+  const bottomEdge = top + hs + hd;
+  const rTitleY = bottomEdge + 50;
+  const noteY = rTitleY + 18 * (rTitleLines.length - 1) + 22;
+  const totalH = noteY + 14 * (noteLines.length - 1) + 8;
   const x = (c: number): number => left + ((c - from) / (to - from)) * W;
   const f = (v: number): string => v.toFixed(2);
   const out: string[] = [];
   out.push(`<svg xmlns="http://www.w3.org/2000/svg" xmlns:xlink="http://www.w3.org/1999/xlink" width="${totalW}" height="${totalH}" viewBox="0 0 ${totalW} ${totalH}">`);
   out.push(`<rect width="${totalW}" height="${totalH}" fill="white"/>`);
-  out.push(L.text(spec.title, left, 28, 18, 'start', 'black', false, 'title'));
+  titleLines.forEach((t, i) => out.push(L.text(t, left, 28 + 22 * i, 18, 'start', 'black', false, 'title')));
   out.push(`<image x="${left}" y="${top}" width="${W}" height="${hs}" xlink:href="data:image/png;base64,${spec.stripPng}"/>`);
   out.push(`<image x="${left}" y="${top + hs}" width="${W}" height="${hd}" xlink:href="data:image/png;base64,${spec.diagramPng}"/>`);
   for (const m of spec.marks) {
@@ -126,20 +142,9 @@ export function comparePlateSvg(spec: CompareSpec, lettering: Lettering): string
   }
   out.push(L.text('Im c', 20, top + hs / 2, 14, 'middle', 'black', true, 'axis-title'));
   out.push(L.text('x', 20, top + hs + hd / 2, 14, 'middle', 'black', true, 'axis-title'));
-  out.push(L.text('c (the plane z -> z^2 + c; real axis through the middle of the strip)', left + W / 2, top - 56, 14, 'middle', 'black', false, 'axis-title'));
-  out.push(L.text('r (logistic x -> r x (1 - x)), with c = r/2 - r^2/4: r grows to the left', left + W / 2, top + hs + hd + 50, 14, 'middle', 'black', false, 'axis-title'));
-  out.push(
-    L.text(
-      "red: period doublings of the cascade; blue dashed: nucleus of each window's component, labelled by period; shaded: window onset to end",
-      left + W,
-      totalH - 8,
-      11,
-      'end',
-      '#555',
-      false,
-      'footnote',
-    ),
-  );
+  cTitleLines.forEach((t, i) => out.push(L.text(t, left + W / 2, cTitleY + 18 * i, 14, 'middle', 'black', false, 'axis-title')));
+  rTitleLines.forEach((t, i) => out.push(L.text(t, left + W / 2, rTitleY + 18 * i, 14, 'middle', 'black', false, 'axis-title')));
+  noteLines.forEach((t, i) => out.push(L.text(t, left + W, noteY + 14 * i, 11, 'end', '#555', false, 'footnote')));
   out.push('</svg>\n');
   return out.join('\n');
 }

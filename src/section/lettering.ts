@@ -16,3 +16,21 @@ export interface Lettering {
   /** Advance width of `s` at `size` px. */
   width(s: string, size: number): number;
 }
+
+/**
+ * `text` broken at spaces into lines each at most `maxWidth` wide at `size`
+ * (greedy, first fit); a word wider than maxWidth stands alone on its line.
+ */
+export function wrapLines(lettering: Lettering, text: string, size: number, maxWidth: number): string[] {
+  const lines: string[] = [];
+  let line = '';
+  for (const word of text.split(' ')) {
+    const next = line === '' ? word : `${line} ${word}`;
+    if (line !== '' && lettering.width(next, size) > maxWidth) {
+      lines.push(line);
+      line = word;
+    } else line = next;
+  }
+  if (line !== '') lines.push(line);
+  return lines;
+}

@@ -67,4 +67,32 @@ describe('comparePlateSvg', () => {
         for (let j = i + 1; j < boxes.length; j++) expect(overlaps(boxes[i]!, boxes[j]!), `${boxes[i]!.label} / ${boxes[j]!.label}`).toBe(false);
     });
   }
+
+  for (const width of [1000, 400, 200, 100]) {
+    it(`at ${width} px wide every text lies on the page and no text overprints another, a tick or a mark line (title, axis titles and footnote wrap)`, () => {
+      const marks = [...spec.marks, { c: -1.368, label: '4->8', kind: 'doubling' as const }];
+      const svg = comparePlateSvg({ ...spec, width, marks });
+      const page = /<svg [^>]*width="(\d+)" height="(\d+)"/.exec(svg)!;
+      const [pw, ph] = [Number(page[1]), Number(page[2])];
+      const texts = outlines(svg).filter((o) => !o.rotated);
+      expect(texts.length).toBeGreaterThan(6);
+      for (const t of texts) {
+        expect(t.x0 >= 0 && t.x1 <= pw && t.y0 >= 0 && t.y1 <= ph, `${t.label} at ${t.x0}..${t.x1} x ${t.y0}..${t.y1} on ${pw} x ${ph}`).toBe(true);
+      }
+      for (let i = 0; i < texts.length; i++)
+        for (let j = i + 1; j < texts.length; j++) expect(overlaps(texts[i]!, texts[j]!), `${texts[i]!.label} / ${texts[j]!.label}`).toBe(false);
+      // every line segment of the plate: ticks (black) and marks (coloured), as thin boxes
+      const lines = [...svg.matchAll(/<line (?:class="[^"]+" )?x1="([\d.]+)" y1="([\d.]+)" x2="([\d.]+)" y2="([\d.]+)"/g)].map((m) => {
+        const [x1, y1, x2, y2] = [m[1], m[2], m[3], m[4]].map(Number) as [number, number, number, number];
+        return { cls: 'line', label: `line ${m[0]}`, rotated: false, x0: Math.min(x1, x2) - 0.4, x1: Math.max(x1, x2) + 0.4, y0: Math.min(y1, y2), y1: Math.max(y1, y2) };
+      });
+      expect(lines.length).toBeGreaterThan(6);
+      for (const t of texts) for (const l of lines) expect(overlaps(t, l), `${t.label} / ${l.label}`).toBe(false);
+      // the long texts are all there, however they were wrapped
+      const all = texts.map((t) => t.label).join(' ');
+      expect(all).toContain(spec.title);
+      expect(all).toContain('c (the plane z -> z^2 + c; real axis through the middle of the strip)');
+      expect(all).toContain('shaded: window onset to end');
+    });
+  }
 });
