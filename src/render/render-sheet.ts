@@ -161,7 +161,7 @@ async function periodLabels(grid: DoubleGrid, maxPeriod: number, dpi: number, wo
     const [x, y] = cToPixel(grid, n.re, n.im);
     return { period: n.period, x, y };
   });
-  return layoutPeriodLabels(points, dpi, grid.width, grid.height);
+  return layoutPeriodLabels(points, dpi, grid.width, grid.height, figureFont());
 }
 
 /** The pixel-centre coordinates beside the data arrays (docs/data.md): re/im for double views, offsets for deep ones. */

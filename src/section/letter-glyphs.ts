@@ -2,7 +2,7 @@
  * Our own 5 x 9 bitmap letters for figure text drawn without system fonts:
  * rows 0-6 hold capitals, digits and the bodies of small letters (x-height
  * rows 2-6), rows 7-8 the descenders. '#' is ink. Digits, I, N, T, E, R, O,
- * P, D and '-' follow the 5 x 7 legend font (src/colour/bitmap-font.ts).
+ * P, D and '-' follow the 5 x 7 digits the plate legend used until December 2026.
  */
 export const LETTER_W = 5;
 export const LETTER_H = 9;
