@@ -19,32 +19,45 @@ export const SUB = 16;
  * (i, j) spanning [i, i+1) x [j, j+1)) into out[j * width + i], clamped to 1.
  */
 export function fillCoverage(polygons: readonly ArrayLike<number>[], width: number, height: number, out: Float64Array): Float64Array {
+  // Edges (x0, y0, x1, y1, direction) bucketed by the pixel rows they cross, so a row looks only at its own.
+  const rows: number[][] = Array.from({ length: height }, () => []);
+  const edges: number[] = [];
+  for (const p of polygons) {
+    const n = p.length / 2;
+    for (let e = 0; e < n; e++) {
+      const f = (e + 1) % n;
+      const y0 = p[2 * e + 1]!;
+      const y1 = p[2 * f + 1]!;
+      if (y0 === y1) continue;
+      const lo = Math.max(0, Math.floor(Math.min(y0, y1)));
+      const hi = Math.min(height - 1, Math.floor(Math.max(y0, y1)));
+      if (hi < lo) continue;
+      const id = edges.length;
+      edges.push(p[2 * e]!, y0, p[2 * f]!, y1);
+      for (let j = lo; j <= hi; j++) rows[j]!.push(id);
+    }
+  }
   const cover = new Float64Array(width);
   const xs: number[] = [];
   const dirs: number[] = [];
   const order: number[] = [];
   for (let j = 0; j < height; j++) {
+    const bucket = rows[j]!;
+    if (bucket.length === 0) continue;
     cover.fill(0);
     let any = false;
     for (let s = 0; s < SUB; s++) {
       const y = j + (s + 0.5) / SUB;
       xs.length = 0;
       dirs.length = 0;
-      for (const p of polygons) {
-        const n = p.length / 2;
-        for (let e = 0; e < n; e++) {
-          const x0 = p[2 * e]!;
-          const y0 = p[2 * e + 1]!;
-          const f = (e + 1) % n;
-          const x1 = p[2 * f]!;
-          const y1 = p[2 * f + 1]!;
-          if (y0 === y1) continue;
-          const lo = Math.min(y0, y1);
-          const hi = Math.max(y0, y1);
-          if (y < lo || y >= hi) continue;
-          xs.push(x0 + ((y - y0) / (y1 - y0)) * (x1 - x0));
-          dirs.push(y1 > y0 ? 1 : -1);
-        }
+      for (const id of bucket) {
+        const x0 = edges[id]!;
+        const y0 = edges[id + 1]!;
+        const x1 = edges[id + 2]!;
+        const y1 = edges[id + 3]!;
+        if (y < Math.min(y0, y1) || y >= Math.max(y0, y1)) continue;
+        xs.push(x0 + ((y - y0) / (y1 - y0)) * (x1 - x0));
+        dirs.push(y1 > y0 ? 1 : -1);
       }
       if (xs.length === 0) continue;
       order.length = 0;

@@ -32,6 +32,8 @@ export const LEGEND_TITLE = 'Interior period';
 export interface LegendFont {
   width(text: string, size: number): number;
   contours(text: string, size: number, x: number, y: number, tolerance: number): number[][];
+  /** The outline of `text` as SVG path data, baseline from (x, y), y down. */
+  outline(text: string, size: number, x: number, y: number): string;
   readonly capHeight: number;
 }
 
@@ -171,15 +173,18 @@ export function legendBounds(settings: ColourSettings, plateWidth: number, plate
 }
 
 /**
- * Lays out and draws the inset legend for a plate of plateWidth x plateHeight
- * pixels printed at `dpi`, listing `periods` (presentPeriods of the plate's
- * histogram). Returns null unless settings.legend is 'inset' and at least
- * one period is listed.
- * The scale starts from legendScale(dpi) and steps down until the legend
- * fits inside the plate with its margin; at scale 1 a legend larger than the
- * plate is placed at the corner and clipped by paintLegendRows.
+ * Where layoutLegend puts the legend and at what scale, without drawing it:
+ * the rectangle in plate pixels and the pixels per cell; null when there is
+ * no inset legend.
  */
-export function layoutLegend(settings: ColourSettings, plateWidth: number, plateHeight: number, dpi: number, periods: readonly number[], font: LegendFont): Legend | null {
+export function legendPlacement(
+  settings: ColourSettings,
+  plateWidth: number,
+  plateHeight: number,
+  dpi: number,
+  periods: readonly number[],
+  font: LegendFont,
+): (PixelRect & { readonly scale: number }) | null {
   if (settings.legend !== 'inset' || periods.length === 0) return null;
   const n = periods.length;
   const digits = Math.max(...periods.map((p) => String(p).length));
@@ -194,6 +199,24 @@ export function layoutLegend(settings: ColourSettings, plateWidth: number, plate
   const width = cells.w * scale;
   const height = cells.h * scale;
   const { x, y } = corner(settings.legendCorner, plateWidth, plateHeight, width, height, margin);
+  return { x, y, width, height, scale };
+}
+
+/**
+ * Lays out and draws the inset legend for a plate of plateWidth x plateHeight
+ * pixels printed at `dpi`, listing `periods` (presentPeriods of the plate's
+ * histogram). Returns null unless settings.legend is 'inset' and at least
+ * one period is listed.
+ * The scale starts from legendScale(dpi) and steps down until the legend
+ * fits inside the plate with its margin; at scale 1 a legend larger than the
+ * plate is placed at the corner and clipped by paintLegendRows.
+ */
+export function layoutLegend(settings: ColourSettings, plateWidth: number, plateHeight: number, dpi: number, periods: readonly number[], font: LegendFont): Legend | null {
+  const at = legendPlacement(settings, plateWidth, plateHeight, dpi, periods, font);
+  if (at === null) return null;
+  const { x, y, width, height, scale } = at;
+  const n = periods.length;
+  const digits = Math.max(...periods.map((p) => String(p).length));
   const rgba = new Float64Array(width * height * 4);
 
   const panel = hexToLinear(PANEL_HEX, new Float64Array(3));
@@ -266,22 +289,25 @@ function escapeXml(s: string): string {
 /**
  * The legend as a standalone SVG file (for the 'beside' placement): a title,
  * then one row per listed period (presentPeriods of the plate's histogram)
- * with its swatch, number and sRGB hex colour. Deterministic text (fixed
- * layout, no dates).
+ * with its swatch, number and sRGB hex colour. Text as the font's outlines,
+ * each carrying its string in aria-label (no reader's fonts involved).
+ * Deterministic text (fixed layout, no dates).
  */
-export function legendSvg(periods: readonly number[]): string {
+export function legendSvg(periods: readonly number[], font: LegendFont): string {
   const n = periods.length;
   const rowH = 22;
   const top = 44;
   const width = 240;
   const height = top + Math.max(1, n) * rowH + 12;
+  const text = (s: string, x: number, y: number, size: number, anchor: 'start' | 'end'): string =>
+    `<path role="img" aria-label="${escapeXml(s)}" fill="${INK_HEX}" d="${font.outline(s, size, anchor === 'end' ? x - font.width(s, size) : x, y)}"/>`;
   const lines: string[] = [
     '<?xml version="1.0" encoding="UTF-8"?>',
     `<svg xmlns="http://www.w3.org/2000/svg" width="${width}" height="${height}" viewBox="0 0 ${width} ${height}">`,
     `  <rect x="0" y="0" width="${width}" height="${height}" fill="${PANEL_HEX}"/>`,
-    `  <text x="12" y="26" font-family="sans-serif" font-size="15" font-weight="bold" fill="${INK_HEX}">${escapeXml('Interior period')}</text>`,
+    `  ${text('Interior period', 12, 26, 15, 'start')}`,
   ];
-  if (n === 0) lines.push(`  <text x="12" y="${top + 13}" font-family="sans-serif" font-size="13" fill="${INK_HEX}">no interior period in view</text>`);
+  if (n === 0) lines.push(`  ${text('no interior period in view', 12, top + 13, 13, 'start')}`);
   for (let e = 0; e < n; e++) {
     const p = periods[e]!;
     const y = top + e * rowH;
@@ -289,8 +315,8 @@ export function legendSvg(periods: readonly number[]): string {
     lines.push(
       `  <g id="period-${p}">`,
       `    <rect x="12" y="${y}" width="16" height="16" fill="${hex}" stroke="${INK_HEX}" stroke-width="1"/>`,
-      `    <text x="58" y="${y + 13}" font-family="sans-serif" font-size="13" text-anchor="end" fill="${INK_HEX}">${p}</text>`,
-      `    <text x="72" y="${y + 13}" font-family="monospace" font-size="13" fill="${INK_HEX}">${hex}</text>`,
+      `    ${text(String(p), 58, y + 13, 13, 'end')}`,
+      `    ${text(hex, 72, y + 13, 13, 'start')}`,
       '  </g>',
     );
   }

@@ -384,7 +384,7 @@ export async function writePlate(sheet: Sheet, job: PlateJob, run: PlateRun): Pr
     };
     if (sheet.colour.legend === 'beside') {
       const legendFile = file.replace(/\.(png|tiff?)$/i, '-legend.svg');
-      await writeFileAtomic(legendFile, legendSvg(presentPeriods(stats.periods, sheet.colour)));
+      await writeFileAtomic(legendFile, legendSvg(presentPeriods(stats.periods, sheet.colour), figureFont()));
       files.push(path.resolve(legendFile));
     }
     if (sheet.output.sidecar) {

@@ -6,6 +6,7 @@ import {
   LEGEND_MIN_PIXELS,
   layoutLegend,
   legendBounds,
+  legendPlacement,
   presentPeriods,
   legendScale,
   legendSvg,
@@ -48,6 +49,18 @@ describe('layoutLegend', () => {
       expect(L.y + L.height).toBeLessThanOrEqual(2000);
       expect(L.x + L.width / 2 < 1500).toBe(corner.endsWith('left'));
       expect(L.y + L.height / 2 < 1000).toBe(corner.startsWith('top'));
+    }
+  });
+
+  it('draws at the placement legendPlacement gives', () => {
+    for (const [W, H, dpi] of [
+      [3000, 2000, 300],
+      [400, 300, 600],
+    ] as const) {
+      const L = layoutLegend(inset({ legendCorner: 'bottom-right' }), W, H, dpi, firstPeriods(12), font)!;
+      expect({ x: L.x, y: L.y, width: L.width, height: L.height, scale: L.scale }).toEqual(
+        legendPlacement(inset({ legendCorner: 'bottom-right' }), W, H, dpi, firstPeriods(12), font),
+      );
     }
   });
 
@@ -167,15 +180,18 @@ describe('paintLegendRows', () => {
 
 describe('legendSvg', () => {
   it('lists the periods it is given, and says so when there are none', () => {
-    const svg = legendSvg([3, 6, 427]);
+    const svg = legendSvg([3, 6, 427], font);
     for (const p of [3, 6, 427]) expect(svg).toContain(`id="period-${p}"`);
     expect(svg).not.toContain('id="period-1"');
-    expect(legendSvg([])).toContain('no interior period in view');
+    expect(legendSvg([], font)).toContain('aria-label="no interior period in view"');
+    // text as outlines only (no <text> set in a reader's fonts), each number labelled
+    expect(svg).not.toMatch(/<text[\s>]/);
+    for (const p of [3, 6, 427]) expect(svg).toContain(`aria-label="${p}"`);
   });
 
   it('lists every period with its swatch colour and number, deterministically', () => {
     const s = inset({ legendPeriods: 20 });
-    const svg = legendSvg(firstPeriods(s.legendPeriods));
+    const svg = legendSvg(firstPeriods(s.legendPeriods), font);
     expect(svg.startsWith('<?xml')).toBe(true);
     expect(svg).toContain('xmlns="http://www.w3.org/2000/svg"');
     for (let p = 1; p <= 20; p++) {
@@ -183,7 +199,7 @@ describe('legendSvg', () => {
       expect(svg).toContain(`fill="${periodHex(p)}"`);
     }
     expect(svg).not.toContain('id="period-21"');
-    expect(legendSvg(firstPeriods(s.legendPeriods))).toBe(svg);
+    expect(legendSvg(firstPeriods(s.legendPeriods), font)).toBe(svg);
   });
 });
 
@@ -228,7 +244,8 @@ describe('layoutLegend of the periods present', () => {
             const periods = Array.from({ length: n }, (_, i) => top - i)
               .filter((p) => p > 0)
               .sort((a, c) => a - c);
-            const L = layoutLegend(s, W, H, dpi, periods, font)!;
+            // the placement layoutLegend draws at (legendPlacement, its first step), without drawing 960 legends
+            const L = legendPlacement(s, W, H, dpi, periods, font)!;
             const x1 = Math.min(W, L.x + L.width);
             const y1 = Math.min(H, L.y + L.height);
             expect(L.x >= b.x && x1 <= b.x + b.width && L.y >= b.y && y1 <= b.y + b.height, `${corner} ${W}x${H} n=${n} top=${top}`).toBe(true);
