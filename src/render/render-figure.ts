@@ -38,6 +38,7 @@ export interface RaySummary {
   landing: { re: string; im: string };
   tracedEnd: { re: string; im: string };
   tracedEndPixels: number;
+  tracedDepth: number;
   landsInView: boolean;
 }
 
@@ -69,10 +70,10 @@ async function traceCurves(
     );
   const { levels, curves: levelPoints } = spec.equipotentials > 0 ? equipotentialsInView(spec.equipotentials, grid, 'figure.equipotentials') : { levels: [], curves: [] };
   const levelCurves: FigureCurve[] = levelPoints.map((points) => ({ kind: 'equipotential', label: '', points: toPixels(grid, points) }));
-  const rays = spec.rays.map((a, i) => parameterRay(a, `figure.rays[${i}]`));
+  const rays = spec.rays.map((a, i) => parameterRay(a, `figure.rays[${i}]`, grid.spacing));
   if (spec.raysOf > 0) {
     const given = new Set(spec.rays);
-    for (const a of await raysOfPeriod(spec.raysOf, grid, workers, MAX_RAYS - spec.rays.length)) if (!given.has(a)) rays.push(parameterRay(a, 'figure.raysOf'));
+    for (const a of await raysOfPeriod(spec.raysOf, grid, workers, MAX_RAYS - spec.rays.length)) if (!given.has(a)) rays.push(parameterRay(a, 'figure.raysOf', grid.spacing));
   }
   const outlines = spec.outlines > 0 ? await outlinesInView(spec.outlines, grid, workers) : [];
   const internal = spec.internalRays === null ? [] : await internalRaysInView(spec.internalRays.period, spec.internalRays.angles, grid, workers);
@@ -150,6 +151,7 @@ export async function renderFigure(
         landing: { re: r.landing.re, im: r.landing.im },
         tracedEnd: { re: String(r.tracedEnd.re), im: String(r.tracedEnd.im) },
         tracedEndPixels: Math.round(px * 1000) / 1000,
+        tracedDepth: r.tracedDepth,
         landsInView: lx >= 0 && lx <= sheet.width && ly >= 0 && ly <= sheet.height,
       };
     });

@@ -263,7 +263,9 @@ describe('plate --rays', () => {
     const file = path.join(dir, 'r.svg');
     const r = runCli(['plate', ...FLAGS, '--axes', '--rays', '1/3,2/3,1/7,2/7,1/6', '--out', file, '--json']);
     expect(r.status, r.stderr).toBe(0);
-    const out = JSON.parse(r.stdout) as { rays: Array<{ angle: string; kind: string; landing: { re: string; im: string } }> };
+    const out = JSON.parse(r.stdout) as {
+      rays: Array<{ angle: string; kind: string; landing: { re: string; im: string }; tracedEnd: { re: string; im: string }; tracedEndPixels: number }>;
+    };
     // exact landings: -3/4 (root of the period-2 disk); -1/8 + (3 sqrt 3/8) i (cardioid formula at internal
     // angle 1/3, docs/methods.md C3); c = i (Misiurewicz, preperiod 1, period 2), by the Douady-Hubbard landing theorem
     const exact: Record<string, [number, number]> = {
@@ -280,6 +282,9 @@ describe('plate --rays', () => {
       expect(Math.hypot(Number(ray.landing.re) - re, Number(ray.landing.im) - im), ray.angle).toBeLessThan(pixel);
       expect(Math.hypot(Number(ray.landing.re) - re, Number(ray.landing.im) - im), ray.angle).toBeLessThan(1e-15);
       expect(ray.landing.re).toMatch(/^-?\d+(\.\d+)?$/);
+      // the traced part, before the joining segment, ends within a pixel of the exact landing
+      expect(Math.hypot(Number(ray.tracedEnd.re) - re, Number(ray.tracedEnd.im) - im) / pixel, ray.angle).toBeLessThan(1);
+      expect(ray.tracedEndPixels, ray.angle).toBeLessThan(1);
     }
     const svg = readFileSync(file, 'utf8');
     const img = /<image x="([\d.]+)" y="([\d.]+)" width="([\d.]+)" height="([\d.]+)"/.exec(svg)!;
