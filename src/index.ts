@@ -39,6 +39,8 @@ export { lavaursPairs, type AnglePair } from './components/lavaurs.js';
 export { kneadingSequence, internalAddress, addressOfAngle } from './components/internal-address.js';
 export { parseAngle, type Angle } from './components/external-angle.js';
 export { findMisiurewicz } from './components/misiurewicz.js';
+export { misiurewiczCount, refineMisiurewicz, type MisiurewiczPoint } from './components/misiurewicz-points.js';
+export { listMisiurewicz, type MisiurewiczListing } from './components/misiurewicz-list.js';
 
 // The real slice.
 export { cToR, rToC, xToZ, zToX } from './section/conjugacy.js';

@@ -24,12 +24,18 @@ import path from 'node:path';
 import { resolveShard } from '../render/pyramid-shard.js';
 import { shardAngleRange, shardCommentLine, shardHeader } from '../components/census-shard.js';
 import { registerMerge } from './components-merge.js';
+import { misiurewiczCount, parseMisiurewiczType } from '../components/misiurewicz-points.js';
+import { angleTexts, listMisiurewicz } from '../components/misiurewicz-list.js';
 
 /** Longest listing period (the listing refines every nucleus and root to D digits). */
 export const MAX_LIST_PERIOD = 16;
 
 export const COMPONENTS_OPTIONS: readonly OptionSpec[] = [
-  { flags: '--period <period>', description: 'exact period, an integer from 1 (required, no default)', required: true },
+  { flags: '--period <period>', description: 'exact period, an integer from 1 (required unless --misiurewicz, no default)' },
+  {
+    flags: '--misiurewicz <K,P>',
+    description: 'instead of components: the Misiurewicz points of exact preperiod K and period P (z_{K+1+P} = z_{K+1} for z_1 = c), with their external angles (default: none)',
+  },
   { flags: '--real', description: 'only components on the real axis (default: all)' },
   { flags: '--within <box>', description: 'only nuclei inside the box RE0,IM0,RE1,IM1 in c (default: the whole plane)' },
   { flags: '--digits <digits>', description: 'digits after the decimal point for nuclei and roots; sizes to D significant digits (at most 17)', default: '20' },
@@ -52,7 +58,9 @@ export const COMPONENTS_OPTIONS: readonly OptionSpec[] = [
 ];
 
 export function register(program: Command): void {
-  const cmd = program.command('components').description('list or count the hyperbolic components of exact period P; `components merge DIR` joins shards');
+  const cmd = program
+    .command('components')
+    .description('list or count the hyperbolic components of exact period P, or the Misiurewicz points of preperiod K and period P; `components merge DIR` joins shards');
   // `components merge DIR` takes no --period: commander checks a parent's required options in its subcommands too
   cmd.hook('preSubcommand', (c) => {
     for (const opt of c.options) if (opt.long === '--period') opt.mandatory = false;
@@ -61,6 +69,15 @@ export function register(program: Command): void {
   addOptions(cmd, COMPONENTS_OPTIONS).action(async (o: Record<string, unknown>) => {
     const count = o['count'] === true;
     const certify = o['certify'] === true;
+    if (o['misiurewicz'] !== undefined) {
+      if (o['period'] !== undefined) throw new UserError('--misiurewicz', 'no --period beside it (K,P gives the period)', `--period ${String(o['period'])}`);
+      for (const f of ['real', 'within', 'certify', 'out', 'workers', 'shard', 'shards'])
+        if (o[f] !== undefined) throw new UserError('--misiurewicz', `no --${f} beside it (not offered for Misiurewicz points)`, `--${f}`);
+      if (o['json'] === true && o['csv'] === true) throw new UserError('--json, --csv', 'one of --json or --csv', '--json --csv');
+      await listMisiurewiczCommand(o);
+      return;
+    }
+    if (o['period'] === undefined) throw new UserError('--period', 'an exact period (or --misiurewicz K,P)', 'nothing');
     const period = parseInteger(o['period'], '--period', 1, count ? MAX_CENSUS_PERIOD : MAX_LIST_PERIOD);
     const shard = resolveShard(typeof o['shard'] === 'string' ? o['shard'] : undefined, typeof o['shards'] === 'string' ? o['shards'] : undefined, process.env);
     if (shard !== null && certify)
@@ -173,6 +190,70 @@ export function register(program: Command): void {
     else if (o['csv'] === true) process.stdout.write(toCsv(rows, radii));
     else process.stdout.write(toTable(rows, radii));
   });
+}
+
+/** Most points listed: Aberth-Ehrlich costs points^2 per sweep and about 0.4 points sweeps (2048 points: about 30 s). */
+export const MAX_MISIUREWICZ_POINTS = 2048;
+
+async function listMisiurewiczCommand(o: Record<string, unknown>): Promise<void> {
+  const { preperiod, period } = parseMisiurewiczType(o['misiurewicz'], '--misiurewicz', 30, 30);
+  const expected = misiurewiczCount(preperiod, period);
+  if (expected > MAX_MISIUREWICZ_POINTS)
+    throw new UserError(
+      '--misiurewicz',
+      `a preperiod and period with at most ${MAX_MISIUREWICZ_POINTS} points (the root finder holds and compares every pair)`,
+      `${preperiod},${period} (${expected} points)`,
+    );
+  const digits = parseInteger(o['digits'], '--digits', 1, 2000);
+  const t0 = performance.now();
+  const progress = process.stderr.isTTY
+    ? (stage: string, done: number, total: number): void => {
+        process.stderr.write(`\rquadatlas: misiurewicz ${preperiod},${period}: ${stage} ${done}/${total}   `);
+      }
+    : undefined;
+  const listing = listMisiurewicz(preperiod, period, digits, progress, o['count'] !== true);
+  if (progress !== undefined) process.stderr.write('\n');
+  const seconds = (performance.now() - t0) / 1000;
+  const n = listing.points.length;
+  const found = listing.points.filter((p) => p.angles.length > 0).length;
+  process.stderr.write(
+    `quadatlas: misiurewicz ${preperiod},${period}: ${n} points in ${seconds.toFixed(2)} s (Hutz-Towsley count ${expected}; ${listing.sweeps} Aberth sweeps; ${o['count'] === true ? 'angles not searched' : `angles found for ${found}, rays of periods ${listing.anglePeriods.join(', ') || 'none'}`})\n`,
+  );
+  if (n !== expected || !listing.converged) process.stderr.write(`quadatlas: warning: ${n} of ${expected} points confirmed (${listing.rejected} roots rejected)\n`);
+  const rows = listing.points.map((p) => ({ preperiod, period, re: p.c.re, im: p.c.im, angles: angleTexts(p.angles) }));
+  if (o['count'] === true) {
+    if (o['json'] === true) process.stdout.write(`${JSON.stringify({ preperiod, period, count: n, expected, seconds: Number(seconds.toFixed(2)) })}\n`);
+    else process.stdout.write(`${n}\n`);
+    return;
+  }
+  if (o['json'] === true) {
+    process.stdout.write(
+      `${JSON.stringify(
+        rows.map((r) => ({ misiurewicz: { re: r.re, im: r.im }, preperiod, period, externalAngles: r.angles })),
+        null,
+        2,
+      )}\n`,
+    );
+    return;
+  }
+  const head = ['preperiod', 'period', 're', 'im', 'external_angles'];
+  const cells = rows.map((r) => [String(preperiod), String(period), r.re, r.im, r.angles.join(' ')]);
+  if (o['csv'] === true) {
+    process.stdout.write([head.join(','), ...cells.map((c) => c.join(','))].join('\n') + '\n');
+    return;
+  }
+  const all = [head, ...cells];
+  const widths = head.map((_, i) => Math.max(...all.map((r) => r[i]!.length)));
+  process.stdout.write(
+    all
+      .map((r) =>
+        r
+          .map((v, i) => v.padEnd(widths[i]!))
+          .join('  ')
+          .trimEnd(),
+      )
+      .join('\n') + '\n',
+  );
 }
 
 function inBox(c: CensusComponent, b: { re0: number; im0: number; re1: number; im1: number }): boolean {

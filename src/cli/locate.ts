@@ -25,6 +25,10 @@ import { parseInteger } from '../check/fields.js';
 import { addOptions, type OptionSpec } from './option-spec.js';
 import { componentName, parseComponent, tune } from '../components/tuning.js';
 import { componentSpan, plateCommandLine } from './plate-command.js';
+import { misiurewiczSpan, parseMisiurewiczType, refineMisiurewicz } from '../components/misiurewicz-points.js';
+import type { MisiurewiczPoint } from '../components/misiurewicz-points.js';
+import { attachAngles } from '../components/misiurewicz-list.js';
+import { toNumber } from '../precise/fixed.js';
 
 /** Spans below this are rendered in deep arithmetic: the printed plate command names the nucleus as reference. */
 const DEEP_SPAN = 1e-10;
@@ -32,6 +36,10 @@ const DEEP_SPAN = 1e-10;
 /** Longest period for --angle (the ray is traced in double-double) and for --address (angles are enumerated). */
 export const MAX_ANGLE_PERIOD = 60;
 export const MAX_ADDRESS_PERIOD = 22;
+
+/** --misiurewicz K,P: each Newton step iterates z K + P + 1 times at about 3.3 D + 2 (K + P) bits; beyond these a step takes seconds. */
+export const MAX_MISIUREWICZ_PREPERIOD = 1000;
+export const MAX_MISIUREWICZ_PERIOD = 1000;
 
 export const LOCATE_OPTIONS: readonly OptionSpec[] = [
   { flags: '--period <period>', description: 'exact period, an integer from 1 (required with --near; default: from the angle or address)' },
@@ -41,6 +49,10 @@ export const LOCATE_OPTIONS: readonly OptionSpec[] = [
   {
     flags: '--tune <outer-inner...>',
     description: 'two components OUTER INNER, each an angle pair (1/3,2/3) or an internal address (1-2): the copy of INNER inside OUTER, by Douady-Hubbard tuning (default: none)',
+  },
+  {
+    flags: '--misiurewicz <K,P>',
+    description: `a Misiurewicz point of exact preperiod K and period P (z_{K+1+P} = z_{K+1} for the orbit z_1 = c), by Newton from --near; K, P from 1 to ${MAX_MISIUREWICZ_PERIOD} (default: none)`,
   },
   { flags: '--digits <digits>', description: 'digits after the decimal point; sizes to D significant digits (at most 17)', default: '30' },
   { flags: '--certify', description: 'prove the nucleus and the root, disks holding exactly one solution each (default: computed, not proved)' },
@@ -52,13 +64,45 @@ export function register(program: Command): void {
     async (o: Record<string, unknown>) => {
       const digits = parseInteger(o['digits'], '--digits', 1, 5000);
       const given = ['near', 'angle', 'address', 'tune'].filter((k) => o[k] !== undefined);
+      if (o['misiurewicz'] !== undefined && given.join() !== 'near')
+        throw new UserError(
+          '--misiurewicz',
+          'a start point --near RE,IM (and no --angle, --address or --tune)',
+          given.length === 0 ? 'no --near' : given.map((g) => `--${g}`).join(' '),
+        );
       if (given.length !== 1)
         throw new UserError('locate', 'exactly one of --near, --angle, --address or --tune', given.length === 0 ? 'none' : given.map((g) => `--${g}`).join(' '));
       const period = o['period'] === undefined ? null : parseInteger(o['period'], '--period', 1, 100_000);
       let out: Record<string, unknown>;
       let lines: string[];
       let located: ComponentInfo | null = null;
-      if (o['near'] !== undefined) {
+      if (o['misiurewicz'] !== undefined) {
+        const { preperiod: k, period: p } = parseMisiurewiczType(o['misiurewicz'], '--misiurewicz', MAX_MISIUREWICZ_PREPERIOD, MAX_MISIUREWICZ_PERIOD);
+        if (period !== null && period !== p) throw new UserError('--period', `the period of --misiurewicz (${p})`, period);
+        const near = parseDecimalPair(String(o['near']), '--near');
+        const point = refineMisiurewicz(k, p, { re: near.re.text, im: near.im.text }, digits);
+        const listed = [{ re: toNumber(point.fixed.re, point.scale), im: toNumber(point.fixed.im, point.scale), angles: [] as Angle[] }];
+        const search = attachAngles(k, p, listed);
+        const angles = listed[0]!.angles.map(angleText);
+        const span = misiurewiczSpan(point, k);
+        out = {
+          misiurewicz: point.c,
+          preperiod: k,
+          period: p,
+          separationLog2: point.type.log2Separation,
+          externalAngles: angles,
+          angleSearch: { periods: search.anglePeriods, raysTraced: search.raysTraced },
+          plateSpan: span.span,
+        };
+        const where = search.anglePeriods.length === 0 ? null : `searched periods ${search.anglePeriods.join(', ')}`;
+        lines = [
+          `Misiurewicz point ${point.c.re}, ${point.c.im}`,
+          `preperiod         ${k}`,
+          `period            ${p}`,
+          `orbit check       z_${k + 1 + p} = z_${k + 1}; z_${k + p} != z_${k}${p > 1 ? ` and z_${k + 1}..z_${k + p} distinct` : ''} (nearest pair 2^${point.type.log2Separation} apart)`,
+          `external angles   ${where === null ? 'not searched (preperiod above 40 or too many rays for the ray search)' : `${angles.length > 0 ? angles.join(' ') : 'none found'} (${where})`}`,
+        ];
+      } else if (o['near'] !== undefined) {
         if (period === null) throw new UserError('--period', 'an integer period with --near', 'nothing');
         const near = parseDecimalPair(String(o['near']), '--near');
         const found = findNucleus(period, { re: near.re.text, im: near.im.text }, digits);
@@ -82,9 +126,17 @@ export function register(program: Command): void {
           const p = orbit.period;
           const end = traceRayDD(angle.num, angle.den, 2 * (orbit.preperiod + p) + 8, 8);
           if (!end.ok) throw new UserError('--angle', 'an angle whose ray can be traced in double-double precision', angleText(angle));
-          const point = findMisiurewicz(orbit.preperiod, p, end, digits);
-          out = { misiurewicz: point, preperiod: orbit.preperiod, period: p, externalAngle: angleText(angle) };
-          lines = [`Misiurewicz point ${point.re}, ${point.im}`, `preperiod         ${orbit.preperiod}`, `period            ${p}`, `external angle    ${angleText(angle)}`];
+          const found = findMisiurewicz(orbit.preperiod, p, end, digits);
+          // the orbit's own period may divide the angle's (q rays meeting at each point of the cycle: 5/12 lands on the fixed point alpha)
+          const point = refineForAngle(orbit.preperiod, p, found, digits);
+          const span = misiurewiczSpan(point, orbit.preperiod);
+          out = { misiurewicz: point.c, preperiod: orbit.preperiod, period: point.type.period, anglePeriod: p, externalAngle: angleText(angle), plateSpan: span.span };
+          lines = [
+            `Misiurewicz point ${point.c.re}, ${point.c.im}`,
+            `preperiod         ${orbit.preperiod}`,
+            `period            ${point.type.period}${point.type.period === p ? '' : ` (of the orbit; the angle's period is ${p})`}`,
+            `external angle    ${angleText(angle)}`,
+          ];
         }
       } else if (o['tune'] !== undefined) {
         const names = o['tune'] as string[];
@@ -153,6 +205,25 @@ export function register(program: Command): void {
       process.stdout.write(o['json'] === true ? `${JSON.stringify(out, null, 2)}\n` : `${lines.join('\n')}\n`);
     },
   );
+}
+
+/**
+ * The point of preperiod k whose orbit period divides the angle's period p, refined and checked
+ * (q rays meeting at each point of the cycle make the orbit's period p / q: 1/7 after a
+ * preperiod lands on the fixed point alpha when c is in the 1/3 limb). Divisors are tried from
+ * the smallest; the first whose Newton converges to a point of exactly that type is it.
+ */
+function refineForAngle(k: number, p: number, found: { re: string; im: string }, digits: number): MisiurewiczPoint {
+  let last: unknown = null;
+  for (let d = 1; d <= p; d += 1) {
+    if (p % d !== 0) continue;
+    try {
+      return refineMisiurewicz(k, d, found, digits, '--angle');
+    } catch (e) {
+      last = e;
+    }
+  }
+  throw last;
 }
 
 function toAngle(n: number, den: number): Angle {

@@ -103,7 +103,7 @@ export function register(program: Command): void {
           ...EXTERIOR_GRADIENT_NAMES.map((n) => [`gradient-${n}.png`, gradientSwatch(n)] as [string, Swatch]),
           ...(custom === null ? [] : [['gradient-custom.png', gradientSwatch(custom)] as [string, Swatch]]),
           ...INTERIOR_STYLES.map((s) => [`interior-${s}.png`, interiorSwatch(s)] as [string, Swatch]),
-          ['period-palette.png', periodSwatch(PALETTE_PERIODS)],
+          ['period-palette.png', periodSwatch((await import('../figure/figure-font.js')).figureFont(), PALETTE_PERIODS)],
         ];
         for (const [name, swatch] of out) {
           const file = path.join(dir, name);

@@ -39,7 +39,7 @@ export async function sheetFromPlate(file: string, field = '--again'): Promise<R
 }
 
 /** `--marks FILE.csv`: the file's rows become the sheet's figure.marks (so the sheet alone redraws them). */
-async function applyMarksFile(raw: Record<string, unknown>, values: Record<string, unknown>): Promise<Record<string, unknown>> {
+export async function applyMarksFile(raw: Record<string, unknown>, values: Record<string, unknown>): Promise<Record<string, unknown>> {
   const file = values['marks'];
   if (typeof file !== 'string') return raw;
   let text: string;

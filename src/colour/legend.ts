@@ -1,15 +1,17 @@
 import type { ColourSettings, LegendCorner } from './colour-settings.js';
 import { hexToLinear } from './oklab.js';
-import { FONT_CHARACTERS, GLYPH_H, GLYPH_W, glyph, textCells } from './bitmap-font.js';
+import { fillCoverage } from './fill-coverage.js';
 import { periodHex, periodLinear } from './period-palette.js';
 
 /**
  * The period legend: one swatch per period present in the view with its
- * number, under a title line, drawn with a small bitmap font of our own (5 x 7 cells
- * per glyph, one blank column between glyphs). The font is scaled by an
- * integer factor chosen from the plate's dpi so the cap height is about
- * LEGEND_CAP_MM in print; integer scaling keeps every stroke a whole number of
- * pixels, so the text is sharp without antialiasing.
+ * number, under a title line. The layout is a grid of cells, `scale` pixels
+ * each, an integer chosen from the plate's dpi so the capitals (CAP cells
+ * tall) stand about LEGEND_CAP_MM in print. The text is the figures' font
+ * (DejaVu Sans, figure/figure-font.ts, handed in as a LegendFont by the
+ * caller): its outlines are filled into the legend's pixels by area coverage
+ * (fill-coverage.ts), so no rasteriser and no font of the machine is
+ * involved, and the same sheet gives the same bytes everywhere.
  *
  * Coordinates are plate pixels, y down (design.md). The image is linear-light
  * RGBA, premultiplied by alpha, so compositing is one multiply-add per channel
@@ -24,21 +26,35 @@ export const LEGEND_CAP_MM = 2.5;
  * as a patch of colour rather than a speck.
  */
 export const LEGEND_MIN_PIXELS = 4;
-export const LEGEND_TITLE = 'INTERIOR PERIOD';
+export const LEGEND_TITLE = 'Interior period';
 
-/** Glyphs the font can draw. */
-export const LEGEND_FONT_CHARACTERS = FONT_CHARACTERS;
+/** The text face of the legend: advances, outlines as polygons, cap height per unit of size (figure-font.ts's FigureFont is one). */
+export interface LegendFont {
+  width(text: string, size: number): number;
+  contours(text: string, size: number, x: number, y: number, tolerance: number): number[][];
+  /** The outline of `text` as SVG path data, baseline from (x, y), y down. */
+  outline(text: string, size: number, x: number, y: number): string;
+  readonly capHeight: number;
+}
 
-// Layout in font cells (one cell = `scale` pixels).
+// Layout in cells (one cell = `scale` pixels).
 const PAD = 4;
+/** Cap height of the text in cells. */
+const CAP = 7;
 const SWATCH = 7;
 const SWATCH_GAP = 2;
-/** Width in cells of a number of `digits` digits (at least two, so short legends keep their old look). */
-const numberW = (digits: number): number => Math.max(2, digits) * (GLYPH_W + 1) - 1;
 const COLUMN_GAP = 5;
-const ROW_H = GLYPH_H + 4;
+const ROW_H = CAP + 4;
 const TITLE_GAP = 5;
-const entryW = (digits: number): number => SWATCH + SWATCH_GAP + numberW(digits);
+/** Outline curves are cut into chords within this many pixels of them. */
+const FLATNESS = 0.05;
+
+/** The font size (pixels) whose capitals are CAP cells tall at this scale. */
+const fontSize = (font: LegendFont, scale: number): number => (CAP * scale) / font.capHeight;
+/** Width in cells of `text` at this scale (rounded up). */
+const textCells = (font: LegendFont, text: string, scale: number): number => Math.ceil(font.width(text, fontSize(font, scale)) / scale);
+/** Width in cells of a number of `digits` digits (at least two, so short legends keep their look; DejaVu digits share one advance). */
+const numberW = (font: LegendFont, digits: number, scale: number): number => textCells(font, '0'.repeat(Math.max(2, digits)), scale);
 
 const PANEL_HEX = '#f3f0e8';
 const PANEL_ALPHA = 0.9;
@@ -61,7 +77,7 @@ export interface Legend {
 /** The integer scale that gives a cap height near LEGEND_CAP_MM at this dpi (>= 1). */
 export function legendScale(dpi: number): number {
   const capPixels = (LEGEND_CAP_MM / 25.4) * dpi;
-  return Math.max(1, Math.round(capPixels / GLYPH_H));
+  return Math.max(1, Math.round(capPixels / CAP));
 }
 
 /** Columns and rows of swatches for n periods: at least 4 columns (title width), at most 8 rows per column. */
@@ -92,13 +108,13 @@ export function firstPeriods(n: number): number[] {
   return Array.from({ length: n }, (_, i) => i + 1);
 }
 
-/** Legend size in cells for n periods whose longest number has `digits` digits. */
-function sizeCells(n: number, digits: number): { w: number; h: number } {
+/** Legend size in cells for n periods whose numbers take `numberCells` cells, under a title of `titleCells`. */
+function sizeCells(n: number, numberCells: number, titleCells: number): { w: number; h: number } {
   const { cols, rows } = grid(n);
-  const entries = cols * entryW(digits) + (cols - 1) * COLUMN_GAP;
+  const entries = cols * (SWATCH + SWATCH_GAP + numberCells) + (cols - 1) * COLUMN_GAP;
   return {
-    w: 2 * PAD + Math.max(textCells(LEGEND_TITLE), entries),
-    h: 2 * PAD + GLYPH_H + TITLE_GAP + rows * ROW_H - (ROW_H - GLYPH_H),
+    w: 2 * PAD + Math.max(titleCells, entries),
+    h: 2 * PAD + CAP + TITLE_GAP + rows * ROW_H - (ROW_H - CAP),
   };
 }
 
@@ -126,26 +142,64 @@ export interface PixelRect {
 /**
  * The rectangle an inset legend can cover before the periods present are
  * known: the corner-anchored box that holds the largest layout of 1 ..
- * legendPeriods entries with numbers of up to `maxDigits` digits at the
- * unreduced scale (layoutLegend only ever steps the scale down, and anchors
- * the legend at the same corner and margin). Null unless the legend is inset.
+ * legendPeriods entries with numbers of up to `maxDigits` digits at any
+ * scale from legendScale(dpi) down to 1 (layoutLegend only ever steps the
+ * scale down, and anchors the legend at the same corner and margin; text
+ * widths round up to whole cells, so a smaller scale is checked too). Null
+ * unless the legend is inset.
  */
-export function legendBounds(settings: ColourSettings, plateWidth: number, plateHeight: number, dpi: number, maxDigits: number): PixelRect | null {
+export function legendBounds(settings: ColourSettings, plateWidth: number, plateHeight: number, dpi: number, maxDigits: number, font: LegendFont): PixelRect | null {
   if (settings.legend !== 'inset') return null;
-  const scale = legendScale(dpi);
   const margin = marginPixels(plateWidth, plateHeight, dpi);
   let w = 0;
   let h = 0;
-  for (let n = 1; n <= settings.legendPeriods; n++) {
-    const c = sizeCells(n, Math.max(2, maxDigits));
-    w = Math.max(w, c.w * scale);
-    h = Math.max(h, c.h * scale);
+  for (let scale = legendScale(dpi); scale >= 1; scale--) {
+    const title = textCells(font, LEGEND_TITLE, scale);
+    // wider numbers only widen the entries
+    const numbers = numberW(font, maxDigits, scale);
+    for (let n = 1; n <= settings.legendPeriods; n++) {
+      {
+        const c = sizeCells(n, numbers, title);
+        w = Math.max(w, c.w * scale);
+        h = Math.max(h, c.h * scale);
+      }
+    }
   }
   const width = Math.min(plateWidth, w + margin);
   const height = Math.min(plateHeight, h + margin);
   const left = settings.legendCorner === 'top-left' || settings.legendCorner === 'bottom-left';
   const top = settings.legendCorner === 'top-left' || settings.legendCorner === 'top-right';
   return { x: left ? 0 : plateWidth - width, y: top ? 0 : plateHeight - height, width, height };
+}
+
+/**
+ * Where layoutLegend puts the legend and at what scale, without drawing it:
+ * the rectangle in plate pixels and the pixels per cell; null when there is
+ * no inset legend.
+ */
+export function legendPlacement(
+  settings: ColourSettings,
+  plateWidth: number,
+  plateHeight: number,
+  dpi: number,
+  periods: readonly number[],
+  font: LegendFont,
+): (PixelRect & { readonly scale: number }) | null {
+  if (settings.legend !== 'inset' || periods.length === 0) return null;
+  const n = periods.length;
+  const digits = Math.max(...periods.map((p) => String(p).length));
+  const margin = marginPixels(plateWidth, plateHeight, dpi);
+  let scale = legendScale(dpi);
+  const cellsAt = (k: number): { w: number; h: number } => sizeCells(n, numberW(font, digits, k), textCells(font, LEGEND_TITLE, k));
+  let cells = cellsAt(scale);
+  while (scale > 1 && (cells.w * scale + 2 * margin > plateWidth || cells.h * scale + 2 * margin > plateHeight)) {
+    scale--;
+    cells = cellsAt(scale);
+  }
+  const width = cells.w * scale;
+  const height = cells.h * scale;
+  const { x, y } = corner(settings.legendCorner, plateWidth, plateHeight, width, height, margin);
+  return { x, y, width, height, scale };
 }
 
 /**
@@ -157,17 +211,12 @@ export function legendBounds(settings: ColourSettings, plateWidth: number, plate
  * fits inside the plate with its margin; at scale 1 a legend larger than the
  * plate is placed at the corner and clipped by paintLegendRows.
  */
-export function layoutLegend(settings: ColourSettings, plateWidth: number, plateHeight: number, dpi: number, periods: readonly number[]): Legend | null {
-  if (settings.legend !== 'inset' || periods.length === 0) return null;
+export function layoutLegend(settings: ColourSettings, plateWidth: number, plateHeight: number, dpi: number, periods: readonly number[], font: LegendFont): Legend | null {
+  const at = legendPlacement(settings, plateWidth, plateHeight, dpi, periods, font);
+  if (at === null) return null;
+  const { x, y, width, height, scale } = at;
   const n = periods.length;
   const digits = Math.max(...periods.map((p) => String(p).length));
-  const cells = sizeCells(n, digits);
-  const margin = marginPixels(plateWidth, plateHeight, dpi);
-  let scale = legendScale(dpi);
-  while (scale > 1 && (cells.w * scale + 2 * margin > plateWidth || cells.h * scale + 2 * margin > plateHeight)) scale--;
-  const width = cells.w * scale;
-  const height = cells.h * scale;
-  const { x, y } = corner(settings.legendCorner, plateWidth, plateHeight, width, height, margin);
   const rgba = new Float64Array(width * height * 4);
 
   const panel = hexToLinear(PANEL_HEX, new Float64Array(3));
@@ -189,30 +238,36 @@ export function layoutLegend(settings: ColourSettings, plateWidth: number, plate
         rgba[k + 3] = 1;
       }
   };
-  const text = (s: string, cx: number, cy: number): void => {
-    for (let g = 0; g < s.length; g++) {
-      const rows = glyph(s[g]!);
-      for (let r = 0; r < GLYPH_H; r++)
-        for (let col = 0; col < GLYPH_W; col++) if (rows[r]![col] === '#') fill((cx + g * (GLYPH_W + 1) + col) * scale, (cy + r) * scale, scale, scale, ink);
-    }
-  };
-
-  text(LEGEND_TITLE, PAD, PAD);
+  // text: every string's outline, its capitals' top at cell row cy, filled by coverage and laid over the panel
+  const size = fontSize(font, scale);
+  const polygons: number[][] = [];
+  const text = (s: string, px: number, cy: number): void => void polygons.push(...font.contours(s, size, px, (cy + CAP) * scale, FLATNESS));
+  text(LEGEND_TITLE, PAD * scale, PAD);
   const { rows } = grid(n);
-  const colour = [0, 0, 0];
-  const ew = entryW(digits);
-  const nw = numberW(digits);
+  const nw = numberW(font, digits, scale);
+  const ew = SWATCH + SWATCH_GAP + nw;
+  const place = (e: number): { cx: number; cy: number } => ({ cx: PAD + Math.floor(e / rows) * (ew + COLUMN_GAP), cy: PAD + CAP + TITLE_GAP + (e % rows) * ROW_H });
   for (let e = 0; e < n; e++) {
-    const p = periods[e]!;
-    const col = Math.floor(e / rows);
-    const row = e % rows;
-    const cx = PAD + col * (ew + COLUMN_GAP);
-    const cy = PAD + GLYPH_H + TITLE_GAP + row * ROW_H;
+    const { cx, cy } = place(e);
+    const label = String(periods[e]!);
+    // numbers right-aligned in their column
+    text(label, (cx + ew) * scale - font.width(label, size), cy);
+  }
+  const cover = fillCoverage(polygons, width, height, new Float64Array(width * height));
+  for (let k = 0; k < width * height; k++) {
+    if (cover[k] === 0) continue;
+    // Coverage blended in linear light makes dark text on a light panel look thin and grey; 1 - (1 - a)^2.2
+    // gives the edge pixels the lightness a blend of sRGB values would (dark ink, light panel; sRGB's gamma ~2.2).
+    const a = 1 - (1 - cover[k]!) ** 2.2;
+    for (let ch = 0; ch < 3; ch++) rgba[4 * k + ch] = a * ink[ch]! + (1 - a) * rgba[4 * k + ch]!;
+    rgba[4 * k + 3] = a + (1 - a) * rgba[4 * k + 3]!;
+  }
+  const colour = [0, 0, 0];
+  for (let e = 0; e < n; e++) {
+    const { cx, cy } = place(e);
     // A one-pixel ink frame keeps pale swatches visible against the panel.
     fill(cx * scale, cy * scale, SWATCH * scale, SWATCH * scale, ink);
-    fill(cx * scale + 1, cy * scale + 1, SWATCH * scale - 2, SWATCH * scale - 2, periodLinear(p, colour));
-    const label = String(p);
-    text(label, cx + SWATCH + SWATCH_GAP + (nw - textCells(label)), cy);
+    fill(cx * scale + 1, cy * scale + 1, SWATCH * scale - 2, SWATCH * scale - 2, periodLinear(periods[e]!, colour));
   }
   return { x, y, width, height, scale, rgba };
 }
@@ -234,22 +289,25 @@ function escapeXml(s: string): string {
 /**
  * The legend as a standalone SVG file (for the 'beside' placement): a title,
  * then one row per listed period (presentPeriods of the plate's histogram)
- * with its swatch, number and sRGB hex colour. Deterministic text (fixed
- * layout, no dates).
+ * with its swatch, number and sRGB hex colour. Text as the font's outlines,
+ * each carrying its string in aria-label (no reader's fonts involved).
+ * Deterministic text (fixed layout, no dates).
  */
-export function legendSvg(periods: readonly number[]): string {
+export function legendSvg(periods: readonly number[], font: LegendFont): string {
   const n = periods.length;
   const rowH = 22;
   const top = 44;
   const width = 240;
   const height = top + Math.max(1, n) * rowH + 12;
+  const text = (s: string, x: number, y: number, size: number, anchor: 'start' | 'end'): string =>
+    `<path role="img" aria-label="${escapeXml(s)}" fill="${INK_HEX}" d="${font.outline(s, size, anchor === 'end' ? x - font.width(s, size) : x, y)}"/>`;
   const lines: string[] = [
     '<?xml version="1.0" encoding="UTF-8"?>',
     `<svg xmlns="http://www.w3.org/2000/svg" width="${width}" height="${height}" viewBox="0 0 ${width} ${height}">`,
     `  <rect x="0" y="0" width="${width}" height="${height}" fill="${PANEL_HEX}"/>`,
-    `  <text x="12" y="26" font-family="sans-serif" font-size="15" font-weight="bold" fill="${INK_HEX}">${escapeXml('Interior period')}</text>`,
+    `  ${text('Interior period', 12, 26, 15, 'start')}`,
   ];
-  if (n === 0) lines.push(`  <text x="12" y="${top + 13}" font-family="sans-serif" font-size="13" fill="${INK_HEX}">no interior period in view</text>`);
+  if (n === 0) lines.push(`  ${text('no interior period in view', 12, top + 13, 13, 'start')}`);
   for (let e = 0; e < n; e++) {
     const p = periods[e]!;
     const y = top + e * rowH;
@@ -257,8 +315,8 @@ export function legendSvg(periods: readonly number[]): string {
     lines.push(
       `  <g id="period-${p}">`,
       `    <rect x="12" y="${y}" width="16" height="16" fill="${hex}" stroke="${INK_HEX}" stroke-width="1"/>`,
-      `    <text x="58" y="${y + 13}" font-family="sans-serif" font-size="13" text-anchor="end" fill="${INK_HEX}">${p}</text>`,
-      `    <text x="72" y="${y + 13}" font-family="monospace" font-size="13" fill="${INK_HEX}">${hex}</text>`,
+      `    ${text(String(p), 58, y + 13, 13, 'end')}`,
+      `    ${text(hex, 72, y + 13, 13, 'start')}`,
       '  </g>',
     );
   }

@@ -1,13 +1,14 @@
 /**
  * Period labels for a plate: a dot on each chosen nucleus and its period
- * above it, in our bitmap font at the legend's print size, ink on a light
+ * above it, in the legend's font (DejaVu Sans outlines filled by area
+ * coverage, fill-coverage.ts) at the legend's print size, ink on a light
  * halo so the number reads on any colour. Each label is a small sprite
  * (the Legend shape: rectangle in plate pixels + premultiplied linear RGBA),
  * composited tile by tile with paintLegendRect, so labels never depend on
  * the tiling.
  */
-import { GLYPH_H, GLYPH_W, glyph, textCells } from './bitmap-font.js';
-import { legendScale, type Legend } from './legend.js';
+import { fillCoverage } from './fill-coverage.js';
+import { legendScale, type Legend, type LegendFont } from './legend.js';
 import { hexToLinear } from './oklab.js';
 
 /** A nucleus in plate pixel coordinates (continuous; pixel (i, j) spans [i, i+1) x [j, j+1)). */
@@ -20,58 +21,48 @@ export interface LabelPoint {
 const INK = '#1c1c1c';
 const HALO = '#f3f0e8';
 const HALO_ALPHA = 0.85;
-/** Dot size and gap between dot and number, in font cells. */
+/** Cap height of the number, dot size and gap between dot and number, in cells (`legendScale` pixels). */
+const CAP = 7;
 const DOT = 2;
 const GAP = 1;
 
 /** Height of a label in pixels at this dpi (number, gap, dot, halo). */
 export function labelHeightPixels(dpi: number): number {
-  return (GLYPH_H + GAP + DOT + 2) * legendScale(dpi);
+  return (CAP + GAP + DOT + 2) * legendScale(dpi);
 }
 
-function sprite(point: LabelPoint, scale: number, ink: ArrayLike<number>, halo: ArrayLike<number>): Legend {
+function sprite(point: LabelPoint, scale: number, ink: ArrayLike<number>, halo: ArrayLike<number>, font: LegendFont): Legend {
   const text = String(point.period);
-  const cellsW = Math.max(textCells(text), DOT) + 2;
-  const cellsH = GLYPH_H + GAP + DOT + 2;
-  const width = cellsW * scale;
-  const height = cellsH * scale;
+  const size = (CAP * scale) / font.capHeight;
+  const tw = font.width(text, size);
+  // one cell of halo on every side
+  const m = scale;
+  const width = Math.ceil(Math.max(tw, DOT * scale)) + 2 * m;
+  const height = (CAP + GAP + DOT) * scale + 2 * m;
+  const d = DOT * scale;
+  const dotX = Math.floor((width - d) / 2);
+  const dotY = m + (CAP + GAP) * scale;
   // The dot's centre sits on the nucleus.
-  const dotX = Math.floor((cellsW - DOT) / 2);
-  const x = Math.round(point.x - (dotX + DOT / 2) * scale);
-  const y = Math.round(point.y - (cellsH - 1 - DOT / 2) * scale);
-  const rgba = new Float64Array(width * height * 4);
-  const ink01 = new Uint8Array(cellsW * cellsH);
-  const textX = Math.floor((cellsW - textCells(text)) / 2);
-  for (let g = 0; g < text.length; g++) {
-    const rows = glyph(text[g]!);
-    for (let r = 0; r < GLYPH_H; r++) for (let c = 0; c < GLYPH_W; c++) if (rows[r]![c] === '#') ink01[(1 + r) * cellsW + textX + g * (GLYPH_W + 1) + c] = 1;
-  }
-  for (let r = 0; r < DOT; r++) for (let c = 0; c < DOT; c++) ink01[(1 + GLYPH_H + GAP + r) * cellsW + dotX + c] = 1;
-  for (let cy = 0; cy < cellsH; cy++) {
-    for (let cx = 0; cx < cellsW; cx++) {
-      let near = false;
-      for (let dy = -1; dy <= 1 && !near; dy++)
-        for (let dx = -1; dx <= 1; dx++) {
-          const yy = cy + dy;
-          const xx = cx + dx;
-          if (yy >= 0 && yy < cellsH && xx >= 0 && xx < cellsW && ink01[yy * cellsW + xx] === 1) {
-            near = true;
-            break;
-          }
-        }
-      if (!near) continue;
-      const on = ink01[cy * cellsW + cx] === 1;
-      const colour = on ? ink : halo;
-      const alpha = on ? 1 : HALO_ALPHA;
-      for (let j = cy * scale; j < (cy + 1) * scale; j++)
-        for (let i = cx * scale; i < (cx + 1) * scale; i++) {
-          const k = 4 * (j * width + i);
-          rgba[k] = colour[0]! * alpha;
-          rgba[k + 1] = colour[1]! * alpha;
-          rgba[k + 2] = colour[2]! * alpha;
-          rgba[k + 3] = alpha;
-        }
+  const x = Math.round(point.x - (dotX + d / 2));
+  const y = Math.round(point.y - (dotY + d / 2));
+  const cover = fillCoverage(font.contours(text, size, (width - tw) / 2, m + CAP * scale, 0.05), width, height, new Float64Array(width * height));
+  for (let j = dotY; j < dotY + d; j++) for (let i = dotX; i < dotX + d; i++) cover[j * width + i] = 1;
+  // halo: the ink's coverage spread by m pixels (a square neighbourhood), under the ink
+  const spread = new Float64Array(width * height);
+  for (let j = 0; j < height; j++)
+    for (let i = 0; i < width; i++) {
+      let v = 0;
+      for (let jj = Math.max(0, j - m); jj <= Math.min(height - 1, j + m); jj++)
+        for (let ii = Math.max(0, i - m); ii <= Math.min(width - 1, i + m); ii++) v = Math.max(v, cover[jj * width + ii]!);
+      spread[j * width + i] = v;
     }
+  const rgba = new Float64Array(width * height * 4);
+  for (let k = 0; k < width * height; k++) {
+    const h = HALO_ALPHA * spread[k]!;
+    // ink alpha as the legend lays it (legend.ts: an sRGB-like edge in linear light)
+    const a = 1 - (1 - cover[k]!) ** 2.2;
+    for (let ch = 0; ch < 3; ch++) rgba[4 * k + ch] = a * ink[ch]! + (1 - a) * h * halo[ch]!;
+    rgba[4 * k + 3] = a + (1 - a) * h;
   }
   return { x, y, width, height, scale, rgba };
 }
@@ -81,13 +72,13 @@ function sprite(point: LabelPoint, scale: number, ink: ArrayLike<number>, halo: 
  * priority): a label that would overlap one already placed, or leave the
  * plate, is dropped.
  */
-export function layoutPeriodLabels(points: readonly LabelPoint[], dpi: number, plateWidth: number, plateHeight: number): Legend[] {
+export function layoutPeriodLabels(points: readonly LabelPoint[], dpi: number, plateWidth: number, plateHeight: number, font: LegendFont): Legend[] {
   const scale = legendScale(dpi);
   const ink = hexToLinear(INK, new Float64Array(3));
   const halo = hexToLinear(HALO, new Float64Array(3));
   const placed: Legend[] = [];
   for (const p of points) {
-    const s = sprite(p, scale, ink, halo);
+    const s = sprite(p, scale, ink, halo, font);
     if (s.x < 0 || s.y < 0 || s.x + s.width > plateWidth || s.y + s.height > plateHeight) continue;
     const clash = placed.some((q) => s.x < q.x + q.width && q.x < s.x + s.width && s.y < q.y + q.height && q.y < s.y + s.height);
     if (!clash) placed.push(s);

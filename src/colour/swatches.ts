@@ -2,7 +2,7 @@ import { createSampleSet } from '../plane/sample-set.js';
 import { DEFAULT_COLOUR_SETTINGS, type ColourSettings, type InteriorStyle } from './colour-settings.js';
 import { gradientLinear, type ExteriorGradientName } from './exterior-gradients.js';
 import { customGradientLinear, prepareGradient, type GradientStop } from './gradient-stops.js';
-import { firstPeriods, layoutLegend } from './legend.js';
+import { firstPeriods, layoutLegend, type LegendFont } from './legend.js';
 import { linearToSrgb } from './oklab.js';
 import { shadeSamples } from './shade-samples.js';
 
@@ -10,8 +10,8 @@ import { shadeSamples } from './shade-samples.js';
  * Swatches for `quadatlas palettes`: small RGBA images (8 bits, sRGB, opaque)
  * of each exterior gradient, each interior style and the period palette,
  * drawn through the same colour functions the renderer uses. Text, where
- * there is any, is the legend's own bitmap font, so no system font is
- * involved and the bytes are the same on every machine.
+ * there is any, is the legend's (DejaVu outlines filled by coverage), so
+ * no system font is involved and the bytes are the same on every machine.
  */
 export interface Swatch {
   readonly width: number;
@@ -78,9 +78,9 @@ export function interiorSwatch(style: InteriorStyle, periods: readonly number[] 
 }
 
 /** The period colours 1..count as a legend panel (swatch and number each), over white. */
-export function periodSwatch(count = 24, dpi = 200): Swatch {
+export function periodSwatch(font: LegendFont, count = 24, dpi = 200): Swatch {
   const settings: ColourSettings = { ...DEFAULT_COLOUR_SETTINGS, legend: 'inset', legendCorner: 'top-left', legendPeriods: count };
-  const legend = layoutLegend(settings, 100000, 100000, dpi, firstPeriods(count))!;
+  const legend = layoutLegend(settings, 100000, 100000, dpi, firstPeriods(count), font)!;
   const { width, height } = legend;
   const rgba = new Uint8Array(width * height * 4);
   const c = [1, 1, 1];

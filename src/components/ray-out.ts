@@ -25,7 +25,7 @@ const LOG_R2 = 2 * Math.log(RADIUS);
 export interface RayOut {
   /** Binary digits of the angle after the point, as far as they were computed. */
   digits: string;
-  /** How many leading digits are certain (no sign read within the error of the real axis). */
+  /** How many leading digits are certain: no sign read within the error of the real axis, and the same digits from a finer trace and from c moved by its rounding. */
   certain: number;
   /** The angle as a double (turns). */
   turns: number;
@@ -55,6 +55,32 @@ function turnsOf(re: number, im: number): number {
  * `sharpness` sub-steps per level.
  */
 export function externalAngleOf(cr0: number, ci0: number, bits: number, maxLevel: number, sharpness = 8): RayOut | null {
+  const first = traceOut(cr0, ci0, bits, maxLevel, sharpness);
+  if (first === null) return null;
+  // The certain count is cut to the prefix on which independent reads agree (a claim of 64 of 64
+  // from the sign margins alone was contradicted by them): a trace with 4x the sub-steps (the
+  // tracing error), and the same trace from c moved by 8 units in the last place two ways (the
+  // rounding of c and of the orbit, a few units each, seen through D_c F and the sector crossings).
+  let certain = first.certain;
+  const u = 8 * 2 ** -52;
+  const others = [
+    traceOut(cr0, ci0, bits, maxLevel, 4 * sharpness),
+    traceOut(cr0 + u * Math.abs(cr0), ci0 - u * Math.abs(ci0), bits, maxLevel, sharpness),
+    traceOut(cr0 - u * Math.abs(cr0), ci0 + u * Math.abs(ci0), bits, maxLevel, sharpness),
+  ];
+  for (const o of others) certain = Math.min(certain, o === null ? 0 : agreeingPrefix(first.digits, o.digits));
+  return { ...first, certain };
+}
+
+/** Length of the common prefix of two digit strings. */
+export function agreeingPrefix(a: string, b: string): number {
+  let i = 0;
+  while (i < a.length && i < b.length && a[i] === b[i]) i += 1;
+  return i;
+}
+
+/** One outward trace (the digits and the certain count from the sign margins and the tail's error alone). */
+function traceOut(cr0: number, ci0: number, bits: number, maxLevel: number, sharpness: number): RayOut | null {
   // escape level and potential
   let zr = 0;
   let zi = 0;
@@ -80,7 +106,8 @@ export function externalAngleOf(cr0: number, ci0: number, bits: number, maxLevel
   const tail = turnsOf(fr, fi);
   const fm = Math.hypot(fr, fi);
   const argError = (Math.hypot(fdr, fdi) * 2 ** -52 * Math.max(1, Math.hypot(cr0, ci0)) + k0 * 2 ** -52 * fm) / fm + Math.hypot(cr0, ci0) / (fm * fm);
-  const tailBits = Math.max(0, Math.min(50, Math.floor(-Math.log2(argError / (2 * Math.PI))) - 2));
+  // 6 bits below the estimate: it is an estimate (the orbit's rounding grows with k0), and digits within 64x of it moved under tests
+  const tailBits = Math.max(0, Math.min(50, Math.floor(-Math.log2(argError / (2 * Math.PI))) - 6));
   // outward: levels k0 .. 2, reading b_(k-1) at the end of level k
   const head: string[] = [];
   let certain = true;

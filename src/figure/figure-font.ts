@@ -20,6 +20,14 @@ export interface FigureFont {
    * a y-down page, `size` points tall; coordinates rounded to 1/100 pt.
    */
   outline(text: string, size: number, x: number, y: number): string;
+  /**
+   * The closed contours of `text` as polygons (x, y, x, y, ...) in a y-down
+   * page, baseline from (x, y), `size` units tall, each curve cut into
+   * chords within `tolerance` of it (a chord of a quadratic Bezier strays
+   * |p0 - 2 p1 + p2| / 4 from it, a quarter as far per halving): for
+   * coverage rasterisers (colour/fill-coverage.ts).
+   */
+  contours(text: string, size: number, x: number, y: number, tolerance: number): number[][];
   /** Height of the capitals above the baseline per point of size (for vertical centring). */
   readonly capHeight: number;
   /** Descent below the baseline per point of size (positive). */
@@ -77,6 +85,55 @@ export function figureFont(): FigureFont {
         pen += pos.xAdvance;
       });
       return parts.join('');
+    },
+    contours(text, size, x, y, tolerance) {
+      const run = font.layout(text);
+      const k = size / em;
+      const polys: number[][] = [];
+      let poly: number[] = [];
+      let pen = 0;
+      const close = (): void => {
+        if (poly.length >= 6) polys.push(poly);
+        poly = [];
+      };
+      run.glyphs.forEach((g, i) => {
+        const pos = run.positions[i]!;
+        const ox = x + (pen + pos.xOffset) * k;
+        const oy = y - pos.yOffset * k;
+        const px = (a: number): number => ox + a * k;
+        const py = (a: number): number => oy - a * k;
+        for (const c of g.path.commands) {
+          const a = c.args;
+          if (c.command === 'moveTo') {
+            close();
+            poly.push(px(a[0]!), py(a[1]!));
+          } else if (c.command === 'lineTo') poly.push(px(a[0]!), py(a[1]!));
+          else if (c.command === 'quadraticCurveTo' || c.command === 'bezierCurveTo') {
+            const x0 = poly[poly.length - 2]!;
+            const y0 = poly[poly.length - 1]!;
+            const pts = [x0, y0];
+            for (let j = 0; j < a.length; j += 2) pts.push(px(a[j]!), py(a[j + 1]!));
+            // second differences bound the chord's distance from the curve
+            let dd = 0;
+            for (let j = 0; j + 5 < pts.length; j += 2) dd = Math.max(dd, Math.hypot(pts[j]! - 2 * pts[j + 2]! + pts[j + 4]!, pts[j + 1]! - 2 * pts[j + 3]! + pts[j + 5]!));
+            const deg = pts.length / 2 - 1;
+            const n = Math.max(1, Math.ceil(Math.sqrt(((deg === 2 ? 0.25 : 0.75) * dd) / tolerance)));
+            for (let s = 1; s <= n; s++) {
+              const t = s / n;
+              const u = 1 - t;
+              if (deg === 2) poly.push(u * u * pts[0]! + 2 * u * t * pts[2]! + t * t * pts[4]!, u * u * pts[1]! + 2 * u * t * pts[3]! + t * t * pts[5]!);
+              else
+                poly.push(
+                  u * u * u * pts[0]! + 3 * u * u * t * pts[2]! + 3 * u * t * t * pts[4]! + t * t * t * pts[6]!,
+                  u * u * u * pts[1]! + 3 * u * u * t * pts[3]! + 3 * u * t * t * pts[5]! + t * t * t * pts[7]!,
+                );
+            }
+          } else close();
+        }
+        close();
+        pen += pos.xAdvance;
+      });
+      return polys;
     },
   };
   return cached;

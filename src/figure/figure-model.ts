@@ -18,6 +18,8 @@ export interface FigureOptions {
   readonly scaleBar?: boolean;
   /** Periods to list in a legend beside the frame (swatch and number each), [] for none. */
   readonly legendPeriods?: readonly number[];
+  /** The plane's variable in the axis titles: 'c' (default) for the parameter plane, 'z' for the dynamical plane. */
+  readonly variable?: 'c' | 'z';
 }
 
 /** A bar of `length` (c units, a decimal string) that is `pixels` plate pixels long. */
@@ -50,11 +52,20 @@ export interface FigureMark {
   readonly y: number;
 }
 
-/** A labelled point from the sheet's marks, in continuous plate pixels: a ring at the point, its label beside it. */
+/**
+ * A point from the sheet's marks, in continuous plate pixels: a ring at the
+ * point (or a disc), its label beside it ('' for none).
+ */
 export interface FigurePoint {
   readonly label: string;
   readonly x: number;
   readonly y: number;
+  /** 'ring' (default): a white ring over a black halo; 'disc': a disc filled with `fill` over a black halo. */
+  readonly shape?: 'ring' | 'disc';
+  /** The disc's fill, '#rrggbb'. */
+  readonly fill?: string;
+  /** Radius in points (default POINT_RADIUS_PT of layout-figure.ts). */
+  readonly radius?: number;
 }
 
 export interface FigureModel {
@@ -98,9 +109,10 @@ export function figureModel(
     const heightPt = (view.height / dpi) * 72;
     const spanIm = spanOf(view.span, view.height, view.width);
     const exponent = offsetExponentFor(view.width >= view.height ? view.span : spanIm);
+    const variable = options.variable ?? 'c';
     axes = {
-      re: axisTicks('Re c', view.centerRe, view.span, view.width, Math.max(MIN_TICKS, Math.round(widthPt / TICK_SPACING_PT)), false, exponent),
-      im: axisTicks('Im c', view.centerIm, spanIm, view.height, Math.max(MIN_TICKS, Math.round(heightPt / TICK_SPACING_PT)), true, exponent),
+      re: axisTicks(`Re ${variable}`, view.centerRe, view.span, view.width, Math.max(MIN_TICKS, Math.round(widthPt / TICK_SPACING_PT)), false, exponent),
+      im: axisTicks(`Im ${variable}`, view.centerIm, spanIm, view.height, Math.max(MIN_TICKS, Math.round(heightPt / TICK_SPACING_PT)), true, exponent),
     };
   }
   const scaleBar = options.scaleBar === true ? scaleBarFor(view.span, view.width) : null;

@@ -37,8 +37,21 @@ const POINT_RADIUS_PT = 1.8;
 /** Equipotentials: pale hairlines, under the rays and outlines. */
 export const LEVEL_PT = 0.35;
 const LEVEL_INK = '#e6eeff';
+/** A Julia plate's critical orbit: a thin orange path (its points are discs, figure-model FigurePoint). */
+export const ORBIT_PT = 0.4;
+const ORBIT_INK = '#ff8a1e';
 /** Ray labels: white on a half-transparent black backing. */
 const RAY_LABEL_BACKING = 0.55;
+
+/** The ring of a labelled point at the default radius, 16 sides (as drawn before radii were given). */
+function circle16(cx: number, cy: number): number[] {
+  const ring: number[] = [];
+  for (let k = 0; k <= 16; k += 1) ring.push(cx + POINT_RADIUS_PT * Math.cos((k * Math.PI) / 8), cy + POINT_RADIUS_PT * Math.sin((k * Math.PI) / 8));
+  return ring;
+}
+
+/** The black halo around a disc, in points beyond its radius. */
+const HALO_PT = 0.5;
 
 /** Greedy word wrap of `text` into lines no wider than `width` at `size`. */
 function wrap(font: FigureFont, text: string, size: number, width: number): string[] {
@@ -128,9 +141,20 @@ export function layoutFigure(model: FigureModel, dpi: number, font: FigureFont):
     }
   }
   // halos first, so a curve crossing another stays unbroken
-  const widthOf = (kind: string): number => (kind === 'outline' || kind === 'internal-ray' || kind === 'cascade' ? OUTLINE_PT : kind === 'equipotential' ? LEVEL_PT : RAY_PT);
+  const widthOf = (kind: string): number =>
+    kind === 'outline' || kind === 'internal-ray' || kind === 'cascade' ? OUTLINE_PT : kind === 'equipotential' ? LEVEL_PT : kind === 'orbit' ? ORBIT_PT : RAY_PT;
   const inkOf = (kind: string): string =>
-    kind === 'cascade' ? CASCADE_INK : kind === 'outline' ? OUTLINE_INK : kind === 'internal-ray' ? INTERNAL_INK : kind === 'equipotential' ? LEVEL_INK : RAY_INK;
+    kind === 'cascade'
+      ? CASCADE_INK
+      : kind === 'outline'
+        ? OUTLINE_INK
+        : kind === 'internal-ray'
+          ? INTERNAL_INK
+          : kind === 'equipotential'
+            ? LEVEL_INK
+            : kind === 'orbit'
+              ? ORBIT_INK
+              : RAY_INK;
   curveRuns.forEach((runs, k) => {
     const kind = model.curves[k]!.kind;
     if (kind === 'equipotential' || kind === 'cascade') return; // hairlines need no halo
@@ -145,13 +169,24 @@ export function layoutFigure(model: FigureModel, dpi: number, font: FigureFont):
     const cx = plate.x + point.x * sx;
     const cy = plate.y + point.y * sy;
     if (cx < plate.x || cy < plate.y || cx > plate.x + pw || cy > plate.y + ph) continue;
-    const ring: number[] = [];
-    for (let k = 0; k <= 16; k += 1) ring.push(cx + POINT_RADIUS_PT * Math.cos((k * Math.PI) / 8), cy + POINT_RADIUS_PT * Math.sin((k * Math.PI) / 8));
-    strokes.push({ points: ring, width: 3 * LINE_PT, colour: RAY_HALO, clip: true });
-    strokes.push({ points: ring, width: 1.2 * LINE_PT, colour: RAY_INK, clip: true });
-    const ringBox = { x: cx - POINT_RADIUS_PT - 1, y: cy - POINT_RADIUS_PT - 1, width: 2 * POINT_RADIUS_PT + 2, height: 2 * POINT_RADIUS_PT + 2 };
+    const radius = point.radius ?? POINT_RADIUS_PT;
+    const circle = (r: number): number[] => {
+      const ring: number[] = [];
+      for (let k = 0; k <= 24; k += 1) ring.push(cx + r * Math.cos((k * Math.PI) / 12), cy + r * Math.sin((k * Math.PI) / 12));
+      return ring;
+    };
+    if (point.shape === 'disc') {
+      // a disc as a circle of half its radius stroked as wide as the radius (the writers have strokes, not filled paths)
+      strokes.push({ points: circle((radius + HALO_PT) / 2), width: radius + HALO_PT, colour: RAY_HALO, clip: true });
+      strokes.push({ points: circle(radius / 2), width: radius, colour: point.fill ?? RAY_INK, clip: true });
+    } else {
+      const ring = radius === POINT_RADIUS_PT ? circle16(cx, cy) : circle(radius);
+      strokes.push({ points: ring, width: 3 * LINE_PT, colour: RAY_HALO, clip: true });
+      strokes.push({ points: ring, width: 1.2 * LINE_PT, colour: RAY_INK, clip: true });
+    }
+    const ringBox = { x: cx - radius - 1, y: cy - radius - 1, width: 2 * radius + 2, height: 2 * radius + 2 };
     placed.push(ringBox);
-    const label = placePointLabel(font, point.label, cx, cy, plate, placed, allRuns);
+    const label = point.label === '' ? null : placePointLabel(font, point.label, cx, cy, radius, plate, placed, allRuns);
     if (label !== null) {
       placed.push(label.box);
       fills.push({ ...label.box, colour: RAY_HALO, opacity: RAY_LABEL_BACKING });
@@ -343,12 +378,13 @@ function placeRayLabel(
   return null;
 }
 
-/** Where a point's label goes: right of the ring, then left, above, below; null when none of those is free. */
+/** Where a point's label goes: right of the ring, then left, above, below, then the four diagonals; null when none of those is free. */
 function placePointLabel(
   font: FigureFont,
   text: string,
   cx: number,
   cy: number,
+  radius: number,
   plate: Rect,
   placed: readonly Rect[],
   allRuns: readonly number[][],
@@ -358,12 +394,18 @@ function placePointLabel(
   const pad = 1.2;
   const bw = w + 2 * pad;
   const bh = h + 2 * pad;
-  const off = POINT_RADIUS_PT + 2;
+  const off = radius + 2;
   const candidates = [
     { x: cx + off, y: cy - bh / 2 },
     { x: cx - off - bw, y: cy - bh / 2 },
     { x: cx - bw / 2, y: cy - off - bh },
     { x: cx - bw / 2, y: cy + off },
+    // then the diagonals, for a point where curves cross (a Julia plate's alpha, with its rays and the orbit)
+    // (the box's corner off the ring's box by the same gap both ways)
+    { x: cx + off - 1, y: cy - off + 1 - bh },
+    { x: cx - off + 1 - bw, y: cy - off + 1 - bh },
+    { x: cx + off - 1, y: cy + off - 1 },
+    { x: cx - off + 1 - bw, y: cy + off - 1 },
   ];
   for (const c of candidates) {
     const box = { x: c.x, y: c.y, width: bw, height: bh };

@@ -15,6 +15,7 @@ import { mkdir, readdir, readFile } from 'node:fs/promises';
 import { createRequire } from 'node:module';
 import path from 'node:path';
 import { firstPeriods, legendSvg } from '../colour/legend.js';
+import { figureFont } from '../figure/figure-font.js';
 import type { Sheet } from '../view/sheet.js';
 import { INFO_GLOBAL, TILES_FOLDER } from './iiif-tree.js';
 import { writeFileAtomic } from './write-file-atomic.js';
@@ -56,7 +57,8 @@ export function viewerHtml(f: ViewerFacts): string {
     width: sheet.width,
     height: sheet.height,
   };
-  const legend = sheet.colour.legend === 'none' ? '' : `<details id="legend"><summary>period legend</summary>${legendSvg(firstPeriods(sheet.colour.legendPeriods))}</details>`;
+  const legend =
+    sheet.colour.legend === 'none' ? '' : `<details id="legend"><summary>period legend</summary>${legendSvg(firstPeriods(sheet.colour.legendPeriods), figureFont())}</details>`;
   const rows: Array<[string, string]> = [
     ['centre', `${sheet.view.re} ${im} i`],
     ['span', `${sheet.view.span} (width in c)`],

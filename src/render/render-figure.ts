@@ -2,65 +2,32 @@
  * Renders a sheet whose output is a figure: a .pdf or .svg, or a .png or
  * .tif with annotations. The plate is rendered as a PNG under a temporary
  * name (16 bits a channel for PDF, the sheet's depth otherwise), then the
- * figure model (src/figure/) is laid out around it and written: PDF by
- * pdfkit, SVG with the PNG inlined as a data URL up to SVG_INLINE_LIMIT
- * bytes (`NAME-plate.png` beside it above that), PNG and TIFF as the page
- * rasterised at the plate's dpi with the plate copied in pixel for pixel
- * (figure/write-figure-raster.ts) and written by the io/ sinks with the
- * sheet in their metadata.
+ * figure model (src/figure/) is laid out around it and written by
+ * figure-output.ts (PDF, SVG, or the page rasterised for PNG and TIFF), with
+ * the sheet in its metadata. Julia figures: render-julia-figure.ts.
  */
-import { readFile, rename, rm } from 'node:fs/promises';
+import { rm } from 'node:fs/promises';
 import path from 'node:path';
-import { svgWithMetadata } from '../io/embed-metadata.js';
 import { releaseTemp, tempPathFor } from '../io/temp-path.js';
 import { writeFileAtomic } from '../io/write-file-atomic.js';
 import { figureFont } from '../figure/figure-font.js';
 import { figureModel } from '../figure/figure-model.js';
 import { layoutFigure } from '../figure/layout-figure.js';
-import { figurePdf } from '../figure/write-figure-pdf.js';
-import { figureSvg } from '../figure/write-figure-svg.js';
 import type { Sheet } from '../view/sheet.js';
-import { doubleGrid, fitsDouble, type DoubleGrid, type View } from '../view/view.js';
+import { doubleGrid, fitsDouble, type View } from '../view/view.js';
 import type { FigureCurve } from '../figure/figure-model.js';
 import { parameterRay, type ParameterRay } from '../figure/parameter-rays.js';
 import { outlinesInView, type ComponentOutline } from '../figure/component-outlines.js';
 import os from 'node:os';
 import { raysOfPeriod } from '../figure/rays-of-period.js';
-import { equipotential, equipotentialLevel, largestPotential, MAX_CURVE_STEPS } from '../figure/equipotentials.js';
+import { equipotentialsInView } from '../figure/equipotentials.js';
 import { MAX_RAYS } from '../view/sheet.js';
 import { periodMarks, type PeriodMark } from '../figure/period-marks.js';
 import { plateMetadata, refuseDirectory, renderSheet, type PlateSummary, type RenderSheetOptions } from './render-sheet.js';
 import { Received, UserError } from '../check/user-error.js';
-import { toolVersion } from '../io/tool-version.js';
-import { Decimal } from 'decimal.js';
 import { internalRaysInView, type FigureInternalRay } from '../figure/internal-rays.js';
 import { presentPeriods } from '../colour/legend.js';
-import { MAX_RASTER_FIGURE_PIXELS, rasterFigure, rasterPlacement } from '../figure/write-figure-raster.js';
-import { openPngSink } from '../io/png-sink.js';
-import { openTiffSink } from '../io/tiff-sink.js';
-
-/**
- * Largest PNG (bytes) an SVG figure carries inside itself as a data URL:
- * 4 MiB is 5.6 MB of base64. librsvg (used by sharp and many viewers)
- * refuses an attribute over 10 MB unless told to parse huge files; measured
- * with a 7.6 MB plate.
- */
-export const SVG_INLINE_LIMIT = 4 * 1024 * 1024;
-
-export interface FigureSummary {
-  readonly format: 'pdf' | 'svg' | 'png' | 'tif';
-  /** PNG and TIFF figures: the page's size in pixels and where the plate's top left pixel sits on it; else null. */
-  readonly raster: { width: number; height: number; plateX: number; plateY: number } | null;
-  /** The plate's rectangle on the page, in points from the top left. */
-  readonly plate: { x: number; y: number; width: number; height: number };
-  readonly page: { width: number; height: number };
-  readonly axes: { re: { title: string; ticks: Array<{ value: string; label: string }> }; im: { title: string; ticks: Array<{ value: string; label: string }> } } | null;
-  readonly scaleBar: { length: string; label: string; pixels: number } | null;
-  /** The periods the legend beside the frame lists ([] without one). */
-  readonly legend: number[];
-  /** The PNG beside an SVG too large to inline, else null. */
-  readonly image: string | null;
-}
+import { besidePlateName, pinPixels, toPlatePixels as toPixels, writeFigureOutput, type FigureSummary } from './figure-output.js';
 
 /** A ray drawn: landing from Newton (decimal strings), and how far (in pixels) the traced part ended from it. */
 export interface RaySummary {
@@ -71,19 +38,8 @@ export interface RaySummary {
   landing: { re: string; im: string };
   tracedEnd: { re: string; im: string };
   tracedEndPixels: number;
+  tracedDepth: number;
   landsInView: boolean;
-}
-
-/** Plate pixel coordinates of c values (re, im, ...): the inverse of pixelToC (view.ts), for any rotation. */
-function toPixels(grid: DoubleGrid, c: Float64Array): Float64Array {
-  const pts = new Float64Array(c.length);
-  for (let i = 0; i < c.length; i += 2) {
-    const u = c[i]! - grid.centerRe;
-    const v = c[i + 1]! - grid.centerIm;
-    pts[i] = grid.width / 2 + (u * grid.cos + v * grid.sin) / grid.spacing;
-    pts[i + 1] = grid.height / 2 - (-u * grid.sin + v * grid.cos) / grid.spacing;
-  }
-  return pts;
 }
 
 /** The rays and outlines of the sheet, computed in c, with their polylines in plate pixels. */
@@ -112,30 +68,12 @@ async function traceCurves(
       `a view that doubles resolve (${field === 'figure.outlines' || field === 'figure.internalRays' ? 'components are followed' : field === 'figure.equipotentials' ? 'equipotentials are followed' : 'rays are traced'} in double precision)`,
       `span ${sheet.view.span}`,
     );
-  const levels: number[] = [];
-  const levelCurves: FigureCurve[] = [];
-  if (spec.equipotentials > 0) {
-    const g0 = largestPotential(grid, 100_000);
-    if (!(g0 > 0)) throw new UserError('figure.equipotentials', 'a view with points outside the set', new Received(`no escaping point on the frame of the view`));
-    for (let k = 0; k < spec.equipotentials; k += 1) {
-      const g = g0 / 2 ** k;
-      if (equipotentialLevel(g).steps > MAX_CURVE_STEPS) {
-        throw new UserError(
-          'figure.equipotentials',
-          `at most ${k} levels in this view (level G_0 / 2^k takes about 2^(k+7) Newton steps; the limit is ${MAX_CURVE_STEPS})`,
-          spec.equipotentials,
-        );
-      }
-      const curve = equipotential(g, grid.spacing / 4);
-      if (curve === null) throw new UserError('figure.equipotentials', 'levels whose curve Newton follows in double precision', new Received(`G = ${g}`));
-      levels.push(g);
-      levelCurves.push({ kind: 'equipotential', label: '', points: toPixels(grid, curve) });
-    }
-  }
-  const rays = spec.rays.map((a, i) => parameterRay(a, `figure.rays[${i}]`));
+  const { levels, curves: levelPoints } = spec.equipotentials > 0 ? equipotentialsInView(spec.equipotentials, grid, 'figure.equipotentials') : { levels: [], curves: [] };
+  const levelCurves: FigureCurve[] = levelPoints.map((points) => ({ kind: 'equipotential', label: '', points: toPixels(grid, points) }));
+  const rays = spec.rays.map((a, i) => parameterRay(a, `figure.rays[${i}]`, grid.spacing));
   if (spec.raysOf > 0) {
     const given = new Set(spec.rays);
-    for (const a of await raysOfPeriod(spec.raysOf, grid, workers, MAX_RAYS - spec.rays.length)) if (!given.has(a)) rays.push(parameterRay(a, 'figure.raysOf'));
+    for (const a of await raysOfPeriod(spec.raysOf, grid, workers, MAX_RAYS - spec.rays.length)) if (!given.has(a)) rays.push(parameterRay(a, 'figure.raysOf', grid.spacing));
   }
   const outlines = spec.outlines > 0 ? await outlinesInView(spec.outlines, grid, workers) : [];
   const internal = spec.internalRays === null ? [] : await internalRaysInView(spec.internalRays.period, spec.internalRays.angles, grid, workers);
@@ -146,23 +84,6 @@ async function traceCurves(
     ...rays.map((r) => ({ kind: 'ray', label: r.angle, points: toPixels(grid, r.points) })),
   ];
   return { rays, outlines, internal, levels, curves };
-}
-
-/**
- * Plate pixel coordinates of a point given in decimal strings, from the
- * exact decimal offsets to the view's centre (so marks sit right at any
- * depth); the inverse of pixelToC (view.ts).
- */
-function pinPixels(view: View, re: string, im: string): { x: number; y: number } {
-  const D = Decimal.clone({ precision: Math.max(view.centerRe.length, view.centerIm.length, re.length, im.length, view.span.length) + 30 });
-  const spacing = new D(view.span).div(view.width);
-  const u = new D(re).minus(view.centerRe).div(spacing);
-  const v = new D(im).minus(view.centerIm).div(spacing);
-  const a = (view.rotation * Math.PI) / 180;
-  const [cos, sin] = view.rotation === 0 ? [1, 0] : [Math.cos(a), Math.sin(a)];
-  const un = u.toNumber();
-  const vn = v.toNumber();
-  return { x: view.width / 2 + (un * cos + vn * sin), y: view.height / 2 - (-un * sin + vn * cos) };
 }
 
 export async function renderFigure(
@@ -181,8 +102,7 @@ export async function renderFigure(
   if (spec === null) throw new Error('renderFigure: the sheet has no figure');
   const file = sheet.output.file;
   const pdf = /\.pdf$/i.test(file);
-  const format: FigureSummary['format'] = pdf ? 'pdf' : /\.svg$/i.test(file) ? 'svg' : /\.tiff?$/i.test(file) ? 'tif' : 'png';
-  const besideName = file.replace(/\.(pdf|svg|png|tiff?)$/i, '-plate.png');
+  const besideName = besidePlateName(file);
   for (const f of [file, besideName, ...(sheet.output.sidecar ? [`${file}.json`] : [])]) await refuseDirectory(f, 'output.file');
   const rasterFile = tempPathFor(besideName);
   // Period labels are set in the figure font over the plate, not drawn into its pixels.
@@ -208,74 +128,14 @@ export async function renderFigure(
   }
   try {
     const summary = await renderSheet(raster, { ...options, label: options.label ?? path.basename(file) });
-    const png = await readFile(rasterFile);
     const legendPeriods = sheet.colour.legend === 'beside' ? presentPeriods(summary.periods, sheet.colour) : [];
     const model = figureModel(view, sheet.dpi, { axes: spec.axes, caption: spec.caption, scaleBar: spec.scaleBar, legendPeriods }, curves, marks, points);
     const font = figureFont();
     const scene = layoutFigure(model, sheet.dpi, font);
     const metadata = plateMetadata(sheet, { arithmetic: summary.arithmetic, bits: Number(summary.precision['referenceBits'] ?? 53), iterations: summary.iterations });
-    let image: string | null = null;
-    let page: { width: number; height: number; plateX: number; plateY: number } | null = null;
-    if (pdf) {
-      await writeFileAtomic(file, await figurePdf(scene, png, font, { title: sheet.title, creator: `quadatlas ${toolVersion()}`, metadata }));
-      await rm(rasterFile, { force: true });
-    } else if (format === 'png' || format === 'tif') {
-      const place = rasterPlacement(scene, sheet.dpi, sheet.width, sheet.height);
-      if (place.width * place.height > MAX_RASTER_FIGURE_PIXELS) {
-        throw new UserError(
-          'output.file',
-          `a .pdf or .svg figure for a page over ${MAX_RASTER_FIGURE_PIXELS} pixels (annotations are rasterised in one piece)`,
-          new Received(`${place.width}x${place.height} pixels`),
-        );
-      }
-      const raster = await rasterFigure(scene, png, sheet.dpi, font);
-      page = { width: raster.width, height: raster.height, plateX: raster.plateX, plateY: raster.plateY };
-      const spec = { width: raster.width, height: raster.height, depth: sheet.depth, channels: 3 as const, dpi: sheet.dpi, metadata, software: `quadatlas ${toolVersion()}` };
-      const sink = format === 'tif' ? await openTiffSink(file, spec) : await openPngSink(file, spec);
-      try {
-        const rowSamples = raster.width * 3;
-        const band = Math.max(1, Math.floor(4_000_000 / rowSamples));
-        for (let y = 0; y < raster.height; y += band) {
-          const rows = Math.min(band, raster.height - y);
-          await sink.writeRows(raster.pixels.subarray(y * rowSamples, (y + rows) * rowSamples), rows);
-        }
-        await sink.finish();
-      } catch (err) {
-        await sink.abort();
-        throw err;
-      }
-      await rm(rasterFile, { force: true });
-    } else {
-      let href: string;
-      if (png.length <= SVG_INLINE_LIMIT) {
-        href = `data:image/png;base64,${png.toString('base64')}`;
-        await rm(rasterFile, { force: true });
-      } else {
-        href = path.basename(besideName);
-        image = path.resolve(besideName);
-      }
-      // the plate first: an SVG never points at a PNG that is not there
-      if (image !== null) await rename(rasterFile, besideName);
-      await writeFileAtomic(file, svgWithMetadata(figureSvg(scene, href, font, sheet.title), metadata));
-    }
+    const figure = await writeFigureOutput({ file, rasterFile, model, scene, font, dpi: sheet.dpi, depth: sheet.depth, title: sheet.title, metadata });
+    const image = figure.image;
     releaseTemp(rasterFile);
-    const round = (v: number): number => Math.round(v * 1000) / 1000;
-    const figure: FigureSummary = {
-      format,
-      raster: page,
-      plate: { x: round(scene.plate.x), y: round(scene.plate.y), width: round(scene.plate.width), height: round(scene.plate.height) },
-      page: { width: round(scene.width), height: round(scene.height) },
-      axes:
-        model.axes === null
-          ? null
-          : {
-              re: { title: model.axes.re.title, ticks: model.axes.re.ticks.map((t) => ({ value: t.value, label: t.label })) },
-              im: { title: model.axes.im.title, ticks: model.axes.im.ticks.map((t) => ({ value: t.value, label: t.label })) },
-            },
-      scaleBar: model.scaleBar === null ? null : { length: model.scaleBar.length, label: model.scaleBar.label, pixels: round(model.scaleBar.pixels) },
-      legend: model.legend.map((e) => e.period),
-      image,
-    };
     const raySummaries: RaySummary[] = rays.map((r, i) => {
       const pts = rayCurves[i]!.points;
       const n = pts.length;
@@ -291,6 +151,7 @@ export async function renderFigure(
         landing: { re: r.landing.re, im: r.landing.im },
         tracedEnd: { re: String(r.tracedEnd.re), im: String(r.tracedEnd.im) },
         tracedEndPixels: Math.round(px * 1000) / 1000,
+        tracedDepth: r.tracedDepth,
         landsInView: lx >= 0 && lx <= sheet.width && ly >= 0 && ly <= sheet.height,
       };
     });

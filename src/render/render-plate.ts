@@ -21,6 +21,7 @@
  */
 import { encodePixels } from '../colour/encode-pixels.js';
 import { layoutLegend, paintLegendRect, presentPeriods } from '../colour/legend.js';
+import { figureFont } from '../figure/figure-font.js';
 import type { RasterSink } from '../io/raster-sink.js';
 import { planStrips, type Strip } from '../view/tile-plan.js';
 import type { TileDoneMessage } from './tile-messages.js';
@@ -181,7 +182,7 @@ export async function renderPlate(job: PlateJob, sinks: PlateSinks, options: Ren
       if (hold) {
         if (!legendDrawn) {
           for (const q of queued) throwFirst(await q.done);
-          legend = layoutLegend(job.colour, width, height, job.dpi, presentPeriods(stats.periods, job.colour));
+          legend = layoutLegend(job.colour, width, height, job.dpi, presentPeriods(stats.periods, job.colour), figureFont());
           legendDrawn = true;
         }
         if (legend !== null) {

@@ -17,6 +17,7 @@ import type { RasterSink, RasterSpec } from '../io/raster-sink.js';
 import { openTiffSink } from '../io/tiff-sink.js';
 import { writeFileAtomic } from '../io/write-file-atomic.js';
 import { legendBounds, legendSvg, presentPeriods } from '../colour/legend.js';
+import { figureFont } from '../figure/figure-font.js';
 import { DEFAULT_ESCAPE_RADIUS } from '../plane/sample-parameters.js';
 import type { PlateJob, TileStats } from './plate-job.js';
 import { createProgress } from './progress.js';
@@ -160,7 +161,7 @@ async function periodLabels(grid: DoubleGrid, maxPeriod: number, dpi: number, wo
     const [x, y] = cToPixel(grid, n.re, n.im);
     return { period: n.period, x, y };
   });
-  return layoutPeriodLabels(points, dpi, grid.width, grid.height);
+  return layoutPeriodLabels(points, dpi, grid.width, grid.height, figureFont());
 }
 
 /** The pixel-centre coordinates beside the data arrays (docs/data.md): re/im for double views, offsets for deep ones. */
@@ -207,7 +208,7 @@ export async function renderSheet(sheet: Sheet, options: RenderSheetOptions = {}
   const workers = options.workers ?? os.availableParallelism();
   const tileSize = options.tileSize ?? DEFAULT_TILE_SIZE;
   // Periods never exceed the iteration limit, which bounds the legend's number width.
-  const bounds = legendBounds(sheet.colour, sheet.width, sheet.height, sheet.dpi, String(iterations).length);
+  const bounds = legendBounds(sheet.colour, sheet.width, sheet.height, sheet.dpi, String(iterations).length, figureFont());
   const { job, referenceSeconds, tableSeconds, memory } = sheetJob(
     sheet,
     grid,
@@ -383,7 +384,7 @@ export async function writePlate(sheet: Sheet, job: PlateJob, run: PlateRun): Pr
     };
     if (sheet.colour.legend === 'beside') {
       const legendFile = file.replace(/\.(png|tiff?)$/i, '-legend.svg');
-      await writeFileAtomic(legendFile, legendSvg(presentPeriods(stats.periods, sheet.colour)));
+      await writeFileAtomic(legendFile, legendSvg(presentPeriods(stats.periods, sheet.colour), figureFont()));
       files.push(path.resolve(legendFile));
     }
     if (sheet.output.sidecar) {

@@ -3,9 +3,9 @@
  * x_n against n for several parameters on one set of axes, and the cobweb
  * (the graph of f or f^K, the diagonal and the staircase of an orbit). Pure
  * string building, no I/O. Text goes through a `Lettering` so the same
- * figure can carry real SVG text (scalable, selectable: the main output) or
- * text drawn as filled paths from our bitmap font (for PNG, so no system
- * font is ever rasterised).
+ * figure can carry SVG text (SVG_TEXT, the library default) or glyph
+ * outlines (figure/outline-lettering.ts: what the command line writes, in
+ * SVG and PNG, so no system font is ever rasterised).
  */
 import { niceTicks } from './plot-svg.js';
 

@@ -2,8 +2,11 @@
  * A line plot of one quantity along the parameter axis as an SVG document
  * (W3C SVG 1.1), with marked parameters (vertical lines, e.g. period
  * doublings) and marked bands (shaded intervals, e.g. periodic windows).
- * Pure string building: no I/O, no measurement of fonts.
+ * Pure string building, no I/O: text is set and measured by the caller's
+ * Lettering (lettering.ts; the command line passes the DejaVu outlines).
  */
+import type { Lettering } from './lettering.js';
+
 export interface PlotMark {
   at: number;
   label: string;
@@ -38,16 +41,6 @@ interface Box {
 
 function overlap(a: Box, b: Box): boolean {
   return a.x < b.x + b.width && b.x < a.x + a.width && a.y < b.y + b.height && b.y < a.y + a.height;
-}
-
-/**
- * A generous estimate of the width of `text` at `size` px in a sans-serif
- * face: 0.62 em a character (DejaVu Sans digits are 0.636 em, lower-case
- * letters 0.28 to 0.98 em, averaging about 0.6; a slight overestimate only
- * drops a label that would have fitted).
- */
-export function textWidth(text: string, size: number): number {
-  return text.length * 0.62 * size;
 }
 
 /** Height of the strip above the bottom edge kept for the clip marks. */
@@ -92,7 +85,8 @@ export function niceTicks(lo: number, hi: number, count: number): number[] {
   return ticks;
 }
 
-export function plotSvg(spec: PlotSpec): string {
+export function plotSvg(spec: PlotSpec, lettering: Lettering): string {
+  const L = lettering;
   const W = spec.width ?? 1200;
   const H = spec.height ?? 520;
   const m = { l: 70, r: 20, t: 40, b: 60 };
@@ -117,10 +111,10 @@ export function plotSvg(spec: PlotSpec): string {
   const sy = (y: number): number => m.t + ((yHi - Math.max(yLo, Math.min(yHi, y))) / (yHi - yLo)) * ph;
   const f = (v: number): string => v.toFixed(2);
   const parts: string[] = [];
-  parts.push(`<svg xmlns="http://www.w3.org/2000/svg" width="${W}" height="${H}" viewBox="0 0 ${W} ${H}" font-family="sans-serif" font-size="12">`);
+  parts.push(`<svg xmlns="http://www.w3.org/2000/svg" width="${W}" height="${H}" viewBox="0 0 ${W} ${H}">`);
   parts.push(`<rect width="${W}" height="${H}" fill="white"/>`);
-  parts.push(`<text x="${m.l}" y="24" font-size="15">${esc(spec.title)}</text>`);
-  // Labels are placed only where their box (width estimated, see textWidth) meets no other label and no mark line.
+  parts.push(L.text(spec.title, m.l, 24, 15, 'start', 'black'));
+  // Labels are placed only where their box (the lettering's advance) meets no other label and no mark line.
   const placed: Box[] = [];
   const markXs = spec.marks.filter((mk) => mk.at >= Math.min(x0, x1) && mk.at <= Math.max(x0, x1)).map((mk) => sx(mk.at));
   for (const b of spec.bands) {
@@ -128,19 +122,19 @@ export function plotSvg(spec: PlotSpec): string {
     const e = sx(Math.min(x1, Math.max(b.from, b.to)));
     if (e <= a) continue;
     parts.push(`<rect x="${f(a)}" y="${m.t}" width="${f(Math.max(0.5, e - a))}" height="${ph}" fill="#cfe3f7"><title>${esc(b.label)}</title></rect>`);
-    const w = textWidth(b.label, 10);
+    const w = L.width(b.label, 10);
     const box = { x: (a + e) / 2 - w / 2 - 1, y: m.t + 2, width: w + 2, height: 12 };
     if (box.x < m.l || box.x + box.width > m.l + pw || placed.some((q) => overlap(q, box)) || markXs.some((x) => x >= box.x && x <= box.x + box.width)) continue;
     placed.push(box);
-    parts.push(`<text x="${f((a + e) / 2)}" y="${m.t + 12}" text-anchor="middle" font-size="10" fill="#2a5a8a">${esc(b.label)}</text>`);
+    parts.push(L.text(b.label, (a + e) / 2, m.t + 12, 10, 'middle', '#2a5a8a', false, 'band-label'));
   }
   for (const t of niceTicks(x0, x1, 10)) {
     parts.push(`<line x1="${f(sx(t))}" y1="${m.t + ph}" x2="${f(sx(t))}" y2="${m.t + ph + 5}" stroke="black"/>`);
-    parts.push(`<text x="${f(sx(t))}" y="${m.t + ph + 18}" text-anchor="middle">${t}</text>`);
+    parts.push(L.text(String(t), sx(t), m.t + ph + 18, 12, 'middle', 'black', false, 'x-tick'));
   }
   for (const t of niceTicks(yLo, yHi, 6)) {
     parts.push(`<line x1="${m.l - 5}" y1="${f(sy(t))}" x2="${m.l}" y2="${f(sy(t))}" stroke="black"/>`);
-    parts.push(`<text x="${m.l - 8}" y="${f(sy(t) + 4)}" text-anchor="end">${t}</text>`);
+    parts.push(L.text(String(t), m.l - 8, sy(t) + 4, 12, 'end', 'black', false, 'y-tick'));
   }
   if (yLo < 0 && yHi > 0) parts.push(`<line x1="${m.l}" y1="${f(sy(0))}" x2="${m.l + pw}" y2="${f(sy(0))}" stroke="#888" stroke-dasharray="4 3"/>`);
   for (const mk of [...spec.marks].sort((a, b) => a.at - b.at)) {
@@ -153,7 +147,7 @@ export function plotSvg(spec: PlotSpec): string {
   for (const mk of [...spec.marks].sort((a, b) => a.at - b.at)) {
     if (mk.at < Math.min(x0, x1) || mk.at > Math.max(x0, x1)) continue;
     const x = sx(mk.at);
-    const w = textWidth(mk.label, 10);
+    const w = L.width(mk.label, 10);
     for (const [bx, anchor, tx] of [
       [x + 1, 'start', x + 2],
       [x - w - 3, 'end', x - 2],
@@ -162,7 +156,7 @@ export function plotSvg(spec: PlotSpec): string {
       if (box.x < m.l || box.x + box.width > m.l + pw) continue;
       if (placed.some((q) => overlap(q, box)) || markXs.some((mx) => mx > box.x && mx < box.x + box.width)) continue;
       placed.push(box);
-      parts.push(`<text x="${f(tx)}" y="${f(labelY)}" font-size="10" fill="#c0392b"${anchor === 'end' ? ' text-anchor="end"' : ''}>${esc(mk.label)}</text>`);
+      parts.push(L.text(mk.label, tx, labelY, 10, anchor, '#c0392b', false, 'mark-label'));
       break;
     }
   }
@@ -184,12 +178,12 @@ export function plotSvg(spec: PlotSpec): string {
     if (runs.length > 0) {
       const ny = m.t + ph + 32;
       parts.push(`<path d="M${f(m.l)} ${f(ny - 8)}L${f(m.l + 8)} ${f(ny - 8)}L${f(m.l + 4)} ${f(ny - 2)}Z" fill="#555555"/>`);
-      parts.push(`<text class="clip-note" x="${f(m.l + 12)}" y="${f(ny)}" font-size="10" fill="#555555">values below ${fmtTick(yLo)}, clipped</text>`);
+      parts.push(L.text(`values below ${fmtTick(yLo)}, clipped`, m.l + 12, ny, 10, 'start', '#555555', false, 'clip-note'));
     }
   }
   parts.push(`<rect x="${m.l}" y="${m.t}" width="${pw}" height="${ph}" fill="none" stroke="black"/>`);
-  parts.push(`<text x="${m.l + pw / 2}" y="${H - 18}" text-anchor="middle">${esc(spec.xLabel)}</text>`);
-  parts.push(`<text x="18" y="${m.t + ph / 2}" text-anchor="middle" transform="rotate(-90 18 ${m.t + ph / 2})">${esc(spec.yLabel)}</text>`);
+  parts.push(L.text(spec.xLabel, m.l + pw / 2, H - 18, 12, 'middle', 'black'));
+  parts.push(L.text(spec.yLabel, 18, m.t + ph / 2, 12, 'middle', 'black', true));
   parts.push('</svg>\n');
   return parts.join('\n');
 }

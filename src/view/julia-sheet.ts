@@ -13,7 +13,10 @@
  * }
  * ```
  * c is kept as decimal strings (like the view); the labels and deep-reference
- * fields of plate sheets mean nothing here and are refused.
+ * fields of plate sheets mean nothing here and are refused. A figure (output
+ * .pdf or .svg, or `figure` given) keeps axes (Re z, Im z), caption, scale
+ * bar, equipotentials (of G_c) and marks (points z); its parameter rays,
+ * rays of a period, outlines and internal rays are refused.
  */
 import { migrateSheet, SHEET_SCHEMA } from './sheet-kind.js';
 import { Received, UserError } from '../check/user-error.js';
@@ -126,7 +129,19 @@ export function parseJuliaSheet(input: unknown, name = 'julia'): JuliaSheet {
   const viewIn = rest['view'] ?? {};
   if (isObject(viewIn)) rest['view'] = { re: '0', im: '0', span: '4', ...viewIn };
   const sheet = parseSheet(rest, name);
-  if (sheet.figure !== null) throw new UserError('output.file', 'a file name ending in .png, .tif or .tiff (figures are drawn for plates of the c-plane)', sheet.output.file);
+  if (sheet.figure !== null) {
+    // Figures of the dynamical plane: axes, caption, scale bar, equipotentials of G_c and labelled points in z; the rest belongs to the c-plane.
+    const f = sheet.figure;
+    const refused: Array<[string, boolean, string]> = [
+      ['figure.rays', f.rays.length > 0, 'no parameter rays on a Julia figure (its dynamic rays are marks.rays, --rays)'],
+      ['figure.raysOf', f.raysOf > 0, "no rays of a period's components on a Julia figure (they are parameter rays)"],
+      ['figure.outlines', f.outlines > 0, 'no component outlines on a Julia figure (components belong to the c-plane)'],
+      ['figure.internalRays', f.internalRays !== null, 'no internal rays on a Julia figure (they belong to components of the c-plane)'],
+    ];
+    for (const [field, given, expected] of refused) {
+      if (given) throw new UserError(field, expected, (value['figure'] as Json)[field.slice('figure.'.length)]);
+    }
+  }
 
   let c: { re: string; im: string };
   let cardioidAngle: string | null = null;

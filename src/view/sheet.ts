@@ -157,7 +157,8 @@ function parseFigure(value: unknown, file: string, rotation: number): FigureSpec
   if (!isObject(v)) throw new UserError('figure', 'an object { "axes": ..., "caption": ..., "rays": [...] }', v);
   noUnknownKeys(v, ['axes', 'caption', 'rays', 'raysOf', 'equipotentials', 'outlines', 'scaleBar', 'internalRays', 'marks'], 'figure');
   const axes = parseBoolean(v['axes'] ?? false, 'figure.axes');
-  if (axes && rotation !== 0) throw new UserError('figure.axes', 'a view without rotation (the axes run along Re c and Im c)', new Received(`rotation ${rotation}`));
+  if (axes && rotation !== 0)
+    throw new UserError('figure.axes', 'a view without rotation (the axes run along the real and imaginary directions)', new Received(`rotation ${rotation}`));
   const caption = v['caption'] ?? '';
   if (typeof caption !== 'string') throw new UserError('figure.caption', 'a string', caption);
   const raysIn = v['rays'] ?? [];

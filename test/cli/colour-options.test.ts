@@ -7,6 +7,9 @@ import { applyPlateOptions, attributeName, PLATE_OPTIONS } from '../../src/cli/p
 import { UserError } from '../../src/check/user-error.js';
 import { DEFAULT_COLOUR_SETTINGS, parseColourSettings } from '../../src/colour/colour-settings.js';
 import { layoutLegend, LEGEND_MIN_PIXELS, presentPeriods } from '../../src/colour/legend.js';
+import { figureFont } from '../../src/figure/figure-font.js';
+
+const font = figureFont();
 import { runCli, tempDir } from '../helpers/run-cli.js';
 
 const flagOf = (spec: { flags: string }): string => spec.flags.split(' ')[0]!;
@@ -213,7 +216,7 @@ describe('the legend lists the periods present in the view', () => {
       expect(listed).not.toContain(1);
       expect(listed).toContain(3);
       for (const p of listed) expect(summary.periods[p]!).toBeGreaterThanOrEqual(LEGEND_MIN_PIXELS);
-      const L = layoutLegend(settings, 240, 180, 150, listed)!;
+      const L = layoutLegend(settings, 240, 180, 150, listed, font)!;
       // The legend panel is translucent over the plate, so every pixel of its rectangle changes and none outside it.
       expect(diffBox(readFileSync(files[0]!), readFileSync(none))).toEqual({ x0: L.x, y0: L.y, x1: L.x + L.width, y1: L.y + L.height });
     });

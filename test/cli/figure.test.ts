@@ -263,7 +263,9 @@ describe('plate --rays', () => {
     const file = path.join(dir, 'r.svg');
     const r = runCli(['plate', ...FLAGS, '--axes', '--rays', '1/3,2/3,1/7,2/7,1/6', '--out', file, '--json']);
     expect(r.status, r.stderr).toBe(0);
-    const out = JSON.parse(r.stdout) as { rays: Array<{ angle: string; kind: string; landing: { re: string; im: string } }> };
+    const out = JSON.parse(r.stdout) as {
+      rays: Array<{ angle: string; kind: string; landing: { re: string; im: string }; tracedEnd: { re: string; im: string }; tracedEndPixels: number }>;
+    };
     // exact landings: -3/4 (root of the period-2 disk); -1/8 + (3 sqrt 3/8) i (cardioid formula at internal
     // angle 1/3, docs/methods.md C3); c = i (Misiurewicz, preperiod 1, period 2), by the Douady-Hubbard landing theorem
     const exact: Record<string, [number, number]> = {
@@ -280,6 +282,9 @@ describe('plate --rays', () => {
       expect(Math.hypot(Number(ray.landing.re) - re, Number(ray.landing.im) - im), ray.angle).toBeLessThan(pixel);
       expect(Math.hypot(Number(ray.landing.re) - re, Number(ray.landing.im) - im), ray.angle).toBeLessThan(1e-15);
       expect(ray.landing.re).toMatch(/^-?\d+(\.\d+)?$/);
+      // the traced part, before the joining segment, ends within a pixel of the exact landing
+      expect(Math.hypot(Number(ray.tracedEnd.re) - re, Number(ray.tracedEnd.im) - im) / pixel, ray.angle).toBeLessThan(1);
+      expect(ray.tracedEndPixels, ray.angle).toBeLessThan(1);
     }
     const svg = readFileSync(file, 'utf8');
     const img = /<image x="([\d.]+)" y="([\d.]+)" width="([\d.]+)" height="([\d.]+)"/.exec(svg)!;
@@ -527,18 +532,21 @@ describe('figure bad input', () => {
     expect(readdirSync(dir)).toEqual(['d.pdf']);
   });
 
-  it('julia keeps its own --rays and refuses a figure output in one line', () => {
+  it('julia keeps its own --rays (dynamic rays) and refuses the parameter rays of a sheet (figure.rays) in one line', () => {
     const dir = tempDir();
     const help = runCli(['julia', '--help']);
     expect(help.status, help.stderr).toBe(0);
     expect(help.stdout).toContain('dynamic rays');
-    expect(help.stdout).not.toContain('--axes');
-    const r = runCli(['julia', '--c', '-1,0', '--size', '40x30', '--out', path.join(dir, 'j.pdf')]);
-    expect(r.status).toBe(2);
-    expect(r.stderr.trim()).toMatch(
-      /^quadatlas: Expected a file name ending in \.png, \.tif or \.tiff \(figures are drawn for plates of the c-plane\) for .*output\.file.* but received .*j\.pdf"?$/,
+    expect(help.stdout).toContain('Re z and Im z');
+    const sheet = path.join(dir, 'j.json');
+    writeFileSync(
+      sheet,
+      JSON.stringify({ kind: 'julia', c: { re: '-1', im: '0' }, pixels: { width: 40, height: 30 }, output: { file: path.join(dir, 'j.pdf') }, figure: { rays: ['1/3'] } }),
     );
-    expect(readdirSync(dir)).toEqual([]);
+    const r = runCli(['julia', sheet]);
+    expect(r.status).toBe(2);
+    expect(r.stderr.trim()).toBe('quadatlas: Expected no parameter rays on a Julia figure (its dynamic rays are marks.rays, --rays) for figure.rays but received ["1/3"]');
+    expect(readdirSync(dir)).toEqual(['j.json']);
   });
 
   it('a sheet whose figure.caption is not a string names the field', () => {

@@ -1,12 +1,12 @@
 import { describe, expect, it } from 'vitest';
 import { parseColourSettings } from '../../src/colour/colour-settings.js';
 import {
-  LEGEND_FONT_CHARACTERS,
   LEGEND_TITLE,
   firstPeriods,
   LEGEND_MIN_PIXELS,
   layoutLegend,
   legendBounds,
+  legendPlacement,
   presentPeriods,
   legendScale,
   legendSvg,
@@ -14,6 +14,9 @@ import {
   paintLegendRows,
 } from '../../src/colour/legend.js';
 import { periodHex, periodLinear } from '../../src/colour/period-palette.js';
+import { figureFont } from '../../src/figure/figure-font.js';
+
+const font = figureFont();
 
 const inset = (extra: Record<string, unknown> = {}) => parseColourSettings({ legend: 'inset', ...extra });
 
@@ -32,13 +35,13 @@ describe('legendScale', () => {
 
 describe('layoutLegend', () => {
   it('returns null unless the legend is inset', () => {
-    expect(layoutLegend(parseColourSettings({ legend: 'none' }), 1000, 800, 300, firstPeriods(12))).toBeNull();
-    expect(layoutLegend(parseColourSettings({ legend: 'beside' }), 1000, 800, 300, firstPeriods(12))).toBeNull();
+    expect(layoutLegend(parseColourSettings({ legend: 'none' }), 1000, 800, 300, firstPeriods(12), font)).toBeNull();
+    expect(layoutLegend(parseColourSettings({ legend: 'beside' }), 1000, 800, 300, firstPeriods(12), font)).toBeNull();
   });
 
   it('places the legend inside the plate in the chosen corner', () => {
     for (const corner of ['top-left', 'top-right', 'bottom-left', 'bottom-right']) {
-      const L = layoutLegend(inset({ legendCorner: corner }), 3000, 2000, 300, firstPeriods(12))!;
+      const L = layoutLegend(inset({ legendCorner: corner }), 3000, 2000, 300, firstPeriods(12), font)!;
       expect(L.scale).toBe(4);
       expect(L.x).toBeGreaterThanOrEqual(0);
       expect(L.y).toBeGreaterThanOrEqual(0);
@@ -49,15 +52,27 @@ describe('layoutLegend', () => {
     }
   });
 
+  it('draws at the placement legendPlacement gives', () => {
+    for (const [W, H, dpi] of [
+      [3000, 2000, 300],
+      [400, 300, 600],
+    ] as const) {
+      const L = layoutLegend(inset({ legendCorner: 'bottom-right' }), W, H, dpi, firstPeriods(12), font)!;
+      expect({ x: L.x, y: L.y, width: L.width, height: L.height, scale: L.scale }).toEqual(
+        legendPlacement(inset({ legendCorner: 'bottom-right' }), W, H, dpi, firstPeriods(12), font),
+      );
+    }
+  });
+
   it('steps the scale down to fit a small plate', () => {
-    const L = layoutLegend(inset({ legendPeriods: 64 }), 400, 300, 600, firstPeriods(64))!;
+    const L = layoutLegend(inset({ legendPeriods: 64 }), 400, 300, 600, firstPeriods(64), font)!;
     expect(L.scale).toBeLessThan(legendScale(600));
     expect(L.x + L.width).toBeLessThanOrEqual(400);
     expect(L.y + L.height).toBeLessThanOrEqual(300);
   });
 
   it('draws each period swatch in its palette colour (some opaque pixel equals periodLinear(p))', () => {
-    const L = layoutLegend(inset({ legendPeriods: 16 }), 3000, 2000, 300, firstPeriods(16))!;
+    const L = layoutLegend(inset({ legendPeriods: 16 }), 3000, 2000, 300, firstPeriods(16), font)!;
     for (let p = 1; p <= 16; p++) {
       const c = periodLinear(p, [0, 0, 0]);
       let found = false;
@@ -66,8 +81,21 @@ describe('layoutLegend', () => {
     }
   });
 
-  it('can draw its title and every digit with its own font', () => {
-    for (const ch of LEGEND_TITLE + '0123456789') expect(LEGEND_FONT_CHARACTERS).toContain(ch);
+  it("sets its title and numbers in the DejaVu outlines: the ink of the title row covers the outlines' area (shoelace formula)", () => {
+    const L = layoutLegend(inset({ legendPeriods: 3 }), 3000, 2000, 300, firstPeriods(3), font)!;
+    // the title's outline at the legend's size and place: capitals 7 cells tall from cell row 4 (PAD)
+    const size = (7 * L.scale) / font.capHeight;
+    const polys = font.contours(LEGEND_TITLE, size, 4 * L.scale, 11 * L.scale, 0.01);
+    // signed area of each closed polygon (shoelace); outer contours and holes have opposite signs
+    let area = 0;
+    for (const p of polys) for (let i = 0; i < p.length; i += 2) area += (p[i]! * p[(i + 3) % p.length]! - p[(i + 2) % p.length]! * p[i + 1]!) / 2;
+    // ink in the title band: alpha above the panel's 0.9, as a fraction a of the way to 1, and the coverage
+    // behind it, 1 - (1 - a)^(1/2.2) (legend.ts lays ink 1 - (1 - coverage)^2.2 over the panel)
+    let ink = 0;
+    for (let j = 0; j < 13 * L.scale; j++) for (let i = 0; i < L.width; i++) ink += 1 - (1 - Math.max(0, (L.rgba[4 * (j * L.width + i) + 3]! - 0.9) / 0.1)) ** (1 / 2.2);
+    expect(Math.abs(area)).toBeGreaterThan(100);
+    // coverage is exact across x and within 1/16 pixel per row edge in y (fill-coverage.ts)
+    expect(Math.abs(ink - Math.abs(area)) / Math.abs(area)).toBeLessThan(0.02);
   });
 });
 
@@ -87,7 +115,7 @@ describe('paintLegendRows', () => {
   };
 
   it('paints only inside its rectangle, and changes it', () => {
-    const L = layoutLegend(inset({ legendCorner: 'bottom-left' }), W, H, 150, firstPeriods(12))!;
+    const L = layoutLegend(inset({ legendCorner: 'bottom-left' }), W, H, 150, firstPeriods(12), font)!;
     const before = plate();
     const after = plate();
     paintLegendRows(L, 0, H, W, after);
@@ -109,7 +137,7 @@ describe('paintLegendRows', () => {
   });
 
   it('painting band by band (bands of 7 rows) equals painting at once', () => {
-    const L = layoutLegend(inset({ legendCorner: 'top-right', legendPeriods: 24 }), W, H, 150, firstPeriods(24))!;
+    const L = layoutLegend(inset({ legendCorner: 'top-right', legendPeriods: 24 }), W, H, 150, firstPeriods(24), font)!;
     const once = plate();
     paintLegendRows(L, 0, H, W, once);
     const banded = plate();
@@ -124,7 +152,7 @@ describe('paintLegendRows', () => {
   });
 
   it('paintLegendRect over 64 x 48 tiles equals paintLegendRows over the whole plate', () => {
-    const L = layoutLegend(inset({ legendCorner: 'bottom-right', legendPeriods: 30 }), W, H, 150, firstPeriods(30))!;
+    const L = layoutLegend(inset({ legendCorner: 'bottom-right', legendPeriods: 30 }), W, H, 150, firstPeriods(30), font)!;
     const once = plate();
     paintLegendRows(L, 0, H, W, once);
     const tiled = plate();
@@ -141,7 +169,7 @@ describe('paintLegendRows', () => {
   });
 
   it('over a white plate, an opaque swatch pixel shows the swatch and the panel blends 90/10 (Porter-Duff over)', () => {
-    const L = layoutLegend(inset({ legendCorner: 'top-left' }), W, H, 150, firstPeriods(12))!;
+    const L = layoutLegend(inset({ legendCorner: 'top-left' }), W, H, 150, firstPeriods(12), font)!;
     const white = new Float64Array(W * H * 3).fill(1);
     paintLegendRows(L, 0, H, W, white);
     // The panel's top-left pixel: 0.9 * panel + 0.1 * 1.
@@ -152,15 +180,18 @@ describe('paintLegendRows', () => {
 
 describe('legendSvg', () => {
   it('lists the periods it is given, and says so when there are none', () => {
-    const svg = legendSvg([3, 6, 427]);
+    const svg = legendSvg([3, 6, 427], font);
     for (const p of [3, 6, 427]) expect(svg).toContain(`id="period-${p}"`);
     expect(svg).not.toContain('id="period-1"');
-    expect(legendSvg([])).toContain('no interior period in view');
+    expect(legendSvg([], font)).toContain('aria-label="no interior period in view"');
+    // text as outlines only (no <text> set in a reader's fonts), each number labelled
+    expect(svg).not.toMatch(/<text[\s>]/);
+    for (const p of [3, 6, 427]) expect(svg).toContain(`aria-label="${p}"`);
   });
 
   it('lists every period with its swatch colour and number, deterministically', () => {
     const s = inset({ legendPeriods: 20 });
-    const svg = legendSvg(firstPeriods(s.legendPeriods));
+    const svg = legendSvg(firstPeriods(s.legendPeriods), font);
     expect(svg.startsWith('<?xml')).toBe(true);
     expect(svg).toContain('xmlns="http://www.w3.org/2000/svg"');
     for (let p = 1; p <= 20; p++) {
@@ -168,7 +199,7 @@ describe('legendSvg', () => {
       expect(svg).toContain(`fill="${periodHex(p)}"`);
     }
     expect(svg).not.toContain('id="period-21"');
-    expect(legendSvg(firstPeriods(s.legendPeriods))).toBe(svg);
+    expect(legendSvg(firstPeriods(s.legendPeriods), font)).toBe(svg);
   });
 });
 
@@ -187,10 +218,10 @@ describe('presentPeriods', () => {
 
 describe('layoutLegend of the periods present', () => {
   it('draws nothing when no period is present', () => {
-    expect(layoutLegend(inset(), 800, 600, 150, [])).toBeNull();
+    expect(layoutLegend(inset(), 800, 600, 150, [], font)).toBeNull();
   });
   it('draws exactly the listed periods: their colours appear, an unlisted one does not', () => {
-    const L = layoutLegend(inset(), 3000, 2000, 300, [3, 6, 79, 158])!;
+    const L = layoutLegend(inset(), 3000, 2000, 300, [3, 6, 79, 158], font)!;
     const has = (p: number): boolean => {
       const c = periodLinear(p, [0, 0, 0]);
       for (let k = 0; k < L.width * L.height; k++) if (L.rgba[4 * k + 3] === 1 && [0, 1, 2].every((i) => L.rgba[4 * k + i] === c[i])) return true;
@@ -207,13 +238,14 @@ describe('layoutLegend of the periods present', () => {
         [120, 90, 600],
       ] as const) {
         const s = inset({ legendCorner: corner, legendPeriods: 20 });
-        const b = legendBounds(s, W, H, dpi, 4)!;
+        const b = legendBounds(s, W, H, dpi, 4, font)!;
         for (let n = 1; n <= 20; n++) {
           for (const top of [9, 99, 999, 9999]) {
             const periods = Array.from({ length: n }, (_, i) => top - i)
               .filter((p) => p > 0)
               .sort((a, c) => a - c);
-            const L = layoutLegend(s, W, H, dpi, periods)!;
+            // the placement layoutLegend draws at (legendPlacement, its first step), without drawing 960 legends
+            const L = legendPlacement(s, W, H, dpi, periods, font)!;
             const x1 = Math.min(W, L.x + L.width);
             const y1 = Math.min(H, L.y + L.height);
             expect(L.x >= b.x && x1 <= b.x + b.width && L.y >= b.y && y1 <= b.y + b.height, `${corner} ${W}x${H} n=${n} top=${top}`).toBe(true);

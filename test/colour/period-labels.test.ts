@@ -1,5 +1,8 @@
 import { describe, expect, it } from 'vitest';
-import { labelHeightPixels, layoutPeriodLabels } from '../../src/colour/period-labels.js';
+import { labelHeightPixels, layoutPeriodLabels as layout, type LabelPoint } from '../../src/colour/period-labels.js';
+import { figureFont } from '../../src/figure/figure-font.js';
+
+const layoutPeriodLabels = (points: LabelPoint[], dpi: number, w: number, h: number) => layout(points, dpi, w, h, figureFont());
 
 /** Alpha of a sprite at plate pixel (x, y), or 0 outside it. */
 function alphaAt(s: { x: number; y: number; width: number; height: number; rgba: Float64Array }, x: number, y: number): number {

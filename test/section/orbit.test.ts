@@ -118,7 +118,9 @@ describe('quadatlas section orbit / cobweb', () => {
       ['none', 0],
     ]);
     const svg = readFileSync(path.join(dir, 'o.svg'), 'utf8');
-    for (const v of ['2.8', '3.2', '3.5', '3.9']) expect(svg).toContain(`r = ${v}</text>`);
+    // each series label is an outline carrying its string (no <text>: figure/outline-lettering.ts)
+    expect(svg).not.toMatch(/<text[\s>]/);
+    for (const v of ['2.8', '3.2', '3.5', '3.9']) expect(svg).toContain(`aria-label="r = ${v}"`);
     const c = runCli(['section', 'cobweb', '--r', '3.83', '--out', path.join(dir, 'c.svg'), '--csv']);
     expect(c.status, c.stderr).toBe(0);
     expect(c.stdout.split('\n')[0]).toBe('n,x');

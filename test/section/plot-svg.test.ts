@@ -1,41 +1,17 @@
 /**
- * plotSvg's labels and clip marks. Label widths are measured here with the
- * DejaVu Sans outlines read by fontkit (an outside measure of a sans-serif
- * face; the plot itself only estimates), so "no collision" is checked
- * against real advances, not against the estimate that placed them.
+ * plotSvg's labels and clip marks, with its text as DejaVu Sans outlines
+ * (figure/outline-lettering.ts). "No collision" is checked on the ink of the
+ * drawn outlines (their path coordinates), not on the advances the layout
+ * reserved.
  */
-import { createRequire } from 'node:module';
-import * as fontkit from 'fontkit';
 import { describe, expect, it } from 'vitest';
+import { outlineLettering } from '../../src/figure/outline-lettering.js';
 import { plotSvg } from '../../src/section/plot-svg.js';
+import { outlines, overlaps, type Outline } from '../helpers/outline-boxes.js';
 
-const font = fontkit.openSync(createRequire(import.meta.url).resolve('dejavu-fonts-ttf/ttf/DejaVuSans.ttf')) as unknown as {
-  unitsPerEm: number;
-  layout(t: string): { positions: Array<{ xAdvance: number }> };
-};
-
-function width(text: string, size: number): number {
-  return (font.layout(text).positions.reduce((a, p) => a + p.xAdvance, 0) / font.unitsPerEm) * size;
-}
-
-interface Label {
-  text: string;
-  x0: number;
-  x1: number;
-  y0: number;
-  y1: number;
-}
-
-/** The 10 px labels (band and mark labels) with their boxes from DejaVu Sans advances. */
-function labels(svg: string): Label[] {
-  return [...svg.matchAll(/<text x="([\d.]+)" y="([\d.]+)"([^>]*)font-size="10"[^>]*>([^<]*)<\/text>/g)].map((m) => {
-    const x = Number(m[1]);
-    const y = Number(m[2]);
-    const w = width(m[4]!.replace(/&gt;/g, '>').replace(/&lt;/g, '<').replace(/&amp;/g, '&'), 10);
-    const anchor = /text-anchor="(middle|end)"/.exec(m[3]! + m[0])?.[1] ?? 'start';
-    const x0 = anchor === 'middle' ? x - w / 2 : anchor === 'end' ? x - w : x;
-    return { text: m[4]!, x0, x1: x0 + w, y0: y - 7.6, y1: y + 2.4 };
-  });
+/** The 10 px labels (band and mark labels) with their ink boxes. */
+function labels(svg: string): Outline[] {
+  return outlines(svg).filter((o) => o.cls === 'band-label' || o.cls === 'mark-label');
 }
 
 function markLines(svg: string): number[] {
@@ -55,7 +31,7 @@ function crowded(width = 600): string {
     step /= 4.669;
   }
   const bands = [0.8, 0.82, 0.84, 0.9].map((from, i) => ({ from, to: from + 0.015, label: `p${i + 3} RLLR` }));
-  return plotSvg({ title: 't', xLabel: 'r', yLabel: 'y', xs, ys, marks, bands, yMin: -3, width, height: 300 });
+  return plotSvg({ title: 't', xLabel: 'r', yLabel: 'y', xs, ys, marks, bands, yMin: -3, width, height: 300 }, outlineLettering());
 }
 
 describe('plotSvg', () => {
@@ -68,9 +44,9 @@ describe('plotSvg', () => {
         for (let j = i + 1; j < ls.length; j++) {
           const a = ls[i]!;
           const b = ls[j]!;
-          expect(a.x0 < b.x1 && b.x0 < a.x1 && a.y0 < b.y1 && b.y0 < a.y1, `${a.text} / ${b.text}`).toBe(false);
+          expect(overlaps(a, b), `${a.label} / ${b.label}`).toBe(false);
         }
-        for (const x of markLines(svg)) expect(x > ls[i]!.x0 && x < ls[i]!.x1, `${ls[i]!.text} crossed at ${x}`).toBe(false);
+        for (const x of markLines(svg)) expect(x > ls[i]!.x0 && x < ls[i]!.x1, `${ls[i]!.label} crossed at ${x}`).toBe(false);
       }
     });
   }
@@ -82,9 +58,20 @@ describe('plotSvg', () => {
     expect(clips).toHaveLength(2);
     expect(Math.abs(clips[0]! - (70 + 0.3 * 910))).toBeLessThan(3);
     expect(Math.abs(clips[1]! - (70 + 0.7 * 910))).toBeLessThan(3);
-    expect(svg).toMatch(/class="clip-note"[^>]*>values below -3, clipped</);
-    const plain = plotSvg({ title: 't', xLabel: 'r', yLabel: 'y', xs: Float64Array.of(0, 1), ys: Float64Array.of(0, 1), marks: [], bands: [], yMin: -3 });
+    expect(svg).toMatch(/class="clip-note" aria-label="values below -3, clipped"/);
+    const plain = plotSvg({ title: 't', xLabel: 'r', yLabel: 'y', xs: Float64Array.of(0, 1), ys: Float64Array.of(0, 1), marks: [], bands: [], yMin: -3 }, outlineLettering());
     expect(plain).not.toContain('class="clip');
+  });
+});
+
+describe('plotSvg text', () => {
+  it('holds no <text> element: every string (title, axis labels, ticks, marks, bands) is an outline carrying it in aria-label', () => {
+    const svg = crowded(1200);
+    expect(svg).not.toMatch(/<text[\s>]/);
+    const strings = outlines(svg).map((o) => o.label);
+    for (const s of ['t', 'r', 'y', '0', '0.5', '1', '1->2', 'p3 RLLR', 'values below -3, clipped']) expect(strings, s).toContain(s);
+    // every outline has ink (a path, not an empty element)
+    for (const o of outlines(svg)) expect(o.x1 - o.x0, o.label).toBeGreaterThan(0);
   });
 });
 

@@ -10,7 +10,7 @@ import type { Command } from 'commander';
 import { compareHeights, compareRecord, parseCompareSheet, type CompareSheet } from '../../section/compare-sheet.js';
 import { reportWrote } from '../wrote.js';
 import { againOutput, loadSectionSheet } from './load-section-sheet.js';
-import { prepareOutput, sectionMetadata, writeOutput, writeSidecar } from './section-output.js';
+import { prepareOutput, rasterisePlot, sectionMetadata, writeOutput, writeSidecar } from './section-output.js';
 import {
   addOptions,
   againOption,
@@ -55,12 +55,13 @@ export async function compareSheet(sheetFile: string | undefined, values: Values
   return quickPixels(parseCompareSheet(raw, applySectionFlags(raw, values, COMPARE_OPTIONS)));
 }
 
-/** The plate as SVG (without metadata). */
+/** The plate as SVG (without metadata), its text as DejaVu outlines (the same SVG is rasterised for PNG). */
 export async function compareSvg(sheet: CompareSheet, workers: number, progress: (s: string) => void): Promise<string> {
   const { logistic } = await import('../../section/families/index.js');
   const { planeStrip } = await import('../../section/plane-strip.js');
   const { renderDiagram } = await import('../../section/render-diagram.js');
   const { comparePlateSvg } = await import('../../section/compare-plate.js');
+  const { outlineLettering } = await import('../../figure/outline-lettering.js');
   const { landmarks } = await import('../../section/landmarks.js');
   const sharp = (await import('sharp')).default;
   const [from, to] = [Number(sheet.c.from), Number(sheet.c.to)];
@@ -90,22 +91,25 @@ export async function compareSvg(sheet: CompareSheet, workers: number, progress:
   progress('landmarks');
   const marks = await landmarks(logistic, sheet.maxPeriod);
   const cOf = (r: number): number => r / 2 - (r * r) / 4;
-  return comparePlateSvg({
-    from,
-    to,
-    width,
-    stripHeight,
-    diagramHeight,
-    stripPng: stripPng.toString('base64'),
-    diagramPng: diagramPng.toString('base64'),
-    title: 'The real slice: z -> z^2 + c along the real axis above the logistic map, one parameter axis',
-    stateFrom: Number(sheet.x.from),
-    stateTo: Number(sheet.x.to),
-    marks: [
-      ...marks.doublings.map((d) => ({ c: cOf(d.at), label: d.label, kind: 'doubling' as const })),
-      ...marks.windows.map((w) => ({ c: cOf(w.superstable), label: String(w.period), kind: 'window' as const, from: cOf(w.from), to: cOf(w.to) })),
-    ],
-  });
+  return comparePlateSvg(
+    {
+      from,
+      to,
+      width,
+      stripHeight,
+      diagramHeight,
+      stripPng: stripPng.toString('base64'),
+      diagramPng: diagramPng.toString('base64'),
+      title: 'The real slice: z -> z^2 + c along the real axis above the logistic map, one parameter axis',
+      stateFrom: Number(sheet.x.from),
+      stateTo: Number(sheet.x.to),
+      marks: [
+        ...marks.doublings.map((d) => ({ c: cOf(d.at), label: d.label, kind: 'doubling' as const })),
+        ...marks.windows.map((w) => ({ c: cOf(w.superstable), label: String(w.period), kind: 'window' as const, from: cOf(w.from), to: cOf(w.to) })),
+      ],
+    },
+    outlineLettering(),
+  );
 }
 
 export async function compareRun(sheet: CompareSheet, workers: number, field: string, progress: (s: string) => void): Promise<{ files: string[]; seconds: number }> {
@@ -117,8 +121,7 @@ export async function compareRun(sheet: CompareSheet, workers: number, field: st
   const { pngWithMetadata, svgWithMetadata } = await import('../../io/embed-metadata.js');
   if (file.toLowerCase().endsWith('.svg')) await writeOutput(file, svgWithMetadata(svg, metadata), field);
   else {
-    const sharp = (await import('sharp')).default;
-    await writeOutput(file, pngWithMetadata(await sharp(Buffer.from(svg)).png().toBuffer(), metadata), field);
+    await writeOutput(file, pngWithMetadata(await rasterisePlot(svg), metadata), field);
   }
   const seconds = (Date.now() - started) / 1000;
   const files = [file];

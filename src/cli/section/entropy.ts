@@ -103,18 +103,22 @@ export async function entropyRun(values: Values, progress: (s: string) => void):
     extra: { ...record, digits, bases: 'returned / periodic: exact series; bracketed: zero certified by the remainder bound; bound: entropy at most the value' },
   };
   const { plotSvg } = await import('../../section/plot-svg.js');
+  const { outlineLettering } = await import('../../figure/outline-lettering.js');
   const { landmarks } = await import('../../section/landmarks.js');
   const marks = family.maximumOrder === 2 ? await landmarks(family, 5) : { doublings: [], windows: [] };
-  const svg = plotSvg({
-    title: `Topological entropy, ${family.formula} (shaded: periodic windows; red: period doublings; log 2 at full chaos)`,
-    xLabel: p,
-    yLabel: 'entropy h',
-    xs,
-    ys,
-    marks: marks.doublings.map((d) => ({ at: d.at, label: d.label })),
-    bands: marks.windows.map((w) => ({ from: w.from, to: w.to, label: w.label })),
-    yMin: 0,
-  });
+  const svg = plotSvg(
+    {
+      title: `Topological entropy, ${family.formula} (shaded: periodic windows; red: period doublings; log 2 at full chaos)`,
+      xLabel: p,
+      yLabel: 'entropy h',
+      xs,
+      ys,
+      marks: marks.doublings.map((d) => ({ at: d.at, label: d.label })),
+      bands: marks.windows.map((w) => ({ from: w.from, to: w.to, label: w.label })),
+      yMin: 0,
+    },
+    outlineLettering(),
+  );
   return { table, svg, record };
 }
 

@@ -92,18 +92,22 @@ export async function lyapunovRun(sheet: LyapunovSheet, digits: number): Promise
     extra: { family: family.name, r: { ...sheet.r }, steps: sheet.steps, transient: sheet.transient, iterations: sheet.iterations, starts: sheet.starts, digits },
   };
   const { plotSvg } = await import('../../section/plot-svg.js');
+  const { outlineLettering } = await import('../../figure/outline-lettering.js');
   const { landmarks } = await import('../../section/landmarks.js');
   const marks = await landmarks(family, 5);
-  const svg = plotSvg({
-    title: `Lyapunov exponent, ${family.formula} (shaded: periodic windows onset to end; red: period doublings)`,
-    xLabel: family.parameter,
-    yLabel: 'Lyapunov exponent',
-    xs: params,
-    ys: lam,
-    marks: marks.doublings.map((d) => ({ at: d.at, label: d.label })),
-    bands: marks.windows.map((w) => ({ from: w.from, to: w.to, label: w.label })),
-    yMin: -3,
-  });
+  const svg = plotSvg(
+    {
+      title: `Lyapunov exponent, ${family.formula} (shaded: periodic windows onset to end; red: period doublings)`,
+      xLabel: family.parameter,
+      yLabel: 'Lyapunov exponent',
+      xs: params,
+      ys: lam,
+      marks: marks.doublings.map((d) => ({ at: d.at, label: d.label })),
+      bands: marks.windows.map((w) => ({ from: w.from, to: w.to, label: w.label })),
+      yMin: -3,
+    },
+    outlineLettering(),
+  );
   return { table, svg, range: { min, max } };
 }
 

@@ -164,20 +164,21 @@ export async function orbitRun(values: Values): Promise<OrbitRun> {
 
 function parseOut(value: unknown, fallback: string): string {
   const file = value === undefined ? fallback : String(value);
-  if (!/\.(svg|png)$/i.test(file)) throw new UserError('--out', 'a file name ending in .svg (the figure) or .png (the same figure, lettered in our bitmap font)', value);
+  if (!/\.(svg|png)$/i.test(file)) throw new UserError('--out', 'a file name ending in .svg (the figure) or .png (the same figure)', value);
   return file;
 }
 
 async function writeFigure(file: string, svg: (lettering?: import('../../section/orbit-figures.js').Lettering) => string): Promise<void> {
   const { writeFileAtomic } = await import('../../io/write-file-atomic.js');
   let body: string | Uint8Array;
+  // Text as DejaVu outlines in both formats (aria-label carries each string): the SVG reads the same in
+  // every viewer, and the PNG rasterises no <text>, so no font of the machine enters it.
+  const { outlineLettering } = await import('../../figure/outline-lettering.js');
+  const lettering = outlineLettering({ typeset: true });
   if (/\.png$/i.test(file)) {
-    const { BITMAP_LETTERING } = await import('../../section/bitmap-lettering.js');
-    const sharp = (await import('sharp')).default;
-    body = await sharp(Buffer.from(svg(BITMAP_LETTERING)), { density: 144 })
-      .png()
-      .toBuffer();
-  } else body = svg();
+    const { rasterisePlot } = await import('./section-output.js');
+    body = await rasterisePlot(svg(lettering), 144);
+  } else body = svg(lettering);
   try {
     await writeFileAtomic(file, body);
   } catch (err) {
@@ -244,7 +245,7 @@ export const ORBIT_OPTIONS: readonly OptionSpec[] = [
   { flags: '--family <name>', description: 'the unimodal family (default logistic)' },
   { flags: '--json', description: 'write the table as JSON to stdout (default: aligned text)' },
   { flags: '--csv', description: 'write the table as CSV to stdout (default: aligned text)' },
-  { flags: '--out <file>', description: 'figure: .svg (main output) or .png (the same figure; text in our bitmap font) (default: table only)' },
+  { flags: '--out <file>', description: 'figure: .svg (main output) or .png (the same figure) (default: table only)' },
 ];
 
 export const COBWEB_OPTIONS: readonly OptionSpec[] = [
@@ -255,7 +256,7 @@ export const COBWEB_OPTIONS: readonly OptionSpec[] = [
   { flags: '--family <name>', description: 'the unimodal family (default logistic)' },
   { flags: '--json', description: 'write the orbit as JSON to stdout (default: aligned text)' },
   { flags: '--csv', description: 'write the orbit as CSV to stdout (default: aligned text)' },
-  { flags: '--out <file>', description: 'figure: .svg (main output) or .png (the same figure; text in our bitmap font) (default: table only)' },
+  { flags: '--out <file>', description: 'figure: .svg (main output) or .png (the same figure) (default: table only)' },
 ];
 
 /** Registers `orbit` and `cobweb` under `section`. */

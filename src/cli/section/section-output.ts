@@ -37,6 +37,17 @@ export async function writeSidecar(file: string, metadata: string, summary: Json
 export async function plotFileBytes(svg: string, metadata: string, file: string): Promise<string | Buffer> {
   const { pngWithMetadata, svgWithMetadata } = await import('../../io/embed-metadata.js');
   if (!file.toLowerCase().endsWith('.png')) return svgWithMetadata(svg, metadata);
+  return pngWithMetadata(await rasterisePlot(svg, 144), metadata);
+}
+
+/**
+ * A plot's SVG as PNG through sharp (librsvg) at `density` dpi. Text must
+ * arrive as outlines (figure/outline-lettering.ts): a <text> element would be
+ * set in whatever fonts the machine has, so the bytes would depend on it;
+ * such an SVG is refused (a programming error, not bad input).
+ */
+export async function rasterisePlot(svg: string, density = 72): Promise<Buffer> {
+  if (/<text[\s>]/.test(svg)) throw new Error('rasterisePlot: the SVG holds a <text> element; set its text as outlines');
   const sharp = (await import('sharp')).default;
-  return pngWithMetadata(await sharp(Buffer.from(svg), { density: 144 }).png().toBuffer(), metadata);
+  return sharp(Buffer.from(svg), { density }).png().toBuffer();
 }
