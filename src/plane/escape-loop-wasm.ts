@@ -1,4 +1,4 @@
-import type { EscapeLoop } from './escape-loop.js';
+import { LOOP_MAXED, type EscapeLoop } from './escape-loop.js';
 import { WASM_BASE64 } from './wasm/escape-loop-simd-bytes.js';
 
 /**
@@ -22,8 +22,12 @@ interface SimdExports {
   zImPointer(): number;
   cyclePointer(): number;
   statusPointer(): number;
-  run(count: number, maxIterations: number, escapeRadius2: number, tolerance2: number): void;
+  run(count: number, start: number, maxIterations: number, escapeRadius2: number, tolerance2: number): void;
 }
+
+/** The first round's length and the growth of the rounds (both powers of two, so every round ends at a save point of Brent's schedule). */
+const ROUND_FIRST = 64;
+const ROUND_GROWTH = 4;
 
 /** The largest iteration limit the module's 32-bit counter holds. */
 const MAX_LIMIT = 0x7fffffff;
@@ -66,20 +70,53 @@ export function loadWasmEscapeLoop(): EscapeLoop | undefined {
   const cycle = new Int32Array(buffer, simd.cyclePointer(), capacity);
   const status = new Uint8Array(buffer, simd.statusPointer(), capacity);
 
+  // Orbits still running at the end of a round are gathered at the front and
+  // run on from where they stopped (wasm/escape-loop-simd.as, run): ROUND_FIRST
+  // iterations, then rounds ROUND_GROWTH times longer, all ending at powers of
+  // two. Lanes of a group advance together until all 8 are done, so without
+  // regrouping one slow orbit holds 7 finished ones (measured on plates: 44%
+  // of lane steps useful in refinement batches, 50% in centre batches).
+  const slot = new Int32Array(capacity);
   return (cr, ci, count, maxIterations, escapeRadius2, tolerance2, out) => {
     // n < limit for integer n is n < ceil(limit); NaN gives 0, as in the JS loop.
     const limit = Math.min(MAX_LIMIT, Math.max(0, Math.ceil(maxIterations))) | 0;
-    for (let start = 0; start < count; start += capacity) {
-      const m = Math.min(capacity, count - start);
+    for (let first = 0; first < count; first += capacity) {
+      let m = Math.min(capacity, count - first);
       // Inputs are copied in before results are written, so `out` may alias cr or ci.
-      inRe.set(cr.subarray(start, start + m));
-      inIm.set(ci.subarray(start, start + m));
-      simd.run(m, limit, escapeRadius2, tolerance2);
-      out.iterations.set(iterations.subarray(0, m), start);
-      out.zRe.set(zRe.subarray(0, m), start);
-      out.zIm.set(zIm.subarray(0, m), start);
-      out.cycle.set(cycle.subarray(0, m), start);
-      out.status.set(status.subarray(0, m), start);
+      inRe.set(cr.subarray(first, first + m));
+      inIm.set(ci.subarray(first, first + m));
+      zRe.fill(0, 0, m);
+      zIm.fill(0, 0, m);
+      for (let k = 0; k < m; k++) slot[k] = first + k;
+      let start = 0;
+      let end = Math.min(limit, ROUND_FIRST);
+      for (;;) {
+        simd.run(m, start, end, escapeRadius2, tolerance2);
+        const last = end >= limit;
+        let kept = 0;
+        for (let k = 0; k < m; k++) {
+          if (!last && status[k] === LOOP_MAXED && iterations[k] === end) {
+            // Still running at `end` (an orbit that met NaN stops earlier, also as MAXED): move it (c and z) to the front for the next round.
+            inRe[kept] = inRe[k]!;
+            inIm[kept] = inIm[k]!;
+            zRe[kept] = zRe[k]!;
+            zIm[kept] = zIm[k]!;
+            slot[kept] = slot[k]!;
+            kept++;
+            continue;
+          }
+          const j = slot[k]!;
+          out.iterations[j] = iterations[k]!;
+          out.zRe[j] = zRe[k]!;
+          out.zIm[j] = zIm[k]!;
+          out.cycle[j] = cycle[k]!;
+          out.status[j] = status[k]!;
+        }
+        if (last || kept === 0) break;
+        m = kept;
+        start = end;
+        end = Math.min(limit, end * ROUND_GROWTH);
+      }
     }
   };
 }

@@ -93,15 +93,23 @@ function padding(slot: i32, count: i32): v128 {
 /**
  * Runs the escape loop on slots [0, count) of the input buffers, writing the
  * output buffers. tolerance2 > 0 turns on the cycle test.
+ *
+ * Every orbit starts at iteration `start` from z = (ZRE, ZIM) of its slot
+ * (0 for a fresh orbit): `start` must be 0 or a power of two, a point of
+ * Brent's save schedule, where the saved point is the current z and the next
+ * save comes at 2 start. An orbit stopped at such a point (status MAXED with
+ * the limit a power of two) and run on from it therefore takes exactly the
+ * steps of one uninterrupted run; the caller uses this to regroup the orbits
+ * still running between rounds, so lanes of a group finish close together.
  */
-export function run(count: i32, maxIterations: i32, escapeRadius2: f64, tolerance2: f64): void {
+export function run(count: i32, start: i32, maxIterations: i32, escapeRadius2: f64, tolerance2: f64): void {
   for (let base = 0; base < count; base += 8) {
-    if (tolerance2 > 0) group8Cycle(base, count, maxIterations, escapeRadius2, tolerance2);
-    else group8(base, count, maxIterations, escapeRadius2);
+    if (tolerance2 > 0) group8Cycle(base, count, start, maxIterations, escapeRadius2, tolerance2);
+    else group8(base, count, start, maxIterations, escapeRadius2);
   }
 }
 
-function group8(base: i32, count: i32, maxIterations: i32, r2: f64): void {
+function group8(base: i32, count: i32, start: i32, maxIterations: i32, r2: f64): void {
   const p = CR + (<usize>base << 3), q = CI + (<usize>base << 3);
   const cr0 = v128.load(p), cr1 = v128.load(p, 16), cr2 = v128.load(p, 32), cr3 = v128.load(p, 48);
   const ci0 = v128.load(q), ci1 = v128.load(q, 16), ci2 = v128.load(q, 32), ci3 = v128.load(q, 48);
@@ -110,11 +118,12 @@ function group8(base: i32, count: i32, maxIterations: i32, r2: f64): void {
   v128.store(DONE, padding(base + 2, count), 16);
   v128.store(DONE, padding(base + 4, count), 32);
   v128.store(DONE, padding(base + 6, count), 48);
-  let x0 = f64x2.splat(0), y0 = x0, xx0 = x0, yy0 = x0;
-  let x1 = x0, y1 = x0, xx1 = x0, yy1 = x0;
-  let x2 = x0, y2 = x0, xx2 = x0, yy2 = x0;
-  let x3 = x0, y3 = x0, xx3 = x0, yy3 = x0;
-  let n = 0;
+  const zr = ZRE + (<usize>base << 3), zi = ZIM + (<usize>base << 3);
+  let x0 = v128.load(zr), y0 = v128.load(zi), xx0 = f64x2.mul(x0, x0), yy0 = f64x2.mul(y0, y0);
+  let x1 = v128.load(zr, 16), y1 = v128.load(zi, 16), xx1 = f64x2.mul(x1, x1), yy1 = f64x2.mul(y1, y1);
+  let x2 = v128.load(zr, 32), y2 = v128.load(zi, 32), xx2 = f64x2.mul(x2, x2), yy2 = f64x2.mul(y2, y2);
+  let x3 = v128.load(zr, 48), y3 = v128.load(zi, 48), xx3 = f64x2.mul(x3, x3), yy3 = f64x2.mul(y3, y3);
+  let n = start;
   // Blocks are safe when R >= 2 and every lane's |c| <= R (see below); else every step is tested.
   const fast = r2 >= 4 && maxC2(cr0, ci0, cr1, ci1, cr2, ci2, cr3, ci3) <= r2;
   let slow = 0;
@@ -193,7 +202,7 @@ function group8(base: i32, count: i32, maxIterations: i32, r2: f64): void {
   settleVector(base + 6, v128.not(v128.load(DONE, 48)), n, x3, y3, xx3, yy3, r2, false, 0);
 }
 
-function group8Cycle(base: i32, count: i32, maxIterations: i32, r2: f64, tolerance2: f64): void {
+function group8Cycle(base: i32, count: i32, start: i32, maxIterations: i32, r2: f64, tolerance2: f64): void {
   const p = CR + (<usize>base << 3), q = CI + (<usize>base << 3);
   const cr0 = v128.load(p), cr1 = v128.load(p, 16), cr2 = v128.load(p, 32), cr3 = v128.load(p, 48);
   const ci0 = v128.load(q), ci1 = v128.load(q, 16), ci2 = v128.load(q, 32), ci3 = v128.load(q, 48);
@@ -202,11 +211,13 @@ function group8Cycle(base: i32, count: i32, maxIterations: i32, r2: f64, toleran
   v128.store(DONE, padding(base + 2, count), 16);
   v128.store(DONE, padding(base + 4, count), 32);
   v128.store(DONE, padding(base + 6, count), 48);
-  let x0 = f64x2.splat(0), y0 = x0, xx0 = x0, yy0 = x0, sx0 = x0, sy0 = x0;
-  let x1 = x0, y1 = x0, xx1 = x0, yy1 = x0, sx1 = x0, sy1 = x0;
-  let x2 = x0, y2 = x0, xx2 = x0, yy2 = x0, sx2 = x0, sy2 = x0;
-  let x3 = x0, y3 = x0, xx3 = x0, yy3 = x0, sx3 = x0, sy3 = x0;
-  let n = 0, saved = 0, next = 1;
+  const zr = ZRE + (<usize>base << 3), zi = ZIM + (<usize>base << 3);
+  let x0 = v128.load(zr), y0 = v128.load(zi), xx0 = f64x2.mul(x0, x0), yy0 = f64x2.mul(y0, y0), sx0 = x0, sy0 = y0;
+  let x1 = v128.load(zr, 16), y1 = v128.load(zi, 16), xx1 = f64x2.mul(x1, x1), yy1 = f64x2.mul(y1, y1), sx1 = x1, sy1 = y1;
+  let x2 = v128.load(zr, 32), y2 = v128.load(zi, 32), xx2 = f64x2.mul(x2, x2), yy2 = f64x2.mul(y2, y2), sx2 = x2, sy2 = y2;
+  let x3 = v128.load(zr, 48), y3 = v128.load(zi, 48), xx3 = f64x2.mul(x3, x3), yy3 = f64x2.mul(y3, y3), sx3 = x3, sy3 = y3;
+  // At a schedule point the saved point is the current z (for start 0, z = 0 itself).
+  let n = start, saved = start, next = start == 0 ? 1 : start << 1;
   while (n < maxIterations) {
     const go0 = v128.or(f64x2.le(f64x2.add(xx0, yy0), r), v128.load(DONE));
     const go1 = v128.or(f64x2.le(f64x2.add(xx1, yy1), r), v128.load(DONE, 16));
