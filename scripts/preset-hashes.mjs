@@ -4,7 +4,7 @@
 // speed commit changed: `node scripts/preset-hashes.mjs [checkout]`.
 import { spawnSync } from 'node:child_process';
 import { createHash } from 'node:crypto';
-import { mkdtempSync, readdirSync, readFileSync, rmSync } from 'node:fs';
+import { mkdtempSync, readdirSync, readFileSync, rmSync, statSync } from 'node:fs';
 import os from 'node:os';
 import path from 'node:path';
 import { fileURLToPath } from 'node:url';
@@ -23,6 +23,7 @@ try {
   for (const name of readdirSync(dir).sort()) {
     if (name.endsWith('.json') || name.startsWith('.')) continue;
     const file = path.join(dir, name);
+    if (statSync(file).isDirectory()) continue; // a preset's --data folder
     const bytes = readFileSync(file);
     let pixels = '-';
     if (/\.(png|tiff?)$/i.test(name)) {

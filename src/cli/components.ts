@@ -33,7 +33,7 @@ export const MAX_LIST_PERIOD = 16;
 export const COMPONENTS_OPTIONS: readonly OptionSpec[] = [
   { flags: '--period <period>', description: 'exact period, an integer from 1 (required unless --misiurewicz, no default)' },
   {
-    flags: '--misiurewicz <K,P>',
+    flags: '--misiurewicz <k,p>',
     description: 'instead of components: the Misiurewicz points of exact preperiod K and period P (z_{K+1+P} = z_{K+1} for z_1 = c), with their external angles (default: none)',
   },
   { flags: '--real', description: 'only components on the real axis (default: all)' },

@@ -51,7 +51,7 @@ export const LOCATE_OPTIONS: readonly OptionSpec[] = [
     description: 'two components OUTER INNER, each an angle pair (1/3,2/3) or an internal address (1-2): the copy of INNER inside OUTER, by Douady-Hubbard tuning (default: none)',
   },
   {
-    flags: '--misiurewicz <K,P>',
+    flags: '--misiurewicz <k,p>',
     description: `a Misiurewicz point of exact preperiod K and period P (z_{K+1+P} = z_{K+1} for the orbit z_1 = c), by Newton from --near; K, P from 1 to ${MAX_MISIUREWICZ_PERIOD} (default: none)`,
   },
   { flags: '--digits <digits>', description: 'digits after the decimal point; sizes to D significant digits (at most 17)', default: '30' },
