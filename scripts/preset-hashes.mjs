@@ -15,7 +15,10 @@ const root = path.resolve(process.argv[2] ?? here);
 const dir = mkdtempSync(path.join(os.tmpdir(), 'quadatlas-hashes-'));
 const sha = (b) => createHash('sha256').update(b).digest('hex').slice(0, 16);
 try {
-  const r = spawnSync(process.execPath, [path.join(root, 'dist/src/cli/main.js'), 'presets', 'render', '--all', '--out-dir', dir], { encoding: 'utf8', stdio: ['ignore', 'pipe', 'inherit'] });
+  const r = spawnSync(process.execPath, [path.join(root, 'dist/src/cli/main.js'), 'presets', 'render', '--all', '--out-dir', dir], {
+    encoding: 'utf8',
+    stdio: ['ignore', 'pipe', 'inherit'],
+  });
   if (r.status !== 0) throw new Error(`presets render failed (${r.status})`);
   for (const name of readdirSync(dir).sort()) {
     if (name.endsWith('.json') || name.startsWith('.')) continue;
@@ -24,7 +27,11 @@ try {
     let pixels = '-';
     if (/\.(png|tiff?)$/i.test(name)) {
       const m = await sharp(file, { limitInputPixels: false }).metadata();
-      pixels = sha(await sharp(file, { limitInputPixels: false }).raw({ depth: m.depth === 'ushort' ? 'ushort' : 'uchar' }).toBuffer());
+      pixels = sha(
+        await sharp(file, { limitInputPixels: false })
+          .raw({ depth: m.depth === 'ushort' ? 'ushort' : 'uchar' })
+          .toBuffer(),
+      );
     }
     console.log(`${name.padEnd(36)} file ${sha(bytes)}  pixels ${pixels}  ${bytes.length} bytes`);
   }

@@ -1,7 +1,10 @@
 /**
  * The rows of a listing: for each census component, its nucleus refined to
  * the digits asked (Newton from the census' double-double position) and its
- * component information (root, size, shape, parent, angles, address). Rows
+ * component information (root, size, shape, parent, angles, address). The
+ * nucleus and root are first tried in double-double with an error bound
+ * (fast-row.ts, docs/methods.md C7), falling back to BigInt Newton (nucleus.ts,
+ * boundary-point.ts) wherever that cannot vouch for the digits. Rows
  * are independent, so blocks of them go to worker threads and come back in
  * their places: the listing is the same for any number of workers.
  */
@@ -10,11 +13,15 @@ import { mapOnWorkers } from '../threads/map-on-workers.js';
 import type { CensusComponent } from './census.js';
 import { componentInfo, mersenneAngle, type ComponentInfo } from './component-info.js';
 import { findNucleus } from './nucleus.js';
+import { fastNucleus, fastRoot } from './fast-row.js';
 
 /** One census component as a worker receives it. */
 export interface ListItem {
   readonly re: string;
   readonly im: string;
+  /** The census' double-double nucleus (re hi, re lo, im hi, im lo) and size estimate: the fast path's start. */
+  readonly dd: readonly [number, number, number, number];
+  readonly size: number;
   readonly real: boolean;
   readonly angles: readonly number[];
 }
@@ -33,6 +40,20 @@ const BLOCK = 64;
 export async function componentRows(job: ListJob): Promise<ComponentInfo[]> {
   const rows: ComponentInfo[] = [];
   for (const c of job.items) {
+    const fast = fastNucleus(job.period, [...c.dd], c.size, c.real, job.digits);
+    const known = fast === null ? null : fastRoot(job.period, fast.c, job.digits);
+    if (fast !== null && known !== null) {
+      rows.push(
+        await componentInfo(
+          job.period,
+          fast.decimal,
+          job.digits,
+          c.angles.map((n) => mersenneAngle(n, job.period)),
+          known,
+        ),
+      );
+      continue;
+    }
     const nucleus = c.real
       ? { ...findNucleus(job.period, { re: c.re, im: '0' }, job.digits).nucleus, im: '0' }
       : findNucleus(job.period, { re: c.re, im: c.im }, job.digits).nucleus;
@@ -49,7 +70,14 @@ export async function componentRows(job: ListJob): Promise<ComponentInfo[]> {
 }
 
 function item(c: CensusComponent): ListItem {
-  return { re: (c.reHi + c.reLo).toPrecision(17), im: (c.imHi + c.imLo).toPrecision(17), real: c.real, angles: [...c.angles] };
+  return {
+    re: (c.reHi + c.reLo).toPrecision(17),
+    im: (c.imHi + c.imLo).toPrecision(17),
+    dd: [c.reHi, c.reLo, c.imHi, c.imLo],
+    size: c.size,
+    real: c.real,
+    angles: [...c.angles],
+  };
 }
 
 /** The rows of `comps`, in their order, computed on `workers` threads in blocks of BLOCK. */
