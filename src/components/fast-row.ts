@@ -291,16 +291,17 @@ function unitRootDD(num: number, den: number): DDComplex {
 }
 
 /**
- * Polishes (w, b) on the system with multiplier t (double-double) from a
- * double solution; b with its error bound, or null.
+ * Newton on (F^p(w,b) - w, D_z F^p(w,b) - t) with the residuals in
+ * double-double and the Jacobian in doubles, updating w and b in place.
+ * Stops when the step in b is below `tol`, or at the rounding floor (the
+ * step below 4 times the rounding bound, or no longer shrinking); returns
+ * the error bound of b (docs/methods.md C7), or null.
  */
-function polishDD(period: number, w0: C, b0: C, t: DDComplex): { b: DDComplex; err: number } | null {
-  const w = Float64Array.of(w0.re, 0, w0.im, 0);
-  const b = Float64Array.of(b0.re, 0, b0.im, 0);
+function newtonDD(period: number, w: Float64Array, b: Float64Array, t: DDComplex, tol: number, maxSteps: number): number | null {
   const z = new Float64Array(4);
   const dz = new Float64Array(4);
   let prev = Infinity;
-  for (let step = 0; step < 10; step += 1) {
+  for (let step = 0; step < maxSteps; step += 1) {
     z.set(w);
     dz.set([1, 0, 0, 0]);
     let dcr = 0,
@@ -335,7 +336,7 @@ function polishDD(period: number, w0: C, b0: C, t: DDComplex): { b: DDComplex; e
       twiceMul(dz, z);
       sqrAdd(z, b);
       ez = (2 * zm + ez) * ez + U * (2 * zm * zm + bm + Math.hypot(z[0]!, z[2]!));
-      if (!(ez < 1e-20 && ed < 1e-10)) return null;
+      if (!(ez < 1e-20 && ed < 1e-4 && zm < 1e4)) return null;
     }
     ddAdd(z, 0, -w[0]!, -w[1]!);
     ddAdd(z, 2, -w[2]!, -w[3]!);
@@ -370,12 +371,34 @@ function polishDD(period: number, w0: C, b0: C, t: DDComplex): { b: DDComplex; e
     // E through the inverse Jacobian's b row: (|dz - 1| (ed + |t| U) + |dzz| ez) / |det|
     const bound = (Math.hypot(mr, mi) * (ed + U) + Math.hypot(dzzr, dzzi) * ez) / Math.sqrt(d2);
     const hw = Math.hypot(dwr, dwi);
-    if ((h <= 4 * bound + 1e-40 && hw <= 1e-26) || (step >= 2 && h >= prev / 4)) {
-      return { b: [b[0]!, b[1]!, b[2]!, b[3]!], err: 4 * (h + bound) };
-    }
+    if ((h <= tol && hw <= 1e6 * tol) || (h <= 4 * bound + 1e-40 && hw <= 1e-26) || (step >= 2 && h >= prev / 4 && h < 1e-24)) return 4 * (h + bound);
     prev = h;
   }
   return null;
+}
+
+/** The walk in double-double from the nucleus to multiplier reach * t, for components too small for doubles; (w, b) at the end, or null. */
+function walkDD(period: number, nucleus: DDComplex, t: C, reach: number, size: number): { w: C; b: C; wd: Float64Array; bd: Float64Array } | null {
+  const w = new Float64Array(4);
+  const b = Float64Array.from(nucleus);
+  const wTry = new Float64Array(4);
+  const bTry = new Float64Array(4);
+  let done = 0;
+  let step = reach / WALK_STEPS;
+  while (done < reach) {
+    const f = Math.min(reach, done + step);
+    wTry.set(w);
+    bTry.set(b);
+    if (newtonDD(period, wTry, bTry, [t.re * f, 0, t.im * f, 0], 1e-12 * size, 60) !== null) {
+      w.set(wTry);
+      b.set(bTry);
+      done = f;
+    } else {
+      step /= 2;
+      if (step < reach / (WALK_STEPS * 2 ** 10)) return null;
+    }
+  }
+  return { w: { re: w[0]! + w[1]!, im: w[2]! + w[3]! }, b: { re: b[0]! + b[1]!, im: b[2]! + b[3]! }, wd: w, bd: b };
 }
 
 /**
@@ -484,8 +507,9 @@ function nucleusDouble(k: number, c: C): C | null {
   return null;
 }
 
-/** Components at least 1e-9 across are walked in doubles (as boundary-point.ts). */
+/** Components at least 1e-9 across are walked in doubles (as boundary-point.ts), down to 1e-18 in double-double; smaller ones go to BigInt. */
 const DOUBLE_WALK_DIGITS = 9;
+const DD_WALK_DIGITS = 18;
 
 /**
  * The root and, for a satellite, the parent of the component of `period`
@@ -495,9 +519,7 @@ const DOUBLE_WALK_DIGITS = 9;
 export function fastRoot(period: number, nucleus: DDComplex, digits: number): { root: ComplexDecimal; parent: Attachment | null } | null {
   const c = { re: nucleus[0] + nucleus[1], im: nucleus[2] + nucleus[3] };
   const log2size = log2SizeDouble(period, c.re, c.im);
-  if (!Number.isFinite(log2size) || Math.ceil(-log2size / Math.log2(10)) > DOUBLE_WALK_DIGITS) return null;
-  const size = 2 ** log2size;
-  const walk = walkDouble(period, c, { re: 1, im: 0 }, 0.999);
+  const walk = walkTo(period, nucleus, { re: 1, im: 0 }, 0.999, log2size);
   if (walk === null) return null;
   const found = findParentDouble(period, walk.w, walk.b);
   if (found !== null) {
@@ -507,24 +529,34 @@ export function fastRoot(period: number, nucleus: DDComplex, digits: number): { 
     if (pn === null) return null;
     const pc = { re: pn.c[0] + pn.c[1], im: pn.c[2] + pn.c[3] };
     const plog = found.k === 1 ? 0 : log2SizeDouble(found.k, pc.re, pc.im);
-    if (!Number.isFinite(plog) || Math.ceil(-plog / Math.log2(10)) > DOUBLE_WALK_DIGITS) return null;
     // e^{i pi} = -1 exactly (sin(pi) in doubles is 1.2e-16, which would take a real root off the axis)
     const a = (2 * Math.PI * found.r) / found.q;
     const t: DDComplex = found.q === 2 ? [-1, 0, 0, 0] : unitRootDD(found.r, found.q);
-    const pw = walkDouble(found.k, pc, found.q === 2 ? { re: -1, im: 0 } : { re: Math.cos(a), im: Math.sin(a) }, 1);
+    const pw = walkTo(found.k, pn.c, found.q === 2 ? { re: -1, im: 0 } : { re: Math.cos(a), im: Math.sin(a) }, 1, plog);
     if (pw === null) return null;
-    const r = polishDD(found.k, pw.w, pw.b, t);
-    if (r === null || !(r.err < 1e-6 * 2 ** plog)) return null;
-    const root = formatComplexDD(r.b, r.err, digits, c.im === 0 && pc.im === 0 && found.q === 2);
+    const err = newtonDD(found.k, pw.wd, pw.bd, t, 0, 20);
+    if (err === null || !(err < 1e-6 * 2 ** plog)) return null;
+    const root = formatComplexDD(ddOf(pw.bd), err, digits, c.im === 0 && pc.im === 0 && found.q === 2);
     if (root === null) return null;
     return { root, parent: { period: found.k, nucleus: pn.decimal, num: found.r, den: found.q } };
   }
   // the root's system is singular at t = 1 only for satellites; a primitive root is regular
-  const w1 = { ...walk.w };
-  const b1 = { ...walk.b };
-  if (!solveDouble(period, w1, b1, { re: 1, im: 0 }, 200)) return null;
-  const r = polishDD(period, w1, b1, [1, 0, 0, 0]);
-  if (r === null || !(r.err < 1e-6 * size)) return null;
-  const root = formatComplexDD(r.b, r.err, digits, c.im === 0);
+  const err = newtonDD(period, walk.wd, walk.bd, [1, 0, 0, 0], 0, 60);
+  if (err === null || !(err < 1e-6 * 2 ** log2size)) return null;
+  const root = formatComplexDD(ddOf(walk.bd), err, digits, c.im === 0);
   return root === null ? null : { root, parent: null };
+}
+
+function ddOf(a: Float64Array): DDComplex {
+  return [a[0]!, a[1]!, a[2]!, a[3]!];
+}
+
+/** The walk from the nucleus to reach * t: in doubles for components of 1e-9 and more, in double-double down to 1e-18, else null. */
+function walkTo(period: number, nucleus: DDComplex, t: C, reach: number, log2size: number): { w: C; b: C; wd: Float64Array; bd: Float64Array } | null {
+  if (!Number.isFinite(log2size)) return null;
+  const depth = Math.ceil(-log2size / Math.log2(10));
+  if (depth > DD_WALK_DIGITS) return null;
+  if (depth > DOUBLE_WALK_DIGITS) return walkDD(period, nucleus, t, reach, 2 ** log2size);
+  const r = walkDouble(period, { re: nucleus[0] + nucleus[1], im: nucleus[2] + nucleus[3] }, t, reach);
+  return r === null ? null : { ...r, wd: Float64Array.of(r.w.re, 0, r.w.im, 0), bd: Float64Array.of(r.b.re, 0, r.b.im, 0) };
 }
