@@ -21,7 +21,7 @@
  * and wherever a walk, a parent or a period check fails, null is returned
  * and the caller runs the BigInt path (nucleus.ts, boundary-point.ts).
  */
-import { fixedScale, fromNumber } from '../precise/fixed.js';
+import { fixedScale, fromNumber, pow10 } from '../precise/fixed.js';
 import type { Attachment } from './boundary-point.js';
 import { formatReal, type ComplexDecimal } from './nucleus.js';
 import { properDivisors } from './periodic-angles.js';
@@ -36,15 +36,27 @@ const U = 2 ** -100;
 const WALK_STEPS = 16;
 
 const FORMAT_SCALE = fixedScale(320);
+const FORMAT_MASK = FORMAT_SCALE.one - 1n;
+const FORMAT_HALF = FORMAT_SCALE.one >> 1n;
 
-/** hi + lo (each a double) printed to `digits` after the point, or null when c - err and c + err print differently. */
+/**
+ * hi + lo (each a double) printed to `digits` after the point, or null when
+ * c - err and c + err print differently: their signs differ, or a rounding
+ * boundary (a half unit of the last digit) lies within err of c.
+ */
 export function formatDD(hi: number, lo: number, err: number, digits: number): string | null {
   if (hi === 0 && lo === 0 && err === 0) return '0';
   const n = fromNumber(hi, FORMAT_SCALE) + fromNumber(lo, FORMAT_SCALE);
   const e = fromNumber(err, FORMAT_SCALE) + 1n;
-  const mid = formatReal(n, FORMAT_SCALE, digits);
-  if (formatReal(n - e, FORMAT_SCALE, digits) !== mid || formatReal(n + e, FORMAT_SCALE, digits) !== mid) return null;
-  return mid;
+  const a = n < 0n ? -n : n;
+  if (a <= e) return null;
+  // the digits are round(a 10^digits / 2^bits): a boundary lies within err when the remainder is within err 10^digits of one half
+  const p10 = pow10(digits);
+  const scaled = a * p10;
+  const r = scaled & FORMAT_MASK;
+  const d = r > FORMAT_HALF ? r - FORMAT_HALF : FORMAT_HALF - r;
+  if (d <= e * p10 + 1n) return null;
+  return formatReal(n, FORMAT_SCALE, digits);
 }
 
 function formatComplexDD(c: DDComplex, err: number, digits: number, realExact: boolean): ComplexDecimal | null {
@@ -389,7 +401,7 @@ function walkDD(period: number, nucleus: DDComplex, t: C, reach: number, size: n
     const f = Math.min(reach, done + step);
     wTry.set(w);
     bTry.set(b);
-    if (newtonDD(period, wTry, bTry, [t.re * f, 0, t.im * f, 0], 1e-12 * size, 60) !== null) {
+    if (newtonDD(period, wTry, bTry, [t.re * f, 0, t.im * f, 0], 1e-8 * size, 60) !== null) {
       w.set(wTry);
       b.set(bTry);
       done = f;
