@@ -109,16 +109,16 @@ export function nucleusDD(period: number, start: DDComplex, reach: number): { c:
     let dr = 0;
     let di = 0;
     let e = 0;
-    const cm = Math.hypot(c[0]!, c[2]!);
+    const cm = Math.abs(c[0]!) + Math.abs(c[2]!);
     for (let k = 1; k <= period; k += 1) {
       const zr = z[0]!;
       const zi = z[2]!;
       const ndr = 2 * (zr * dr - zi * di) + 1;
       di = 2 * (zr * di + zi * dr);
       dr = ndr;
-      const zm = Math.hypot(zr, zi);
+      const zm = Math.abs(zr) + Math.abs(zi);
       sqrAdd(z, c);
-      e = (2 * zm + e) * e + U * (2 * zm * zm + cm + Math.hypot(z[0]!, z[2]!));
+      e = (2 * zm + e) * e + U * (2 * zm * zm + cm + Math.abs(z[0]!) + Math.abs(z[2]!));
       if (!(e < 1e-20)) return null;
       if (k < period && period % k === 0 && Math.hypot(z[0]!, z[2]!) < 1e-12) return null;
     }
@@ -324,7 +324,7 @@ function newtonDD(period: number, w: Float64Array, b: Float64Array, t: DDComplex
       dczi = 0;
     let ez = 0;
     let ed = 0;
-    const bm = Math.hypot(b[0]!, b[2]!);
+    const bm = Math.abs(b[0]!) + Math.abs(b[2]!);
     for (let k = 0; k < period; k += 1) {
       const zr = z[0]!,
         zi = z[2]!,
@@ -342,12 +342,13 @@ function newtonDD(period: number, w: Float64Array, b: Float64Array, t: DDComplex
       dzzi = ndzzi;
       dcr = ndcr;
       dci = ndci;
-      const zm = Math.hypot(zr, zi);
-      const dm = Math.hypot(dzr, dzi);
+      // |re| + |im| bounds the modulus from above (cheaper than hypot; the bound stays a bound)
+      const zm = Math.abs(zr) + Math.abs(zi);
+      const dm = Math.abs(dzr) + Math.abs(dzi);
       ed = 2 * (zm * ed + dm * ez + ez * ed) + U * 4 * zm * dm;
       twiceMul(dz, z);
       sqrAdd(z, b);
-      ez = (2 * zm + ez) * ez + U * (2 * zm * zm + bm + Math.hypot(z[0]!, z[2]!));
+      ez = (2 * zm + ez) * ez + U * (2 * zm * zm + bm + Math.abs(z[0]!) + Math.abs(z[2]!));
       if (!(ez < 1e-20 && ed < 1e-4 && zm < 1e4)) return null;
     }
     ddAdd(z, 0, -w[0]!, -w[1]!);
