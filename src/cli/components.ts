@@ -20,13 +20,31 @@ import { createProgress, type Progress } from '../render/progress.js';
 import { TABLE_EXTENSIONS, writeTableFile, type ColumnType } from '../io/table-file.js';
 import { prepareOutputFile } from '../io/check-writable-directory.js';
 import { mkdir, stat } from 'node:fs/promises';
+import { totalmem } from 'node:os';
+import { checkFreeSpace, formatBytes } from '../io/check-free-space.js';
+import { openTableStream, textTableStream } from '../io/table-stream.js';
 import path from 'node:path';
 import { resolveShard } from '../render/pyramid-shard.js';
 import { shardAngleRange, shardCommentLine, shardHeader } from '../components/census-shard.js';
 import { registerMerge } from './components-merge.js';
 
-/** Longest listing period (the listing refines every nucleus and root to D digits). */
-export const MAX_LIST_PERIOD = 16;
+/** Longest listing period: the census' (memory and disk are checked against an estimate before starting, listingEstimate). */
+export const MAX_LIST_PERIOD = MAX_CENSUS_PERIOD;
+
+/** Bytes per component the census holds while it runs (docs/census.md: about 865 MB at period 22). */
+const CENSUS_BYTES = 420;
+/** Bytes per row held when the output is not streamed (text table, --json to stdout, --certify). */
+const ROW_BYTES = 1500;
+
+/**
+ * What a listing of `period` needs, estimated from 2^(p-1) components (an
+ * upper bound of OEIS A000740): memory (the census, plus the rows unless they
+ * stream) and the bytes of a CSV file at `digits` digits.
+ */
+export function listingEstimate(period: number, digits: number, streamed: boolean): { components: number; memory: number; file: number } {
+  const components = 2 ** (period - 1);
+  return { components, memory: components * (CENSUS_BYTES + (streamed ? 0 : ROW_BYTES)), file: components * (4 * (digits + 4) + 110) };
+}
 
 export const COMPONENTS_OPTIONS: readonly OptionSpec[] = [
   { flags: '--period <period>', description: 'exact period, an integer from 1 (required, no default)', required: true },
@@ -62,6 +80,17 @@ export function register(program: Command): void {
     const count = o['count'] === true;
     const certify = o['certify'] === true;
     const period = parseInteger(o['period'], '--period', 1, count ? MAX_CENSUS_PERIOD : MAX_LIST_PERIOD);
+    // CSV and files stream their rows as blocks complete; the text table, JSON on stdout and --certify hold them all
+    const streamed = !certify && (typeof o['out'] === 'string' || (o['csv'] === true && o['json'] !== true));
+    const need = listingEstimate(period, o['digits'] === undefined ? 20 : Number(o['digits']), streamed);
+    const memory = totalmem();
+    if (need.memory > 0.8 * memory) {
+      throw new UserError(
+        '--period',
+        `a period whose ${count ? 'census' : 'listing'} fits in memory (period ${period}: about ${formatBytes(need.memory)} for up to ${need.components} components${streamed || count ? '' : '; --csv or --out streams the rows'}; this machine has ${formatBytes(memory)})`,
+        period,
+      );
+    }
     const shard = resolveShard(typeof o['shard'] === 'string' ? o['shard'] : undefined, typeof o['shards'] === 'string' ? o['shards'] : undefined, process.env);
     if (shard !== null && certify)
       throw new UserError(
@@ -92,6 +121,7 @@ export function register(program: Command): void {
         } else if (!out.toLowerCase().endsWith('.csv')) throw new UserError('--out', 'a .csv file or a folder for a shard (`components merge` writes Parquet)', out);
       } else if (!TABLE_EXTENSIONS.some((e) => out!.toLowerCase().endsWith(e))) throw new UserError('--out', 'a file name ending in .csv, .json or .parquet', out);
       await prepareOutputFile(out, '--out');
+      await checkFreeSpace(path.dirname(path.resolve(out)), need.file, '--out');
     }
     const angleRange = shard === null ? undefined : shardAngleRange(period, shard);
     const t0 = performance.now();
@@ -144,6 +174,29 @@ export function register(program: Command): void {
       return;
     }
     const listing = createProgress(`quadatlas: period ${period}:`, { json: progressJson, unit: 'rows', phase: 'listing', delayMs: 1000 });
+    if (streamed) {
+      // rows go out block by block, in order, as the workers finish them
+      const columns = HEADER.map((name) => ({ name, type: COLUMN_TYPES[name] ?? 'string' }));
+      const comment = shard === null ? undefined : shardCommentLine(shardHeader(period, shard, comps.length));
+      const sink = out === null ? textTableStream(process.stdout, columns, 'csv') : await openTableStream(out, columns, comment);
+      try {
+        await listComponents(
+          period,
+          comps,
+          digits,
+          workers,
+          (d, t) => listing.update(d, t),
+          (block) => sink.write(block.map(flat)),
+        );
+        await sink.close();
+      } catch (err) {
+        await sink.abort();
+        throw err;
+      }
+      listing.end();
+      if (out !== null) process.stderr.write(`quadatlas: wrote ${out} (${comps.length} rows)\n`);
+      return;
+    }
     const rows = await listComponents(period, comps, digits, workers, (d, t) => listing.update(d, t));
     listing.end();
     const radii = certify ? certifyListing(period, rows, digits) : null;

@@ -80,36 +80,47 @@ function item(c: CensusComponent): ListItem {
   };
 }
 
-/** The rows of `comps`, in their order, computed on `workers` threads in blocks of BLOCK. */
+/**
+ * The rows of `comps`, in their order, computed on `workers` threads in
+ * blocks of BLOCK. With `onRows`, each block is handed over as soon as it and
+ * every block before it are done (in order, one call at a time) and nothing
+ * is kept: the result is then empty.
+ */
 export async function listComponents(
   period: number,
   comps: readonly CensusComponent[],
   digits: number,
   workers: number,
   onProgress?: (done: number, total: number) => void,
+  onRows?: (rows: ComponentInfo[]) => Promise<void>,
 ): Promise<ComponentInfo[]> {
   const blocks = Math.ceil(comps.length / BLOCK);
   const jobOf = (b: number): ListJob => ({ period, digits, items: comps.slice(b * BLOCK, (b + 1) * BLOCK).map(item) });
   const out: ComponentInfo[][] = new Array<ComponentInfo[]>(blocks);
   let done = 0;
+  let next = 0;
+  let chain: Promise<void> = Promise.resolve();
+  const arrived = (b: number, rows: ComponentInfo[]): void => {
+    out[b] = rows;
+    done += rows.length;
+    onProgress?.(done, comps.length);
+    if (onRows === undefined) return;
+    while (next < blocks && out[next] !== undefined) {
+      const ready = out[next]!;
+      out[next] = [];
+      next += 1;
+      chain = chain.then(() => onRows(ready));
+      chain.catch(() => {}); // awaited below; marked handled so a failed write waits for the end of the map
+    }
+  };
   if (workers <= 1 || blocks <= 1) {
     for (let b = 0; b < blocks; b++) {
-      out[b] = await componentRows(jobOf(b));
-      done += out[b]!.length;
-      onProgress?.(done, comps.length);
+      arrived(b, await componentRows(jobOf(b)));
+      await chain;
     }
   } else {
-    await mapOnWorkers<ListJob, ComponentInfo[]>(
-      builtWorkerUrl('listing-worker'),
-      blocks,
-      (b) => ({ message: jobOf(b) }),
-      workers,
-      (b, rows) => {
-        out[b] = rows;
-        done += rows.length;
-        onProgress?.(done, comps.length);
-      },
-    );
+    await mapOnWorkers<ListJob, ComponentInfo[]>(builtWorkerUrl('listing-worker'), blocks, (b) => ({ message: jobOf(b) }), workers, arrived);
   }
-  return out.flat();
+  await chain;
+  return onRows === undefined ? out.flat() : [];
 }
