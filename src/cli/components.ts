@@ -235,9 +235,10 @@ function inBox(c: CensusComponent, b: { re0: number; im0: number; re1: number; i
 }
 
 /** Parquet and JSON column types of the listing (the others are strings: decimals kept as printed, exact fractions). */
-const COLUMN_TYPES: Record<string, ColumnType> = { period: 'int', size: 'double', orientation_deg: 'double', parent_period: 'int' };
+export const COLUMN_TYPES: Record<string, ColumnType> = { period: 'int', size: 'double', orientation_deg: 'double', parent_period: 'int' };
 
-const HEADER = [
+/** The listing's columns, in order. */
+export const HEADER = [
   'period',
   'nucleus_re',
   'nucleus_im',
@@ -253,7 +254,8 @@ const HEADER = [
   'address',
 ];
 
-function flat(r: ComponentInfo): string[] {
+/** One row's cells as the CSV prints them. */
+export function flat(r: ComponentInfo): string[] {
   const j = componentJson(r);
   const angles = (j['externalAngles'] as string[] | null) ?? [];
   return [

@@ -31,6 +31,8 @@ export interface ListJob {
   readonly period: number;
   readonly digits: number;
   readonly items: readonly ListItem[];
+  /** Skip the double-double fast path (the BigInt path alone, as before December 2026; for tests). */
+  readonly bigint?: boolean;
 }
 
 /** Rows per block handed to a worker. */
@@ -40,7 +42,7 @@ const BLOCK = 64;
 export async function componentRows(job: ListJob): Promise<ComponentInfo[]> {
   const rows: ComponentInfo[] = [];
   for (const c of job.items) {
-    const fast = fastNucleus(job.period, [...c.dd], c.size, c.real, job.digits);
+    const fast = job.bigint === true ? null : fastNucleus(job.period, [...c.dd], c.size, c.real, job.digits);
     const known = fast === null ? null : fastRoot(job.period, fast.c, job.digits);
     if (fast !== null && known !== null) {
       rows.push(
@@ -69,7 +71,8 @@ export async function componentRows(job: ListJob): Promise<ComponentInfo[]> {
   return rows;
 }
 
-function item(c: CensusComponent): ListItem {
+/** A census component as a worker receives it. */
+export function listItem(c: CensusComponent): ListItem {
   return {
     re: (c.reHi + c.reLo).toPrecision(17),
     im: (c.imHi + c.imLo).toPrecision(17),
@@ -95,7 +98,7 @@ export async function listComponents(
   onRows?: (rows: ComponentInfo[]) => Promise<void>,
 ): Promise<ComponentInfo[]> {
   const blocks = Math.ceil(comps.length / BLOCK);
-  const jobOf = (b: number): ListJob => ({ period, digits, items: comps.slice(b * BLOCK, (b + 1) * BLOCK).map(item) });
+  const jobOf = (b: number): ListJob => ({ period, digits, items: comps.slice(b * BLOCK, (b + 1) * BLOCK).map(listItem) });
   const out: ComponentInfo[][] = new Array<ComponentInfo[]>(blocks);
   let done = 0;
   let next = 0;
