@@ -34,6 +34,8 @@ export type DDComplex = [number, number, number, number];
 const U = 2 ** -100;
 /** Walk steps, as boundary-point.ts. */
 const WALK_STEPS = 16;
+/** Walk steps in double-double (halved where Newton fails, as the double walk). */
+const DD_WALK_STEPS = 8;
 
 const FORMAT_SCALE = fixedScale(320);
 const FORMAT_MASK = FORMAT_SCALE.one - 1n;
@@ -397,7 +399,7 @@ function walkDD(period: number, nucleus: DDComplex, t: C, reach: number, size: n
   const wTry = new Float64Array(4);
   const bTry = new Float64Array(4);
   let done = 0;
-  let step = reach / WALK_STEPS;
+  let step = reach / DD_WALK_STEPS;
   while (done < reach) {
     const f = Math.min(reach, done + step);
     wTry.set(w);
