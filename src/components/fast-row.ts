@@ -48,8 +48,8 @@ const FORMAT_HALF = FORMAT_SCALE.one >> 1n;
  */
 export function formatDD(hi: number, lo: number, err: number, digits: number): string | null {
   if (hi === 0 && lo === 0 && err === 0) return '0';
-  const n = fromNumber(hi, FORMAT_SCALE) + fromNumber(lo, FORMAT_SCALE);
-  const e = fromNumber(err, FORMAT_SCALE) + 1n;
+  const n = toFixed320(hi) + toFixed320(lo);
+  const e = toFixed320(err) + 1n;
   const a = n < 0n ? -n : n;
   if (a <= e) return null;
   // the digits are round(a 10^digits / 2^bits): a boundary lies within err when the remainder is within err 10^digits of one half
@@ -59,6 +59,12 @@ export function formatDD(hi: number, lo: number, err: number, digits: number): s
   const d = r > FORMAT_HALF ? r - FORMAT_HALF : FORMAT_HALF - r;
   if (d <= e * p10 + 1n) return null;
   return formatReal(n, FORMAT_SCALE, digits);
+}
+
+/** x 2^320 as a BigInt: exactly by BigInt() when that is an integer (|x| above about 2^-268), else by fromNumber (the same value, rounded). */
+function toFixed320(x: number): bigint {
+  const y = x * 2 ** 320;
+  return Number.isInteger(y) ? BigInt(y) : fromNumber(x, FORMAT_SCALE);
 }
 
 function formatComplexDD(c: DDComplex, err: number, digits: number, realExact: boolean): ComplexDecimal | null {
