@@ -82,7 +82,7 @@ export function register(program: Command): void {
     const period = parseInteger(o['period'], '--period', 1, count ? MAX_CENSUS_PERIOD : MAX_LIST_PERIOD);
     // CSV and files stream their rows as blocks complete; the text table, JSON on stdout and --certify hold them all
     const streamed = !certify && (typeof o['out'] === 'string' || (o['csv'] === true && o['json'] !== true));
-    const need = listingEstimate(period, o['digits'] === undefined ? 20 : Number(o['digits']), streamed);
+    const need = listingEstimate(period, o['digits'] === undefined ? 20 : Number(o['digits']), streamed || count);
     const memory = totalmem();
     if (need.memory > 0.8 * memory) {
       throw new UserError(
@@ -174,6 +174,7 @@ export function register(program: Command): void {
       return;
     }
     const listing = createProgress(`quadatlas: period ${period}:`, { json: progressJson, unit: 'rows', phase: 'listing', delayMs: 1000 });
+    let noRoot = 0;
     if (streamed) {
       // rows go out block by block, in order, as the workers finish them
       const columns = HEADER.map((name) => ({ name, type: COLUMN_TYPES[name] ?? 'string' }));
@@ -194,10 +195,12 @@ export function register(program: Command): void {
         throw err;
       }
       listing.end();
+      warnNoRoot(noRoot);
       if (out !== null) process.stderr.write(`quadatlas: wrote ${out} (${comps.length} rows)\n`);
       return;
     }
     const rows = await listComponents(period, comps, digits, workers, (d, t) => listing.update(d, t));
+    warnNoRoot(rows.filter((r) => r.root.re === '').length);
     listing.end();
     const radii = certify ? certifyListing(period, rows, digits) : null;
     if (out !== null) {
@@ -226,6 +229,11 @@ export function register(program: Command): void {
     else if (o['csv'] === true) process.stdout.write(toCsv(rows, radii));
     else process.stdout.write(toTable(rows, radii));
   });
+}
+
+/** A warning on stderr for rows whose root Newton could not reach (their root cells are empty). */
+function warnNoRoot(n: number): void {
+  if (n > 0) process.stderr.write(`quadatlas: warning: ${n} rows have no root (the walk of docs/methods.md C3 could not reach it); their root cells are empty\n`);
 }
 
 function inBox(c: CensusComponent, b: { re0: number; im0: number; re1: number; im1: number }): boolean {

@@ -12,7 +12,9 @@ import { builtWorkerUrl } from '../threads/built-worker.js';
 import { mapOnWorkers } from '../threads/map-on-workers.js';
 import type { CensusComponent } from './census.js';
 import { componentInfo, mersenneAngle, type ComponentInfo } from './component-info.js';
-import { findNucleus } from './nucleus.js';
+import { findNucleus, type ComplexDecimal } from './nucleus.js';
+import { componentRoot, type Attachment } from './boundary-point.js';
+import { NewtonError } from './newton-error.js';
 import { fastNucleus, fastRoot } from './fast-row.js';
 
 /** One census component as a worker receives it. */
@@ -34,6 +36,9 @@ export interface ListJob {
   /** Skip the double-double fast path (the BigInt path alone, as before December 2026; for tests). */
   readonly bigint?: boolean;
 }
+
+/** The root of a row whose root Newton could not reach: empty cells (the CLI counts them on stderr). */
+export const NO_ROOT: ComplexDecimal = { re: '', im: '' };
 
 /** Rows per block handed to a worker. */
 const BLOCK = 64;
@@ -59,14 +64,16 @@ export async function componentRows(job: ListJob): Promise<ComponentInfo[]> {
     const nucleus = c.real
       ? { ...findNucleus(job.period, { re: c.re, im: '0' }, job.digits).nucleus, im: '0' }
       : findNucleus(job.period, { re: c.re, im: c.im }, job.digits).nucleus;
-    rows.push(
-      await componentInfo(
-        job.period,
-        nucleus,
-        job.digits,
-        c.angles.map((n) => mersenneAngle(n, job.period)),
-      ),
-    );
+    const angles = c.angles.map((n) => mersenneAngle(n, job.period));
+    let root: { root: ComplexDecimal; parent: Attachment | null };
+    try {
+      root = componentRoot(job.period, nucleus, job.digits);
+    } catch (err) {
+      // a root C3's walk cannot reach (seen from period 22): the row keeps its nucleus, its root cells stay empty (NO_ROOT)
+      if (!(err instanceof NewtonError)) throw err;
+      root = { root: NO_ROOT, parent: null };
+    }
+    rows.push(await componentInfo(job.period, nucleus, job.digits, angles, root));
   }
   return rows;
 }
