@@ -20,6 +20,9 @@ import { createProgress, type Progress } from '../render/progress.js';
 import { TABLE_EXTENSIONS, writeTableFile, type ColumnType } from '../io/table-file.js';
 import { prepareOutputFile } from '../io/check-writable-directory.js';
 import { mkdir, stat } from 'node:fs/promises';
+import { totalmem } from 'node:os';
+import { checkFreeSpace, formatBytes } from '../io/check-free-space.js';
+import { openTableStream, textTableStream } from '../io/table-stream.js';
 import path from 'node:path';
 import { resolveShard } from '../render/pyramid-shard.js';
 import { shardAngleRange, shardCommentLine, shardHeader } from '../components/census-shard.js';
@@ -27,8 +30,23 @@ import { registerMerge } from './components-merge.js';
 import { misiurewiczCount, parseMisiurewiczType } from '../components/misiurewicz-points.js';
 import { angleTexts, listMisiurewicz } from '../components/misiurewicz-list.js';
 
-/** Longest listing period (the listing refines every nucleus and root to D digits). */
-export const MAX_LIST_PERIOD = 16;
+/** Longest listing period: the census' (memory and disk are checked against an estimate before starting, listingEstimate). */
+export const MAX_LIST_PERIOD = MAX_CENSUS_PERIOD;
+
+/** Bytes per component the census holds while it runs (docs/census.md: about 865 MB at period 22). */
+const CENSUS_BYTES = 420;
+/** Bytes per row held when the output is not streamed (text table, --json to stdout, --certify). */
+const ROW_BYTES = 1500;
+
+/**
+ * What a listing of `period` needs, estimated from 2^(p-1) components (an
+ * upper bound of OEIS A000740): memory (the census, plus the rows unless they
+ * stream) and the bytes of a CSV file at `digits` digits.
+ */
+export function listingEstimate(period: number, digits: number, streamed: boolean): { components: number; memory: number; file: number } {
+  const components = 2 ** (period - 1);
+  return { components, memory: components * (CENSUS_BYTES + (streamed ? 0 : ROW_BYTES)), file: components * (4 * (digits + 4) + 110) };
+}
 
 export const COMPONENTS_OPTIONS: readonly OptionSpec[] = [
   { flags: '--period <period>', description: 'exact period, an integer from 1 (required unless --misiurewicz, no default)' },
@@ -79,6 +97,17 @@ export function register(program: Command): void {
     }
     if (o['period'] === undefined) throw new UserError('--period', 'an exact period (or --misiurewicz K,P)', 'nothing');
     const period = parseInteger(o['period'], '--period', 1, count ? MAX_CENSUS_PERIOD : MAX_LIST_PERIOD);
+    // CSV and files stream their rows as blocks complete; the text table, JSON on stdout and --certify hold them all
+    const streamed = !certify && (typeof o['out'] === 'string' || (o['csv'] === true && o['json'] !== true));
+    const need = listingEstimate(period, o['digits'] === undefined ? 20 : Number(o['digits']), streamed || count);
+    const memory = totalmem();
+    if (need.memory > 0.8 * memory) {
+      throw new UserError(
+        '--period',
+        `a period whose ${count ? 'census' : 'listing'} fits in memory (period ${period}: about ${formatBytes(need.memory)} for up to ${need.components} components${streamed || count ? '' : '; --csv or --out streams the rows'}; this machine has ${formatBytes(memory)})`,
+        period,
+      );
+    }
     const shard = resolveShard(typeof o['shard'] === 'string' ? o['shard'] : undefined, typeof o['shards'] === 'string' ? o['shards'] : undefined, process.env);
     if (shard !== null && certify)
       throw new UserError(
@@ -109,6 +138,7 @@ export function register(program: Command): void {
         } else if (!out.toLowerCase().endsWith('.csv')) throw new UserError('--out', 'a .csv file or a folder for a shard (`components merge` writes Parquet)', out);
       } else if (!TABLE_EXTENSIONS.some((e) => out!.toLowerCase().endsWith(e))) throw new UserError('--out', 'a file name ending in .csv, .json or .parquet', out);
       await prepareOutputFile(out, '--out');
+      await checkFreeSpace(path.dirname(path.resolve(out)), need.file, '--out');
     }
     const angleRange = shard === null ? undefined : shardAngleRange(period, shard);
     const t0 = performance.now();
@@ -161,7 +191,33 @@ export function register(program: Command): void {
       return;
     }
     const listing = createProgress(`quadatlas: period ${period}:`, { json: progressJson, unit: 'rows', phase: 'listing', delayMs: 1000 });
+    let noRoot = 0;
+    if (streamed) {
+      // rows go out block by block, in order, as the workers finish them
+      const columns = HEADER.map((name) => ({ name, type: COLUMN_TYPES[name] ?? 'string' }));
+      const comment = shard === null ? undefined : shardCommentLine(shardHeader(period, shard, comps.length));
+      const sink = out === null ? textTableStream(process.stdout, columns, 'csv') : await openTableStream(out, columns, comment);
+      try {
+        await listComponents(
+          period,
+          comps,
+          digits,
+          workers,
+          (d, t) => listing.update(d, t),
+          (block) => sink.write(block.map(flat)),
+        );
+        await sink.close();
+      } catch (err) {
+        await sink.abort();
+        throw err;
+      }
+      listing.end();
+      warnNoRoot(noRoot);
+      if (out !== null) process.stderr.write(`quadatlas: wrote ${out} (${comps.length} rows)\n`);
+      return;
+    }
     const rows = await listComponents(period, comps, digits, workers, (d, t) => listing.update(d, t));
+    warnNoRoot(rows.filter((r) => r.root.re === '').length);
     listing.end();
     const radii = certify ? certifyListing(period, rows, digits) : null;
     if (out !== null) {
@@ -256,6 +312,11 @@ async function listMisiurewiczCommand(o: Record<string, unknown>): Promise<void>
   );
 }
 
+/** A warning on stderr for rows whose root Newton could not reach (their root cells are empty). */
+function warnNoRoot(n: number): void {
+  if (n > 0) process.stderr.write(`quadatlas: warning: ${n} rows have no root (the walk of docs/methods.md C3 could not reach it); their root cells are empty\n`);
+}
+
 function inBox(c: CensusComponent, b: { re0: number; im0: number; re1: number; im1: number }): boolean {
   const re = c.reHi + c.reLo;
   const im = c.imHi + c.imLo;
@@ -263,9 +324,10 @@ function inBox(c: CensusComponent, b: { re0: number; im0: number; re1: number; i
 }
 
 /** Parquet and JSON column types of the listing (the others are strings: decimals kept as printed, exact fractions). */
-const COLUMN_TYPES: Record<string, ColumnType> = { period: 'int', size: 'double', orientation_deg: 'double', parent_period: 'int' };
+export const COLUMN_TYPES: Record<string, ColumnType> = { period: 'int', size: 'double', orientation_deg: 'double', parent_period: 'int' };
 
-const HEADER = [
+/** The listing's columns, in order. */
+export const HEADER = [
   'period',
   'nucleus_re',
   'nucleus_im',
@@ -281,7 +343,8 @@ const HEADER = [
   'address',
 ];
 
-function flat(r: ComponentInfo): string[] {
+/** One row's cells as the CSV prints them. */
+export function flat(r: ComponentInfo): string[] {
   const j = componentJson(r);
   const angles = (j['externalAngles'] as string[] | null) ?? [];
   return [

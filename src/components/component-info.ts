@@ -49,10 +49,17 @@ export function mersenneAngle(n: number, period: number): Angle {
  * Completes the description of the component of `period` with this nucleus
  * (already at `digits` digits). Angles: given, or taken from a census of the
  * period when period <= ANGLE_CENSUS_LIMIT (the census nucleus nearest to
- * this one), otherwise left null.
+ * this one), otherwise left null. `known`: the root and parent, already found
+ * (the listing's fast path, fast-row.ts).
  */
-export async function componentInfo(period: number, nucleus: ComplexDecimal, digits: number, angles?: Angle[]): Promise<ComponentInfo> {
-  const { root, parent } = componentRoot(period, nucleus, digits);
+export async function componentInfo(
+  period: number,
+  nucleus: ComplexDecimal,
+  digits: number,
+  angles?: Angle[],
+  known?: { root: ComplexDecimal; parent: Attachment | null },
+): Promise<ComponentInfo> {
+  const { root, parent } = known ?? componentRoot(period, nucleus, digits);
   const size = sizeEstimateScaled(period, nucleus);
   let found: Angle[] | null = angles ?? null;
   if (found === null && period <= ANGLE_CENSUS_LIMIT) {

@@ -1,7 +1,10 @@
 /**
  * The rows of a listing: for each census component, its nucleus refined to
  * the digits asked (Newton from the census' double-double position) and its
- * component information (root, size, shape, parent, angles, address). Rows
+ * component information (root, size, shape, parent, angles, address). The
+ * nucleus and root are first tried in double-double with an error bound
+ * (fast-row.ts, docs/methods.md C7), falling back to BigInt Newton (nucleus.ts,
+ * boundary-point.ts) wherever that cannot vouch for the digits. Rows
  * are independent, so blocks of them go to worker threads and come back in
  * their places: the listing is the same for any number of workers.
  */
@@ -9,12 +12,18 @@ import { builtWorkerUrl } from '../threads/built-worker.js';
 import { mapOnWorkers } from '../threads/map-on-workers.js';
 import type { CensusComponent } from './census.js';
 import { componentInfo, mersenneAngle, type ComponentInfo } from './component-info.js';
-import { findNucleus } from './nucleus.js';
+import { findNucleus, type ComplexDecimal } from './nucleus.js';
+import { componentRoot, type Attachment } from './boundary-point.js';
+import { NewtonError } from './newton-error.js';
+import { fastNucleus, fastRoot } from './fast-row.js';
 
 /** One census component as a worker receives it. */
 export interface ListItem {
   readonly re: string;
   readonly im: string;
+  /** The census' double-double nucleus (re hi, re lo, im hi, im lo) and size estimate: the fast path's start. */
+  readonly dd: readonly [number, number, number, number];
+  readonly size: number;
   readonly real: boolean;
   readonly angles: readonly number[];
 }
@@ -24,7 +33,12 @@ export interface ListJob {
   readonly period: number;
   readonly digits: number;
   readonly items: readonly ListItem[];
+  /** Skip the double-double fast path (the BigInt path alone, as before December 2026; for tests). */
+  readonly bigint?: boolean;
 }
+
+/** The root of a row whose root Newton could not reach: empty cells (the CLI counts them on stderr). */
+export const NO_ROOT: ComplexDecimal = { re: '', im: '' };
 
 /** Rows per block handed to a worker. */
 const BLOCK = 64;
@@ -33,55 +47,90 @@ const BLOCK = 64;
 export async function componentRows(job: ListJob): Promise<ComponentInfo[]> {
   const rows: ComponentInfo[] = [];
   for (const c of job.items) {
+    const fast = job.bigint === true ? null : fastNucleus(job.period, [...c.dd], c.size, c.real, job.digits);
+    const known = fast === null ? null : fastRoot(job.period, fast.c, job.digits);
+    if (fast !== null && known !== null) {
+      rows.push(
+        await componentInfo(
+          job.period,
+          fast.decimal,
+          job.digits,
+          c.angles.map((n) => mersenneAngle(n, job.period)),
+          known,
+        ),
+      );
+      continue;
+    }
     const nucleus = c.real
       ? { ...findNucleus(job.period, { re: c.re, im: '0' }, job.digits).nucleus, im: '0' }
       : findNucleus(job.period, { re: c.re, im: c.im }, job.digits).nucleus;
-    rows.push(
-      await componentInfo(
-        job.period,
-        nucleus,
-        job.digits,
-        c.angles.map((n) => mersenneAngle(n, job.period)),
-      ),
-    );
+    const angles = c.angles.map((n) => mersenneAngle(n, job.period));
+    let root: { root: ComplexDecimal; parent: Attachment | null };
+    try {
+      root = componentRoot(job.period, nucleus, job.digits);
+    } catch (err) {
+      // a root C3's walk cannot reach (seen from period 22): the row keeps its nucleus, its root cells stay empty (NO_ROOT)
+      if (!(err instanceof NewtonError)) throw err;
+      root = { root: NO_ROOT, parent: null };
+    }
+    rows.push(await componentInfo(job.period, nucleus, job.digits, angles, root));
   }
   return rows;
 }
 
-function item(c: CensusComponent): ListItem {
-  return { re: (c.reHi + c.reLo).toPrecision(17), im: (c.imHi + c.imLo).toPrecision(17), real: c.real, angles: [...c.angles] };
+/** A census component as a worker receives it. */
+export function listItem(c: CensusComponent): ListItem {
+  return {
+    re: (c.reHi + c.reLo).toPrecision(17),
+    im: (c.imHi + c.imLo).toPrecision(17),
+    dd: [c.reHi, c.reLo, c.imHi, c.imLo],
+    size: c.size,
+    real: c.real,
+    angles: [...c.angles],
+  };
 }
 
-/** The rows of `comps`, in their order, computed on `workers` threads in blocks of BLOCK. */
+/**
+ * The rows of `comps`, in their order, computed on `workers` threads in
+ * blocks of BLOCK. With `onRows`, each block is handed over as soon as it and
+ * every block before it are done (in order, one call at a time) and nothing
+ * is kept: the result is then empty.
+ */
 export async function listComponents(
   period: number,
   comps: readonly CensusComponent[],
   digits: number,
   workers: number,
   onProgress?: (done: number, total: number) => void,
+  onRows?: (rows: ComponentInfo[]) => Promise<void>,
 ): Promise<ComponentInfo[]> {
   const blocks = Math.ceil(comps.length / BLOCK);
-  const jobOf = (b: number): ListJob => ({ period, digits, items: comps.slice(b * BLOCK, (b + 1) * BLOCK).map(item) });
+  const jobOf = (b: number): ListJob => ({ period, digits, items: comps.slice(b * BLOCK, (b + 1) * BLOCK).map(listItem) });
   const out: ComponentInfo[][] = new Array<ComponentInfo[]>(blocks);
   let done = 0;
+  let next = 0;
+  let chain: Promise<void> = Promise.resolve();
+  const arrived = (b: number, rows: ComponentInfo[]): void => {
+    out[b] = rows;
+    done += rows.length;
+    onProgress?.(done, comps.length);
+    if (onRows === undefined) return;
+    while (next < blocks && out[next] !== undefined) {
+      const ready = out[next]!;
+      out[next] = [];
+      next += 1;
+      chain = chain.then(() => onRows(ready));
+      chain.catch(() => {}); // awaited below; marked handled so a failed write waits for the end of the map
+    }
+  };
   if (workers <= 1 || blocks <= 1) {
     for (let b = 0; b < blocks; b++) {
-      out[b] = await componentRows(jobOf(b));
-      done += out[b]!.length;
-      onProgress?.(done, comps.length);
+      arrived(b, await componentRows(jobOf(b)));
+      await chain;
     }
   } else {
-    await mapOnWorkers<ListJob, ComponentInfo[]>(
-      builtWorkerUrl('listing-worker'),
-      blocks,
-      (b) => ({ message: jobOf(b) }),
-      workers,
-      (b, rows) => {
-        out[b] = rows;
-        done += rows.length;
-        onProgress?.(done, comps.length);
-      },
-    );
+    await mapOnWorkers<ListJob, ComponentInfo[]>(builtWorkerUrl('listing-worker'), blocks, (b) => ({ message: jobOf(b) }), workers, arrived);
   }
-  return out.flat();
+  await chain;
+  return onRows === undefined ? out.flat() : [];
 }

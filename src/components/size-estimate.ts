@@ -76,6 +76,83 @@ function xarg(a: X): number {
 
 /** sizeEstimate with log10 of the size and the shape value. */
 export function sizeEstimateScaled(period: number, nucleus: ComplexDecimal): SizeEstimateScaled {
+  return sizeEstimatePlain(period, nucleus) ?? sizeEstimateX(period, nucleus);
+}
+
+/** Magnitudes the plain-double recurrences stay within (else the scaled ones run). */
+const PLAIN_MAX = 1e250;
+const PLAIN_MIN = 1e-250;
+
+function inRange(re: number, im: number): boolean {
+  const m = Math.abs(re) + Math.abs(im);
+  return m === 0 || (m < PLAIN_MAX && m > PLAIN_MIN);
+}
+
+/**
+ * The same recurrences in plain doubles while every magnitude stays within
+ * 1e-250..1e250: scaling by powers of two commutes exactly with rounding away
+ * from overflow and subnormals, so the result is bit for bit that of the
+ * scaled version (the final formulas run in the scaled form); null outside.
+ */
+function sizeEstimatePlain(period: number, nucleus: ComplexDecimal): SizeEstimateScaled | null {
+  const digits = Math.max(nucleus.re.length, nucleus.im.length);
+  const s = fixedScale(Math.max(128, bitsForDigits(digits, 32)));
+  const cr = fromDecimal(nucleus.re, s, 'nucleus');
+  const ci = fromDecimal(nucleus.im, s, 'nucleus');
+  let lr = 1,
+    li = 0,
+    br = 1,
+    bi = 0,
+    dcr = 1,
+    dci = 0,
+    dzr = 1,
+    dzi = 0,
+    dccr = 0,
+    dcci = 0,
+    dczr = 0,
+    dczi = 0;
+  let zr = cr;
+  let zi = ci;
+  let xr = toNumber(zr, s);
+  let xi = toNumber(zi, s);
+  for (let k = 1; k < period; k += 1) {
+    if (!inRange(xr, xi)) return null;
+    const z2r = xr * 2,
+      z2i = xi * 2;
+    // dcc <- 2 (z dcc + dc^2); dcz <- 2 (z dcz + dc dz); dc <- 2 z dc + 1; dz <- 2 z dz (as the X forms, term by term)
+    const ndccr = (xr * dccr - xi * dcci + (dcr * dcr - dci * dci)) * 2;
+    const ndcci = (xr * dcci + xi * dccr + (dcr * dci + dci * dcr)) * 2;
+    const ndczr = (xr * dczr - xi * dczi + (dcr * dzr - dci * dzi)) * 2;
+    const ndczi = (xr * dczi + xi * dczr + (dcr * dzi + dci * dzr)) * 2;
+    const ndcr = z2r * dcr - z2i * dci + 1;
+    const ndci = z2r * dci + z2i * dcr;
+    const ndzr = z2r * dzr - z2i * dzi;
+    const ndzi = z2r * dzi + z2i * dzr;
+    dccr = ndccr;
+    dcci = ndcci;
+    dczr = ndczr;
+    dczi = ndczi;
+    dcr = ndcr;
+    dci = ndci;
+    dzr = ndzr;
+    dzi = ndzi;
+    const nlr = z2r * lr - z2i * li;
+    li = z2r * li + z2i * lr;
+    lr = nlr;
+    const m = lr * lr + li * li;
+    br += lr / m;
+    bi += -li / m;
+    if (!inRange(dccr, dcci) || !inRange(dczr, dczi) || !inRange(dcr, dci) || !inRange(dzr, dzi) || !inRange(lr, li) || !inRange(br, bi) || !inRange(m, 0)) return null;
+    const nzr = ((zr * zr - zi * zi) >> s.shift) + cr;
+    zi = ((zr * zi) >> (s.shift - 1n)) + ci;
+    zr = nzr;
+    xr = toNumber(zr, s);
+    xi = toNumber(zi, s);
+  }
+  return finish(period, norm([lr, li, 0]), norm([br, bi, 0]), norm([dcr, dci, 0]), norm([dzr, dzi, 0]), norm([dccr, dcci, 0]), norm([dczr, dczi, 0]));
+}
+
+function sizeEstimateX(period: number, nucleus: ComplexDecimal): SizeEstimateScaled {
   const digits = Math.max(nucleus.re.length, nucleus.im.length);
   const s = fixedScale(Math.max(128, bitsForDigits(digits, 32)));
   const cr = fromDecimal(nucleus.re, s, 'nucleus');
@@ -110,6 +187,11 @@ export function sizeEstimateScaled(period: number, nucleus: ComplexDecimal): Siz
     xr = toNumber(zr, s);
     xi = toNumber(zi, s);
   }
+  return finish(period, lambda, beta, dc, dz, dcc, dcz);
+}
+
+function finish(period: number, lambda: X, beta: X, dc: X, dz: X, dcc: X, dcz: X): SizeEstimateScaled {
+  const one: X = [1, 0, 0];
   const sz = xdiv(one, xmul(beta, xmul(lambda, lambda)));
   const log2 = xlog2abs(sz);
   // shape: s' = -(dcc / (2 dc) + dcz / dz) / (dc dz)

@@ -260,6 +260,9 @@ function ldexp(x: number, e: number): number {
 }
 
 /** Fixed point to the nearest double. */
+/** Below 2^1000 in magnitude a BigInt's Number is finite and its scaling exact (bigToNumberScaled). */
+const NUMBER_FAST = 1n << 1000n;
+
 export function toNumber(n: bigint, s: FixedScale): number {
   return bigToNumberScaled(n, -s.bits);
 }
@@ -267,6 +270,12 @@ export function toNumber(n: bigint, s: FixedScale): number {
 /** n * 2^e as the nearest double. */
 export function bigToNumberScaled(n: bigint, e: number): number {
   if (n === 0n) return 0;
+  // Number(bigint) rounds to nearest (ECMA-262 ToNumber); scaling by 2^e is then exact unless the
+  // result leaves the normal range, so the same value comes out without measuring the bits
+  if (e >= -1022 && e <= 0 && n < NUMBER_FAST && n > -NUMBER_FAST) {
+    const x = Number(n) * 2 ** e;
+    if (Math.abs(x) >= 2 ** -1022) return x;
+  }
   const neg = n < 0n;
   let a = neg ? -n : n;
   const len = bitLength(a);

@@ -1,0 +1,583 @@
+/**
+ * The fast path of a listing row (docs/methods.md C7): the nucleus and the
+ * root of a component confirmed in double-double arithmetic with an error
+ * bound, instead of two BigInt Newton runs each.
+ *
+ * Nucleus: Newton on F^p(0, c) from the census' double-double position, the
+ * orbit in double-double, the derivative in doubles (an approximate
+ * Jacobian only slows convergence from quadratic to a factor of about 1e-16
+ * per step). Root: the double walk of C3, then Newton on (F^p(w,b) - w,
+ * D_z F^p(w,b) - t) with both residuals in double-double; satellites are
+ * solved on their parent at t = e^{2 pi i r/q}, as in boundary-point.ts.
+ *
+ * Bound: alongside each double-double orbit a running bound E of its
+ * rounding error is kept (each double-double operation errs by at most
+ * U = 2^-100 times the magnitudes it combines; Hida, Li and Bailey 2000 give
+ * a few units of 2^-104). The last Newton step h and E carried through the
+ * (double) inverse Jacobian bound the distance to the solution, to first
+ * order: err = 4 (|h| + |J^-1| E). The first-order bound holds when the
+ * step is far below the component's size, which is checked. A coordinate is
+ * printed only when c - err, c and c + err give the same digits; otherwise,
+ * and wherever a walk, a parent or a period check fails, null is returned
+ * and the caller runs the BigInt path (nucleus.ts, boundary-point.ts).
+ */
+import { fixedScale, fromNumber, pow10 } from '../precise/fixed.js';
+import type { Attachment } from './boundary-point.js';
+import { formatReal, type ComplexDecimal } from './nucleus.js';
+import { properDivisors } from './periodic-angles.js';
+import { ddAdd, ddMulInto, ddSqrInto } from './double-double.js';
+
+/** A complex double-double: re hi, re lo, im hi, im lo. */
+export type DDComplex = [number, number, number, number];
+
+/** Relative rounding error allowed per double-double operation (generous: 2^-100). */
+const U = 2 ** -100;
+/** Walk steps, as boundary-point.ts. */
+const WALK_STEPS = 16;
+/** Walk steps in double-double (halved where Newton fails, as the double walk). */
+const DD_WALK_STEPS = 8;
+
+const FORMAT_SCALE = fixedScale(320);
+const FORMAT_MASK = FORMAT_SCALE.one - 1n;
+const FORMAT_HALF = FORMAT_SCALE.one >> 1n;
+
+/**
+ * hi + lo (each a double) printed to `digits` after the point, or null when
+ * c - err and c + err print differently: their signs differ, or a rounding
+ * boundary (a half unit of the last digit) lies within err of c.
+ */
+export function formatDD(hi: number, lo: number, err: number, digits: number): string | null {
+  if (hi === 0 && lo === 0 && err === 0) return '0';
+  const n = toFixed320(hi) + toFixed320(lo);
+  const e = toFixed320(err) + 1n;
+  const a = n < 0n ? -n : n;
+  if (a <= e) return null;
+  // the digits are round(a 10^digits / 2^bits): a boundary lies within err when the remainder is within err 10^digits of one half
+  const p10 = pow10(digits);
+  const scaled = a * p10;
+  const r = scaled & FORMAT_MASK;
+  const d = r > FORMAT_HALF ? r - FORMAT_HALF : FORMAT_HALF - r;
+  if (d <= e * p10 + 1n) return null;
+  return formatReal(n, FORMAT_SCALE, digits);
+}
+
+/** x 2^320 as a BigInt: exactly by BigInt() when that is an integer (|x| above about 2^-268), else by fromNumber (the same value, rounded). */
+function toFixed320(x: number): bigint {
+  const y = x * 2 ** 320;
+  return Number.isInteger(y) ? BigInt(y) : fromNumber(x, FORMAT_SCALE);
+}
+
+function formatComplexDD(c: DDComplex, err: number, digits: number, realExact: boolean): ComplexDecimal | null {
+  const re = formatDD(c[0], c[1], err, digits);
+  const im = realExact && c[2] === 0 && c[3] === 0 ? '0' : formatDD(c[2], c[3], err, digits);
+  return re === null || im === null ? null : { re, im };
+}
+
+const T = new Float64Array(8);
+
+/** z <- z^2 + c in double-double (z, c as DDComplex arrays). */
+function sqrAdd(z: Float64Array, c: ArrayLike<number>): void {
+  ddSqrInto(T, 0, z[0]!, z[1]!);
+  ddSqrInto(T, 2, z[2]!, z[3]!);
+  ddMulInto(z, 2, z[0]!, z[1]!, z[2]!, z[3]!);
+  z[2] = 2 * z[2]!;
+  z[3] = 2 * z[3]!;
+  ddAdd(z, 2, c[2]!, c[3]!);
+  z[0] = T[0]!;
+  z[1] = T[1]!;
+  ddAdd(z, 0, -T[2]!, -T[3]!);
+  ddAdd(z, 0, c[0]!, c[1]!);
+}
+
+/** d <- 2 z d in double-double. */
+function twiceMul(d: Float64Array, z: Float64Array): void {
+  ddMulInto(T, 0, z[0]!, z[1]!, d[0]!, d[1]!);
+  ddMulInto(T, 2, z[2]!, z[3]!, d[2]!, d[3]!);
+  ddMulInto(T, 4, z[0]!, z[1]!, d[2]!, d[3]!);
+  ddMulInto(T, 6, z[2]!, z[3]!, d[0]!, d[1]!);
+  ddAdd(T, 0, -T[2]!, -T[3]!);
+  ddAdd(T, 4, T[6]!, T[7]!);
+  d[0] = 2 * T[0]!;
+  d[1] = 2 * T[1]!;
+  d[2] = 2 * T[4]!;
+  d[3] = 2 * T[5]!;
+}
+
+/**
+ * The nucleus of exact period p near `start` in double-double, with its
+ * error bound; null when Newton does not settle, moves further than
+ * `reach`, or lands on a point of lower period.
+ */
+export function nucleusDD(period: number, start: DDComplex, reach: number): { c: DDComplex; err: number } | null {
+  const c = Float64Array.from(start);
+  const z = new Float64Array(4);
+  let prev = Infinity;
+  for (let step = 0; step < 12; step += 1) {
+    z.fill(0);
+    let dr = 0;
+    let di = 0;
+    let e = 0;
+    const cm = Math.abs(c[0]!) + Math.abs(c[2]!);
+    for (let k = 1; k <= period; k += 1) {
+      const zr = z[0]!;
+      const zi = z[2]!;
+      const ndr = 2 * (zr * dr - zi * di) + 1;
+      di = 2 * (zr * di + zi * dr);
+      dr = ndr;
+      const zm = Math.abs(zr) + Math.abs(zi);
+      sqrAdd(z, c);
+      e = (2 * zm + e) * e + U * (2 * zm * zm + cm + Math.abs(z[0]!) + Math.abs(z[2]!));
+      if (!(e < 1e-20)) return null;
+      if (k < period && period % k === 0 && Math.hypot(z[0]!, z[2]!) < 1e-12) return null;
+    }
+    const d2 = dr * dr + di * di;
+    if (!(d2 > 0)) return null;
+    const fr = z[0]! + z[1]!;
+    const fi = z[2]! + z[3]!;
+    const hr = (fr * dr + fi * di) / d2;
+    const hi = (fi * dr - fr * di) / d2;
+    ddAdd(c, 0, -hr, 0);
+    ddAdd(c, 2, -hi, 0);
+    const h = Math.hypot(hr, hi);
+    const bound = e / Math.sqrt(d2);
+    if (h <= 4 * bound + 1e-40 || (step >= 2 && h >= prev / 4)) {
+      if (!(Math.hypot(c[0]! - start[0], c[2]! - start[2]) <= reach)) return null;
+      return { c: [c[0]!, c[1]!, c[2]!, c[3]!], err: 4 * (h + bound) };
+    }
+    prev = h;
+  }
+  return null;
+}
+
+/** The nucleus of exact period p at `digits`, from a double-double start, or null (see the file comment). */
+export function fastNucleus(period: number, start: DDComplex, size: number, real: boolean, digits: number): { decimal: ComplexDecimal; c: DDComplex } | null {
+  const r = nucleusDD(period, real ? [start[0], start[1], 0, 0] : start, 1e-6 * size);
+  if (r === null || !(r.err < 1e-6 * size)) return null;
+  const decimal = formatComplexDD(r.c, r.err, digits, real);
+  return decimal === null ? null : { decimal, c: r.c };
+}
+
+/** log2 of the size estimate in doubles (docs/methods.md C4); finite for periods of a few dozen. */
+function log2SizeDouble(period: number, cr: number, ci: number): number {
+  let zr = 0;
+  let zi = 0;
+  let lr = 1;
+  let li = 0;
+  let br = 1;
+  let bi = 0;
+  for (let k = 1; k < period; k += 1) {
+    const nzr = zr * zr - zi * zi + cr;
+    zi = 2 * zr * zi + ci;
+    zr = nzr;
+    const nlr = 2 * (zr * lr - zi * li);
+    li = 2 * (zr * li + zi * lr);
+    lr = nlr;
+    const m = lr * lr + li * li;
+    if (!(m > 0) || !Number.isFinite(m)) return NaN;
+    br += lr / m;
+    bi -= li / m;
+  }
+  return -(Math.log2(Math.hypot(br, bi)) + 2 * Math.log2(Math.hypot(lr, li)));
+}
+
+type C = { re: number; im: number };
+
+/** Newton on (F^p(w,b) - w, D_z F^p(w,b) - t) in doubles (as boundary-point.ts solveDouble); false on failure. */
+function solveDouble(period: number, w: C, b: C, t: C, maxSteps: number): boolean {
+  let close = 0;
+  for (let step = 0; step < maxSteps; step += 1) {
+    let zr = w.re,
+      zi = w.im;
+    let dzr = 1,
+      dzi = 0,
+      dcr = 0,
+      dci = 0,
+      dzzr = 0,
+      dzzi = 0,
+      dczr = 0,
+      dczi = 0;
+    for (let k = 0; k < period; k += 1) {
+      const ndczr = 2 * (zr * dczr - zi * dczi + dcr * dzr - dci * dzi);
+      const ndczi = 2 * (zr * dczi + zi * dczr + dcr * dzi + dci * dzr);
+      const ndzzr = 2 * (zr * dzzr - zi * dzzi + dzr * dzr - dzi * dzi);
+      const ndzzi = 2 * (zr * dzzi + zi * dzzr + 2 * dzr * dzi);
+      const ndcr = 2 * (zr * dcr - zi * dci) + 1;
+      const ndci = 2 * (zr * dci + zi * dcr);
+      const ndzr = 2 * (zr * dzr - zi * dzi);
+      const ndzi = 2 * (zr * dzi + zi * dzr);
+      const nzr = zr * zr - zi * zi + b.re;
+      const nzi = 2 * zr * zi + b.im;
+      dczr = ndczr;
+      dczi = ndczi;
+      dzzr = ndzzr;
+      dzzi = ndzzi;
+      dcr = ndcr;
+      dci = ndci;
+      dzr = ndzr;
+      dzi = ndzi;
+      zr = nzr;
+      zi = nzi;
+      if (!(Math.abs(zr) + Math.abs(zi) < 1e8)) return false;
+    }
+    const f1r = zr - w.re,
+      f1i = zi - w.im;
+    const f2r = dzr - t.re,
+      f2i = dzi - t.im;
+    const mr = dzr - 1,
+      mi = dzi;
+    const detr = mr * dczr - mi * dczi - (dcr * dzzr - dci * dzzi);
+    const deti = mr * dczi + mi * dczr - (dcr * dzzi + dci * dzzr);
+    const d2 = detr * detr + deti * deti;
+    if (!(d2 > 0) || !Number.isFinite(d2)) return false;
+    const nbr = mr * f2r - mi * f2i - (dzzr * f1r - dzzi * f1i);
+    const nbi = mr * f2i + mi * f2r - (dzzr * f1i + dzzi * f1r);
+    const nwr = dczr * f1r - dczi * f1i - (dcr * f2r - dci * f2i);
+    const nwi = dczr * f1i + dczi * f1r - (dcr * f2i + dci * f2r);
+    const dbr = (nbr * detr + nbi * deti) / d2,
+      dbi = (nbi * detr - nbr * deti) / d2;
+    const dwr = (nwr * detr + nwi * deti) / d2,
+      dwi = (nwi * detr - nwr * deti) / d2;
+    if (!Number.isFinite(dbr + dbi + dwr + dwi)) return false;
+    b.re -= dbr;
+    b.im -= dbi;
+    w.re -= dwr;
+    w.im -= dwi;
+    const size = Math.max(Math.abs(dbr), Math.abs(dbi), Math.abs(dwr), Math.abs(dwi));
+    if (size <= 1e-12 * Math.max(1, Math.abs(b.re) + Math.abs(b.im))) {
+      close += 1;
+      if (close >= 2) return true;
+    }
+  }
+  return false;
+}
+
+/** The walk of boundary-point.ts in doubles from the nucleus to multiplier reach * t; false where a step fails (the caller falls back). */
+function walkDouble(period: number, nucleus: C, t: C, reach: number): { w: C; b: C } | null {
+  const w = { re: 0, im: 0 };
+  const b = { ...nucleus };
+  let done = 0;
+  let step = reach / WALK_STEPS;
+  while (done < reach) {
+    const f = Math.min(reach, done + step);
+    const wTry = { ...w };
+    const bTry = { ...b };
+    if (solveDouble(period, wTry, bTry, { re: t.re * f, im: t.im * f }, 60)) {
+      Object.assign(w, wTry);
+      Object.assign(b, bTry);
+      done = f;
+    } else {
+      step /= 2;
+      if (step < reach / (WALK_STEPS * 2 ** 10)) return null;
+    }
+  }
+  return { w, b };
+}
+
+/** e^{2 pi i num/den} in double-double: the double value polished by Newton on u^den = 1. */
+function unitRootDD(num: number, den: number): DDComplex {
+  const a = (2 * Math.PI * num) / den;
+  const u = Float64Array.of(Math.cos(a), 0, Math.sin(a), 0);
+  const pw = new Float64Array(4);
+  const s = new Float64Array(4);
+  for (let it = 0; it < 2; it += 1) {
+    pw.set([1, 0, 0, 0]);
+    for (let k = 1; k < den; k += 1) {
+      // pw <- pw u
+      ddMulInto(s, 0, pw[0]!, pw[1]!, u[0]!, u[1]!);
+      ddMulInto(T, 0, pw[2]!, pw[3]!, u[2]!, u[3]!);
+      ddAdd(s, 0, -T[0]!, -T[1]!);
+      ddMulInto(s, 2, pw[0]!, pw[1]!, u[2]!, u[3]!);
+      ddMulInto(T, 0, pw[2]!, pw[3]!, u[0]!, u[1]!);
+      ddAdd(s, 2, T[0]!, T[1]!);
+      pw.set(s);
+    }
+    // u^den - 1 = pw u - 1, then step = (pw u - 1) / (den pw) in doubles (it is tiny)
+    ddMulInto(s, 0, pw[0]!, pw[1]!, u[0]!, u[1]!);
+    ddMulInto(T, 0, pw[2]!, pw[3]!, u[2]!, u[3]!);
+    ddAdd(s, 0, -T[0]!, -T[1]!);
+    ddAdd(s, 0, -1, 0);
+    ddMulInto(s, 2, pw[0]!, pw[1]!, u[2]!, u[3]!);
+    ddMulInto(T, 0, pw[2]!, pw[3]!, u[0]!, u[1]!);
+    ddAdd(s, 2, T[0]!, T[1]!);
+    const rr = s[0]! + s[1]!;
+    const ri = s[2]! + s[3]!;
+    const pr = den * pw[0]!;
+    const pi = den * pw[2]!;
+    const m = pr * pr + pi * pi;
+    ddAdd(u, 0, -(rr * pr + ri * pi) / m, 0);
+    ddAdd(u, 2, -(ri * pr - rr * pi) / m, 0);
+  }
+  return [u[0]!, u[1]!, u[2]!, u[3]!];
+}
+
+/**
+ * Newton on (F^p(w,b) - w, D_z F^p(w,b) - t) with the residuals in
+ * double-double and the Jacobian in doubles, updating w and b in place.
+ * Stops when the step in b is below `tol`, or at the rounding floor (the
+ * step below 4 times the rounding bound, or no longer shrinking); returns
+ * the error bound of b (docs/methods.md C7), or null.
+ */
+function newtonDD(period: number, w: Float64Array, b: Float64Array, t: DDComplex, tol: number, maxSteps: number): number | null {
+  const z = new Float64Array(4);
+  const dz = new Float64Array(4);
+  let prev = Infinity;
+  for (let step = 0; step < maxSteps; step += 1) {
+    z.set(w);
+    dz.set([1, 0, 0, 0]);
+    let dcr = 0,
+      dci = 0,
+      dzzr = 0,
+      dzzi = 0,
+      dczr = 0,
+      dczi = 0;
+    let ez = 0;
+    let ed = 0;
+    const bm = Math.abs(b[0]!) + Math.abs(b[2]!);
+    for (let k = 0; k < period; k += 1) {
+      const zr = z[0]!,
+        zi = z[2]!,
+        dzr = dz[0]!,
+        dzi = dz[2]!;
+      const ndczr = 2 * (zr * dczr - zi * dczi + dcr * dzr - dci * dzi);
+      const ndczi = 2 * (zr * dczi + zi * dczr + dcr * dzi + dci * dzr);
+      const ndzzr = 2 * (zr * dzzr - zi * dzzi + dzr * dzr - dzi * dzi);
+      const ndzzi = 2 * (zr * dzzi + zi * dzzr + 2 * dzr * dzi);
+      const ndcr = 2 * (zr * dcr - zi * dci) + 1;
+      const ndci = 2 * (zr * dci + zi * dcr);
+      dczr = ndczr;
+      dczi = ndczi;
+      dzzr = ndzzr;
+      dzzi = ndzzi;
+      dcr = ndcr;
+      dci = ndci;
+      // |re| + |im| bounds the modulus from above (cheaper than hypot; the bound stays a bound)
+      const zm = Math.abs(zr) + Math.abs(zi);
+      const dm = Math.abs(dzr) + Math.abs(dzi);
+      ed = 2 * (zm * ed + dm * ez + ez * ed) + U * 4 * zm * dm;
+      twiceMul(dz, z);
+      sqrAdd(z, b);
+      ez = (2 * zm + ez) * ez + U * (2 * zm * zm + bm + Math.abs(z[0]!) + Math.abs(z[2]!));
+      if (!(ez < 1e-20 && ed < 1e-4 && zm < 1e4)) return null;
+    }
+    ddAdd(z, 0, -w[0]!, -w[1]!);
+    ddAdd(z, 2, -w[2]!, -w[3]!);
+    ddAdd(dz, 0, -t[0], -t[1]);
+    ddAdd(dz, 2, -t[2], -t[3]);
+    const f1r = z[0]! + z[1]!,
+      f1i = z[2]! + z[3]!;
+    const f2r = dz[0]! + dz[1]!,
+      f2i = dz[2]! + dz[3]!;
+    const dzr = f2r + t[0],
+      dzi = f2i + t[2];
+    const mr = dzr - 1,
+      mi = dzi;
+    const detr = mr * dczr - mi * dczi - (dcr * dzzr - dci * dzzi);
+    const deti = mr * dczi + mi * dczr - (dcr * dzzi + dci * dzzr);
+    const d2 = detr * detr + deti * deti;
+    if (!(d2 > 0) || !Number.isFinite(d2)) return null;
+    const nbr = mr * f2r - mi * f2i - (dzzr * f1r - dzzi * f1i);
+    const nbi = mr * f2i + mi * f2r - (dzzr * f1i + dzzi * f1r);
+    const nwr = dczr * f1r - dczi * f1i - (dcr * f2r - dci * f2i);
+    const nwi = dczr * f1i + dczi * f1r - (dcr * f2i + dci * f2r);
+    const dbr = (nbr * detr + nbi * deti) / d2,
+      dbi = (nbi * detr - nbr * deti) / d2;
+    const dwr = (nwr * detr + nwi * deti) / d2,
+      dwi = (nwi * detr - nwr * deti) / d2;
+    if (!Number.isFinite(dbr + dbi + dwr + dwi)) return null;
+    ddAdd(b, 0, -dbr, 0);
+    ddAdd(b, 2, -dbi, 0);
+    ddAdd(w, 0, -dwr, 0);
+    ddAdd(w, 2, -dwi, 0);
+    const h = Math.hypot(dbr, dbi);
+    // E through the inverse Jacobian's b row: (|dz - 1| (ed + |t| U) + |dzz| ez) / |det|
+    const bound = (Math.hypot(mr, mi) * (ed + U) + Math.hypot(dzzr, dzzi) * ez) / Math.sqrt(d2);
+    const hw = Math.hypot(dwr, dwi);
+    if ((h <= tol && hw <= 1e6 * tol) || (h <= 4 * bound + 1e-40 && hw <= 1e-26) || (step >= 2 && h >= prev / 4 && h < 1e-24)) return 4 * (h + bound);
+    prev = h;
+  }
+  return null;
+}
+
+/** The walk in double-double from the nucleus to multiplier reach * t, for components too small for doubles; (w, b) at the end, or null. */
+function walkDD(period: number, nucleus: DDComplex, t: C, reach: number, size: number): { w: C; b: C; wd: Float64Array; bd: Float64Array } | null {
+  const w = new Float64Array(4);
+  const b = Float64Array.from(nucleus);
+  const wTry = new Float64Array(4);
+  const bTry = new Float64Array(4);
+  let done = 0;
+  let step = reach / DD_WALK_STEPS;
+  while (done < reach) {
+    const f = Math.min(reach, done + step);
+    wTry.set(w);
+    bTry.set(b);
+    if (newtonDD(period, wTry, bTry, [t.re * f, 0, t.im * f, 0], 1e-8 * size, 60) !== null) {
+      w.set(wTry);
+      b.set(bTry);
+      done = f;
+    } else {
+      step /= 2;
+      if (step < reach / (WALK_STEPS * 2 ** 10)) return null;
+    }
+  }
+  return { w: { re: w[0]! + w[1]!, im: w[2]! + w[3]! }, b: { re: b[0]! + b[1]!, im: b[2]! + b[3]! }, wd: w, bd: b };
+}
+
+/**
+ * Near a root (b, with w on the p-cycle): the parent's period k and the
+ * internal angle r/q, as boundary-point.ts findParent does in BigInt; null
+ * for a primitive component.
+ */
+function findParentDouble(period: number, w: C, b: C): { k: number; r: number; q: number } | null {
+  for (let k = 1; k < period; k += 1) {
+    if (period % k !== 0) continue;
+    const q = period / k;
+    let ur = w.re;
+    let ui = w.im;
+    let mr = 1;
+    let mi = 0;
+    let ok = false;
+    for (let it = 0; it < 60; it += 1) {
+      let zr = ur;
+      let zi = ui;
+      let dr = 1;
+      let di = 0;
+      for (let j = 0; j < k; j += 1) {
+        const ndr = 2 * (zr * dr - zi * di);
+        di = 2 * (zr * di + zi * dr);
+        dr = ndr;
+        const nzr = zr * zr - zi * zi + b.re;
+        zi = 2 * zr * zi + b.im;
+        zr = nzr;
+      }
+      mr = dr;
+      mi = di;
+      const er = dr - 1;
+      const m = er * er + di * di;
+      if (!(m > 0)) break;
+      const fr = zr - ur;
+      const fi = zi - ui;
+      const sr = (fr * er + fi * di) / m;
+      const si = (fi * er - fr * di) / m;
+      if (!Number.isFinite(sr + si)) break;
+      ur -= sr;
+      ui -= si;
+      if (Math.max(Math.abs(sr), Math.abs(si)) <= 1e-13) {
+        ok = true;
+        break;
+      }
+    }
+    if (!ok) continue;
+    if (Math.abs(Math.hypot(mr, mi) - 1) > 0.05) continue;
+    let r = Math.round((Math.atan2(mi, mr) / (2 * Math.PI)) * q);
+    r = ((r % q) + q) % q;
+    if (r === 0 || gcd(r, q) !== 1) continue;
+    const expected = (2 * Math.PI * r) / q;
+    if (Math.hypot(mr - Math.cos(expected), mi - Math.sin(expected)) > 0.1) continue;
+    return { k, r, q };
+  }
+  return null;
+}
+
+function gcd(a: number, b: number): number {
+  while (b !== 0) [a, b] = [b, a % b];
+  return a;
+}
+
+/**
+ * Deflated Newton in doubles for the period-k nucleus from c (as nucleus.ts
+ * newtonNucleus: step 1 / (D/F - sum over proper divisors q of D_q/F_q)).
+ */
+function nucleusDouble(k: number, c: C): C | null {
+  const divisors = new Set(properDivisors(k));
+  let cr = c.re;
+  let ci = c.im;
+  for (let step = 0; step < 100; step += 1) {
+    let zr = 0,
+      zi = 0,
+      dr = 0,
+      di = 0,
+      lr = 0,
+      li = 0;
+    for (let j = 1; j <= k; j += 1) {
+      const ndr = 2 * (zr * dr - zi * di) + 1;
+      di = 2 * (zr * di + zi * dr);
+      dr = ndr;
+      const nzr = zr * zr - zi * zi + cr;
+      zi = 2 * zr * zi + ci;
+      zr = nzr;
+      if (!(Math.abs(zr) + Math.abs(zi) < 1e8)) return null;
+      if (j < k && divisors.has(j)) {
+        const m = zr * zr + zi * zi;
+        if (m > 0) {
+          lr += (dr * zr + di * zi) / m;
+          li += (di * zr - dr * zi) / m;
+        }
+      }
+    }
+    // step = z / (d - L z)
+    const er = dr - (lr * zr - li * zi);
+    const ei = di - (lr * zi + li * zr);
+    const m = er * er + ei * ei;
+    if (!(m > 0)) return zr === 0 && zi === 0 ? { re: cr, im: ci } : null;
+    const hr = (zr * er + zi * ei) / m;
+    const hi = (zi * er - zr * ei) / m;
+    cr -= hr;
+    ci -= hi;
+    if (Math.hypot(hr, hi) <= 1e-15 * Math.max(1, Math.hypot(cr, ci))) return { re: cr, im: ci };
+  }
+  return null;
+}
+
+/** Components at least 1e-9 across are walked in doubles (as boundary-point.ts), down to 1e-18 in double-double; smaller ones go to BigInt. */
+const DOUBLE_WALK_DIGITS = 9;
+const DD_WALK_DIGITS = 18;
+
+/**
+ * The root and, for a satellite, the parent of the component of `period`
+ * with this double-double nucleus, at `digits`; null where the fast path
+ * cannot vouch for the digits (the caller then runs componentRoot).
+ */
+export function fastRoot(period: number, nucleus: DDComplex, digits: number): { root: ComplexDecimal; parent: Attachment | null } | null {
+  const c = { re: nucleus[0] + nucleus[1], im: nucleus[2] + nucleus[3] };
+  const log2size = log2SizeDouble(period, c.re, c.im);
+  const walk = walkTo(period, nucleus, { re: 1, im: 0 }, 0.999, log2size);
+  if (walk === null) return null;
+  const found = findParentDouble(period, walk.w, walk.b);
+  if (found !== null) {
+    const pd = nucleusDouble(found.k, walk.b);
+    if (pd === null) return null;
+    const pn = fastNucleus(found.k, [pd.re, 0, pd.im, 0], found.k === 1 ? 1 : 2 ** log2SizeDouble(found.k, pd.re, pd.im), c.im === 0 && pd.im === 0, digits);
+    if (pn === null) return null;
+    const pc = { re: pn.c[0] + pn.c[1], im: pn.c[2] + pn.c[3] };
+    const plog = found.k === 1 ? 0 : log2SizeDouble(found.k, pc.re, pc.im);
+    // e^{i pi} = -1 exactly (sin(pi) in doubles is 1.2e-16, which would take a real root off the axis)
+    const a = (2 * Math.PI * found.r) / found.q;
+    const t: DDComplex = found.q === 2 ? [-1, 0, 0, 0] : unitRootDD(found.r, found.q);
+    const pw = walkTo(found.k, pn.c, found.q === 2 ? { re: -1, im: 0 } : { re: Math.cos(a), im: Math.sin(a) }, 1, plog);
+    if (pw === null) return null;
+    const err = newtonDD(found.k, pw.wd, pw.bd, t, 0, 20);
+    if (err === null || !(err < 1e-6 * 2 ** plog)) return null;
+    const root = formatComplexDD(ddOf(pw.bd), err, digits, c.im === 0 && pc.im === 0 && found.q === 2);
+    if (root === null) return null;
+    return { root, parent: { period: found.k, nucleus: pn.decimal, num: found.r, den: found.q } };
+  }
+  // the root's system is singular at t = 1 only for satellites; a primitive root is regular
+  const err = newtonDD(period, walk.wd, walk.bd, [1, 0, 0, 0], 0, 60);
+  if (err === null || !(err < 1e-6 * 2 ** log2size)) return null;
+  const root = formatComplexDD(ddOf(walk.bd), err, digits, c.im === 0);
+  return root === null ? null : { root, parent: null };
+}
+
+function ddOf(a: Float64Array): DDComplex {
+  return [a[0]!, a[1]!, a[2]!, a[3]!];
+}
+
+/** The walk from the nucleus to reach * t: in doubles for components of 1e-9 and more, in double-double down to 1e-18, else null. */
+function walkTo(period: number, nucleus: DDComplex, t: C, reach: number, log2size: number): { w: C; b: C; wd: Float64Array; bd: Float64Array } | null {
+  if (!Number.isFinite(log2size)) return null;
+  const depth = Math.ceil(-log2size / Math.log2(10));
+  if (depth > DD_WALK_DIGITS) return null;
+  if (depth > DOUBLE_WALK_DIGITS) return walkDD(period, nucleus, t, reach, 2 ** log2size);
+  const r = walkDouble(period, { re: nucleus[0] + nucleus[1], im: nucleus[2] + nucleus[3] }, t, reach);
+  return r === null ? null : { ...r, wd: Float64Array.of(r.w.re, 0, r.w.im, 0), bd: Float64Array.of(r.b.re, 0, r.b.im, 0) };
+}
