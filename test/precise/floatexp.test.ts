@@ -96,6 +96,12 @@ describe('floatexp arithmetic against decimal.js over 1e-1000..1e1000', () => {
     expect(exponentOf(0.5)).toBe(0);
     expect(exponentOf(5e-324)).toBe(-1073);
     expect(exponentOf(-Number.MAX_VALUE)).toBe(1024);
+    // the definition 2^(e-1) <= |x| < 2^e at every normal power of two and the double just below it
+    for (let e = -1020; e <= 1023; e += 1) {
+      const p = new D(2).pow(e - 1).toNumber();
+      expect(exponentOf(p), `2^${e - 1}`).toBe(e);
+      expect(exponentOf(-p * (1 - 2 ** -53)), `below 2^${e - 1}`).toBe(e - 1);
+    }
   });
 
   it('pow2 is 2^e exactly from the least subnormal to the largest power (IEEE 754 binary64)', () => {
