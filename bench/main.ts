@@ -10,6 +10,7 @@ import { kernelSection } from './kernel-section.js';
 import { plateSection, posterSection } from './plate-section.js';
 import { deepSection } from './deep-section.js';
 import { deepAutoSection } from './deep-auto-section.js';
+import { deepCopySection } from './deep-copy-section.js';
 import { pyramidSection } from './pyramid-section.js';
 import { componentsSection } from './components-section.js';
 import { sliceSection } from './slice-section.js';
@@ -32,6 +33,7 @@ export const SECTIONS: readonly BenchSection[] = [
   juliaSection,
   deepSection,
   deepAutoSection,
+  deepCopySection,
   componentsSection,
   certifySection,
   sliceSection,

@@ -22,11 +22,38 @@ export function floatExp(x = 0): FloatExp {
   return fromNumber({ m: 0, e: 0 }, x);
 }
 
+/** A double and its two 32-bit words, for reading the exponent field. */
+const BITS_F64 = new Float64Array(1);
+const BITS_U32 = new Uint32Array(BITS_F64.buffer);
+/** Index of the word holding sign and exponent (1 on little-endian machines). */
+const HIGH_WORD = (() => {
+  BITS_F64[0] = 1;
+  return BITS_U32[1] === 0x3ff00000 ? 1 : 0;
+})();
+
+/** Offset of 2^0 in POW2. */
+const POW2_BIAS = 1074;
+
+/** POW2[e + 1074] = 2^e exactly, for every integer e from -1074 (the least subnormal) to 1023. */
+const POW2 = (() => {
+  const t = new Float64Array(1074 + 1024);
+  for (let e = -1074; e <= 1023; e += 1) t[e + POW2_BIAS] = 2 ** e;
+  return t;
+})();
+
+/** 2^e exactly for an integer e from -1074 to 1023 (a table lookup; outside that range, 2 ** e). */
+export function pow2(e: number): number {
+  return e >= -1074 && e <= 1023 && (e | 0) === e ? POW2[e + POW2_BIAS]! : 2 ** e;
+}
+
 /**
  * x * 2^e for any integer e, without overflow or underflow in the power
  * itself (the result over/underflows only if the true value does).
  */
 export function ldexp(x: number, e: number): number {
+  // the common case: one multiplication by a tabled power (V8's 2 ** e is a
+  // general pow call, several times slower than the lookup)
+  if (e >= -1000 && e <= 1000 && (e | 0) === e) return x * POW2[e + POW2_BIAS]!;
   while (e > 1000) {
     x *= 2 ** 1000;
     e -= 1000;
@@ -46,6 +73,10 @@ export function ldexp(x: number, e: number): number {
  */
 export function exponentOf(x: number): number {
   if (x === 0 || !Number.isFinite(x)) return 0;
+  // normal doubles: the biased exponent field (IEEE 754 binary64) is e + 1022
+  BITS_F64[0] = x;
+  const field = (BITS_U32[HIGH_WORD]! >>> 20) & 0x7ff;
+  if (field !== 0) return field - 1022;
   const a = Math.abs(x);
   let e = Math.floor(Math.log2(a)) + 1;
   // log2 may be off by one near powers of two; correct exactly.

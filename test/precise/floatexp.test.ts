@@ -1,6 +1,6 @@
 import { describe, expect, it } from 'vitest';
 import { Decimal } from 'decimal.js';
-import { add, compare, div, exponentOf, floatExp, fromDecimalString, ldexp, mul, set, sqrt, sub, toNumber } from '../../src/precise/floatexp.js';
+import { add, compare, div, exponentOf, floatExp, fromDecimalString, ldexp, mul, pow2, set, sqrt, sub, toNumber } from '../../src/precise/floatexp.js';
 import type { FloatExp } from '../../src/precise/floatexp.js';
 
 // decimal.js (npm) is the independent reference; 60 digits is far beyond a double.
@@ -96,5 +96,24 @@ describe('floatexp arithmetic against decimal.js over 1e-1000..1e1000', () => {
     expect(exponentOf(0.5)).toBe(0);
     expect(exponentOf(5e-324)).toBe(-1073);
     expect(exponentOf(-Number.MAX_VALUE)).toBe(1024);
+    // the definition 2^(e-1) <= |x| < 2^e at every normal power of two and the double just below it
+    for (let e = -1020; e <= 1023; e += 1) {
+      const p = new D(2).pow(e - 1).toNumber();
+      expect(exponentOf(p), `2^${e - 1}`).toBe(e);
+      expect(exponentOf(-p * (1 - 2 ** -53)), `below 2^${e - 1}`).toBe(e - 1);
+    }
+  });
+
+  it('pow2 is 2^e exactly from the least subnormal to the largest power (IEEE 754 binary64)', () => {
+    for (let e = -1074; e <= 1023; e += 1) {
+      // decimal.js: 2^e to 60 digits, parsed to the nearest double, is 2^e
+      const ref = e >= 0 ? new D((2n ** BigInt(e)).toString()) : new D(1).div(new D((2n ** BigInt(-e)).toString()));
+      expect(pow2(e), `2^${e}`).toBe(ref.toNumber());
+    }
+    // ldexp through the table equals repeated doubling and halving (exact powers of two)
+    let x = 3;
+    for (let e = 0; e <= 1000; e += 1, x *= 2) expect(ldexp(3, e)).toBe(x);
+    x = 3;
+    for (let e = 0; e >= -1000; e -= 1, x /= 2) expect(ldexp(3, e)).toBe(x);
   });
 });

@@ -23,9 +23,12 @@
  * 1e-300. Radii are computed in logarithms: log2(2^a - 2^b) for the
  * subtractions. The table is plain data (typed arrays) for workers, like
  * the reference orbit.
- * Each entry also records the smallest |Z| among the iterates it skips
+ * Each entry also records the smallest |Z| among the iterates it skips over
  * (`minNorm`, at offset `minAt`), so that atom-domain period candidates are
- * not lost inside a skip.
+ * not lost inside a skip. The iterate a skip lands on is not among them: the
+ * kernel tests it after the skip as after a single step, so a skip may end
+ * at the reference's pass near 0 (for a nucleus reference, Z_p = 0 ends
+ * every cycle) and one entry covers a whole cycle.
  */
 import type { ReferenceOrbit } from '../../precise/reference-orbit.js';
 import { exponentOf, ldexp } from '../../precise/floatexp.js';
@@ -58,7 +61,10 @@ export interface BlaTable {
   readonly logRadius: Float64Array;
   /** l: iterations skipped by the entry. */
   readonly skip: Int32Array;
-  /** min over t = 1..l of |Z_{m+t}|^2, and the t where it occurs. */
+  /**
+   * min over t = 1..l-1 of |Z_{m+t}|^2 (the iterates passed over; Infinity
+   * for a single step), and the t where it first occurs (0 for none).
+   */
   readonly minNorm: Float64Array;
   readonly minAt: Int32Array;
   readonly epsilon: number;
@@ -119,8 +125,8 @@ export function buildBlaTable(orbit: ReferenceOrbit, unitExponent: number, delta
     const la = Math.log2(Math.hypot(ar, ai));
     logRadius[i] = logSubtract(logEps + la, logC - la);
     skip[i] = 1;
-    minNorm[i] = re[m + 1]! * re[m + 1]! + im[m + 1]! * im[m + 1]!;
-    minAt[i] = 1;
+    minNorm[i] = Infinity;
+    minAt[i] = 0;
   }
   for (let j = 1; j < levels; j++) {
     const src = offsets[j - 1]!;
@@ -187,13 +193,21 @@ export function buildBlaTable(orbit: ReferenceOrbit, unitExponent: number, delta
       const lr = r < rx ? r : rx;
       logRadius[d] = Number.isNaN(lr) ? -Infinity : lr;
       skip[d] = skip[x]! + skip[y]!;
-      if (minNorm[y]! < minNorm[x]!) {
-        minNorm[d] = minNorm[y]!;
-        minAt[d] = skip[x]! + minAt[y]!;
-      } else {
-        minNorm[d] = minNorm[x]!;
-        minAt[d] = minAt[x]!;
+      // passed over: those of x, the iterate x lands on (Z at 1 + i 2^j + l_x), those of y; the first minimum
+      const land = 1 + i * 2 ** j + skip[x]!;
+      const nl = re[land]! * re[land]! + im[land]! * im[land]!;
+      let mn = minNorm[x]!,
+        at = minAt[x]!;
+      if (nl < mn) {
+        mn = nl;
+        at = skip[x]!;
       }
+      if (minNorm[y]! < mn) {
+        mn = minNorm[y]!;
+        at = skip[x]! + minAt[y]!;
+      }
+      minNorm[d] = mn;
+      minAt[d] = at;
     }
   }
   const bTileRe = new Float64Array(total);

@@ -5,7 +5,7 @@
  * for the interior (A4). See sample-deep.ts for the method and its sources.
  */
 import type { BlaTable } from './bla-table.js';
-import { exponentOf, ldexp } from '../../precise/floatexp.js';
+import { exponentOf, ldexp, pow2 } from '../../precise/floatexp.js';
 import {
   DLI,
   DLR,
@@ -123,7 +123,7 @@ export function run(o: Orbit, bla: BlaTable | null, st: Float64Array, stopAt: nu
             ur = br;
             ui = bi;
             if (fe >= -1022 && fe <= 1023) {
-              const f = 2 ** fe;
+              const f = pow2(fe);
               cr *= f;
               ci *= f;
               ur *= f;

@@ -46,8 +46,9 @@ describe('buildBlaTable', () => {
           zi = 2 * im[m + t]!;
         [ar, ai] = [zr * ar - zi * ai, zr * ai + zi * ar];
         [br, bi] = [zr * br - zi * bi + 1, zr * bi + zi * br];
+        // the iterates passed over, t + 1 < l (the landing iterate is tested after the skip)
         const n2 = re[m + t + 1]! ** 2 + im[m + t + 1]! ** 2;
-        if (n2 < minNorm) {
+        if (t + 1 < table.skip[e]! && n2 < minNorm) {
           minNorm = n2;
           minAt = t + 1;
         }
