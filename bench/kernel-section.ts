@@ -65,7 +65,7 @@ function row(label: string, iterations: number, seconds: number, yardstick: numb
   };
 }
 
-function runC(context: BenchContext, flags: readonly string[]): CReport | undefined {
+function runC(context: BenchContext, flags: readonly string[], runs = 3): CReport | undefined {
   const source = cReferenceSource(context.root);
   if (!existsSync(source)) {
     context.note(`C reference skipped: ${source} not found`);
@@ -75,7 +75,7 @@ function runC(context: BenchContext, flags: readonly string[]): CReport | undefi
     context.note('C reference skipped: no C compiler (cc)');
     return undefined;
   }
-  return runCReference(source, flags, W, N, 3);
+  return runCReference(source, flags, W, N, runs);
 }
 
 /**
@@ -120,6 +120,28 @@ export const kernelSection: BenchSection = {
       if (wasm.total !== UNFUSED_TOTAL) throw new Error(`WASM loop counted ${wasm.total}, expected ${UNFUSED_TOTAL}`);
       rows.push(row('WASM SIMD loop (4 x f64x2)', wasm.total, wasm.seconds, yardstick));
       context.note(`WASM / JS = ${(js.seconds / wasm.seconds).toFixed(2)}`);
+      if (unfused !== undefined && native !== undefined) {
+        // Paired runs, each one pass of every loop in turn, so load drifts alike: the issue's ratios, median of 5 with min and max.
+        const toUnfused: number[] = [];
+        const toFused: number[] = [];
+        for (let r = 0; r < 5; r++) {
+          const u = runC(context, UNFUSED_FLAGS, 1)!;
+          const f = runC(context, NATIVE_FLAGS, 1)!;
+          const t0 = process.hrtime.bigint();
+          gridTotal(wasmLoop);
+          const w = Number(process.hrtime.bigint() - t0) / 1e9;
+          toUnfused.push(u.vector.seconds / w);
+          toFused.push(f.vector.seconds / w);
+        }
+        const spread = (v: number[]): { median: number; min: number; max: number } => {
+          const x = [...v].sort((a, b) => a - b);
+          return { median: x[2]!, min: x[0]!, max: x[4]! };
+        };
+        const a = spread(toUnfused);
+        const b = spread(toFused);
+        rows.push({ label: 'WASM / C vector -ffp-contract=off, 5 paired runs', figures: { median: a.median, min: a.min, max: a.max } });
+        rows.push({ label: 'WASM / C vector with FMA, 5 paired runs', figures: { median: b.median, min: b.min, max: b.max } });
+      }
     }
     context.note('JS and WASM: warm-up pass, then best of 3; C: best of 3 runs of escape-ref (each one pass per loop); all wall-clock time on one thread');
     context.note(`load average at the end: ${loadavg()[0]!.toFixed(2)} (figures from a busy machine are low and noisy)`);
