@@ -23,14 +23,27 @@ export interface FastNucleus {
   size: number;
 }
 
-/** |s| of the size estimate at c (docs/methods.md C4, Hunt & Ott 1997), in double. */
-export function sizeModulusDouble(period: number, cr: number, ci: number): number {
+/** The sums of the size estimate at c (docs/methods.md C4): beta = sum of 1/lambda_k and lambda = lambda_p, in double. */
+export interface SizeTerms {
+  br: number;
+  bi: number;
+  lr: number;
+  li: number;
+}
+
+/**
+ * The recurrence of the size estimate (docs/methods.md C4, Hunt & Ott 1997)
+ * in double, into `out`; returns false when some |lambda_k|^2 was 0 or not
+ * finite (the sums are then not to be trusted).
+ */
+export function sizeTerms(period: number, cr: number, ci: number, out: SizeTerms): boolean {
   let zr = 0;
   let zi = 0;
   let lr = 1;
   let li = 0;
   let br = 1;
   let bi = 0;
+  let ok = true;
   for (let k = 1; k < period; k += 1) {
     const nzr = zr * zr - zi * zi + cr;
     zi = 2 * zr * zi + ci;
@@ -39,9 +52,23 @@ export function sizeModulusDouble(period: number, cr: number, ci: number): numbe
     li = 2 * (zr * li + zi * lr);
     lr = nlr;
     const m = lr * lr + li * li;
+    if (!(m > 0) || !Number.isFinite(m)) ok = false;
     br += lr / m;
     bi -= li / m;
   }
+  out.br = br;
+  out.bi = bi;
+  out.lr = lr;
+  out.li = li;
+  return ok;
+}
+
+const terms: SizeTerms = { br: 0, bi: 0, lr: 0, li: 0 };
+
+/** |s| of the size estimate at c (docs/methods.md C4, Hunt & Ott 1997), in double. */
+export function sizeModulusDouble(period: number, cr: number, ci: number): number {
+  sizeTerms(period, cr, ci, terms);
+  const { br, bi, lr, li } = terms;
   return 1 / (Math.hypot(br, bi) * (lr * lr + li * li));
 }
 

@@ -26,6 +26,7 @@ import type { Attachment } from './boundary-point.js';
 import { formatReal, type ComplexDecimal } from './nucleus.js';
 import { properDivisors } from './periodic-angles.js';
 import { ddAdd, ddMulInto, ddSqrInto } from './double-double.js';
+import { sizeTerms, type SizeTerms } from './fast-nucleus.js';
 
 /** A complex double-double: re hi, re lo, im hi, im lo. */
 export type DDComplex = [number, number, number, number];
@@ -157,28 +158,13 @@ export function fastNucleus(period: number, start: DDComplex, size: number, real
   return decimal === null ? null : { decimal, c: r.c };
 }
 
-/** log2 of the size estimate in doubles (docs/methods.md C4); finite for periods of a few dozen. */
+/** log2 of the size estimate in doubles (docs/methods.md C4; the recurrence of sizeTerms), NaN when it degenerates. */
 function log2SizeDouble(period: number, cr: number, ci: number): number {
-  let zr = 0;
-  let zi = 0;
-  let lr = 1;
-  let li = 0;
-  let br = 1;
-  let bi = 0;
-  for (let k = 1; k < period; k += 1) {
-    const nzr = zr * zr - zi * zi + cr;
-    zi = 2 * zr * zi + ci;
-    zr = nzr;
-    const nlr = 2 * (zr * lr - zi * li);
-    li = 2 * (zr * li + zi * lr);
-    lr = nlr;
-    const m = lr * lr + li * li;
-    if (!(m > 0) || !Number.isFinite(m)) return NaN;
-    br += lr / m;
-    bi -= li / m;
-  }
-  return -(Math.log2(Math.hypot(br, bi)) + 2 * Math.log2(Math.hypot(lr, li)));
+  if (!sizeTerms(period, cr, ci, terms)) return NaN;
+  return -(Math.log2(Math.hypot(terms.br, terms.bi)) + 2 * Math.log2(Math.hypot(terms.lr, terms.li)));
 }
+
+const terms: SizeTerms = { br: 0, bi: 0, lr: 0, li: 0 };
 
 type C = { re: number; im: number };
 
