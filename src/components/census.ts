@@ -71,6 +71,9 @@ export interface CensusOptions {
   readonly angleRange?: { readonly from: number; readonly to: number };
 }
 
+/** Rounds of careful re-landing at most (each round only lands suspects not landed carefully before). */
+const CAREFUL_ROUNDS = 4;
+
 /** Largest period the census accepts (angles are numerators below 2^p fitting a double exactly). */
 export const MAX_CENSUS_PERIOD = 30;
 
@@ -107,11 +110,20 @@ export async function census(period: number, options: CensusOptions = {}): Promi
   const records = await landAll(period, lo, false, options);
   let found = distinctNuclei(period, lo, hi, records);
   let relanded = 0;
-  if (found.suspects.length > 0) {
-    const redo = Float64Array.from(found.suspects, (i) => lo[i]!);
+  // Re-land suspects in careful mode until none is left that was not landed carefully: a careful
+  // re-landing can move a ray onto the nucleus a fast-landed pair took wrongly (period 21, pairs
+  // 699029/699030 and 699033/699034 over 2^21 - 1), which only the next round catches.
+  const careful = new Uint8Array(lo.length);
+  for (let round = 0; round < CAREFUL_ROUNDS; round += 1) {
+    const todo = found.suspects.filter((i) => careful[i] === 0);
+    if (todo.length === 0) break;
+    const redo = Float64Array.from(todo, (i) => lo[i]!);
     const again = await landAll(period, redo, true, { workers: options.workers ?? 0 });
-    relanded = redo.length;
-    found.suspects.forEach((i, j) => records.set(again.subarray(j * RAY_RECORD, (j + 1) * RAY_RECORD), i * RAY_RECORD));
+    relanded += redo.length;
+    todo.forEach((i, j) => {
+      careful[i] = 1;
+      records.set(again.subarray(j * RAY_RECORD, (j + 1) * RAY_RECORD), i * RAY_RECORD);
+    });
     found = distinctNuclei(period, lo, hi, records);
   }
   const stats = new CensusStatisticsAccumulator(period);
