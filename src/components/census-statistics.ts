@@ -58,6 +58,33 @@ export function satelliteParentPeriod(period: number, lo: number, hi: number): n
   return 0;
 }
 
+/**
+ * Where a satellite hangs, from its angle pair alone: the parent's period k
+ * (satelliteParentPeriod) and the internal angle r/q, q = p/k, or null for a
+ * primitive component. The q rays 2^(km) lo (m = 0..q-1) land together at the
+ * characteristic point of the root, and the k-th iterate of doubling moves
+ * them round in circular order by r places: the combinatorial rotation number
+ * r/q, which is the internal angle of the root on the parent (the parent's
+ * k-cycle has multiplier e^(2 pi i r/q) there; Milnor, "Periodic orbits,
+ * external rays and the Mandelbrot set", 2000, section 2; docs/methods.md C6).
+ */
+export function satelliteAttachment(period: number, lo: number, hi: number): { k: number; r: number; q: number } | null {
+  const k = satelliteParentPeriod(period, lo, hi);
+  if (k === 0) return null;
+  const den = 2 ** period - 1;
+  const q = period / k;
+  const rays: number[] = [];
+  let n = lo;
+  for (let m = 0; m < q; m++) {
+    rays.push(n);
+    for (let j = 0; j < k; j++) n = 2 * n >= den ? 2 * n - den : 2 * n;
+  }
+  // rays[1] is the image of lo under the k-th iterate; its place after lo's in circular order is r
+  const sorted = [...rays].sort((a, b) => a - b);
+  const r = (((sorted.indexOf(rays[1]!) - sorted.indexOf(lo)) % q) + q) % q;
+  return { k, r, q };
+}
+
 /** Estimated area of a component of size estimate `size`: (3 pi / 8) s^2 for a primitive one, (pi / 4) s^2 for a satellite (docs/methods.md C6). */
 export function componentAreaEstimate(size: number, satellite: boolean): number {
   return (satellite ? Math.PI / 4 : (3 * Math.PI) / 8) * size * size;

@@ -10,7 +10,7 @@ import type { CensusComponent } from './census.js';
 import type { Angle } from './external-angle.js';
 import { addressOfAngle } from './internal-address.js';
 import type { ComplexDecimal } from './nucleus.js';
-import { sizeEstimateScaled } from './size-estimate.js';
+import { sizeEstimateScaled, type SizeEstimateScaled } from './size-estimate.js';
 
 export interface ComponentInfo {
   period: number;
@@ -58,9 +58,10 @@ export async function componentInfo(
   digits: number,
   angles?: Angle[],
   known?: { root: ComplexDecimal; parent: Attachment | null },
+  knownSize?: SizeEstimateScaled | null,
 ): Promise<ComponentInfo> {
   const { root, parent } = known ?? componentRoot(period, nucleus, digits);
-  const size = sizeEstimateScaled(period, nucleus);
+  const size = knownSize ?? sizeEstimateScaled(period, nucleus);
   let found: Angle[] | null = angles ?? null;
   if (found === null && period <= ANGLE_CENSUS_LIMIT) {
     const c = nearestCensus((await census(period)).components, Number(nucleus.re), Number(nucleus.im));

@@ -27,6 +27,7 @@ import { formatReal, type ComplexDecimal } from './nucleus.js';
 import { properDivisors } from './periodic-angles.js';
 import { ddAdd, ddMulInto, ddSqrInto } from './double-double.js';
 import { sizeTerms, type SizeTerms } from './fast-nucleus.js';
+import { sizeEstimateOfOrbit, type SizeEstimateScaled } from './size-estimate.js';
 
 /** A complex double-double: re hi, re lo, im hi, im lo. */
 export type DDComplex = [number, number, number, number];
@@ -523,12 +524,22 @@ const DD_WALK_DIGITS = 18;
  * with this double-double nucleus, at `digits`; null where the fast path
  * cannot vouch for the digits (the caller then runs componentRoot).
  */
-export function fastRoot(period: number, nucleus: DDComplex, digits: number): { root: ComplexDecimal; parent: Attachment | null } | null {
+export function fastRoot(
+  period: number,
+  nucleus: DDComplex,
+  digits: number,
+  expected?: { k: number; r: number; q: number } | null,
+): { root: ComplexDecimal; parent: Attachment | null } | null {
   const c = { re: nucleus[0] + nucleus[1], im: nucleus[2] + nucleus[3] };
+  if (expected === null) {
+    const direct = primitiveRoot(period, nucleus, digits);
+    if (direct !== null) return direct;
+  }
   const log2size = log2SizeDouble(period, c.re, c.im);
   const walk = walkTo(period, nucleus, { re: 1, im: 0 }, 0.999, log2size);
   if (walk === null) return null;
-  const found = findParentDouble(period, walk.w, walk.b);
+  const found = expected === undefined ? findParentDouble(period, walk.w, walk.b) : expected;
+  const size = 2 ** log2size;
   if (found !== null) {
     const pd = nucleusDouble(found.k, walk.b);
     if (pd === null) return null;
@@ -543,14 +554,76 @@ export function fastRoot(period: number, nucleus: DDComplex, digits: number): { 
     if (pw === null) return null;
     const err = newtonDD(found.k, pw.wd, pw.bd, t, 0, 20);
     if (err === null || !(err < 1e-6 * 2 ** plog)) return null;
+    if (!rootNearNucleus(pw.bd, nucleus, size)) return null;
     const root = formatComplexDD(ddOf(pw.bd), err, digits, c.im === 0 && pc.im === 0 && found.q === 2);
     if (root === null) return null;
     return { root, parent: { period: found.k, nucleus: pn.decimal, num: found.r, den: found.q } };
   }
   // the root's system is singular at t = 1 only for satellites; a primitive root is regular
   const err = newtonDD(period, walk.wd, walk.bd, [1, 0, 0, 0], 0, 60);
-  if (err === null || !(err < 1e-6 * 2 ** log2size)) return null;
+  if (err === null || !(err < 1e-6 * size) || !rootNearNucleus(walk.bd, nucleus, size)) return null;
   const root = formatComplexDD(ddOf(walk.bd), err, digits, c.im === 0);
+  return root === null ? null : { root, parent: null };
+}
+
+/**
+ * A root belongs to the component when it lies between 1/64 and 8 times the
+ * size estimate from the nucleus. Measured over the listings of periods 16
+ * and 18 (every row whose walk stayed on its component): primitive roots lie
+ * 0.25 |s| from the nucleus (median; the affine copy of the cardioid puts the
+ * cusp at s/4), at most 4 |s|; satellite roots 0.5 |s| (median), at most
+ * 0.5 |s| for the rows whose attachment agreed with the angles. Walks that
+ * jumped to a neighbour's root were 5e4 to 1e7 |s| away.
+ */
+function rootNearNucleus(b: Float64Array, nucleus: DDComplex, size: number): boolean {
+  const dr = b[0]! - nucleus[0] + (b[1]! - nucleus[1]);
+  const di = b[2]! - nucleus[2] + (b[3]! - nucleus[3]);
+  const d = Math.hypot(dr, di);
+  return d >= size / 64 && d <= 8 * size;
+}
+
+/**
+ * The root of a primitive component without the walk (docs/methods.md C7):
+ * near its nucleus c0 the p-th iterate is, to first order, the quadratic map
+ * in the renormalised coordinates Z = lambda z, C = lambda^2 beta (c - c0)
+ * (lambda = lambda_(p-1), beta = sum 1/lambda_k: the terms of the Hunt-Ott
+ * size estimate s = 1 / (beta lambda^2), docs/methods.md C4), whose cardioid
+ * has its cusp at C = 1/4 with the fixed point Z = 1/2. So Newton on
+ * (F^p(w,b) - w, D_z F^p(w,b) - 1) starts at b = c0 + s/4, w = 1/(2 lambda):
+ * in doubles and polished in double-double for components of 1e-9 and more,
+ * in double-double from the start below that. Null when Newton fails or the
+ * root is not near the nucleus (rootNearNucleus); the caller then walks.
+ */
+function primitiveRoot(period: number, nucleus: DDComplex, digits: number): { root: ComplexDecimal; parent: null } | null {
+  const cr = nucleus[0] + nucleus[1];
+  const ci = nucleus[2] + nucleus[3];
+  if (!sizeTerms(period, cr, ci, terms)) return null;
+  const { br, bi, lr, li } = terms;
+  // beta lambda^2, then s = 1 / that and w = 1 / (2 lambda)
+  const l2r = lr * lr - li * li;
+  const l2i = 2 * lr * li;
+  const qr = br * l2r - bi * l2i;
+  const qi = br * l2i + bi * l2r;
+  const qm = qr * qr + qi * qi;
+  const sr = qr / qm;
+  const si = -qi / qm;
+  const size = Math.hypot(sr, si);
+  const lm = 2 * (lr * lr + li * li);
+  if (!(size > 0 && Number.isFinite(size) && lm > 0 && Number.isFinite(lm))) return null;
+  const wd = Float64Array.of(lr / lm, 0, -li / lm, 0);
+  const bd = Float64Array.from(nucleus);
+  ddAdd(bd, 0, sr / 4, 0);
+  ddAdd(bd, 2, si / 4, 0);
+  if (size >= 1e-9) {
+    const w = { re: wd[0]!, im: wd[2]! };
+    const b = { re: bd[0]! + bd[1]!, im: bd[2]! + bd[3]! };
+    if (!solveDouble(period, w, b, { re: 1, im: 0 }, 40)) return null;
+    wd.set([w.re, 0, w.im, 0]);
+    bd.set([b.re, 0, b.im, 0]);
+  }
+  const err = newtonDD(period, wd, bd, [1, 0, 0, 0], 0, 60);
+  if (err === null || !(err < 1e-6 * size) || !rootNearNucleus(bd, nucleus, size)) return null;
+  const root = formatComplexDD(ddOf(bd), err, digits, ci === 0);
   return root === null ? null : { root, parent: null };
 }
 
@@ -567,3 +640,25 @@ function walkTo(period: number, nucleus: DDComplex, t: C, reach: number, log2siz
   const r = walkDouble(period, { re: nucleus[0] + nucleus[1], im: nucleus[2] + nucleus[3] }, t, reach);
   return r === null ? null : { ...r, wd: Float64Array.of(r.w.re, 0, r.w.im, 0), bd: Float64Array.of(r.b.re, 0, r.b.im, 0) };
 }
+
+/**
+ * Size, orientation and shape of the component with this double-double
+ * nucleus (docs/methods.md C4): the orbit z_1 .. z_(p-1) in double-double,
+ * rounded to doubles, through size-estimate.ts's recurrences; null where
+ * those leave the plain-double range (the caller runs the BigInt path). The
+ * orbit starts from the double-double nucleus, which is closer to the true
+ * one than the printed digits the BigInt path starts from.
+ */
+export function fastSize(period: number, nucleus: DDComplex): SizeEstimateScaled | null {
+  const n = Math.max(0, period - 1);
+  if (orbitScratch.length < 2 * n) orbitScratch = new Float64Array(2 * n);
+  const z = Float64Array.from(nucleus);
+  for (let k = 1; k < period; k += 1) {
+    orbitScratch[2 * k - 2] = z[0]! + z[1]!;
+    orbitScratch[2 * k - 1] = z[2]! + z[3]!;
+    sqrAdd(z, nucleus);
+  }
+  return sizeEstimateOfOrbit(period, orbitScratch);
+}
+
+let orbitScratch = new Float64Array(0);

@@ -15,7 +15,14 @@ import { componentInfo, mersenneAngle, type ComponentInfo } from './component-in
 import { findNucleus, type ComplexDecimal } from './nucleus.js';
 import { componentRoot, type Attachment } from './boundary-point.js';
 import { NewtonError } from './newton-error.js';
-import { fastNucleus, fastRoot } from './fast-row.js';
+import { fastNucleus, fastRoot, fastSize } from './fast-row.js';
+import { satelliteAttachment } from './census-statistics.js';
+
+/** The BigInt walk's parent agrees with the one the angles give (else the walk reached another component's root). */
+function sameAttachment(found: Attachment | null, expected: { k: number; r: number; q: number } | null): boolean {
+  if (found === null || expected === null) return found === expected;
+  return found.period === expected.k && found.num === expected.r && found.den === expected.q;
+}
 
 /** One census component as a worker receives it. */
 export interface ListItem {
@@ -48,7 +55,9 @@ export async function componentRows(job: ListJob): Promise<ComponentInfo[]> {
   const rows: ComponentInfo[] = [];
   for (const c of job.items) {
     const fast = job.bigint === true ? null : fastNucleus(job.period, [...c.dd], c.size, c.real, job.digits);
-    const known = fast === null ? null : fastRoot(job.period, fast.c, job.digits);
+    // primitive or satellite, and where a satellite hangs, is read from the angles (census-statistics.ts); the numerics must agree
+    const expected = c.angles.length === 2 ? satelliteAttachment(job.period, c.angles[0]!, c.angles[1]!) : null;
+    const known = fast === null ? null : fastRoot(job.period, fast.c, job.digits, expected);
     if (fast !== null && known !== null) {
       rows.push(
         await componentInfo(
@@ -57,6 +66,7 @@ export async function componentRows(job: ListJob): Promise<ComponentInfo[]> {
           job.digits,
           c.angles.map((n) => mersenneAngle(n, job.period)),
           known,
+          fastSize(job.period, fast.c),
         ),
       );
       continue;
@@ -68,6 +78,7 @@ export async function componentRows(job: ListJob): Promise<ComponentInfo[]> {
     let root: { root: ComplexDecimal; parent: Attachment | null };
     try {
       root = componentRoot(job.period, nucleus, job.digits);
+      if (!sameAttachment(root.parent, expected)) root = { root: NO_ROOT, parent: null };
     } catch (err) {
       // a root C3's walk cannot reach (seen from period 22): the row keeps its nucleus, its root cells stay empty (NO_ROOT)
       if (!(err instanceof NewtonError)) throw err;

@@ -99,6 +99,26 @@ function sizeEstimatePlain(period: number, nucleus: ComplexDecimal): SizeEstimat
   const s = fixedScale(Math.max(128, bitsForDigits(digits, 32)));
   const cr = fromDecimal(nucleus.re, s, 'nucleus');
   const ci = fromDecimal(nucleus.im, s, 'nucleus');
+  const orbit = new Float64Array(2 * Math.max(0, period - 1));
+  let zr = cr;
+  let zi = ci;
+  for (let k = 1; k < period; k += 1) {
+    orbit[2 * k - 2] = toNumber(zr, s);
+    orbit[2 * k - 1] = toNumber(zi, s);
+    const nzr = ((zr * zr - zi * zi) >> s.shift) + cr;
+    zi = ((zr * zi) >> (s.shift - 1n)) + ci;
+    zr = nzr;
+  }
+  return sizeEstimateOfOrbit(period, orbit);
+}
+
+/**
+ * The plain-double recurrences from the orbit z_1 .. z_(p-1) rounded to
+ * doubles (re, im interleaved; z_1 = c), or null where a magnitude leaves
+ * 1e-250..1e250. The listing's fast path (fast-row.ts) passes the orbit of
+ * its double-double nucleus; sizeEstimatePlain the BigInt one.
+ */
+export function sizeEstimateOfOrbit(period: number, orbit: Float64Array): SizeEstimateScaled | null {
   let lr = 1,
     li = 0,
     br = 1,
@@ -111,11 +131,9 @@ function sizeEstimatePlain(period: number, nucleus: ComplexDecimal): SizeEstimat
     dcci = 0,
     dczr = 0,
     dczi = 0;
-  let zr = cr;
-  let zi = ci;
-  let xr = toNumber(zr, s);
-  let xi = toNumber(zi, s);
   for (let k = 1; k < period; k += 1) {
+    const xr = orbit[2 * k - 2]!;
+    const xi = orbit[2 * k - 1]!;
     if (!inRange(xr, xi)) return null;
     const z2r = xr * 2,
       z2i = xi * 2;
@@ -143,11 +161,6 @@ function sizeEstimatePlain(period: number, nucleus: ComplexDecimal): SizeEstimat
     br += lr / m;
     bi += -li / m;
     if (!inRange(dccr, dcci) || !inRange(dczr, dczi) || !inRange(dcr, dci) || !inRange(dzr, dzi) || !inRange(lr, li) || !inRange(br, bi) || !inRange(m, 0)) return null;
-    const nzr = ((zr * zr - zi * zi) >> s.shift) + cr;
-    zi = ((zr * zi) >> (s.shift - 1n)) + ci;
-    zr = nzr;
-    xr = toNumber(zr, s);
-    xi = toNumber(zi, s);
   }
   return finish(period, norm([lr, li, 0]), norm([br, bi, 0]), norm([dcr, dci, 0]), norm([dzr, dzi, 0]), norm([dccr, dcci, 0]), norm([dczr, dczi, 0]));
 }

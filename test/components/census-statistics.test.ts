@@ -1,6 +1,6 @@
 import { describe, expect, it } from 'vitest';
 import { census } from '../../src/components/census.js';
-import { componentAreaEstimate, satelliteParentPeriod } from '../../src/components/census-statistics.js';
+import { componentAreaEstimate, satelliteAttachment, satelliteParentPeriod } from '../../src/components/census-statistics.js';
 
 // OEIS A000740 (offset 1): components of exact period n, n = 1..16 (docs/checks.md "Counts").
 const A000740 = [1, 1, 3, 6, 15, 27, 63, 120, 252, 495, 1023, 2010, 4095, 8127, 16365, 32640];
@@ -65,5 +65,29 @@ describe('census statistics', () => {
     expect(satelliteParentPeriod(4, 3, 4)).toBe(0);
     expect(satelliteParentPeriod(3, 1, 2)).toBe(1); // 1/7, 2/7: the 1/3 bulb of the cardioid
     expect(satelliteParentPeriod(3, 3, 4)).toBe(0); // 3/7, 4/7: the real period-3 component, primitive
+  });
+
+  it('satelliteAttachment gives the internal angle: 1/3 and 2/3 bulbs (1/7, 2/7 and 5/7, 6/7), the 1/4 and 3/4 bulbs (1/15, 2/15 and 13/15, 14/15)', () => {
+    // the cardioid's r/q bulb carries the pair of the rotation r/q under doubling (Douady-Hubbard; docs/checks.md period-3 and 4 pairs)
+    expect(satelliteAttachment(3, 1, 2)).toEqual({ k: 1, r: 1, q: 3 });
+    expect(satelliteAttachment(3, 5, 6)).toEqual({ k: 1, r: 2, q: 3 });
+    expect(satelliteAttachment(4, 1, 2)).toEqual({ k: 1, r: 1, q: 4 });
+    expect(satelliteAttachment(4, 13, 14)).toEqual({ k: 1, r: 3, q: 4 });
+    expect(satelliteAttachment(4, 6, 9)).toEqual({ k: 2, r: 1, q: 2 });
+    expect(satelliteAttachment(4, 3, 4)).toBeNull();
+  });
+
+  it('satelliteAttachment over the period-12 census: every component of period k | 12 carries one satellite at each r/q, gcd(r, q) = 1 (Douady-Hubbard)', async () => {
+    // so each (k, r/q) occurs A000740(k) times (OEIS A000740: 1, 1, 3, 6, 15, 27 for k = 1..6)
+    const n = [0, 1, 1, 3, 6, 15, 27];
+    const seen = new Map<string, number>();
+    for (const c of (await census(12)).components) {
+      const a = c.angles.length === 2 ? satelliteAttachment(12, c.angles[0]!, c.angles[1]!) : null;
+      if (a !== null) seen.set(`${a.k} ${a.r}/${a.q}`, (seen.get(`${a.k} ${a.r}/${a.q}`) ?? 0) + 1);
+    }
+    const want = new Map<string, number>();
+    const gcd = (a: number, b: number): number => (b === 0 ? a : gcd(b, a % b));
+    for (const k of [1, 2, 3, 4, 6]) for (let r = 1; r < 12 / k; r++) if (gcd(r, 12 / k) === 1) want.set(`${k} ${r}/${12 / k}`, n[k]!);
+    expect(Object.fromEntries([...seen].sort())).toEqual(Object.fromEntries([...want].sort()));
   });
 });
