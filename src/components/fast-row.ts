@@ -34,6 +34,15 @@ export type DDComplex = [number, number, number, number];
 
 /** Relative rounding error allowed per double-double operation (generous: 2^-100). */
 const U = 2 ** -100;
+/**
+ * Newton gives up when the running bound of an orbit's rounding error passes
+ * this: the orbit then has too few good digits for the first-order bound.
+ * What decides a row is the error in c (err below 1e-6 of the size, then the
+ * printing test); the cap only stops hopeless runs early. (At 1e-20, as
+ * before December 2026, 653 period-18 nuclei near |c| = 1 with |D| ~ 2e7 went
+ * to BigInt although their bound in c was 5e-28.)
+ */
+const ORBIT_ERROR_CAP = 1e-10;
 /** Walk steps, as boundary-point.ts. */
 const WALK_STEPS = 16;
 /** Walk steps in double-double (halved where Newton fails, as the double walk). */
@@ -129,7 +138,7 @@ export function nucleusDD(period: number, start: DDComplex, reach: number): { c:
       const zm = Math.abs(zr) + Math.abs(zi);
       sqrAdd(z, c);
       e = (2 * zm + e) * e + U * (2 * zm * zm + cm + Math.abs(z[0]!) + Math.abs(z[2]!));
-      if (!(e < 1e-20)) return null;
+      if (!(e < ORBIT_ERROR_CAP)) return null;
       if (k < period && period % k === 0 && Math.hypot(z[0]!, z[2]!) < 1e-12) return null;
     }
     const d2 = dr * dr + di * di;
@@ -344,7 +353,7 @@ function newtonDD(period: number, w: Float64Array, b: Float64Array, t: DDComplex
       twiceMul(dz, z);
       sqrAdd(z, b);
       ez = (2 * zm + ez) * ez + U * (2 * zm * zm + bm + Math.abs(z[0]!) + Math.abs(z[2]!));
-      if (!(ez < 1e-20 && ed < 1e-4 && zm < 1e4)) return null;
+      if (!(ez < ORBIT_ERROR_CAP && ed < 1e-4 && zm < 1e4)) return null;
     }
     ddAdd(z, 0, -w[0]!, -w[1]!);
     ddAdd(z, 2, -w[2]!, -w[3]!);
@@ -536,6 +545,10 @@ export function fastRoot(
     if (direct !== null) return direct;
   }
   const log2size = log2SizeDouble(period, c.re, c.im);
+  if (expected !== undefined && expected !== null) {
+    const direct = satelliteRoot(period, nucleus, digits, expected, 2 ** log2size);
+    if (direct !== null) return direct;
+  }
   const walk = walkTo(period, nucleus, { re: 1, im: 0 }, 0.999, log2size);
   if (walk === null) return null;
   const found = expected === undefined ? findParentDouble(period, walk.w, walk.b) : expected;
@@ -580,6 +593,68 @@ function rootNearNucleus(b: Float64Array, nucleus: DDComplex, size: number): boo
   const di = b[2]! - nucleus[2] + (b[3]! - nucleus[3]);
   const d = Math.hypot(dr, di);
   return d >= size / 64 && d <= 8 * size;
+}
+
+/**
+ * The root of a satellite without either walk (docs/methods.md C7): the
+ * parent's nucleus P by deflated Newton of period k from the satellite's
+ * nucleus; in the parent's renormalised coordinates (primitiveRoot) the root
+ * is the cardioid's point C = mu/2 - mu^2/4 with fixed point Z = mu/2,
+ * mu = e^(2 pi i r/q), so Newton on the parent's system at t = mu starts at
+ * b = P + s_P C, w = mu / (2 lambda_P). Null when Newton fails or the root is
+ * not near the satellite's nucleus; the caller then walks.
+ */
+function satelliteRoot(
+  period: number,
+  nucleus: DDComplex,
+  digits: number,
+  found: { k: number; r: number; q: number },
+  size: number,
+): { root: ComplexDecimal; parent: Attachment } | null {
+  const cr = nucleus[0] + nucleus[1];
+  const ci = nucleus[2] + nucleus[3];
+  const pd = found.k === 1 ? { re: 0, im: 0 } : nucleusDouble(found.k, { re: cr, im: ci });
+  if (pd === null) return null;
+  const pn = fastNucleus(found.k, [pd.re, 0, pd.im, 0], found.k === 1 ? 1 : 2 ** log2SizeDouble(found.k, pd.re, pd.im), ci === 0 && pd.im === 0, digits);
+  if (pn === null) return null;
+  const pcr = pn.c[0] + pn.c[1];
+  const pci = pn.c[2] + pn.c[3];
+  if (!sizeTerms(found.k, pcr, pci, terms)) return null;
+  const { br, bi, lr, li } = terms;
+  const l2r = lr * lr - li * li;
+  const l2i = 2 * lr * li;
+  const qr = br * l2r - bi * l2i;
+  const qi = br * l2i + bi * l2r;
+  const qm = qr * qr + qi * qi;
+  const sr = qr / qm;
+  const si = -qi / qm;
+  const psize = Math.hypot(sr, si);
+  const lm = lr * lr + li * li;
+  if (!(psize > 0 && Number.isFinite(psize) && lm > 0 && Number.isFinite(lm))) return null;
+  const a = (2 * Math.PI * found.r) / found.q;
+  // e^{i pi} = -1 exactly (sin(pi) in doubles is 1.2e-16, which would take a real root off the axis)
+  const mr = found.q === 2 ? -1 : Math.cos(a);
+  const mi = found.q === 2 ? 0 : Math.sin(a);
+  const t: DDComplex = found.q === 2 ? [-1, 0, 0, 0] : unitRootDD(found.r, found.q);
+  // C = mu/2 - mu^2/4 and Z = mu/2
+  const Cr = mr / 2 - (mr * mr - mi * mi) / 4;
+  const Ci = mi / 2 - (2 * mr * mi) / 4;
+  const wd = Float64Array.of((mr * lr + mi * li) / (2 * lm), 0, (mi * lr - mr * li) / (2 * lm), 0);
+  const bd = Float64Array.from(pn.c);
+  ddAdd(bd, 0, sr * Cr - si * Ci, 0);
+  ddAdd(bd, 2, sr * Ci + si * Cr, 0);
+  if (psize >= 1e-9) {
+    const w = { re: wd[0]!, im: wd[2]! };
+    const b = { re: bd[0]! + bd[1]!, im: bd[2]! + bd[3]! };
+    if (!solveDouble(found.k, w, b, { re: mr, im: mi }, 40)) return null;
+    wd.set([w.re, 0, w.im, 0]);
+    bd.set([b.re, 0, b.im, 0]);
+  }
+  const err = newtonDD(found.k, wd, bd, t, 0, 60);
+  if (err === null || !(err < 1e-6 * psize) || !rootNearNucleus(bd, nucleus, size)) return null;
+  const root = formatComplexDD(ddOf(bd), err, digits, ci === 0 && pci === 0 && found.q === 2);
+  if (root === null) return null;
+  return { root, parent: { period: found.k, nucleus: pn.decimal, num: found.r, den: found.q } };
 }
 
 /**
