@@ -11,6 +11,7 @@ import { census, MAX_CENSUS_PERIOD } from '../components/census.js';
 import type { CensusComponent } from '../components/census.js';
 import type { ComponentInfo } from '../components/component-info.js';
 import { listComponents } from '../components/list-components.js';
+import { censusSlices } from '../components/census-slices.js';
 import { parseBox, componentJson } from './component-report.js';
 import { certifyListing, MAX_CERTIFY_PERIOD, reportCensusCertificate } from './certify-report.js';
 import { UserError } from '../check/user-error.js';
@@ -43,10 +44,15 @@ const ROW_BYTES = 1500;
  * upper bound of OEIS A000740): memory (the census, plus the rows unless they
  * stream) and the bytes of a CSV file at `digits` digits.
  */
-export function listingEstimate(period: number, digits: number, streamed: boolean): { components: number; memory: number; file: number } {
+export function listingEstimate(period: number, digits: number, streamed: boolean, sliced = false): { components: number; memory: number; file: number } {
   const components = 2 ** (period - 1);
-  return { components, memory: components * (CENSUS_BYTES + (streamed ? 0 : ROW_BYTES)), file: components * (4 * (digits + 4) + 110) };
+  const memory = sliced ? components * SLICED_BYTES + SLICED_BASE : components * (CENSUS_BYTES + (streamed ? 0 : ROW_BYTES));
+  return { components, memory, file: components * (4 * (digits + 4) + 110) };
 }
+
+/** The census in slices holds the pairs and their slice lists (about 28 bytes per component) and one slice at a time. */
+const SLICED_BYTES = 28;
+const SLICED_BASE = 400 * 2 ** 20;
 
 export const COMPONENTS_OPTIONS: readonly OptionSpec[] = [
   { flags: '--period <period>', description: 'exact period, an integer from 1 (required unless --misiurewicz, no default)' },
@@ -99,7 +105,8 @@ export function register(program: Command): void {
     const period = parseInteger(o['period'], '--period', 1, count ? MAX_CENSUS_PERIOD : MAX_LIST_PERIOD);
     // CSV and files stream their rows as blocks complete; the text table, JSON on stdout and --certify hold them all
     const streamed = !certify && (typeof o['out'] === 'string' || (o['csv'] === true && o['json'] !== true));
-    const need = listingEstimate(period, o['digits'] === undefined ? 20 : Number(o['digits']), streamed || count);
+    const sliced = !certify && (count || streamed) && period >= SLICED_FROM && o['shard'] === undefined && o['shards'] === undefined;
+    const need = listingEstimate(period, o['digits'] === undefined ? 20 : Number(o['digits']), streamed || count, sliced);
     const memory = totalmem();
     if (need.memory > 0.8 * memory) {
       throw new UserError(
@@ -139,6 +146,10 @@ export function register(program: Command): void {
       } else if (!TABLE_EXTENSIONS.some((e) => out!.toLowerCase().endsWith(e))) throw new UserError('--out', 'a file name ending in .csv, .json or .parquet', out);
       await prepareOutputFile(out, '--out');
       await checkFreeSpace(path.dirname(path.resolve(out)), need.file, '--out');
+    }
+    if (shard === null && !certify && (count || streamed) && period >= SLICED_FROM) {
+      await slicedCensus(period, { count, json: o['json'] === true, real: o['real'] === true, box, digits, workers, out, progressJson: o['progressJson'] === true });
+      return;
     }
     const angleRange = shard === null ? undefined : shardAngleRange(period, shard);
     const t0 = performance.now();
@@ -310,6 +321,104 @@ async function listMisiurewiczCommand(o: Record<string, unknown>): Promise<void>
       )
       .join('\n') + '\n',
   );
+}
+
+/** From this period on, counts and streamed listings run the census in slices (census-slices.ts): bounded memory. */
+export const SLICED_FROM = 19;
+
+/**
+ * The census of `period` in slices: counted, or listed as the slices hand
+ * their components over (to `out`, or CSV on stdout), with progress on stderr
+ * and the time per component at the end.
+ */
+async function slicedCensus(
+  period: number,
+  o: {
+    count: boolean;
+    json: boolean;
+    real: boolean;
+    box: { re0: number; im0: number; re1: number; im1: number } | null;
+    digits: number;
+    workers: number;
+    out: string | null;
+    progressJson: boolean;
+  },
+): Promise<void> {
+  const t0 = performance.now();
+  const progress = createProgress(`quadatlas: period ${period}:`, { json: o.progressJson, unit: 'components', phase: o.count ? 'census' : 'listing', delayMs: 1000 });
+  const columns = HEADER.map((name) => ({ name, type: COLUMN_TYPES[name] ?? 'string' }));
+  const sink = o.count ? null : o.out === null ? textTableStream(process.stdout, columns, 'csv') : await openTableStream(o.out, columns);
+  let total = 0;
+  let handed = 0;
+  let kept = 0;
+  let noRoot = 0;
+  let listSeconds = 0;
+  try {
+    const result = await censusSlices(period, {
+      workers: o.workers,
+      onPlan: (components) => {
+        total = components;
+        progress.update(0, total);
+      },
+      onComponents: async (comps) => {
+        handed += comps.length;
+        let chosen = comps;
+        if (o.real) chosen = chosen.filter((c) => c.real);
+        if (o.box !== null) chosen = chosen.filter((c) => inBox(c, o.box!));
+        kept += chosen.length;
+        if (sink !== null && chosen.length > 0) {
+          const t = performance.now();
+          await listComponents(period, chosen, o.digits, o.workers, undefined, async (rows) => {
+            noRoot += rows.filter((r) => r.root.re === '').length;
+            await sink.write(rows.map(flat));
+          });
+          listSeconds += (performance.now() - t) / 1000;
+        }
+        progress.update(handed, total);
+      },
+    });
+    await sink?.close();
+    progress.end();
+    const seconds = (performance.now() - t0) / 1000;
+    if (result.unpaired > 0 || result.raysLost > 0 || result.crossDuplicates > 0) {
+      process.stderr.write(
+        `quadatlas: warning: ${result.unpaired} angle pairs could not be given a nucleus of their own, ${result.raysLost} rays were lost, ${result.crossDuplicates} nuclei of different slices coincide\n`,
+      );
+    }
+    warnNoRoot(noRoot);
+    const split = {
+      pairing: Number(result.seconds.pairing.toFixed(2)),
+      landingAndListing: Number(result.seconds.landing.toFixed(2)),
+      listing: Number(listSeconds.toFixed(2)),
+      distinctness: Number(result.seconds.distinctness.toFixed(2)),
+    };
+    if (o.count) {
+      if (o.json)
+        process.stdout.write(
+          `${JSON.stringify({
+            period,
+            real: o.real,
+            count: kept,
+            seconds: Number(seconds.toFixed(2)),
+            raysTraced: result.raysTraced,
+            unpaired: result.unpaired,
+            slices: result.slices,
+            crossDuplicates: result.crossDuplicates,
+            secondsSplit: split,
+            statistics: result.statistics,
+          })}\n`,
+        );
+      else process.stdout.write(`${kept}\n`);
+    }
+    const perComponent = (1e6 * seconds) / Math.max(1, result.count);
+    process.stderr.write(
+      `quadatlas: period ${period}: ${result.count} components ${o.count ? 'located' : 'listed'} in ${seconds.toFixed(2)} s, ${perComponent.toFixed(1)} us per component (${result.slices} slices, ${result.raysTraced} rays, ${o.workers} workers; pairing ${split.pairing} s, rows ${split.listing} s, distinctness ${split.distinctness} s)\n`,
+    );
+    if (o.out !== null) process.stderr.write(`quadatlas: wrote ${o.out} (${kept} rows)\n`);
+  } catch (err) {
+    await sink?.abort();
+    throw err;
+  }
 }
 
 /** A warning on stderr for rows whose root Newton could not reach (their root cells are empty). */

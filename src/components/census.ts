@@ -23,6 +23,7 @@
 import { mapOnWorkers } from '../threads/map-on-workers.js';
 import { landRays, RAY_RECORD } from './land-rays.js';
 import { lavaursStream } from './lavaurs-stream.js';
+import type { LavaursSweep } from './lavaurs-sweep.js';
 import { periodicNumerators, properDivisors } from './periodic-angles.js';
 import { builtWorkerUrl } from '../threads/built-worker.js';
 import { CensusStatisticsAccumulator, type CensusStatistics } from './census-statistics.js';
@@ -69,6 +70,16 @@ export interface CensusOptions {
    * their mirror images are landed; the statistics are the slice's.
    */
   readonly angleRange?: { readonly from: number; readonly to: number };
+  /** The period's Lavaurs pairs, when the caller already has them (census-slices.ts: one pairing for every slice). */
+  readonly pairs?: LavaursSweep;
+  /**
+   * Only these pairs (indices into `pairs`, each with lo + hi <= 2^p - 1) are
+   * landed, and only the components whose lower angle `keep` accepts are
+   * listed (census-slices.ts); replaces angleRange.
+   */
+  readonly slice?: { readonly pairs: Int32Array; readonly keep: (lowerAngle: number) => boolean };
+  /** Add the statistics to this accumulator (shared over slices) instead of a fresh one. */
+  readonly statistics?: CensusStatisticsAccumulator;
 }
 
 /** Rounds of careful re-landing at most (each round only lands suspects not landed carefully before). */
@@ -80,9 +91,9 @@ export const MAX_CENSUS_PERIOD = 30;
 /** Runs the census of exact period p. */
 export async function census(period: number, options: CensusOptions = {}): Promise<CensusResult> {
   const range = options.angleRange ?? { from: 0, to: 2 ** period - 1 };
-  const inRange = (n: number): boolean => n >= range.from && n < range.to;
+  const inRange = options.slice?.keep ?? ((n: number): boolean => n >= range.from && n < range.to);
   if (period === 1) {
-    const stats = new CensusStatisticsAccumulator(1);
+    const stats = options.statistics ?? new CensusStatisticsAccumulator(1);
     const cardioid = inRange(0);
     if (cardioid) stats.add([0], true, 1);
     return {
@@ -96,14 +107,19 @@ export async function census(period: number, options: CensusOptions = {}): Promi
     };
   }
   const den = 2 ** period - 1;
-  const pairs = lavaursStream(period);
+  const pairs = options.pairs ?? lavaursStream(period);
   // One pair of each mirror couple: lo + hi < den (upper half plane) or = den (real).
-  const keep: number[] = [];
-  // (a pair stands for its own component, lower angle lo, and unless real for its mirror image, lower angle den - hi)
-  for (let i = 0; i < pairs.lo.length; i += 1) {
-    const a = pairs.lo[i]!;
-    const b = pairs.hi[i]!;
-    if (a + b <= den && (inRange(a) || (a + b < den && inRange(den - b)))) keep.push(i);
+  let keep: ArrayLike<number>;
+  if (options.slice !== undefined) keep = options.slice.pairs;
+  else {
+    const chosen: number[] = [];
+    // (a pair stands for its own component, lower angle lo, and unless real for its mirror image, lower angle den - hi)
+    for (let i = 0; i < pairs.lo.length; i += 1) {
+      const a = pairs.lo[i]!;
+      const b = pairs.hi[i]!;
+      if (a + b <= den && (inRange(a) || (a + b < den && inRange(den - b)))) chosen.push(i);
+    }
+    keep = chosen;
   }
   const lo = Float64Array.from(keep, (i) => pairs.lo[i]!);
   const hi = Float64Array.from(keep, (i) => pairs.hi[i]!);
@@ -126,7 +142,7 @@ export async function census(period: number, options: CensusOptions = {}): Promi
     });
     found = distinctNuclei(period, lo, hi, records);
   }
-  const stats = new CensusStatisticsAccumulator(period);
+  const stats = options.statistics ?? new CensusStatisticsAccumulator(period);
   const components = found.components(stats, inRange);
   return {
     period,
