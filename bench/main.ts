@@ -13,6 +13,7 @@ import { deepAutoSection } from './deep-auto-section.js';
 import { deepCopySection } from './deep-copy-section.js';
 import { pyramidSection } from './pyramid-section.js';
 import { componentsSection } from './components-section.js';
+import { listingSection } from './listing-section.js';
 import { sliceSection } from './slice-section.js';
 import { constantsSection } from './constants-section.js';
 import { certifySection } from './certify-section.js';
@@ -35,6 +36,7 @@ export const SECTIONS: readonly BenchSection[] = [
   deepAutoSection,
   deepCopySection,
   componentsSection,
+  listingSection,
   certifySection,
   sliceSection,
   constantsSection,
