@@ -20,7 +20,9 @@ import { addOptions, PROGRESS_JSON_OPTION, type OptionSpec } from './option-spec
 import { createProgress, type Progress } from '../render/progress.js';
 import { TABLE_EXTENSIONS, writeTableFile, type ColumnType } from '../io/table-file.js';
 import { prepareOutputFile } from '../io/check-writable-directory.js';
-import { mkdir, stat } from 'node:fs/promises';
+import { mkdir, rm, stat } from 'node:fs/promises';
+import os from 'node:os';
+import { releaseTemp, removeStaleTemps, tempPathFor } from '../io/temp-path.js';
 import { totalmem } from 'node:os';
 import { checkFreeSpace, formatBytes } from '../io/check-free-space.js';
 import { openTableStream, textTableStream } from '../io/table-stream.js';
@@ -353,9 +355,15 @@ async function slicedCensus(
   let kept = 0;
   let noRoot = 0;
   let listSeconds = 0;
+  // the slices' temporary files live in a registered temporary folder: a signal removes it, a later run removes one a kill left
+  const workName = `quadatlas-census-p${period}`;
+  await removeStaleTemps(os.tmpdir(), workName);
+  const work = tempPathFor(path.join(os.tmpdir(), workName));
+  await mkdir(work);
   try {
     const result = await censusSlices(period, {
       workers: o.workers,
+      tempDir: work,
       onPlan: (components) => {
         total = components;
         progress.update(0, total);
@@ -418,6 +426,9 @@ async function slicedCensus(
   } catch (err) {
     await sink?.abort();
     throw err;
+  } finally {
+    await rm(work, { recursive: true, force: true });
+    releaseTemp(work);
   }
 }
 

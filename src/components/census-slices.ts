@@ -38,7 +38,7 @@ export interface SlicedCensusOptions {
   readonly sliceComponents?: number;
   /** Called as rays land: (rays landed, rays to land) over the whole census. */
   readonly onProgress?: (done: number, total: number) => void;
-  /** Receives the components, in ascending order of lower angle, block by block (awaited). */
+  /** Receives the components, in ascending order of lower angle, block by block; the next block waits for the last one's promise (the next slice lands meanwhile). */
   readonly onComponents: (components: readonly CensusComponent[]) => Promise<void>;
   /** Folder for the temporary files (default: the system's). */
   readonly tempDir?: string;
@@ -127,6 +127,7 @@ export async function censusSlices(period: number, options: SlicedCensusOptions)
   const runsPath = path.join(dir, 'runs.f64');
   const runs = openSync(runsPath, 'w+');
   const runStart: number[] = [0];
+  let pending: Promise<void> = Promise.resolve();
   try {
     for (let j = 0; j < k; j += 1) {
       const slice = lists.subarray(start[j]!, start[j + 1]!);
@@ -148,8 +149,14 @@ export async function censusSlices(period: number, options: SlicedCensusOptions)
       const high = split < 0 ? [] : r.components.slice(split);
       writeComponents(path.join(dir, `upper-${j}.f64`), high);
       writeRun(runs, r.components, runStart);
-      if (low.length > 0) await options.onComponents(low);
+      // the caller lists this slice while the next one lands (one hand-over in flight at a time)
+      if (low.length > 0) {
+        await pending;
+        pending = options.onComponents(low);
+        pending.catch(() => {}); // awaited before the next hand-over and at the end
+      }
     }
+    await pending;
     for (let j = k - 1; j >= 0; j -= 1) {
       const high = readComponents(path.join(dir, `upper-${j}.f64`), period);
       if (high.length > 0) await options.onComponents(high);
@@ -170,6 +177,7 @@ export async function censusSlices(period: number, options: SlicedCensusOptions)
       seconds: { pairing: (tPairs - t0) / 1000, landing: (tLanded - tPairs) / 1000, distinctness: (tSwept - tLanded) / 1000 },
     };
   } finally {
+    await pending.catch(() => {});
     closeSync(runs);
     rmSync(dir, { recursive: true, force: true });
   }
