@@ -9,7 +9,7 @@ import { findNucleus } from '../src/components/nucleus.js';
 import type { BenchRow, BenchSection } from './bench-section.js';
 
 /** A000740(p) = sum over d | p of mu(p/d) 2^(d-1) (OEIS), used only to check the census. */
-function a000740(p: number): number {
+export function a000740(p: number): number {
   const mu = (n: number): number => {
     let m = 1;
     for (let q = 2; q * q <= n; q += 1) {

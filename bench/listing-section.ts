@@ -12,24 +12,7 @@ import { mkdtempSync, readFileSync, rmSync } from 'node:fs';
 import os from 'node:os';
 import path from 'node:path';
 import type { BenchRow, BenchSection } from './bench-section.js';
-
-/** A000740(p) = sum over d | p of mu(p/d) 2^(d-1) (OEIS), to check the file. */
-function a000740(p: number): number {
-  const mu = (n: number): number => {
-    let m = 1;
-    for (let q = 2; q * q <= n; q += 1) {
-      if (n % q === 0) {
-        n /= q;
-        if (n % q === 0) return 0;
-        m = -m;
-      }
-    }
-    return n > 1 ? -m : m;
-  };
-  let s = 0;
-  for (let d = 1; d <= p; d += 1) if (p % d === 0) s += mu(p / d) * 2 ** (d - 1);
-  return s;
-}
+import { a000740 } from './components-section.js';
 
 /** Runs the CLI, sampling /proc/PID/status for the peak resident set; resolves with wall seconds and peak bytes. */
 function runTimed(cli: string, args: readonly string[]): Promise<{ seconds: number; peak: number; code: number | null; stderr: string }> {

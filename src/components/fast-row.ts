@@ -619,40 +619,15 @@ function satelliteRoot(
   if (pn === null) return null;
   const pcr = pn.c[0] + pn.c[1];
   const pci = pn.c[2] + pn.c[3];
-  if (!sizeTerms(found.k, pcr, pci, terms)) return null;
-  const { br, bi, lr, li } = terms;
-  const l2r = lr * lr - li * li;
-  const l2i = 2 * lr * li;
-  const qr = br * l2r - bi * l2i;
-  const qi = br * l2i + bi * l2r;
-  const qm = qr * qr + qi * qi;
-  const sr = qr / qm;
-  const si = -qi / qm;
-  const psize = Math.hypot(sr, si);
-  const lm = lr * lr + li * li;
-  if (!(psize > 0 && Number.isFinite(psize) && lm > 0 && Number.isFinite(lm))) return null;
   const a = (2 * Math.PI * found.r) / found.q;
   // e^{i pi} = -1 exactly (sin(pi) in doubles is 1.2e-16, which would take a real root off the axis)
   const mr = found.q === 2 ? -1 : Math.cos(a);
   const mi = found.q === 2 ? 0 : Math.sin(a);
   const t: DDComplex = found.q === 2 ? [-1, 0, 0, 0] : unitRootDD(found.r, found.q);
-  // C = mu/2 - mu^2/4 and Z = mu/2
-  const Cr = mr / 2 - (mr * mr - mi * mi) / 4;
-  const Ci = mi / 2 - (2 * mr * mi) / 4;
-  const wd = Float64Array.of((mr * lr + mi * li) / (2 * lm), 0, (mi * lr - mr * li) / (2 * lm), 0);
-  const bd = Float64Array.from(pn.c);
-  ddAdd(bd, 0, sr * Cr - si * Ci, 0);
-  ddAdd(bd, 2, sr * Ci + si * Cr, 0);
-  if (psize >= 1e-9) {
-    const w = { re: wd[0]!, im: wd[2]! };
-    const b = { re: bd[0]! + bd[1]!, im: bd[2]! + bd[3]! };
-    if (!solveDouble(found.k, w, b, { re: mr, im: mi }, 40)) return null;
-    wd.set([w.re, 0, w.im, 0]);
-    bd.set([b.re, 0, b.im, 0]);
-  }
-  const err = newtonDD(found.k, wd, bd, t, 0, 60);
-  if (err === null || !(err < 1e-6 * psize) || !rootNearNucleus(bd, nucleus, size)) return null;
-  const root = formatComplexDD(ddOf(bd), err, digits, ci === 0 && pci === 0 && found.q === 2);
+  // the cardioid's point C = mu/2 - mu^2/4 with its fixed point Z = mu/2
+  const solved = solveRenormalised(found.k, pn.c, { re: mr / 2 - (mr * mr - mi * mi) / 4, im: mi / 2 - (2 * mr * mi) / 4 }, { re: mr / 2, im: mi / 2 }, t);
+  if (solved === null || !rootNearNucleus(solved.b, nucleus, size)) return null;
+  const root = formatComplexDD(ddOf(solved.b), solved.err, digits, ci === 0 && pci === 0 && found.q === 2);
   if (root === null) return null;
   return { root, parent: { period: found.k, nucleus: pn.decimal, num: found.r, den: found.q } };
 }
@@ -670,11 +645,25 @@ function satelliteRoot(
  * root is not near the nucleus (rootNearNucleus); the caller then walks.
  */
 function primitiveRoot(period: number, nucleus: DDComplex, digits: number): { root: ComplexDecimal; parent: null } | null {
-  const cr = nucleus[0] + nucleus[1];
   const ci = nucleus[2] + nucleus[3];
-  if (!sizeTerms(period, cr, ci, terms)) return null;
+  const solved = solveRenormalised(period, nucleus, { re: 0.25, im: 0 }, { re: 0.5, im: 0 }, [1, 0, 0, 0]);
+  if (solved === null || !rootNearNucleus(solved.b, nucleus, solved.size)) return null;
+  const root = formatComplexDD(ddOf(solved.b), solved.err, digits, ci === 0);
+  return root === null ? null : { root, parent: null };
+}
+
+/**
+ * Newton on (F^k(w,b) - w, D_z F^k(w,b) - t) from the point of renormalised
+ * coordinates (C, Z) of the period-k component with this nucleus c0: with the
+ * size-estimate terms lambda, beta and s = 1 / (beta lambda^2) (docs/methods.md
+ * C4, C7), b = c0 + s C and w = Z / lambda. In doubles first for components of
+ * 1e-9 and more, then in double-double; (w, b), the error bound of b and the
+ * component's size |s|, or null.
+ */
+function solveRenormalised(k: number, c0: DDComplex, C: C, Z: C, t: DDComplex): { b: Float64Array; err: number; size: number } | null {
+  if (!sizeTerms(k, c0[0] + c0[1], c0[2] + c0[3], terms)) return null;
   const { br, bi, lr, li } = terms;
-  // beta lambda^2, then s = 1 / that and w = 1 / (2 lambda)
+  // beta lambda^2, then s = 1 / that
   const l2r = lr * lr - li * li;
   const l2i = 2 * lr * li;
   const qr = br * l2r - bi * l2i;
@@ -683,23 +672,22 @@ function primitiveRoot(period: number, nucleus: DDComplex, digits: number): { ro
   const sr = qr / qm;
   const si = -qi / qm;
   const size = Math.hypot(sr, si);
-  const lm = 2 * (lr * lr + li * li);
+  const lm = lr * lr + li * li;
   if (!(size > 0 && Number.isFinite(size) && lm > 0 && Number.isFinite(lm))) return null;
-  const wd = Float64Array.of(lr / lm, 0, -li / lm, 0);
-  const bd = Float64Array.from(nucleus);
-  ddAdd(bd, 0, sr / 4, 0);
-  ddAdd(bd, 2, si / 4, 0);
+  const wd = Float64Array.of((Z.re * lr + Z.im * li) / lm, 0, (Z.im * lr - Z.re * li) / lm, 0);
+  const bd = Float64Array.from(c0);
+  ddAdd(bd, 0, sr * C.re - si * C.im, 0);
+  ddAdd(bd, 2, sr * C.im + si * C.re, 0);
   if (size >= 1e-9) {
     const w = { re: wd[0]!, im: wd[2]! };
     const b = { re: bd[0]! + bd[1]!, im: bd[2]! + bd[3]! };
-    if (!solveDouble(period, w, b, { re: 1, im: 0 }, 40)) return null;
+    if (!solveDouble(k, w, b, { re: t[0] + t[1], im: t[2] + t[3] }, 40)) return null;
     wd.set([w.re, 0, w.im, 0]);
     bd.set([b.re, 0, b.im, 0]);
   }
-  const err = newtonDD(period, wd, bd, [1, 0, 0, 0], 0, 60);
-  if (err === null || !(err < 1e-6 * size) || !rootNearNucleus(bd, nucleus, size)) return null;
-  const root = formatComplexDD(ddOf(bd), err, digits, ci === 0);
-  return root === null ? null : { root, parent: null };
+  const err = newtonDD(k, wd, bd, t, 0, 60);
+  if (err === null || !(err < 1e-6 * size)) return null;
+  return { b: bd, err, size };
 }
 
 function ddOf(a: Float64Array): DDComplex {
