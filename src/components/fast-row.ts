@@ -48,7 +48,8 @@ const WALK_STEPS = 16;
 /** Walk steps in double-double (halved where Newton fails, as the double walk). */
 const DD_WALK_STEPS = 8;
 
-const FORMAT_SCALE = fixedScale(320);
+const FORMAT_BITS = 320n;
+const FORMAT_SCALE = fixedScale(Number(FORMAT_BITS));
 const FORMAT_MASK = FORMAT_SCALE.one - 1n;
 const FORMAT_HALF = FORMAT_SCALE.one >> 1n;
 
@@ -69,7 +70,11 @@ export function formatDD(hi: number, lo: number, err: number, digits: number): s
   const r = scaled & FORMAT_MASK;
   const d = r > FORMAT_HALF ? r - FORMAT_HALF : FORMAT_HALF - r;
   if (d <= e * p10 + 1n) return null;
-  return formatReal(n, FORMAT_SCALE, digits);
+  // no boundary within reach: the digits are the quotient, rounded up past one half (toDecimal's value, by a shift)
+  const q = (scaled >> FORMAT_BITS) + (r > FORMAT_HALF ? 1n : 0n);
+  if (q === 0n || digits < 1) return formatReal(n, FORMAT_SCALE, digits);
+  const t = q.toString().padStart(digits + 1, '0');
+  return `${n < 0n ? '-' : ''}${t.slice(0, t.length - digits)}.${t.slice(t.length - digits)}`;
 }
 
 /** x 2^320 as a BigInt: exactly by BigInt() when that is an integer (|x| above about 2^-268), else by fromNumber (the same value, rounded). */
