@@ -136,8 +136,9 @@ export function sampleDeep(
       dli = dcIm[idx]!;
     startState(st, 0, 0, 0, dlr, dli, U);
     // Checks come in pairs: arm (save the full value, reset the product) and,
-    // one candidate period later, test. Arms sit at n_min + 2^t p (doubling,
-    // as in Brent's method), so skips are capped only inside the armed period.
+    // one candidate period later, test. Arms sit at the first iteration a
+    // step or skip reaches at or after n_min + 2^t p (doubling, as in Brent's
+    // method), so skips are capped only where a test must land.
     let candidate = 0;
     let minAt = 0;
     let doubling = 1;
@@ -154,8 +155,13 @@ export function sampleDeep(
     mulRe[idx] = 0;
     mulIm[idx] = 0;
     for (;;) {
-      const stop = Math.min(maxIterations, nextCheck);
-      const ev = run(o, bla, st, stop, interior, R2, U, stats);
+      // only a test needs to land exactly one period after its arm; an arm
+      // waits for the first step or skip that ends at or past its point
+      const ev = armed
+        ? run(o, bla, st, Math.min(maxIterations, nextCheck), interior, R2, U, stats)
+        : st[N]! >= nextCheck
+          ? EV_STOP
+          : run(o, bla, st, maxIterations, interior, R2, U, stats, nextCheck);
       if (ev === EV_ESCAPED) {
         const fr = st[FR]!,
           fi = st[FI]!;
