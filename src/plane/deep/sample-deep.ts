@@ -70,6 +70,7 @@ import type { BlaTable } from './bla-table.js';
 import type { SampleSet } from '../sample-set.js';
 import { PERIOD_ESCAPED, PERIOD_UNDECIDED } from '../sample-set.js';
 import { smoothCount } from '../smooth-count.js';
+import { outsideMainCardioid } from '../closed-form-cycle.js';
 import { confirmCycle, exactPeriod } from './cycle.js';
 import { interiorDistanceDeep, interiorDistanceScaled } from './interior-distance.js';
 import { run } from './step-loop.js';
@@ -96,6 +97,9 @@ import {
 } from './state.js';
 
 export { createDeepStats, type DeepSettings, type DeepStats } from './state.js';
+
+/** Margin of the cardioid test (closed-form-cycle.ts): far above the rounding of c ~ 1 and of the polynomial. */
+const FIXED_POINT_MARGIN = 2 ** -30;
 
 /**
  * Samples `count` parameters c = C + (dcRe[k] + i dcIm[k]) 2^U around the
@@ -131,9 +135,17 @@ export function sampleDeep(
   const res = new Float64Array(5);
   const d = new Float64Array(3);
   const { period, smooth, distance, mulRe, mulIm } = out;
+  // c = C + offset in doubles, for the cardioid test only (C = Z_1)
+  const unit = ldexp(1, U);
+  const cRe = reference.length >= 1 ? reference.re[1]! : 0,
+    cIm = reference.length >= 1 ? reference.im[1]! : 0;
   for (let idx = 0; idx < count; idx++) {
     const dlr = dcRe[idx]!,
       dli = dcIm[idx]!;
+    // The first iterate is always a new minimum, so 1 is every pixel's first
+    // candidate; outside the main cardioid (A3) no fixed point attracts and
+    // its test, which cuts the first skip, is left out.
+    const noFixedPoint = outsideMainCardioid(cRe + dlr * unit, cIm + dli * unit, FIXED_POINT_MARGIN);
     startState(st, 0, 0, 0, dlr, dli, U);
     // Checks come in pairs: arm (save the full value, reset the product) and,
     // one candidate period later, test. Arms sit at the first iteration a
@@ -179,6 +191,10 @@ export function sampleDeep(
         minAt = st[N]!;
         doubling = 1;
         armed = false; // arm right here
+        if (candidate === 1 && noFixedPoint) {
+          nextCheck = Infinity;
+          continue;
+        }
       } else if (armed) {
         // test: one candidate period after the arm
         const lr = ldexp(st[PR]!, st[PE]!),
