@@ -111,7 +111,12 @@ export function run(
       const minLimit = track && minK === 0 ? MIN_DROP * minN : 0;
       const kk = m - 1;
       const g = bla.dense;
-      let j = kk === 0 ? bla.levels - 1 : Math.min(bla.levels - 1, g + 31 - Math.clz32(kk & -kk));
+      // radii never grow with the level at one start (bla-table.ts): where the
+      // single step from m is not linear, no longer skip is, so one test
+      // settles the steps of the nonlinear phase
+      const e0 = bla.offsets[0]! + kk;
+      const linear = kk < bla.counts[0]! && (k === 0 ? w2 < bla.radius2[e0]! : logZ < bla.logRadius[e0]!);
+      let j = !linear ? -1 : kk === 0 ? bla.levels - 1 : Math.min(bla.levels - 1, g + 31 - Math.clz32(kk & -kk));
       for (; j >= 0; j--) {
         const i = kk >> (j > g ? j - g : 0);
         if (i >= bla.counts[j]!) continue;
