@@ -107,7 +107,7 @@ describe('buildBlaTable', () => {
     }
   });
 
-  it('validity radii never grow when merging and are never NaN', () => {
+  it('validity radii never grow with the level at one start (the step loop stops at a single step that is not linear) and are never NaN', () => {
     for (const t of [aligned, table]) {
       for (let j = 1; j < t.levels; j++) {
         for (let m = 1; m < orbit.length; m++) {
