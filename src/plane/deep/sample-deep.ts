@@ -60,9 +60,11 @@
  * Data shapes: ReferenceOrbit = { centreRe, centreIm: string; bits, length,
  * escapeRadius, period: number; escaped: boolean; re, im: Float64Array(M+1);
  * tinyIndex: Int32Array, tinyRe, tinyIm: Float64Array, tinyExp: Int32Array }.
- * BlaTable = { levels, epsilon: number; offsets, counts, bExp, skip, minAt:
- * Int32Array; aRe, aIm, bRe, bIm, logRadius, minNorm: Float64Array } (about
- * 2M entries, 80 bytes each, for an orbit of length M). DeepSettings below.
+ * BlaTable = { levels, dense, epsilon, unitExponent: number; offsets,
+ * counts, bExp, skip, minAt: Int32Array; aRe, aIm, bRe, bIm, bTileRe,
+ * bTileIm, radius2, logRadius, minNorm: Float64Array } (84 bytes an entry:
+ * about 2M for an orbit of length M, or M log2 M with every start, see
+ * bla-table.ts). DeepSettings below.
  */
 import type { ReferenceOrbit } from '../../precise/reference-orbit.js';
 import { ldexp } from '../../precise/floatexp.js';
