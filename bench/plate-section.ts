@@ -9,14 +9,14 @@
  *   1600x1600 whole-set plate (3000 iterations, 1 sample), the 4000x4000
  *   whole-set plate at 4 samples, and the A3 poster preset;
  * - the A3 poster against the previous commit built beside this one, when
- *   QUADATLAS_BENCH_BASE names that checkout (built: its dist/ present),
- *   for example `git worktree add ../base HEAD~1 && (cd ../base && npm ci && npm run build)`.
+ *   QUADATLAS_BENCH_BASE names that checkout (base-checkout.ts).
  */
 import { spawnSync } from 'node:child_process';
-import { existsSync, mkdtempSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
+import { mkdtempSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
 import os from 'node:os';
 import path from 'node:path';
 import type { BenchContext, BenchRow, BenchSection } from './bench-section.js';
+import { compareWithBase, spread } from './base-checkout.js';
 
 const RUNS = 3;
 
@@ -46,17 +46,6 @@ function run(root: string, args: readonly string[]): Timed {
   } finally {
     rmSync(dir, { recursive: true, force: true });
   }
-}
-
-interface Spread {
-  median: number;
-  min: number;
-  max: number;
-}
-
-function spread(values: number[]): Spread {
-  const s = [...values].sort((a, b) => a - b);
-  return { median: s[Math.floor(s.length / 2)]!, min: s[0]!, max: s[s.length - 1]! };
 }
 
 function plateArgs(args: readonly string[]): string[] {
@@ -138,21 +127,15 @@ export const posterSection: BenchSection = {
       );
       const args = posterArgs(sheetFile);
       const rows = speedUp(root, 'A3 poster', args);
-      const base = process.env['QUADATLAS_BENCH_BASE'];
-      if (base !== undefined && existsSync(path.join(base, 'dist/src/cli/main.js'))) {
-        const before: Timed[] = [];
-        const after: Timed[] = [];
-        for (let k = 0; k < RUNS; k++) {
-          before.push(run(base, [...args, '--workers', '2']));
-          after.push(run(root, [...args, '--workers', '2']));
-        }
-        const ratio = spread(before.map((b, k) => b.plate / after[k]!.plate));
-        const commit = readFileSync(path.join(base, '.git'), 'utf8').trim();
-        rows.push(row('A3 poster, previous commit, 2 workers', before));
-        rows.push(row('A3 poster, this commit, 2 workers', after, { faster: ratio.median, 'faster min': ratio.min, 'faster max': ratio.max }));
-        context.note(`previous commit: the checkout at ${base} (${commit.startsWith('gitdir') ? 'a worktree' : 'a clone'}); faster = its plate seconds / ours, paired runs`);
-      } else {
-        context.note('QUADATLAS_BENCH_BASE unset (or not built): the comparison with the previous commit was skipped');
+      const cmp = compareWithBase(
+        context,
+        RUNS,
+        (checkout) => run(checkout, [...args, '--workers', '2']),
+        (t) => t.plate,
+      );
+      if (cmp !== undefined) {
+        rows.push(row('A3 poster, previous commit, 2 workers', cmp.before));
+        rows.push(row('A3 poster, this commit, 2 workers', cmp.after, { faster: cmp.faster.median, 'faster min': cmp.faster.min, 'faster max': cmp.faster.max }));
       }
       return rows;
     } finally {

@@ -72,3 +72,16 @@ function sqrtIm(a: number, b: number, re: number): number {
   const t = Math.sqrt(0.5 * (Math.hypot(a, b) - a));
   return b < 0 ? -t : t;
 }
+
+/**
+ * Whether c lies outside the main cardioid by more than `margin` in the A3
+ * polynomial q (q + (x - 1/4)) - y^2 / 4, which is 0 on its boundary: then no
+ * fixed point of z^2 + c attracts, and a search for cycles can leave
+ * period 1 out. The margin covers rounding of c and of the polynomial.
+ */
+export function outsideMainCardioid(cRe: number, cIm: number, margin: number): boolean {
+  const x = cRe - 0.25,
+    y2 = cIm * cIm;
+  const q = x * x + y2;
+  return q * (q + x) - 0.25 * y2 > margin;
+}

@@ -19,6 +19,7 @@ import { writeFileAtomic } from '../io/write-file-atomic.js';
 import { legendBounds, legendSvg, presentPeriods } from '../colour/legend.js';
 import { figureFont } from '../figure/figure-font.js';
 import { DEFAULT_ESCAPE_RADIUS } from '../plane/sample-parameters.js';
+import { BLA_ENTRY_BYTES, DENSE_ENTRIES, blaEntriesAtMost } from '../plane/deep/bla-table.js';
 import type { PlateJob, TileStats } from './plate-job.js';
 import { createProgress } from './progress.js';
 import { bytesPerPixel, DEFAULT_STRIP_BUDGET, DEFAULT_TILE_SIZE, renderPlate, type DataSink, type PlateSinks } from './render-plate.js';
@@ -91,24 +92,24 @@ export function plateMetadata(
 
 /** Bytes a deep plate's orbit and table hold, at most, for this limit (see deepBound). */
 const ORBIT_BYTES = 40;
-const TABLE_BYTES = 2 * 84;
-export const DEEP_BOUND_RULE = `reference ${ORBIT_BYTES} bytes an iterate (two doubles, and room for a full-range copy of a tiny one), table ${TABLE_BYTES} bytes an iterate (two entries of 84 bytes), over min(limit, period) iterates`;
+export const DEEP_BOUND_RULE = `reference ${ORBIT_BYTES} bytes an iterate (two doubles, and room for a full-range copy of a tiny one), table ${BLA_ENTRY_BYTES} bytes an entry (about two an iterate, or an entry at every start within ${DENSE_ENTRIES} entries), over min(limit, period) iterates`;
 
 /**
  * The memory bound of a deep plate's reference orbit and table: they hold
  * min(limit, period) iterates (one cycle for a nucleus reference, the orbit
- * to its escape otherwise, never beyond the limit) and the table about two
- * entries an iterate; 40 bytes an iterate for the orbit leave room for a
- * full-range copy (24 bytes) of every iterate below 2^-500, though such
- * iterates are rare.
+ * to its escape otherwise, never beyond the limit) and the table's entries
+ * for that many (blaEntriesAtMost); 40 bytes an iterate for the orbit leave
+ * room for a full-range copy (24 bytes) of every iterate below 2^-500,
+ * though such iterates are rare.
  */
 export function deepBound(iterations: number, sheet: Pick<Sheet, 'reference' | 'skip'>): number {
   const iterates = (sheet.reference === null || sheet.reference === undefined ? iterations : Math.min(iterations, sheet.reference.period)) + 1;
-  return iterates * (ORBIT_BYTES + (sheet.skip ? TABLE_BYTES : 0));
+  return iterates * ORBIT_BYTES + (sheet.skip ? BLA_ENTRY_BYTES * blaEntriesAtMost(iterates - 1) : 0);
 }
 
+/** The longest orbit whose bound fits in half the memory (the aligned table's two entries an iterate; a denser one adds at most 22 MB). */
 function mostDeepIterations(sheet: Pick<Sheet, 'skip'>): number {
-  return Math.floor(os.totalmem() / 2 / (ORBIT_BYTES + (sheet.skip ? TABLE_BYTES : 0)));
+  return Math.floor(os.totalmem() / 2 / (ORBIT_BYTES + (sheet.skip ? 2 * BLA_ENTRY_BYTES : 0)));
 }
 
 function round3(x: number): number {

@@ -181,8 +181,10 @@ describe('plate --reference RE,IM,79 --iterations auto', () => {
     const json = JSON.parse(r.stdout) as Summary;
     expect(json.iterations).toBeGreaterThan(79);
     expect(json.precision.memory.referenceIterates).toBe(79);
-    // bound: (79 + 1) iterates x (40 orbit + 168 table) bytes (render-sheet.ts deepBound)
-    expect(json.precision.memory.bound).toBe(80 * 208);
+    // bound (render-sheet.ts deepBound): (79 + 1) iterates x 40 orbit bytes, and a
+    // table with an entry at every start m = 1..78 on each of its 8 levels
+    // (skips of 1 to 128), 84 bytes an entry
+    expect(json.precision.memory.bound).toBe(80 * 40 + 78 * 8 * 84);
     expect(json.precision.memory.referenceBytes + json.precision.memory.tableBytes).toBeLessThanOrEqual(json.precision.memory.bound);
   });
 });

@@ -1,6 +1,6 @@
 import { describe, expect, it } from 'vitest';
 import { attractingCycle, createCycleResult } from '../../src/plane/attracting-cycle.js';
-import { closedFormCycle } from '../../src/plane/closed-form-cycle.js';
+import { closedFormCycle, outsideMainCardioid } from '../../src/plane/closed-form-cycle.js';
 
 /** c = m/2 - m^2/4 for a multiplier m = r e^{i t} (main cardioid formula, docs/checks.md). */
 function cardioidPoint(r: number, t: number): [number, number] {
@@ -106,5 +106,29 @@ describe('closedFormCycle', () => {
         expect([v.wIm, v.mulIm]).toEqual([-u.wIm, -u.mulIm]);
       }
     }
+  });
+});
+
+describe('outsideMainCardioid', () => {
+  it('is false on and inside the cardioid c = m/2 - m^2/4, |m| <= 1, and true beyond it by more than the margin', () => {
+    // the boundary |m| = 1 and the interior |m| = 0.5 (exact algebra: the fixed point m/2 has multiplier m)
+    for (let k = 0; k < 64; k++) {
+      const t = (2 * Math.PI * k) / 64;
+      for (const r of [1, 0.5]) {
+        const mr = r * Math.cos(t),
+          mi = r * Math.sin(t);
+        const cr = mr / 2 - (mr * mr - mi * mi) / 4,
+          ci = mi / 2 - (2 * mr * mi) / 4;
+        expect(outsideMainCardioid(cr, ci, 2 ** -30)).toBe(false);
+      }
+      // |m| = 1.01: outside when the other fixed point (multiplier 2 - m) repels too
+      const mr = 1.01 * Math.cos(t),
+        mi = 1.01 * Math.sin(t);
+      if (Math.hypot(2 - mr, mi) > 1.01) expect(outsideMainCardioid(mr / 2 - (mr * mr - mi * mi) / 4, mi / 2 - (2 * mr * mi) / 4, 2 ** -30)).toBe(true);
+    }
+    // c = i (Misiurewicz, preperiodic) and c = 0.3 (beyond the cusp at 1/4) are outside; c = 0 inside
+    expect(outsideMainCardioid(0, 1, 2 ** -30)).toBe(true);
+    expect(outsideMainCardioid(0.3, 0, 2 ** -30)).toBe(true);
+    expect(outsideMainCardioid(0, 0, 2 ** -30)).toBe(false);
   });
 });

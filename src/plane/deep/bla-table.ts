@@ -15,8 +15,19 @@
  * - merge x (first) then y: A = A_y A_x, B = A_y B_x + B_y,
  *   R = max(0, min(R_x, (R_y - |B_x| |c|max) / |A_x|)).
  * - levels: level 0 holds single steps m = 1..M-1 (step 0 is never linear
- *   since Z_0 = 0); level j entry i merges level j-1 entries 2i and 2i+1 and
- *   starts at m = 1 + i 2^j.
+ *   since Z_0 = 0); a level-j entry from m merges the level-(j-1) entries
+ *   from m and from m + 2^(j-1) (or copies the first where the second would
+ *   start at or past M), so it skips min(2^j, M - m) iterations.
+ * - where entries start: the table of the sources starts level j only at
+ *   m = 1 + i 2^j (about 2M entries in all), so that a pixel that had to stop
+ *   at an odd m climbs back through skips of 1, 2, 4, ... iterations. Here
+ *   level j starts at every m = 1 + i 2^max(0, j - g), the first g levels
+ *   at every iteration ("denser" by g). Every level starts at every m
+ *   (M entries a level) while that stays within DENSE_ENTRIES, else g = 0,
+ *   the sources' table (see blaDensity): short orbits such as one cycle of a
+ *   nucleus get a skip of every power-of-two length from every iteration, so
+ *   the climb costs nothing; long orbits keep the aligned table and its
+ *   memory.
  *
  * B (which grows like 1/|c|) is stored as a floatexp and R as log2 R, so
  * the table works at any depth, including the rescaled iterations below
@@ -36,6 +47,11 @@ import { exponentOf, ldexp } from '../../precise/floatexp.js';
 export interface BlaTable {
   /** Number of levels; level j has counts[j] entries starting at offsets[j]. */
   readonly levels: number;
+  /**
+   * g: level j's entry i starts at m = 1 + i 2^max(0, j - g) (0: the
+   * sources' aligned table; at least levels - 1: an entry at every m).
+   */
+  readonly dense: number;
   readonly offsets: Int32Array;
   readonly counts: Int32Array;
   readonly aRe: Float64Array;
@@ -79,6 +95,54 @@ export interface BlaOptions {
    * skips more and changes more counts; see the measurements in the tests.
    */
   readonly epsilon?: number;
+  /** The density g (default blaDensity(M): 0, the sources' aligned table, or every start). */
+  readonly dense?: number;
+}
+
+/**
+ * Entries a table with every start may hold (84 bytes each: 22 MB). One
+ * cycle of a period-1012 nucleus needs 11 000, an orbit of 16 384 iterates
+ * (the 1e-1000 view near c = i) 246 000; an orbit of 20 000 already 300 000.
+ */
+export const DENSE_ENTRIES = 2 ** 18;
+
+/** Entries per level of a table over M iterates denser by g (level 0 first). */
+function levelCounts(M: number, dense: number): number[] {
+  const n0 = Math.max(0, M - 1);
+  const counts: number[] = [];
+  for (let j = 0; ; j++) {
+    counts.push(Math.ceil(n0 / 2 ** Math.max(0, j - dense)));
+    // the top level holds an entry that skips the whole orbit from m = 1
+    if (2 ** j >= n0) break;
+  }
+  return counts;
+}
+
+/**
+ * The density g of the table for M iterates: an entry at every start
+ * (g = levels - 1) within DENSE_ENTRIES, else 0. Densities in between were
+ * tried and dropped: from an odd m the longest entry is then at level g, and
+ * its skip of 2^g lands on an odd m again, so the greedy lookup never climbs
+ * (bench deep plate: 121.6 operations per pixel at g = 1, 93.6 at g = 0, 66.6
+ * at every start).
+ */
+export function blaDensity(M: number): number {
+  const top = levelCounts(M, 0).length - 1;
+  return levelCounts(M, top).reduce((a, b) => a + b, 0) <= DENSE_ENTRIES ? top : 0;
+}
+
+/** Bytes an entry holds (the arrays of BlaTable: 9 doubles and 3 32-bit integers). */
+export const BLA_ENTRY_BYTES = 84;
+
+/**
+ * The most entries the table of any orbit of at most M iterates holds: an
+ * aligned table (about 2M), or a denser one within DENSE_ENTRIES and within
+ * an entry at every start of M iterates.
+ */
+export function blaEntriesAtMost(M: number): number {
+  const sum = (counts: number[]): number => counts.reduce((a, b) => a + b, 0);
+  const aligned = levelCounts(M, 0);
+  return Math.max(sum(aligned), Math.min(DENSE_ENTRIES, sum(levelCounts(M, aligned.length))));
 }
 
 /**
@@ -92,14 +156,13 @@ export function buildBlaTable(orbit: ReferenceOrbit, unitExponent: number, delta
   const logC = deltaMax > 0 ? Math.log2(deltaMax) + unitExponent : -Infinity;
   const M = orbit.length;
   const n0 = Math.max(0, M - 1);
-  const counts: number[] = [];
+  const dense = options.dense ?? blaDensity(M);
+  const counts = levelCounts(M, dense);
   const offsets: number[] = [];
   let total = 0;
-  for (let c = n0; ; c = Math.ceil(c / 2)) {
-    counts.push(c);
+  for (const c of counts) {
     offsets.push(total);
     total += c;
-    if (c <= 1) break;
   }
   const levels = counts.length;
   const aRe = new Float64Array(total);
@@ -132,11 +195,15 @@ export function buildBlaTable(orbit: ReferenceOrbit, unitExponent: number, delta
     const src = offsets[j - 1]!;
     const dst = offsets[j]!;
     const cnt = counts[j]!;
-    const srcCount = counts[j - 1]!;
+    // starts of level j are 2^sj apart, of level j - 1 2^sx apart
+    const sj = Math.max(0, j - dense),
+      sx = Math.max(0, j - 1 - dense);
+    const half = 2 ** (j - 1);
     for (let i = 0; i < cnt; i++) {
-      const x = src + 2 * i;
+      const m = 1 + i * 2 ** sj;
+      const x = src + ((m - 1) >> sx);
       const d = dst + i;
-      if (2 * i + 1 >= srcCount) {
+      if (m + half > n0) {
         aRe[d] = aRe[x]!;
         aIm[d] = aIm[x]!;
         bRe[d] = bRe[x]!;
@@ -148,7 +215,7 @@ export function buildBlaTable(orbit: ReferenceOrbit, unitExponent: number, delta
         minAt[d] = minAt[x]!;
         continue;
       }
-      const y = x + 1;
+      const y = src + ((m - 1 + half) >> sx);
       const axr = aRe[x]!,
         axi = aIm[x]!,
         ayr = aRe[y]!,
@@ -191,10 +258,12 @@ export function buildBlaTable(orbit: ReferenceOrbit, unitExponent: number, delta
       const r = logSubtract(logRadius[y]!, lbx + logC) - lax;
       const rx = logRadius[x]!;
       const lr = r < rx ? r : rx;
-      logRadius[d] = Number.isNaN(lr) ? -Infinity : lr;
+      // an A beyond the double range cannot be applied (the kernel moves a
+      // large but finite A into its scale, step-loop.ts)
+      logRadius[d] = Number.isNaN(lr) || !(Number.isFinite(aRe[d]!) && Number.isFinite(aIm[d]!)) ? -Infinity : lr;
       skip[d] = skip[x]! + skip[y]!;
-      // passed over: those of x, the iterate x lands on (Z at 1 + i 2^j + l_x), those of y; the first minimum
-      const land = 1 + i * 2 ** j + skip[x]!;
+      // passed over: those of x, the iterate x lands on (Z at m + l_x), those of y; the first minimum
+      const land = m + skip[x]!;
       const nl = re[land]! * re[land]! + im[land]! * im[land]!;
       let mn = minNorm[x]!,
         at = minAt[x]!;
@@ -221,6 +290,7 @@ export function buildBlaTable(orbit: ReferenceOrbit, unitExponent: number, delta
   }
   return {
     levels,
+    dense,
     offsets: Int32Array.from(offsets),
     counts: Int32Array.from(counts),
     aRe,
@@ -250,15 +320,16 @@ function logSubtract(a: number, b: number): number {
 /**
  * The index of the entry to apply at reference iteration m for a delta with
  * log2 |z| = logZ (c units), skipping at most maxSkip iterations; -1 if none
- * is valid. Tries the longest aligned entry first and halves.
+ * is valid. Tries the longest entry that starts at m first and halves.
  */
 export function findBla(table: BlaTable, m: number, logZ: number, maxSkip: number): number {
   if (m < 1) return -1;
   const k = m - 1;
-  // highest level at which an entry starts at m: the trailing zero bits of k
-  let j = k === 0 ? table.levels - 1 : Math.min(table.levels - 1, 31 - Math.clz32(k & -k));
+  const g = table.dense;
+  // highest level at which an entry starts at m: g + the trailing zero bits of k
+  let j = k === 0 ? table.levels - 1 : Math.min(table.levels - 1, g + 31 - Math.clz32(k & -k));
   for (; j >= 0; j--) {
-    const i = k >> j;
+    const i = k >> (j > g ? j - g : 0);
     if (i >= table.counts[j]!) continue;
     const e = table.offsets[j]! + i;
     if (logZ < table.logRadius[e]! && table.skip[e]! <= maxSkip) return e;

@@ -60,9 +60,11 @@
  * Data shapes: ReferenceOrbit = { centreRe, centreIm: string; bits, length,
  * escapeRadius, period: number; escaped: boolean; re, im: Float64Array(M+1);
  * tinyIndex: Int32Array, tinyRe, tinyIm: Float64Array, tinyExp: Int32Array }.
- * BlaTable = { levels, epsilon: number; offsets, counts, bExp, skip, minAt:
- * Int32Array; aRe, aIm, bRe, bIm, logRadius, minNorm: Float64Array } (about
- * 2M entries, 80 bytes each, for an orbit of length M). DeepSettings below.
+ * BlaTable = { levels, dense, epsilon, unitExponent: number; offsets,
+ * counts, bExp, skip, minAt: Int32Array; aRe, aIm, bRe, bIm, bTileRe,
+ * bTileIm, radius2, logRadius, minNorm: Float64Array } (84 bytes an entry:
+ * about 2M for an orbit of length M, or M log2 M with every start, see
+ * bla-table.ts). DeepSettings below.
  */
 import type { ReferenceOrbit } from '../../precise/reference-orbit.js';
 import { ldexp } from '../../precise/floatexp.js';
@@ -70,6 +72,7 @@ import type { BlaTable } from './bla-table.js';
 import type { SampleSet } from '../sample-set.js';
 import { PERIOD_ESCAPED, PERIOD_UNDECIDED } from '../sample-set.js';
 import { smoothCount } from '../smooth-count.js';
+import { outsideMainCardioid } from '../closed-form-cycle.js';
 import { confirmCycle, exactPeriod } from './cycle.js';
 import { interiorDistanceDeep, interiorDistanceScaled } from './interior-distance.js';
 import { run } from './step-loop.js';
@@ -96,6 +99,9 @@ import {
 } from './state.js';
 
 export { createDeepStats, type DeepSettings, type DeepStats } from './state.js';
+
+/** Margin of the cardioid test (closed-form-cycle.ts): far above the rounding of c ~ 1 and of the polynomial. */
+const FIXED_POINT_MARGIN = 2 ** -30;
 
 /**
  * Samples `count` parameters c = C + (dcRe[k] + i dcIm[k]) 2^U around the
@@ -131,13 +137,22 @@ export function sampleDeep(
   const res = new Float64Array(5);
   const d = new Float64Array(3);
   const { period, smooth, distance, mulRe, mulIm } = out;
+  // c = C + offset in doubles, for the cardioid test only (C = Z_1)
+  const unit = ldexp(1, U);
+  const cRe = reference.length >= 1 ? reference.re[1]! : 0,
+    cIm = reference.length >= 1 ? reference.im[1]! : 0;
   for (let idx = 0; idx < count; idx++) {
     const dlr = dcRe[idx]!,
       dli = dcIm[idx]!;
+    // The first iterate is always a new minimum, so 1 is every pixel's first
+    // candidate; outside the main cardioid (A3) no fixed point attracts and
+    // its test, which cuts the first skip, is left out.
+    const noFixedPoint = outsideMainCardioid(cRe + dlr * unit, cIm + dli * unit, FIXED_POINT_MARGIN);
     startState(st, 0, 0, 0, dlr, dli, U);
     // Checks come in pairs: arm (save the full value, reset the product) and,
-    // one candidate period later, test. Arms sit at n_min + 2^t p (doubling,
-    // as in Brent's method), so skips are capped only inside the armed period.
+    // one candidate period later, test. Arms sit at the first iteration a
+    // step or skip reaches at or after n_min + 2^t p (doubling, as in Brent's
+    // method), so skips are capped only where a test must land.
     let candidate = 0;
     let minAt = 0;
     let doubling = 1;
@@ -154,8 +169,13 @@ export function sampleDeep(
     mulRe[idx] = 0;
     mulIm[idx] = 0;
     for (;;) {
-      const stop = Math.min(maxIterations, nextCheck);
-      const ev = run(o, bla, st, stop, interior, R2, U, stats);
+      // only a test needs to land exactly one period after its arm; an arm
+      // waits for the first step or skip that ends at or past its point
+      const ev = armed
+        ? run(o, bla, st, Math.min(maxIterations, nextCheck), interior, R2, U, stats)
+        : st[N]! >= nextCheck
+          ? EV_STOP
+          : run(o, bla, st, maxIterations, interior, R2, U, stats, nextCheck);
       if (ev === EV_ESCAPED) {
         const fr = st[FR]!,
           fi = st[FI]!;
@@ -173,6 +193,10 @@ export function sampleDeep(
         minAt = st[N]!;
         doubling = 1;
         armed = false; // arm right here
+        if (candidate === 1 && noFixedPoint) {
+          nextCheck = Infinity;
+          continue;
+        }
       } else if (armed) {
         // test: one candidate period after the arm
         const lr = ldexp(st[PR]!, st[PE]!),

@@ -41,10 +41,22 @@ import {
 
 /**
  * Advances the pixel until n = stopAt, escape, or (when `track`) a new
- * atom-domain minimum. Returns EV_*. The running product of 2 (Z_m + z_n)
- * (D_z of the orbit since the last reset) is kept in st[PR, PI] * 2^st[PE].
+ * atom-domain minimum, or until the first step or skip that ends at or after
+ * `pauseAt` (which, unlike stopAt, does not shorten skips). Returns EV_*. The
+ * running product of 2 (Z_m + z_n) (D_z of the orbit since the last reset)
+ * is kept in st[PR, PI] * 2^st[PE].
  */
-export function run(o: Orbit, bla: BlaTable | null, st: Float64Array, stopAt: number, track: boolean, escapeRadius2: number, unitExponent: number, stats: DeepStats): number {
+export function run(
+  o: Orbit,
+  bla: BlaTable | null,
+  st: Float64Array,
+  stopAt: number,
+  track: boolean,
+  escapeRadius2: number,
+  unitExponent: number,
+  stats: DeepStats,
+  pauseAt = Infinity,
+): number {
   const re = o.re,
     im = o.im,
     M = o.M;
@@ -98,17 +110,26 @@ export function run(o: Orbit, bla: BlaTable | null, st: Float64Array, stopAt: nu
       const maxSkip = stopAt - n;
       const minLimit = track && minK === 0 ? MIN_DROP * minN : 0;
       const kk = m - 1;
-      let j = kk === 0 ? bla.levels - 1 : Math.min(bla.levels - 1, 31 - Math.clz32(kk & -kk));
+      const g = bla.dense;
+      // radii never grow with the level at one start (bla-table.ts): where the
+      // single step from m is not linear, no longer skip is, so one test
+      // settles the steps of the nonlinear phase
+      const e0 = bla.offsets[0]! + kk;
+      const linear = kk < bla.counts[0]! && (k === 0 ? w2 < bla.radius2[e0]! : logZ < bla.logRadius[e0]!);
+      let j = !linear ? -1 : kk === 0 ? bla.levels - 1 : Math.min(bla.levels - 1, g + 31 - Math.clz32(kk & -kk));
       for (; j >= 0; j--) {
-        const i = kk >> j;
+        const i = kk >> (j > g ? j - g : 0);
         if (i >= bla.counts[j]!) continue;
         const e = bla.offsets[j]! + i;
         const l = bla.skip[e]!;
         if ((k === 0 ? w2 < bla.radius2[e]! : logZ < bla.logRadius[e]!) && l <= maxSkip && bla.minNorm[e]! >= minLimit) {
-          const ar = bla.aRe[e]!,
+          let ar = bla.aRe[e]!,
             ai = bla.aIm[e]!;
           // B c and B u in the units of w: B 2^(U - k)
           let cr: number, ci: number, ur: number, ui: number;
+          // rescaled mode: a large A (a long skip) goes into the scale 2^k
+          // rather than into w, whose square and the product P would overflow
+          let ea = 0;
           if (k === 0) {
             ur = bla.bTileRe[e]!;
             ui = bla.bTileIm[e]!;
@@ -117,7 +138,13 @@ export function run(o: Orbit, bla: BlaTable | null, st: Float64Array, stopAt: nu
           } else {
             const br = bla.bRe[e]!,
               bi = bla.bIm[e]!;
-            const fe = bla.bExp[e]! + unitExponent - k;
+            const mag = Math.abs(ar) + Math.abs(ai);
+            if (mag > W_HIGH) {
+              ea = exponentOf(mag);
+              ar = ldexp(ar, -ea);
+              ai = ldexp(ai, -ea);
+            }
+            const fe = bla.bExp[e]! + unitExponent - k - ea;
             cr = br * dlr - bi * dli;
             ci = br * dli + bi * dlr;
             ur = br;
@@ -149,6 +176,27 @@ export function run(o: Orbit, bla: BlaTable | null, st: Float64Array, stopAt: nu
           stats.skipped += l;
           stats.skips += 1;
           skipped = true;
+          if (ea !== 0) {
+            pe += ea;
+            st[K] = k + ea;
+            st[WR] = wr;
+            st[WI] = wi;
+            st[GR] = gr;
+            st[GI] = gi;
+            normalise(st);
+            k = st[K]! | 0;
+            wr = st[WR]!;
+            wi = st[WI]!;
+            gr = st[GR]!;
+            gi = st[GI]!;
+            if (k !== 0) {
+              s = k < -1000 ? 0 : ldexp(1, k);
+              sdr = ldexp(dlr, unitExponent - k);
+              sdi = ldexp(dli, unitExponent - k);
+              hs = ldexp(1, unitExponent - k);
+              lim = ldexp(1, k + 66);
+            }
+          }
           break;
         }
       }
@@ -386,6 +434,7 @@ export function run(o: Orbit, bla: BlaTable | null, st: Float64Array, stopAt: nu
       }
       if (event === EV_NEWMIN) break;
     }
+    if (n >= pauseAt) break;
   }
   stats.stepped += stepped;
   st[N] = n;
