@@ -1,3 +1,4 @@
+import { hypot2 } from '../plane/hypot2.js';
 import type { SampleSet } from '../plane/sample-set.js';
 import type { ColourSettings } from './colour-settings.js';
 import { gradientLinear, gradientPosition } from './exterior-gradients.js';
@@ -17,8 +18,13 @@ import { periodLinear } from './period-palette.js';
  */
 export function edgeKeep(distance: number, pixelSpacing: number, k: number): number {
   if (k <= 0 || !(distance >= 0) || distance === Infinity) return 1;
-  return Math.tanh(distance / pixelSpacing / k);
+  const x = distance / pixelSpacing / k;
+  // tanh rounds to exactly 1 from x = 22 on (fdlibm's s_tanh.c, which V8 ports, returns 1 there without evaluating).
+  return x >= TANH_ONE ? 1 : Math.tanh(x);
 }
+
+/** From here on tanh(x) is 1 in doubles: 1 - tanh(22) < 2 e^-44 < 2^-60, far below half an ulp of 1 (2^-54). */
+const TANH_ONE = 22;
 
 /**
  * Colours samples offset .. offset + count - 1 of a SampleSet into linear-light
@@ -67,7 +73,7 @@ export function shadeSamples(samples: SampleSet, offset: number, count: number, 
       else periodLinear(p, c);
       let factor = 1;
       if (useDepth) {
-        const m = Math.hypot(mulRe[k]!, mulIm[k]!);
+        const m = hypot2(mulRe[k]!, mulIm[k]!);
         factor *= 0.4 + 0.6 * (m < 1 ? m : 1);
       }
       if (useAngle) {

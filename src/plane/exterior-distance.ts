@@ -1,3 +1,5 @@
+import { hypot2 } from './hypot2.js';
+
 /**
  * Exterior distance estimate (docs/methods.md A2; Peitgen & Saupe (eds.), The
  * Science of Fractal Images (1988) p. 198; Wikibooks "Fractals/Iterations in
@@ -13,6 +15,16 @@
  * only escaped samples pay for it. Returns 0 if |d_n| overflowed.
  */
 export function exteriorDistance(cRe: number, cIm: number, iterations: number, zRe: number, zIm: number): number {
+  const mod2 = zRe * zRe + zIm * zIm;
+  return exteriorDistanceFromLog(cRe, cIm, iterations, mod2, Math.log(mod2));
+}
+
+/**
+ * exteriorDistance given |z_n|^2 = zRe * zRe + zIm * zIm and its natural
+ * logarithm, for callers that also need that logarithm (the smooth count
+ * does): the same operations, so the same double.
+ */
+export function exteriorDistanceFromLog(cRe: number, cIm: number, iterations: number, modulus2: number, logModulus2: number): number {
   let x = 0,
     y = 0,
     x2 = 0,
@@ -28,8 +40,7 @@ export function exteriorDistance(cRe: number, cIm: number, iterations: number, z
     x2 = x * x;
     y2 = y * y;
   }
-  const mod2 = zRe * zRe + zIm * zIm;
-  const d = Math.hypot(dr, di);
+  const d = hypot2(dr, di);
   if (!(d < Infinity)) return 0;
-  return (Math.sqrt(mod2) * Math.log(mod2)) / d;
+  return (Math.sqrt(modulus2) * logModulus2) / d;
 }

@@ -6,7 +6,8 @@
  * 1. One sample at the centre of every pixel of the tile and of a one-pixel
  *    apron around it (the apron samples are the neighbours' own centre
  *    samples, computed again here from the same coordinates, so they are
- *    bit-identical to what the neighbouring tile computes).
+ *    bit-identical to what the neighbouring tile computes). The apron only
+ *    feeds step 2, so a plate of one sample per pixel samples the tile alone.
  * 2. Adaptive refinement (docs/methods.md F1): a pixel gets `samples` stratified,
  *    jittered samples when one of its 8 neighbours differs in kind (escaped,
  *    interior, undecided) or period, when its distance estimate is below
@@ -174,8 +175,11 @@ export function renderTile(job: PlateJob, tile: Tile, scratch: TileScratch, loop
   const { grid } = job;
   const { x0, y0, w, h } = tile;
   if (w > scratch.maxTile || h > scratch.maxTile) throw new RangeError(`tile ${w}x${h} exceeds scratch ${scratch.maxTile}`);
-  const aw = w + 2;
-  const ah = h + 2;
+  // The apron only feeds the refinement flags; with one sample per pixel there are none, so it is skipped.
+  const refine = job.samples > 1;
+  const pad = refine ? 1 : 0;
+  const aw = w + 2 * pad;
+  const ah = h + 2 * pad;
   const n = aw * ah;
   // Distances come in c units (double, and deep above ~1e-271) or in units of 2^U (deeper).
   const spacing = job.deep !== undefined ? job.deep.spacingUnits : grid.spacing;
@@ -187,8 +191,8 @@ export function renderTile(job: PlateJob, tile: Tile, scratch: TileScratch, loop
   for (let j = 0; j < ah; j++) {
     for (let i = 0; i < aw; i++) {
       const k = j * aw + i;
-      xs[k] = x0 - 1 + i + 0.5;
-      ys[k] = y0 - 1 + j + 0.5;
+      xs[k] = x0 - pad + i + 0.5;
+      ys[k] = y0 - pad + j + 0.5;
     }
   }
   evaluate(job, xs, ys, n, scratch, centre, deepStats, loop);
@@ -199,10 +203,9 @@ export function renderTile(job: PlateJob, tile: Tile, scratch: TileScratch, loop
   const { linear, flags } = scratch;
 
   // 2. Which pixels need more samples.
-  const refine = job.samples > 1;
   for (let j = 0; j < h; j++) {
     for (let i = 0; i < w; i++) {
-      const k = (j + 1) * aw + (i + 1);
+      const k = (j + pad) * aw + (i + pad);
       const p = j * w + i;
       linear[3 * p] = centreLinear[3 * k]!;
       linear[3 * p + 1] = centreLinear[3 * k + 1]!;
@@ -317,7 +320,7 @@ export function renderTile(job: PlateJob, tile: Tile, scratch: TileScratch, loop
     const basin = job.julia !== undefined ? new Int32Array(pixelCount) : undefined;
     for (let j = 0; j < h; j++) {
       for (let i = 0; i < w; i++) {
-        const k = (j + 1) * aw + (i + 1);
+        const k = (j + pad) * aw + (i + pad);
         const p = j * w + i;
         const per = centre.period[k]!;
         period[p] = per;
