@@ -21,7 +21,7 @@
  *    then the legend (if inset) is composited and the result encoded to 8 or
  *    16 bits with coordinate-seeded dither.
  */
-import { encodePixels } from '../colour/encode-pixels.js';
+import { createSrgb8Encoder, encodePixels, type Srgb8Encoder } from '../colour/encode-pixels.js';
 import { paintLegendRect, type Legend } from '../colour/legend.js';
 import { shadeSamples } from '../colour/shade-samples.js';
 import { PERIOD_UNDECIDED } from '../plane/sample-set.js';
@@ -82,6 +82,8 @@ export interface TileScratch {
   readonly flags: Uint8Array;
   /** The kernel's own scratch, sized for the larger of the apron and a refinement batch. */
   readonly kernel: SampleScratch;
+  /** The WebAssembly 8-bit encoder of this thread (same bytes as the JS one), or undefined without WebAssembly SIMD. */
+  readonly encoder: Srgb8Encoder | undefined;
 }
 
 const REFINE_BATCH = 4096;
@@ -103,6 +105,7 @@ export function createTileScratch(maxTile: number): TileScratch {
     linear: new Float64Array(maxTile * maxTile * 3),
     flags: new Uint8Array(maxTile * maxTile),
     kernel: createSampleScratch(Math.max(apron, REFINE_BATCH)),
+    encoder: createSrgb8Encoder(),
   };
 }
 
@@ -304,7 +307,7 @@ export function renderTile(job: PlateJob, tile: Tile, scratch: TileScratch, loop
   for (const label of job.labels ?? []) paintLegendRect(label, x0, y0, w, h, linear);
   if (legend !== null) paintLegendRect(legend, x0, y0, w, h, linear);
   const pixels = job.depth === 16 ? new Uint16Array(pixelCount * 3) : new Uint8Array(pixelCount * 3);
-  encodePixels(linear, w, h, x0, y0, job.depth, pixels);
+  encodePixels(linear, w, h, x0, y0, job.depth, pixels, scratch.encoder);
 
   stats.stepped = deepStats.stepped;
   stats.skipped = deepStats.skipped;
