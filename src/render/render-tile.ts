@@ -80,6 +80,8 @@ export interface TileScratch {
   readonly refinedLinear: Float64Array;
   readonly linear: Float64Array;
   readonly flags: Uint8Array;
+  /** Interior pixels of a tile per period below its length (zero between tiles; larger periods are counted in the stats directly). */
+  readonly periodCounts: Int32Array;
   /** The kernel's own scratch, sized for the larger of the apron and a refinement batch. */
   readonly kernel: SampleScratch;
   /** The WebAssembly 8-bit encoder of this thread (same bytes as the JS one), or undefined without WebAssembly SIMD. */
@@ -104,6 +106,7 @@ export function createTileScratch(maxTile: number): TileScratch {
     refinedLinear: new Float64Array(REFINE_BATCH * 3),
     linear: new Float64Array(maxTile * maxTile * 3),
     flags: new Uint8Array(maxTile * maxTile),
+    periodCounts: new Int32Array(1024),
     kernel: createSampleScratch(Math.max(apron, REFINE_BATCH)),
     encoder: createSrgb8Encoder(),
   };
@@ -198,27 +201,31 @@ export function renderTile(job: PlateJob, tile: Tile, scratch: TileScratch, loop
       ys[k] = y0 - pad + j + 0.5;
     }
   }
+  const pixelCount = w * h;
+  const { linear, flags, periodCounts } = scratch;
   evaluate(job, xs, ys, n, scratch, centre, deepStats, loop);
-  shade(job, centre, n, spacing, centreLinear);
+  // Without an apron the centre samples are the tile's pixels in order: shade straight into `linear`.
+  shade(job, centre, n, spacing, refine ? centreLinear : linear);
 
   stats.samples += n;
-  const pixelCount = w * h;
-  const { linear, flags } = scratch;
 
   // 2. Which pixels need more samples.
   for (let j = 0; j < h; j++) {
     for (let i = 0; i < w; i++) {
       const k = (j + pad) * aw + (i + pad);
       const p = j * w + i;
-      linear[3 * p] = centreLinear[3 * k]!;
-      linear[3 * p + 1] = centreLinear[3 * k + 1]!;
-      linear[3 * p + 2] = centreLinear[3 * k + 2]!;
+      if (refine) {
+        linear[3 * p] = centreLinear[3 * k]!;
+        linear[3 * p + 1] = centreLinear[3 * k + 1]!;
+        linear[3 * p + 2] = centreLinear[3 * k + 2]!;
+      }
       const period = centre.period[k]!;
       if (period === 0) stats.escaped++;
       else if (period === PERIOD_UNDECIDED) stats.undecided++;
       else {
         stats.interior++;
-        stats.periods[period] = (stats.periods[period] ?? 0) + 1;
+        if (period < periodCounts.length) periodCounts[period]!++;
+        else stats.periods[period] = (stats.periods[period] ?? 0) + 1;
       }
       // NaN (no estimate) fails the comparison and counts as near.
       if (period !== PERIOD_UNDECIDED && !(centre.distance[k]! / spacing >= AREA_SURE_DISTANCE_PIXELS)) stats.nearBoundary++;
@@ -250,6 +257,11 @@ export function renderTile(job: PlateJob, tile: Tile, scratch: TileScratch, loop
       }
       flags[p] = flag;
     }
+  }
+  for (let p = 1; p < periodCounts.length; p++) {
+    if (periodCounts[p] === 0) continue;
+    stats.periods[p] = (stats.periods[p] ?? 0) + periodCounts[p]!;
+    periodCounts[p] = 0;
   }
 
   // 3. Stratified, jittered samples for flagged pixels, averaged in linear light.
