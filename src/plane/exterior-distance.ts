@@ -17,7 +17,7 @@ import { hypot2 } from './hypot2.js';
  * 4 vectors of f64x2, the orbits sorted by n so that lanes stop together)
  * was tried and dropped: on the whole-set plate it was no faster than this
  * loop (the orbits are short, n about 10, and copying in and out cost what
- * the lanes saved).
+ * the lanes saved); so was running two orbits interleaved in one JS loop.
  */
 export function exteriorDistance(cRe: number, cIm: number, iterations: number, zRe: number, zIm: number): number {
   const mod2 = zRe * zRe + zIm * zIm;
