@@ -1,5 +1,5 @@
 // Compiles the WebAssembly kernels (AssemblyScript sources named *.as under
-// src/plane/wasm/) and embeds each one's bytes, base64, in a generated module
+// src/plane/wasm/ and src/colour/wasm/) and embeds each one's bytes, base64, in a generated module
 // beside it (<name>-bytes.ts, committed), so that the kernels load
 // synchronously from src/ under vitest and from dist/ alike, with no file I/O.
 //
@@ -16,8 +16,7 @@ import path from 'node:path';
 import { fileURLToPath } from 'node:url';
 
 const root = path.resolve(path.dirname(fileURLToPath(import.meta.url)), '..');
-const wasmDir = path.join(root, 'src/plane/wasm');
-const distDir = path.join(root, 'dist/src/plane/wasm');
+const wasmDirs = ['plane/wasm', 'colour/wasm'];
 const ascPackage = path.join(root, 'node_modules/assemblyscript/package.json');
 const ascBin = path.join(root, 'node_modules/assemblyscript/bin/asc.js');
 const ascFlags = ['--enable', 'simd', '-O3', '--runtime', 'stub', '--noAssert', '--use', 'abort='];
@@ -70,12 +69,18 @@ function moduleText(name, key, bytes) {
   ].join('\n');
 }
 
-const sources = existsSync(wasmDir)
-  ? readdirSync(wasmDir)
-      .filter((f) => f.endsWith('.as'))
-      .sort()
-  : [];
-for (const file of sources) {
+for (const folder of wasmDirs) {
+  const wasmDir = path.join(root, 'src', folder);
+  const distDir = path.join(root, 'dist/src', folder);
+  const sources = existsSync(wasmDir)
+    ? readdirSync(wasmDir)
+        .filter((f) => f.endsWith('.as'))
+        .sort()
+    : [];
+  for (const file of sources) buildOne(wasmDir, distDir, file);
+}
+
+function buildOne(wasmDir, distDir, file) {
   const name = file.slice(0, -3);
   const sourceFile = path.join(wasmDir, file);
   const generated = path.join(wasmDir, `${name}-bytes.ts`);

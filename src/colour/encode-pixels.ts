@@ -1,4 +1,6 @@
+import { instantiateWasm } from '../plane/instantiate-wasm.js';
 import { linearToSrgb } from './oklab.js';
+import { WASM_BASE64 as SRGB8_WASM_BASE64 } from './wasm/encode-srgb8-bytes.js';
 
 /**
  * A 32-bit integer mixer: "lowbias32" from Chris Wellons' hash prospector
@@ -74,11 +76,22 @@ export function srgbEstimate(v: number): number {
  *   not dithered;
  * - depth 16: round to nearest, no dither (one step is below visibility).
  * NaN input encodes as 0. The result equals encoding with the exact curve
- * (linearToSrgb) channel for channel; the table above only saves time.
+ * (linearToSrgb) channel for channel; the table above only saves time, and
+ * so does `encoder` (createSrgb8Encoder, depth 8 only), which gives the same
+ * bytes as the JS loop.
  */
-export function encodePixels(linear: Float64Array, width: number, rows: number, x0: number, y0: number, depth: 8 | 16, out: Uint8Array | Uint16Array): void {
+export function encodePixels(
+  linear: Float64Array,
+  width: number,
+  rows: number,
+  x0: number,
+  y0: number,
+  depth: 8 | 16,
+  out: Uint8Array | Uint16Array,
+  encoder?: Srgb8Encoder,
+): void {
   if (depth === 16) encode16(linear, width * rows * 3, out as Uint16Array);
-  else encode8(linear, width, rows, x0, y0, out as Uint8Array);
+  else if (encoder === undefined || !encoder.encode(linear, width, rows, x0, y0, out as Uint8Array)) encode8(linear, width, rows, x0, y0, out as Uint8Array);
 }
 
 /** Depth 16: round to nearest, no dither. */
@@ -128,8 +141,48 @@ function certainRound(e: number, slack: number): number {
   return q === Math.floor(e + slack + 0.5) ? q : -1;
 }
 
-/** Per-column halves of ditherAt for one call: mix32(mix32(ch + K) ^ x) for each (x, ch), filled on demand. */
-let columnSeeds = new Uint32Array(0);
+/** The 8-bit rounding slack of the table (TABLE_ERROR in units of one step). */
+const SLACK8 = TABLE_ERROR * 255;
+
+/** The per-column halves s(x, ch) = mix32(mix32(ch + K) ^ x) of ditherAt for columns x0 .. x0 + width - 1, at seeds[3 i + ch]. */
+function fillColumnSeeds(x0: number, width: number, seeds: Uint32Array): void {
+  for (let ch = 0; ch < 3; ch++) {
+    const base = mix32(ch + 0x9e3779b9);
+    for (let i = 0; i < width; i++) seeds[3 * i + ch] = mix32(base ^ (x0 + i));
+  }
+}
+
+/**
+ * One channel at depth 8: linear value v of a pixel in row y whose column
+ * and channel have the seed s(x, ch) (fillColumnSeeds), so that
+ * mixBits(seed ^ y) is ditherAt(x, y, ch)'s hash.
+ */
+function encodeChannel8(v: number, seed: number, y: number): number {
+  const max = 255;
+  let q: number;
+  if (v > POWER_FROM && v < 0.999) {
+    // The power segment, away from white: the table decides unless the rounding is in doubt.
+    const h = mixBits(seed ^ y);
+    const shift = ((h & 0xffff) - (h >>> 16)) * (1 / 65536);
+    const e = srgbEstimate(v) * max + shift;
+    q = certainRound(e, SLACK8);
+    if (q < 0) q = Math.round(linearToSrgb(v) * max + shift);
+  } else if (v >= 1) {
+    // v >= 1 maps to max exactly (1.055 - 0.055 rounds just below 1 in doubles); white stays undithered.
+    q = max;
+  } else if (v > 0) {
+    const e = linearToSrgb(v) * max;
+    if (e >= max) q = max;
+    else {
+      const h = mixBits(seed ^ y);
+      q = Math.round(e + ((h & 0xffff) - (h >>> 16)) * (1 / 65536));
+    }
+  } else {
+    // Exact black (and NaN) stays exact, so print blacks are clean.
+    q = 0;
+  }
+  return q < 0 ? 0 : q > max ? max : q;
+}
 
 /**
  * Depth 8 with TPDF dither. ditherAt(x, y, ch) is mix32(s(x, ch) ^ y) with
@@ -137,43 +190,72 @@ let columnSeeds = new Uint32Array(0);
  * channel, and each channel costs one mix32; the values are ditherAt's.
  */
 function encode8(linear: Float64Array, width: number, rows: number, x0: number, y0: number, out: Uint8Array): void {
-  const max = 255;
-  const slack = TABLE_ERROR * max;
-  if (columnSeeds.length < width * 3) columnSeeds = new Uint32Array(width * 3);
-  const seeds = columnSeeds;
-  for (let ch = 0; ch < 3; ch++) {
-    const base = mix32(ch + 0x9e3779b9);
-    for (let i = 0; i < width; i++) seeds[3 * i + ch] = mix32(base ^ (x0 + i));
-  }
+  const seeds = new Uint32Array(width * 3);
+  fillColumnSeeds(x0, width, seeds);
   for (let j = 0; j < rows; j++) {
     const y = y0 + j;
     const rowStart = 3 * j * width;
-    for (let c = 0; c < 3 * width; c++) {
-      const p = rowStart + c;
-      const v = linear[p]!;
-      let q: number;
-      if (v > POWER_FROM && v < 0.999) {
-        // The power segment, away from white: the table decides unless the rounding is in doubt.
-        const h = mixBits(seeds[c]! ^ y);
-        const shift = ((h & 0xffff) - (h >>> 16)) * (1 / 65536);
-        const e = srgbEstimate(v) * max + shift;
-        q = certainRound(e, slack);
-        if (q < 0) q = Math.round(linearToSrgb(v) * max + shift);
-      } else if (v >= 1) {
-        // v >= 1 maps to max exactly (1.055 - 0.055 rounds just below 1 in doubles); white stays undithered.
-        q = max;
-      } else if (v > 0) {
-        const e = linearToSrgb(v) * max;
-        if (e >= max) q = max;
-        else {
-          const h = mixBits(seeds[c]! ^ y);
-          q = Math.round(e + ((h & 0xffff) - (h >>> 16)) * (1 / 65536));
-        }
-      } else {
-        // Exact black (and NaN) stays exact, so print blacks are clean.
-        q = 0;
-      }
-      out[p] = q < 0 ? 0 : q > max ? max : q;
-    }
+    for (let c = 0; c < 3 * width; c++) out[rowStart + c] = encodeChannel8(linear[rowStart + c]!, seeds[c]!, y);
   }
+}
+
+/** An 8-bit encoder with its own WebAssembly instance (createSrgb8Encoder), for one thread. */
+export interface Srgb8Encoder {
+  /** encode8's bytes into `out`; false (nothing written) when a row is wider than the module holds. */
+  encode(linear: Float64Array, width: number, rows: number, x0: number, y0: number, out: Uint8Array): boolean;
+}
+
+/** What the compiled module (wasm/encode-srgb8.as) exports. */
+interface Srgb8Exports {
+  readonly memory: { readonly buffer: ArrayBuffer };
+  capacity(): number;
+  linearPointer(): number;
+  seedsPointer(): number;
+  outPointer(): number;
+  doubtPointer(): number;
+  tablePointer(): number;
+  tableLength(): number;
+  encode8(width: number, rows: number, y0: number, slack: number): number;
+}
+
+/**
+ * The WebAssembly SIMD twin of encode8 (wasm/encode-srgb8.as): the table path
+ * of the power segment, the clip at white and black, four channels at a
+ * time; every channel it leaves in doubt is finished here by encodeChannel8,
+ * so the bytes are encode8's (test/colour/encode-pixels.test.ts compares
+ * them). Returns undefined without WebAssembly SIMD.
+ */
+export function createSrgb8Encoder(): Srgb8Encoder | undefined {
+  const exports = instantiateWasm(SRGB8_WASM_BASE64);
+  if (exports === undefined) return undefined;
+  const wasm = exports as Srgb8Exports;
+  const capacity = wasm.capacity();
+  const buffer = wasm.memory.buffer;
+  const lin = new Float64Array(buffer, wasm.linearPointer(), capacity);
+  const seeds = new Uint32Array(buffer, wasm.seedsPointer(), capacity);
+  const bytes = new Uint8Array(buffer, wasm.outPointer(), capacity);
+  const doubt = new Int32Array(buffer, wasm.doubtPointer(), capacity);
+  if (wasm.tableLength() !== TABLE.length) return undefined;
+  new Float64Array(buffer, wasm.tablePointer(), TABLE.length).set(TABLE);
+  return {
+    encode(linear, width, rows, x0, y0, out) {
+      const n3 = 3 * width;
+      if (n3 > capacity || n3 === 0) return n3 === 0;
+      fillColumnSeeds(x0, width, seeds);
+      const chunk = Math.floor(capacity / n3);
+      for (let j0 = 0; j0 < rows; j0 += chunk) {
+        const m = Math.min(chunk, rows - j0);
+        const base = j0 * n3;
+        lin.set(linear.subarray(base, base + m * n3));
+        const doubts = wasm.encode8(width, m, y0 + j0, SLACK8);
+        out.set(bytes.subarray(0, m * n3), base);
+        for (let d = 0; d < doubts; d++) {
+          const p = doubt[d]!;
+          const c = p % n3;
+          out[base + p] = encodeChannel8(linear[base + p]!, seeds[c]!, y0 + j0 + (p - c) / n3);
+        }
+      }
+      return true;
+    },
+  };
 }

@@ -113,3 +113,46 @@ export function gradientLinear<T extends Vec3>(name: ExteriorGradientName, t: nu
   }
   return out;
 }
+
+/** The stops of a named gradient in OKLab, flat [L, a, b, ...] (shared; never write to it). */
+export function gradientStopsOklab(name: ExteriorGradientName): Float64Array {
+  return STOPS_OKLAB[name];
+}
+
+/**
+ * gradientLinear on stops from gradientStopsOklab, written into out[o .. o + 2]
+ * of a Float64Array: the same operations in the same order (so the same
+ * doubles), in a form the shading loop calls with one array type only (the
+ * generic Vec3 functions see both number[] and Float64Array, and V8 then
+ * keeps their element access polymorphic).
+ */
+export function stopsLinear(lab: Float64Array, t: number, out: Float64Array, o: number): void {
+  const n = lab.length / 3;
+  const x = t * n;
+  let i = Math.floor(x);
+  if (i >= n) i = n - 1;
+  if (i < 0) i = 0;
+  const f = x - i;
+  const j = i + 1 === n ? 0 : i + 1;
+  const i3 = 3 * i,
+    j3 = 3 * j;
+  const L0 = lab[i3]!,
+    a0 = lab[i3 + 1]!,
+    b0 = lab[i3 + 2]!;
+  const L = L0 + (lab[j3]! - L0) * f;
+  const a = a0 + (lab[j3 + 1]! - a0) * f;
+  const b = b0 + (lab[j3 + 2]! - b0) * f;
+  // oklabToLinear (oklab.ts), term for term.
+  const l1 = L + 0.3963377774 * a + 0.2158037573 * b;
+  const m1 = L - 0.1055613458 * a - 0.0638541728 * b;
+  const s1 = L - 0.0894841775 * a - 1.291485548 * b;
+  const l3 = l1 * l1 * l1;
+  const m3 = m1 * m1 * m1;
+  const s3 = s1 * s1 * s1;
+  const r = 4.0767416621 * l3 - 3.3077115913 * m3 + 0.2309699292 * s3;
+  const g = -1.2684380046 * l3 + 2.6097574011 * m3 - 0.3413193965 * s3;
+  const bl = -0.0041960863 * l3 - 0.7034186147 * m3 + 1.707614701 * s3;
+  out[o] = r < 0 ? 0 : r > 1 ? 1 : r;
+  out[o + 1] = g < 0 ? 0 : g > 1 ? 1 : g;
+  out[o + 2] = bl < 0 ? 0 : bl > 1 ? 1 : bl;
+}

@@ -37,6 +37,14 @@ export function periodLinear<T extends Vec3>(p: number, out: T): T {
   return out;
 }
 
+/** periodLinear into out[o .. o + 2] of a Float64Array (the shading loop's monomorphic form; same values). */
+export function periodLinearAt(p: number, out: Float64Array, o: number): void {
+  const s = 3 * slot(p);
+  out[o] = TABLE.linear[s]!;
+  out[o + 1] = TABLE.linear[s + 1]!;
+  out[o + 2] = TABLE.linear[s + 2]!;
+}
+
 /** The colour of period p as '#rrggbb' (sRGB, 8 bits), for legends and metadata. */
 export function periodHex(p: number): string {
   const s = 3 * slot(p);

@@ -1,9 +1,10 @@
+import { hypot2 } from '../plane/hypot2.js';
 import type { SampleSet } from '../plane/sample-set.js';
 import type { ColourSettings } from './colour-settings.js';
-import { gradientLinear, gradientPosition } from './exterior-gradients.js';
+import { gradientPosition, gradientStopsOklab, stopsLinear } from './exterior-gradients.js';
 import { customGradientLinear, prepareGradient } from './gradient-stops.js';
 import { hexToLinear } from './oklab.js';
-import { periodLinear } from './period-palette.js';
+import { periodLinearAt } from './period-palette.js';
 
 /**
  * The fraction of a sample's own colour kept at distance `delta` pixels from
@@ -17,8 +18,13 @@ import { periodLinear } from './period-palette.js';
  */
 export function edgeKeep(distance: number, pixelSpacing: number, k: number): number {
   if (k <= 0 || !(distance >= 0) || distance === Infinity) return 1;
-  return Math.tanh(distance / pixelSpacing / k);
+  const x = distance / pixelSpacing / k;
+  // tanh rounds to exactly 1 from x = 22 on (fdlibm's s_tanh.c, which V8 ports, returns 1 there without evaluating).
+  return x >= TANH_ONE ? 1 : Math.tanh(x);
 }
+
+/** From here on tanh(x) is 1 in doubles: 1 - tanh(22) < 2 e^-44 < 2^-60, far below half an ulp of 1 (2^-54). */
+const TANH_ONE = 22;
 
 /**
  * Colours samples offset .. offset + count - 1 of a SampleSet into linear-light
@@ -47,50 +53,65 @@ export function shadeSamples(samples: SampleSet, offset: number, count: number, 
   const c = new Float64Array(3);
   const custom = settings.gradient === undefined ? null : prepareGradient(settings.gradient);
   const { exterior, countScale, cycle, edge, interiorEdge } = settings;
+  // The named gradient's stops, read here once; stopsLinear is gradientLinear's arithmetic on them.
+  const stops = gradientStopsOklab(exterior);
   const gradientOffset = settings.offset;
   const style = settings.interior;
   const useDepth = style === 'period-depth' || style === 'period-depth-angle';
   const useAngle = style === 'period-angle' || style === 'period-depth-angle';
   const { period, smooth, distance, mulRe, mulIm } = samples;
+  const inkR = ink[0]!,
+    inkG = ink[1]!,
+    inkB = ink[2]!;
 
+  // Each colour is written to out[o..o+2] first and blended toward the ink there: the same
+  // operations as blending a scratch colour, without the copy.
   for (let i = 0; i < count; i++) {
     const k = offset + i;
     const p = period[k]!;
+    const o = 3 * i;
     let keep = 1;
     if (p === 0) {
       const t = gradientPosition(smooth[k]!, countScale, cycle, gradientOffset);
-      if (custom === null) gradientLinear(exterior, t, c);
-      else customGradientLinear(custom, t, c);
+      if (custom === null) stopsLinear(stops, t, out, o);
+      else {
+        customGradientLinear(custom, t, c);
+        out[o] = c[0]!;
+        out[o + 1] = c[1]!;
+        out[o + 2] = c[2]!;
+      }
       keep = edgeKeep(distance[k]!, pixelSpacing, edge);
     } else if (p > 0) {
-      if (style === 'solid') c.set(solid);
-      else periodLinear(p, c);
-      let factor = 1;
-      if (useDepth) {
-        const m = Math.hypot(mulRe[k]!, mulIm[k]!);
-        factor *= 0.4 + 0.6 * (m < 1 ? m : 1);
+      if (style === 'solid') {
+        out[o] = solid[0]!;
+        out[o + 1] = solid[1]!;
+        out[o + 2] = solid[2]!;
+      } else periodLinearAt(p, out, o);
+      if (useDepth || useAngle) {
+        let factor = 1;
+        if (useDepth) {
+          const m = hypot2(mulRe[k]!, mulIm[k]!);
+          factor *= 0.4 + 0.6 * (m < 1 ? m : 1);
+        }
+        if (useAngle) {
+          let a = Math.atan2(mulIm[k]!, mulRe[k]!) / (2 * Math.PI);
+          if (a < 0) a += 1;
+          factor *= 0.7 + 0.3 * a;
+        }
+        out[o] = out[o]! * factor;
+        out[o + 1] = out[o + 1]! * factor;
+        out[o + 2] = out[o + 2]! * factor;
       }
-      if (useAngle) {
-        let a = Math.atan2(mulIm[k]!, mulRe[k]!) / (2 * Math.PI);
-        if (a < 0) a += 1;
-        factor *= 0.7 + 0.3 * a;
-      }
-      c[0] = c[0]! * factor;
-      c[1] = c[1]! * factor;
-      c[2] = c[2]! * factor;
       keep = edgeKeep(distance[k]!, pixelSpacing, interiorEdge);
     } else {
-      c.set(undecided);
+      out[o] = undecided[0]!;
+      out[o + 1] = undecided[1]!;
+      out[o + 2] = undecided[2]!;
     }
-    const o = 3 * i;
-    if (keep === 1) {
-      out[o] = c[0]!;
-      out[o + 1] = c[1]!;
-      out[o + 2] = c[2]!;
-    } else {
-      out[o] = ink[0]! + (c[0]! - ink[0]!) * keep;
-      out[o + 1] = ink[1]! + (c[1]! - ink[1]!) * keep;
-      out[o + 2] = ink[2]! + (c[2]! - ink[2]!) * keep;
+    if (keep !== 1) {
+      out[o] = inkR + (out[o]! - inkR) * keep;
+      out[o + 1] = inkG + (out[o + 1]! - inkG) * keep;
+      out[o + 2] = inkB + (out[o + 2]! - inkB) * keep;
     }
   }
 }

@@ -85,14 +85,23 @@ export function filterScanline(out: Uint8Array, offset: number, cur: Uint8Array,
       // With no left neighbour (a = c = 0) Paeth predicts b.
       const lead = Math.min(bpp, n);
       for (let i = 0; i < lead; i++) out[o + i] = cur[i]! - prev[i]!;
+      // Paeth's choice without branches (its outcome follows the image, so branches mispredict):
+      // take b over a when pb < pa, then c over that when pc is smaller still; ties keep a, then b,
+      // the order of the specification. Distances fit in 10 bits, so the sign masks are exact.
       for (let i = lead; i < n; i++) {
         const a = cur[i - bpp]!;
         const b = prev[i]!;
         const c = prev[i - bpp]!;
-        const pa = Math.abs(b - c);
-        const pb = Math.abs(a - c);
-        const pc = Math.abs(a + b - c - c);
-        out[o + i] = cur[i]! - (pa <= pb && pa <= pc ? a : pb <= pc ? b : c);
+        let pa = b - c;
+        let pb = a - c;
+        let pc = pa + pb;
+        pa = (pa ^ (pa >> 31)) - (pa >> 31);
+        pb = (pb ^ (pb >> 31)) - (pb >> 31);
+        pc = (pc ^ (pc >> 31)) - (pc >> 31);
+        const takeB = (pb - pa) >> 31;
+        const best = (pb & takeB) | (pa & ~takeB);
+        const takeC = (pc - best) >> 31;
+        out[o + i] = cur[i]! - ((c & takeC) | (((b & takeB) | (a & ~takeB)) & ~takeC));
       }
     }
   }

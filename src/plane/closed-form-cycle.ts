@@ -1,4 +1,5 @@
 import type { CycleResult } from './attracting-cycle.js';
+import { hypot2 } from './hypot2.js';
 
 /**
  * Closed-form interior test for the two components with exact formulas
@@ -61,7 +62,7 @@ export function closedFormCycle(cRe: number, cIm: number, out: CycleResult): num
  * (for b != 0), so conjugate parameters give conjugate results bit for bit.
  */
 function sqrtRe(a: number, b: number): number {
-  const r = Math.hypot(a, b);
+  const r = hypot2(a, b);
   if (a >= 0) return Math.sqrt(0.5 * (r + a));
   const t = Math.sqrt(0.5 * (r - a));
   return t > 0 ? Math.abs(b) / (2 * t) : 0;
@@ -69,7 +70,7 @@ function sqrtRe(a: number, b: number): number {
 
 function sqrtIm(a: number, b: number, re: number): number {
   if (a >= 0) return re > 0 ? b / (2 * re) : 0;
-  const t = Math.sqrt(0.5 * (Math.hypot(a, b) - a));
+  const t = Math.sqrt(0.5 * (hypot2(a, b) - a));
   return b < 0 ? -t : t;
 }
 

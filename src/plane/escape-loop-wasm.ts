@@ -1,15 +1,6 @@
 import { LOOP_MAXED, type EscapeLoop } from './escape-loop.js';
+import { instantiateWasm } from './instantiate-wasm.js';
 import { WASM_BASE64 } from './wasm/escape-loop-simd-bytes.js';
-
-/**
- * The part of the WebAssembly JS API used here, declared locally because the
- * project's lib (ES2022, no DOM) carries no WebAssembly types.
- */
-interface WasmApi {
-  validate(bytes: Uint8Array<ArrayBuffer>): boolean;
-  Module: new (bytes: Uint8Array<ArrayBuffer>) => object;
-  Instance: new (module: object, imports: object) => { readonly exports: object };
-}
 
 /** What the compiled module (wasm/escape-loop-simd.as) exports. */
 interface SimdExports {
@@ -32,13 +23,6 @@ const ROUND_GROWTH = 4;
 /** The largest iteration limit the module's 32-bit counter holds. */
 const MAX_LIMIT = 0x7fffffff;
 
-function decodeBase64(text: string): Uint8Array<ArrayBuffer> {
-  const binary = atob(text);
-  const bytes = new Uint8Array(binary.length);
-  for (let i = 0; i < binary.length; i++) bytes[i] = binary.charCodeAt(i);
-  return bytes;
-}
-
 /**
  * The WebAssembly SIMD twin of `escapeLoop` (escape-loop.ts): the same loop,
  * with the same operation order and results bit for bit, run on 8 samples
@@ -54,12 +38,9 @@ function decodeBase64(text: string): Uint8Array<ArrayBuffer> {
  * used by one thread. `maxIterations` is clamped to [0, 2^31 - 1].
  */
 export function loadWasmEscapeLoop(): EscapeLoop | undefined {
-  const wasm = (globalThis as { WebAssembly?: WasmApi }).WebAssembly;
-  if (wasm === undefined) return undefined;
-  const bytes = decodeBase64(WASM_BASE64);
-  if (!wasm.validate(bytes)) return undefined;
-  const instance = new wasm.Instance(new wasm.Module(bytes), {});
-  const simd = instance.exports as unknown as SimdExports;
+  const exports = instantiateWasm(WASM_BASE64);
+  if (exports === undefined) return undefined;
+  const simd = exports as SimdExports;
   const capacity = simd.capacity();
   const buffer = simd.memory.buffer;
   const inRe = new Float64Array(buffer, simd.crPointer(), capacity);

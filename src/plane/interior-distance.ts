@@ -1,3 +1,5 @@
+import { hypot2 } from './hypot2.js';
+
 /**
  * Interior distance estimate (docs/methods.md A6; Wikipedia "Plotting algorithms
  * for the Mandelbrot set", interior distance estimation; Wikibooks
@@ -56,6 +58,6 @@ export function interiorDistance(cRe: number, cIm: number, wRe: number, wIm: num
   const g2 = gr * gr + gi * gi;
   const qr = (pr * gr + pi * gi) / g2,
     qi = (pi * gr - pr * gi) / g2;
-  const den = Math.hypot(dczr + qr, dczi + qi);
+  const den = hypot2(dczr + qr, dczi + qi);
   return den > 0 ? (1 - mod2) / den : NaN;
 }

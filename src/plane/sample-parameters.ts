@@ -3,11 +3,11 @@ import type { CycleResult } from './attracting-cycle.js';
 import { closedFormCycle } from './closed-form-cycle.js';
 import { LOOP_CYCLE, LOOP_ESCAPED, LOOP_MAXED, createLoopOut, escapeLoop } from './escape-loop.js';
 import type { EscapeLoop, LoopOut } from './escape-loop.js';
-import { exteriorDistance } from './exterior-distance.js';
+import { exteriorDistanceFromLog } from './exterior-distance.js';
 import { interiorDistance } from './interior-distance.js';
 import { PERIOD_ESCAPED, PERIOD_UNDECIDED } from './sample-set.js';
 import type { EscapeSettings, SampleSet } from './sample-set.js';
-import { smoothCount } from './smooth-count.js';
+import { smoothCountFromLog } from './smooth-count.js';
 
 /**
  * Default escape radius R = 2^16. docs/methods.md A1/A2: R >= 2^8, larger is more
@@ -162,8 +162,10 @@ export function sampleParameters(
     }
     if (orbit.status === LOOP_ESCAPED) {
       out.period[k] = PERIOD_ESCAPED;
-      out.smooth[k] = smoothCount(orbit.n, orbit.x, orbit.y, logR);
-      out.distance[k] = exteriorDistance(a, b, orbit.n, orbit.x, orbit.y);
+      const mod2 = orbit.x * orbit.x + orbit.y * orbit.y;
+      const logMod2 = Math.log(mod2);
+      out.smooth[k] = smoothCountFromLog(orbit.n, logMod2, logR);
+      out.distance[k] = exteriorDistanceFromLog(a, b, orbit.n, mod2, logMod2);
       out.mulRe[k] = 0;
       out.mulIm[k] = 0;
     } else if (orbit.status === LOOP_CYCLE) {

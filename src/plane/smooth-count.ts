@@ -6,6 +6,15 @@
  * leaves smaller seams. `logEscapeRadius` is ln R.
  */
 export function smoothCount(iterations: number, zRe: number, zIm: number, logEscapeRadius: number): number {
+  return smoothCountFromLog(iterations, Math.log(zRe * zRe + zIm * zIm), logEscapeRadius);
+}
+
+/**
+ * smoothCount given logModulus2 = ln(|z_n|^2) = ln(zRe * zRe + zIm * zIm), for
+ * callers that also need that logarithm (the exterior distance does): the
+ * same operations, so the same double.
+ */
+export function smoothCountFromLog(iterations: number, logModulus2: number, logEscapeRadius: number): number {
   // ln|z| = ln(|z|^2) / 2
-  return iterations - Math.log2((0.5 * Math.log(zRe * zRe + zIm * zIm)) / logEscapeRadius);
+  return iterations - Math.log2((0.5 * logModulus2) / logEscapeRadius);
 }

@@ -6,7 +6,8 @@
  * 1. One sample at the centre of every pixel of the tile and of a one-pixel
  *    apron around it (the apron samples are the neighbours' own centre
  *    samples, computed again here from the same coordinates, so they are
- *    bit-identical to what the neighbouring tile computes).
+ *    bit-identical to what the neighbouring tile computes). The apron only
+ *    feeds step 2, so a plate of one sample per pixel samples the tile alone.
  * 2. Adaptive refinement (docs/methods.md F1): a pixel gets `samples` stratified,
  *    jittered samples when one of its 8 neighbours differs in kind (escaped,
  *    interior, undecided) or period, when its distance estimate is below
@@ -20,7 +21,7 @@
  *    then the legend (if inset) is composited and the result encoded to 8 or
  *    16 bits with coordinate-seeded dither.
  */
-import { encodePixels } from '../colour/encode-pixels.js';
+import { createSrgb8Encoder, encodePixels, type Srgb8Encoder } from '../colour/encode-pixels.js';
 import { paintLegendRect, type Legend } from '../colour/legend.js';
 import { shadeSamples } from '../colour/shade-samples.js';
 import { PERIOD_UNDECIDED } from '../plane/sample-set.js';
@@ -79,8 +80,12 @@ export interface TileScratch {
   readonly refinedLinear: Float64Array;
   readonly linear: Float64Array;
   readonly flags: Uint8Array;
+  /** Interior pixels of a tile per period below its length (zero between tiles; larger periods are counted in the stats directly). */
+  readonly periodCounts: Int32Array;
   /** The kernel's own scratch, sized for the larger of the apron and a refinement batch. */
   readonly kernel: SampleScratch;
+  /** The WebAssembly 8-bit encoder of this thread (same bytes as the JS one), or undefined without WebAssembly SIMD. */
+  readonly encoder: Srgb8Encoder | undefined;
 }
 
 const REFINE_BATCH = 4096;
@@ -101,7 +106,9 @@ export function createTileScratch(maxTile: number): TileScratch {
     refinedLinear: new Float64Array(REFINE_BATCH * 3),
     linear: new Float64Array(maxTile * maxTile * 3),
     flags: new Uint8Array(maxTile * maxTile),
+    periodCounts: new Int32Array(1024),
     kernel: createSampleScratch(Math.max(apron, REFINE_BATCH)),
+    encoder: createSrgb8Encoder(),
   };
 }
 
@@ -174,8 +181,11 @@ export function renderTile(job: PlateJob, tile: Tile, scratch: TileScratch, loop
   const { grid } = job;
   const { x0, y0, w, h } = tile;
   if (w > scratch.maxTile || h > scratch.maxTile) throw new RangeError(`tile ${w}x${h} exceeds scratch ${scratch.maxTile}`);
-  const aw = w + 2;
-  const ah = h + 2;
+  // The apron only feeds the refinement flags; with one sample per pixel there are none, so it is skipped.
+  const refine = job.samples > 1;
+  const pad = refine ? 1 : 0;
+  const aw = w + 2 * pad;
+  const ah = h + 2 * pad;
   const n = aw * ah;
   // Distances come in c units (double, and deep above ~1e-271) or in units of 2^U (deeper).
   const spacing = job.deep !== undefined ? job.deep.spacingUnits : grid.spacing;
@@ -187,32 +197,35 @@ export function renderTile(job: PlateJob, tile: Tile, scratch: TileScratch, loop
   for (let j = 0; j < ah; j++) {
     for (let i = 0; i < aw; i++) {
       const k = j * aw + i;
-      xs[k] = x0 - 1 + i + 0.5;
-      ys[k] = y0 - 1 + j + 0.5;
+      xs[k] = x0 - pad + i + 0.5;
+      ys[k] = y0 - pad + j + 0.5;
     }
   }
+  const pixelCount = w * h;
+  const { linear, flags, periodCounts } = scratch;
   evaluate(job, xs, ys, n, scratch, centre, deepStats, loop);
-  shade(job, centre, n, spacing, centreLinear);
+  // Without an apron the centre samples are the tile's pixels in order: shade straight into `linear`.
+  shade(job, centre, n, spacing, refine ? centreLinear : linear);
 
   stats.samples += n;
-  const pixelCount = w * h;
-  const { linear, flags } = scratch;
 
   // 2. Which pixels need more samples.
-  const refine = job.samples > 1;
   for (let j = 0; j < h; j++) {
     for (let i = 0; i < w; i++) {
-      const k = (j + 1) * aw + (i + 1);
+      const k = (j + pad) * aw + (i + pad);
       const p = j * w + i;
-      linear[3 * p] = centreLinear[3 * k]!;
-      linear[3 * p + 1] = centreLinear[3 * k + 1]!;
-      linear[3 * p + 2] = centreLinear[3 * k + 2]!;
+      if (refine) {
+        linear[3 * p] = centreLinear[3 * k]!;
+        linear[3 * p + 1] = centreLinear[3 * k + 1]!;
+        linear[3 * p + 2] = centreLinear[3 * k + 2]!;
+      }
       const period = centre.period[k]!;
       if (period === 0) stats.escaped++;
       else if (period === PERIOD_UNDECIDED) stats.undecided++;
       else {
         stats.interior++;
-        stats.periods[period] = (stats.periods[period] ?? 0) + 1;
+        if (period < periodCounts.length) periodCounts[period]!++;
+        else stats.periods[period] = (stats.periods[period] ?? 0) + 1;
       }
       // NaN (no estimate) fails the comparison and counts as near.
       if (period !== PERIOD_UNDECIDED && !(centre.distance[k]! / spacing >= AREA_SURE_DISTANCE_PIXELS)) stats.nearBoundary++;
@@ -244,6 +257,11 @@ export function renderTile(job: PlateJob, tile: Tile, scratch: TileScratch, loop
       }
       flags[p] = flag;
     }
+  }
+  for (let p = 1; p < periodCounts.length; p++) {
+    if (periodCounts[p] === 0) continue;
+    stats.periods[p] = (stats.periods[p] ?? 0) + periodCounts[p]!;
+    periodCounts[p] = 0;
   }
 
   // 3. Stratified, jittered samples for flagged pixels, averaged in linear light.
@@ -301,7 +319,7 @@ export function renderTile(job: PlateJob, tile: Tile, scratch: TileScratch, loop
   for (const label of job.labels ?? []) paintLegendRect(label, x0, y0, w, h, linear);
   if (legend !== null) paintLegendRect(legend, x0, y0, w, h, linear);
   const pixels = job.depth === 16 ? new Uint16Array(pixelCount * 3) : new Uint8Array(pixelCount * 3);
-  encodePixels(linear, w, h, x0, y0, job.depth, pixels);
+  encodePixels(linear, w, h, x0, y0, job.depth, pixels, scratch.encoder);
 
   stats.stepped = deepStats.stepped;
   stats.skipped = deepStats.skipped;
@@ -317,7 +335,7 @@ export function renderTile(job: PlateJob, tile: Tile, scratch: TileScratch, loop
     const basin = job.julia !== undefined ? new Int32Array(pixelCount) : undefined;
     for (let j = 0; j < h; j++) {
       for (let i = 0; i < w; i++) {
-        const k = (j + 1) * aw + (i + 1);
+        const k = (j + pad) * aw + (i + pad);
         const p = j * w + i;
         const per = centre.period[k]!;
         period[p] = per;

@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { ditherAt, encodePixels, mix32, srgbEstimate, TABLE_ERROR } from '../../src/colour/encode-pixels.js';
+import { createSrgb8Encoder, ditherAt, encodePixels, mix32, srgbEstimate, TABLE_ERROR } from '../../src/colour/encode-pixels.js';
 import { linearToSrgb, srgbToLinear } from '../../src/colour/oklab.js';
 
 describe('encodePixels', () => {
@@ -170,4 +170,51 @@ describe('encodePixels by table', () => {
       expect(Array.from(out)).toEqual(reference(linear, width, rows, 7, 11, depth));
     });
   }
+
+  describe('the WebAssembly 8-bit encoder (createSrgb8Encoder)', () => {
+    const encoder = createSrgb8Encoder();
+    it('loads on this Node (WebAssembly SIMD)', () => {
+      expect(encoder).toBeDefined();
+    });
+
+    // Widths whose 3 w is not a multiple of the module's 4 lanes, and a 1000-pixel row whose 40 rows take several chunks.
+    for (const [width, rows] of [
+      [1, 7],
+      [5, 3],
+      [63, 17],
+      [64, 64],
+      [1000, 40],
+    ] as const) {
+      it(`${width} x ${rows}: the bytes of the exact curve with dither, also next to every rounding boundary`, () => {
+        const x0 = 37;
+        const y0 = 1201;
+        const linear = new Float64Array(width * rows * 3);
+        let h = 777 + width;
+        for (let k = 0; k < linear.length; k++) {
+          h = mix32(h + k);
+          const u = h / 4294967296;
+          const c = k % (3 * width);
+          const [x, y, ch] = [x0 + Math.floor(c / 3), y0 + Math.floor(k / (3 * width)), c % 3];
+          if (k % 4 === 0) {
+            // Encoded value plus this pixel's dither exactly on a half-way point, decoded back to linear light
+            // (IEC 61966-2-1 inverse): the table cannot settle these, so the exact curve must.
+            const code = (Math.floor(u * 250) + 2.5 - ditherAt(x, y, ch)) / 255;
+            linear[k] = code <= 0.04045 ? code / 12.92 : Math.pow((code + 0.055) / 1.055, 2.4);
+          } else if (k % 4 === 1) linear[k] = u;
+          else if (k % 4 === 2)
+            linear[k] = u * u * u * u; // the toe and the steep start of the curve
+          else linear[k] = [0, 1, Number.NaN, -0.25, 1.5, 0.0031308, 0.999, 0.9989999999999999, 5e-324, u][h % 10]!;
+        }
+        const out = new Uint8Array(linear.length).fill(7);
+        expect(encoder!.encode(linear, width, rows, x0, y0, out)).toBe(true);
+        expect(Array.from(out)).toEqual(reference(linear, width, rows, x0, y0, 8));
+      });
+    }
+
+    it('declines a row wider than its buffer, leaving out untouched', () => {
+      const out = new Uint8Array(3 * 20000);
+      expect(encoder!.encode(new Float64Array(3 * 20000), 20000, 1, 0, 0, out)).toBe(false);
+      expect(out.every((b) => b === 0)).toBe(true);
+    });
+  });
 });

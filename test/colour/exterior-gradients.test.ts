@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { EXTERIOR_GRADIENT_NAMES, gradientLinear, gradientOklab, gradientPosition } from '../../src/colour/exterior-gradients.js';
+import { EXTERIOR_GRADIENT_NAMES, gradientLinear, gradientOklab, gradientPosition, gradientStopsOklab, stopsLinear } from '../../src/colour/exterior-gradients.js';
 import { oklabDistance, oklabToLinear } from '../../src/colour/oklab.js';
 
 describe('exterior gradients', () => {
@@ -48,6 +48,22 @@ describe('exterior gradients', () => {
       const t = gradientPosition(mu, 'log', 1.3, 0.999999);
       expect(t).toBeGreaterThanOrEqual(0);
       expect(t).toBeLessThan(1);
+    }
+  });
+
+  it('stopsLinear(gradientStopsOklab(name), t, out, o) gives gradientLinear(name, t) bit for bit', () => {
+    // Agreement between the two code paths (the shading loop's and the generic one), at 20001 positions and the ends.
+    const ref = [0, 0, 0];
+    const out = new Float64Array(5);
+    for (const name of EXTERIOR_GRADIENT_NAMES) {
+      let mismatches = 0;
+      for (let i = 0; i <= 20001; i++) {
+        const t = i === 20001 ? 1 - 2 ** -53 : i / 20001;
+        gradientLinear(name, t, ref);
+        stopsLinear(gradientStopsOklab(name), t, out, 2);
+        for (let c = 0; c < 3; c++) if (!Object.is(out[2 + c], ref[c])) mismatches++;
+      }
+      expect(mismatches, name).toBe(0);
     }
   });
 });
