@@ -10,7 +10,8 @@ import { availableParallelism } from 'node:os';
 import { census, MAX_CENSUS_PERIOD } from '../components/census.js';
 import type { CensusComponent } from '../components/census.js';
 import type { ComponentInfo } from '../components/component-info.js';
-import { listComponents } from '../components/list-components.js';
+import { listComponents, listRowCells } from '../components/list-components.js';
+import { LISTING_HEADER, listingRow } from '../components/component-json.js';
 import { censusSlices } from '../components/census-slices.js';
 import { parseBox, componentJson } from './component-report.js';
 import { certifyListing, MAX_CERTIFY_PERIOD, reportCensusCertificate } from './certify-report.js';
@@ -376,9 +377,9 @@ async function slicedCensus(
         kept += chosen.length;
         if (sink !== null && chosen.length > 0) {
           const t = performance.now();
-          await listComponents(period, chosen, o.digits, o.workers, undefined, async (rows) => {
-            noRoot += rows.filter((r) => r.root.re === '').length;
-            await sink.write(rows.map(flat));
+          await listRowCells(period, chosen, o.digits, o.workers, async (rows) => {
+            noRoot += rows.filter((r) => r[3] === '').length;
+            await sink.write(rows);
           });
           listSeconds += (performance.now() - t) / 1000;
         }
@@ -447,42 +448,10 @@ function inBox(c: CensusComponent, b: { re0: number; im0: number; re1: number; i
 export const COLUMN_TYPES: Record<string, ColumnType> = { period: 'int', size: 'double', orientation_deg: 'double', parent_period: 'int' };
 
 /** The listing's columns, in order. */
-export const HEADER = [
-  'period',
-  'nucleus_re',
-  'nucleus_im',
-  'root_re',
-  'root_im',
-  'size',
-  'orientation_deg',
-  'shape',
-  'parent_period',
-  'internal_angle',
-  'angle_lo',
-  'angle_hi',
-  'address',
-];
+export const HEADER: readonly string[] = LISTING_HEADER;
 
 /** One row's cells as the CSV prints them. */
-export function flat(r: ComponentInfo): string[] {
-  const j = componentJson(r);
-  const angles = (j['externalAngles'] as string[] | null) ?? [];
-  return [
-    String(r.period),
-    r.nucleus.re,
-    r.nucleus.im,
-    r.root.re,
-    r.root.im,
-    String(j['size']),
-    String(j['orientationDegrees']),
-    r.shape,
-    r.parent === null ? '' : String(r.parent.period),
-    r.parent === null ? '' : `${r.parent.num}/${r.parent.den}`,
-    angles[0] ?? '',
-    angles[1] ?? '',
-    String(j['internalAddress'] ?? ''),
-  ];
-}
+export const flat = listingRow;
 
 function toCsv(rows: ComponentInfo[], radii: readonly string[] | null): string {
   const head = radii === null ? HEADER : [...HEADER, 'certified_radius'];

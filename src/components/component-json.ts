@@ -61,3 +61,41 @@ export function componentLines(info: ComponentInfo, digits = 6): string[] {
     `internal address  ${info.address === null ? '-' : addressText(info.address)}`,
   ];
 }
+
+/** The listing's columns, in order (CSV header, Parquet and JSON names). */
+export const LISTING_HEADER = [
+  'period',
+  'nucleus_re',
+  'nucleus_im',
+  'root_re',
+  'root_im',
+  'size',
+  'orientation_deg',
+  'shape',
+  'parent_period',
+  'internal_angle',
+  'angle_lo',
+  'angle_hi',
+  'address',
+] as const;
+
+/** One row's cells as the CSV prints them, in LISTING_HEADER's order. */
+export function listingRow(r: ComponentInfo): string[] {
+  const j = componentJson(r);
+  const angles = (j['externalAngles'] as string[] | null) ?? [];
+  return [
+    String(r.period),
+    r.nucleus.re,
+    r.nucleus.im,
+    r.root.re,
+    r.root.im,
+    String(j['size']),
+    String(j['orientationDegrees']),
+    r.shape,
+    r.parent === null ? '' : String(r.parent.period),
+    r.parent === null ? '' : `${r.parent.num}/${r.parent.den}`,
+    angles[0] ?? '',
+    angles[1] ?? '',
+    String(j['internalAddress'] ?? ''),
+  ];
+}

@@ -17,6 +17,7 @@ import { componentRoot, type Attachment } from './boundary-point.js';
 import { NewtonError } from './newton-error.js';
 import { fastNucleus, fastRoot, fastSize } from './fast-row.js';
 import { satelliteAttachment } from './census-statistics.js';
+import { listingRow } from './component-json.js';
 
 /** The BigInt walk's parent agrees with the one the angles give (else the walk reached another component's root). */
 function sameAttachment(found: Attachment | null, expected: { k: number; r: number; q: number } | null): boolean {
@@ -42,6 +43,8 @@ export interface ListJob {
   readonly items: readonly ListItem[];
   /** Skip the double-double fast path (the BigInt path alone, as before December 2026; for tests). */
   readonly bigint?: boolean;
+  /** Post the rows' cells (listingRow) instead of the rows: less to copy between threads. */
+  readonly cells?: boolean;
 }
 
 /** The root of a row whose root Newton could not reach: empty cells (the CLI counts them on stderr). */
@@ -49,6 +52,12 @@ export const NO_ROOT: ComplexDecimal = { re: '', im: '' };
 
 /** Rows per block handed to a worker. */
 const BLOCK = 64;
+
+/** The rows of a block, as rows or (job.cells) as their cells: what the worker posts back. */
+export async function jobRows(job: ListJob): Promise<ComponentInfo[] | string[][]> {
+  const rows = await componentRows(job);
+  return job.cells === true ? rows.map(listingRow) : rows;
+}
 
 /** The rows of one block, in order (the worker's work; also run in-thread for small listings). */
 export async function componentRows(job: ListJob): Promise<ComponentInfo[]> {
@@ -115,13 +124,33 @@ export async function listComponents(
   onProgress?: (done: number, total: number) => void,
   onRows?: (rows: ComponentInfo[]) => Promise<void>,
 ): Promise<ComponentInfo[]> {
+  return listBlocks<ComponentInfo>(period, comps, digits, workers, false, onProgress, onRows);
+}
+
+/**
+ * listComponents with each row as its cells (listingRow), made in the
+ * workers, handed over block by block in order; nothing is kept.
+ */
+export async function listRowCells(period: number, comps: readonly CensusComponent[], digits: number, workers: number, onRows: (rows: string[][]) => Promise<void>): Promise<void> {
+  await listBlocks<string[]>(period, comps, digits, workers, true, undefined, onRows);
+}
+
+async function listBlocks<T>(
+  period: number,
+  comps: readonly CensusComponent[],
+  digits: number,
+  workers: number,
+  cells: boolean,
+  onProgress?: (done: number, total: number) => void,
+  onRows?: (rows: T[]) => Promise<void>,
+): Promise<T[]> {
   const blocks = Math.ceil(comps.length / BLOCK);
-  const jobOf = (b: number): ListJob => ({ period, digits, items: comps.slice(b * BLOCK, (b + 1) * BLOCK).map(listItem) });
-  const out: ComponentInfo[][] = new Array<ComponentInfo[]>(blocks);
+  const jobOf = (b: number): ListJob => ({ period, digits, items: comps.slice(b * BLOCK, (b + 1) * BLOCK).map(listItem), ...(cells ? { cells } : {}) });
+  const out: T[][] = new Array<T[]>(blocks);
   let done = 0;
   let next = 0;
   let chain: Promise<void> = Promise.resolve();
-  const arrived = (b: number, rows: ComponentInfo[]): void => {
+  const arrived = (b: number, rows: T[]): void => {
     out[b] = rows;
     done += rows.length;
     onProgress?.(done, comps.length);
@@ -136,11 +165,11 @@ export async function listComponents(
   };
   if (workers <= 1 || blocks <= 1) {
     for (let b = 0; b < blocks; b++) {
-      arrived(b, await componentRows(jobOf(b)));
+      arrived(b, (await jobRows(jobOf(b))) as T[]);
       await chain;
     }
   } else {
-    await mapOnWorkers<ListJob, ComponentInfo[]>(builtWorkerUrl('listing-worker'), blocks, (b) => ({ message: jobOf(b) }), workers, arrived);
+    await mapOnWorkers<ListJob, T[]>(builtWorkerUrl('listing-worker'), blocks, (b) => ({ message: jobOf(b) }), workers, arrived);
   }
   await chain;
   return onRows === undefined ? out.flat() : [];

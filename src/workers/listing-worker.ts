@@ -3,8 +3,8 @@
  * components (list-components.ts) and posts back their rows, in order.
  */
 import { parentPort } from 'node:worker_threads';
-import { componentRows, type ListJob } from '../components/list-components.js';
+import { jobRows, type ListJob } from '../components/list-components.js';
 
 parentPort?.on('message', (job: ListJob) => {
-  void componentRows(job).then((rows) => parentPort?.postMessage(rows));
+  void jobRows(job).then((rows) => parentPort?.postMessage(rows));
 });
