@@ -10,6 +10,9 @@
 import { open, rename, rm, type FileHandle } from 'node:fs/promises';
 import { releaseTemp, tempPathFor } from './temp-path.js';
 import type { TableColumn } from './table-file.js';
+import { Worker } from 'node:worker_threads';
+import { builtWorkerUrl } from '../threads/built-worker.js';
+import { typedCell } from './parquet-groups.js';
 
 /** Rows per Parquet row group: a group of 65536 listing rows took about 400 MB while hyparquet-writer encoded it, 16384 about 100 MB. */
 export const PARQUET_GROUP = 16384;
@@ -25,12 +28,6 @@ export interface TableStream {
 
 function csvCell(v: string): string {
   return /[",\n]/.test(v) ? `"${v.replace(/"/g, '""')}"` : v;
-}
-
-function typed(v: string, type: TableColumn['type']): string | number | null {
-  if (type === 'string') return v;
-  if (v === '') return null;
-  return Number(v);
 }
 
 /** Text sink: a file handle or a Node writable (stdout), waiting on backpressure. */
@@ -84,7 +81,7 @@ function textStream(
       else {
         // each element as JSON.stringify(array, null, 2) prints it: the object's lines indented by two more spaces
         const parts = rows.map((r) => {
-          const o = Object.fromEntries(columns.map((c, i) => [c.name, typed(r[i] ?? '', c.type)]));
+          const o = Object.fromEntries(columns.map((c, i) => [c.name, typedCell(r[i] ?? '', c.type)]));
           return `  ${JSON.stringify(o, null, 2).replace(/\n/g, '\n  ')}`;
         });
         text = `${any ? ',\n' : '[\n'}${parts.join(',\n')}`;
@@ -128,27 +125,26 @@ export async function openTableStream(file: string, columns: readonly TableColum
 }
 
 async function parquetStream(fh: FileHandle, columns: readonly TableColumn[], finish: () => Promise<void>, abort: () => Promise<void>): Promise<TableStream> {
-  const { ByteWriter, ParquetWriter, schemaFromColumnData } = await import('hyparquet-writer');
-  const kind = (c: TableColumn): 'STRING' | 'INT32' | 'DOUBLE' => (c.type === 'string' ? 'STRING' : c.type === 'int' ? 'INT32' : 'DOUBLE');
-  const schema = schemaFromColumnData({ columnData: columns.map((c) => ({ name: c.name, data: [], type: kind(c) })) });
-  // the writer's bytes go to the file after each row group (and at the end)
-  const writer = new ByteWriter();
-  let pending: Promise<void> = Promise.resolve();
-  const drain = (): Promise<void> => {
-    const bytes = new Uint8Array(writer.buffer, 0, writer.index).slice();
-    writer.index = 0;
-    pending = pending.then(async () => void (await fh.write(bytes)));
-    return pending;
-  };
-  const hooks = writer as unknown as { flush: () => Promise<void>; finish: () => Promise<void> };
-  hooks.flush = drain;
-  hooks.finish = drain;
-  const pq = new ParquetWriter({ writer, schema });
-  let buffer: (readonly string[])[] = [];
+  // the groups are encoded in a worker thread (parquet-groups.ts), one at a time, while the rows of the next arrive
+  const worker = new Worker(builtWorkerUrl('parquet-worker'));
+  worker.unref();
+  const replies: Array<(m: { ok?: boolean; bytes?: Uint8Array; error?: string }) => void> = [];
+  worker.on('message', (m: { ok?: boolean; bytes?: Uint8Array; error?: string }) => replies.shift()?.(m));
+  const ask = (message: unknown): Promise<Uint8Array | null> =>
+    new Promise((resolve, reject) => {
+      replies.push((m) => (m.error !== undefined ? reject(new Error(`Parquet encoder: ${m.error}`)) : resolve(m.bytes ?? null)));
+      worker.postMessage(message);
+    });
+  await ask({ columns });
+  let inflight: Promise<void> = Promise.resolve();
   const group = async (rows: readonly (readonly string[])[]): Promise<void> => {
-    const columnData = columns.map((c, i) => ({ name: c.name, data: rows.map((r) => typed(r[i] ?? '', c.type)) }));
-    await pq.write({ columnData, rowGroupSize: rows.length });
-    await drain();
+    await inflight;
+    inflight = ask({ rows }).then(async (bytes) => void (bytes !== null && (await fh.write(bytes))));
+    inflight.catch(() => {}); // awaited by the next group or by close
+  };
+  let buffer: (readonly string[])[] = [];
+  const stop = async (): Promise<void> => {
+    await worker.terminate();
   };
   return {
     async write(rows) {
@@ -164,10 +160,16 @@ async function parquetStream(fh: FileHandle, columns: readonly TableColumn[], fi
     async close() {
       if (buffer.length > 0) await group(buffer);
       buffer = [];
-      await pq.finish();
-      await pending;
+      await inflight;
+      const last = await ask({ finish: true });
+      if (last !== null) await fh.write(last);
+      await stop();
       await finish();
     },
-    abort,
+    async abort() {
+      await inflight.catch(() => {});
+      await stop();
+      await abort();
+    },
   };
 }
