@@ -26,7 +26,7 @@ import type { Attachment } from './boundary-point.js';
 import { formatReal, type ComplexDecimal } from './nucleus.js';
 import { properDivisors } from './periodic-angles.js';
 import { ddAdd, ddMulInto, ddSqrInto } from './double-double.js';
-import { sizeTerms, type SizeTerms } from './fast-nucleus.js';
+import { nucleusDD as censusNucleusDD, sizeTerms, type SizeTerms } from './fast-nucleus.js';
 import { sizeEstimateOfOrbit, type SizeEstimateScaled } from './size-estimate.js';
 
 /** A complex double-double: re hi, re lo, im hi, im lo. */
@@ -620,7 +620,18 @@ function satelliteRoot(
   const ci = nucleus[2] + nucleus[3];
   const pd = found.k === 1 ? { re: 0, im: 0 } : nucleusDouble(found.k, { re: cr, im: ci });
   if (pd === null) return null;
-  const pn = fastNucleus(found.k, [pd.re, 0, pd.im, 0], found.k === 1 ? 1 : 2 ** log2SizeDouble(found.k, pd.re, pd.im), ci === 0 && pd.im === 0, digits);
+  // a double nucleus of a small parent near the tip (period 12 at -1.99915, about 1e-9 across) is off by more than
+  // fastNucleus lets Newton move (1e-6 of the size): the census's double-double Newton brings it in first
+  const psize = found.k === 1 ? 1 : 2 ** log2SizeDouble(found.k, pd.re, pd.im);
+  let start: DDComplex = [pd.re, 0, pd.im, 0];
+  if (found.k > 1) {
+    const dd = censusNucleusDD(found.k, { reHi: pd.re, reLo: 0, imHi: pd.im, imLo: 0 });
+    if (dd.ok) start = [dd.reHi, dd.reLo, dd.imHi, dd.imLo];
+  }
+  // a real parent comes out of Newton with an imaginary part of rounding size: on the axis within 1e-9 of its size it is
+  // real (a component so near the axis and off it would overlap its own mirror image), and is started there
+  if (Math.abs(start[2] + start[3]) <= 1e-9 * psize) start = [start[0], start[1], 0, 0];
+  const pn = fastNucleus(found.k, start, psize, ci === 0 && pd.im === 0, digits);
   if (pn === null) return null;
   const pcr = pn.c[0] + pn.c[1];
   const pci = pn.c[2] + pn.c[3];

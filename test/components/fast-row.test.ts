@@ -9,6 +9,7 @@ import { describe, expect, it } from 'vitest';
 import { census } from '../../src/components/census.js';
 import { componentRows, listItem } from '../../src/components/list-components.js';
 import { formatDD } from '../../src/components/fast-row.js';
+import { landRays, RAY_RECORD } from '../../src/components/land-rays.js';
 import type { ComponentInfo } from '../../src/components/component-info.js';
 import { haveMpmath, runMpmath } from '../oracles/mpmath.js';
 import { requireInCi } from '../helpers/require-in-ci.js';
@@ -114,6 +115,66 @@ describe('listing rows in double-double', () => {
       expect(close, 'no lower period: min |f^j(w) - w| over j < p').toBeGreaterThan(1e-6);
     }
   });
+
+  it('give four period-24 satellites of period-12 parents (three real near the tip, one at -0.227 + 1.117i) roots on their parents that mpmath confirms', async () => {
+    // pairs found by listing period 24 (7 of its 9 rows without a root before December 2026, mirrors included; the two
+    // 1/3 bulbs of real period-8 components near -1.998, 8289921/8290686 and 8355712/8355967, still have none); each root must
+    // solve the parent's system F^k(w) = w, D_z F^k(w) = e^(2 pi i r/q) in mpmath at 40 digits (Newton from the printed
+    // root and w = (mu/2)/lambda, docs/methods.md C7) and move by less than the 20 printed digits
+    if (!requireInCi(haveMpmath, 'python3-mpmath')) return;
+    const p = 24;
+    const pairs: Array<[number, number]> = [
+      [4125680, 4129775],
+      [8325135, 8452080],
+      [8361990, 8415225],
+      [8378370, 8398845],
+    ];
+    const rec = new Float64Array(pairs.length * RAY_RECORD);
+    landRays(
+      p,
+      Float64Array.from(pairs, (x) => x[0]),
+      true,
+      rec,
+    );
+    const items = pairs.map(([a, b], i) =>
+      listItem({
+        period: p,
+        reHi: rec[i * 6]!,
+        reLo: rec[i * 6 + 1]!,
+        imHi: rec[i * 6 + 2]!,
+        imLo: rec[i * 6 + 3]!,
+        size: rec[i * 6 + 4]!,
+        angles: [a, b],
+        real: a + b === 2 ** p - 1,
+      }),
+    );
+    const rows = await componentRows({ period: p, digits: 20, items });
+    for (const r of rows) expect(r.root.re, 'a root').not.toBe('');
+    const data = rows.map((r) => ({ k: r.parent!.period, r: r.parent!.num, q: r.parent!.den, root: r.root, parent: r.parent!.nucleus }));
+    const program = [
+      'from mpmath import mp, mpc, mpf, matrix, lu_solve, exp, pi',
+      'mp.dps = 40',
+      'import json',
+      `rows = json.loads('${JSON.stringify(data)}')`,
+      'for r in rows:',
+      '    k = r["k"]; mu = exp(2j * pi * mpf(r["r"]) / r["q"])',
+      '    c = mpc(mpf(r["root"]["re"]), mpf(r["root"]["im"])); c0 = mpc(mpf(r["parent"]["re"]), mpf(r["parent"]["im"]))',
+      '    z = c0; lam = mpc(1)',
+      '    for j in range(1, k):',
+      '        lam = 2 * z * lam; z = z * z + c0',
+      '    w = (mu / 2) / lam',
+      '    for it in range(80):',
+      '        z = w; dz = mpc(1); dc = mpc(0); dzz = mpc(0); dcz = mpc(0)',
+      '        for j in range(k):',
+      '            dcz = 2 * (z * dcz + dc * dz); dzz = 2 * (z * dzz + dz * dz); dc = 2 * z * dc + 1; dz = 2 * z * dz; z = z * z + c',
+      '        d = lu_solve(matrix([[dz - 1, dc], [dzz, dcz]]), matrix([z - w, dz - mu])); w -= d[0]; c -= d[1]',
+      '        if abs(d[1]) < mpf(10) ** -36: break',
+      '    print(float(abs(c - mpc(mpf(r["root"]["re"]), mpf(r["root"]["im"])))))',
+    ].join('\n');
+    const moved = runMpmath(program).trim().split('\n').map(Number);
+    expect(moved.length).toBe(4);
+    for (const m of moved) expect(m).toBeLessThan(1e-19);
+  }, 60_000);
 
   it('print nucleus digits that decimal.js confirms, and main-cardioid satellite roots on c = mu/2 - mu^2/4', async () => {
     const p = 13;
