@@ -312,9 +312,10 @@ function multiplierDouble(m: Multiplier, fraction: number): { re: number; im: nu
 /**
  * solve in complex doubles, updating w and b in place: Newton on
  * (F^p(w,b) - w, D_z F^p(w,b) - t), converged when the step is below 1e-13
- * of the scale twice in a row; false after maxSteps or on overflow.
+ * of the scale twice in a row; false after maxSteps or on overflow. Also
+ * the listing's fast path (fast-row.ts).
  */
-function solveDouble(period: number, w: { re: number; im: number }, b: { re: number; im: number }, t: { re: number; im: number }, maxSteps: number): boolean {
+export function solveDouble(period: number, w: { re: number; im: number }, b: { re: number; im: number }, t: { re: number; im: number }, maxSteps: number): boolean {
   let close = 0;
   for (let step = 0; step < maxSteps; step += 1) {
     let zr = w.re,

@@ -22,11 +22,16 @@
  * and the caller runs the BigInt path (nucleus.ts, boundary-point.ts).
  */
 import { fixedScale, fromNumber, pow10 } from '../precise/fixed.js';
-import type { Attachment } from './boundary-point.js';
+import { solveDouble, type Attachment } from './boundary-point.js';
 import { formatReal, type ComplexDecimal } from './nucleus.js';
-import { properDivisors } from './periodic-angles.js';
 import { ddAdd, ddMulInto, ddSqrInto } from './double-double.js';
-import { nucleusDD as censusNucleusDD, sizeTerms, type SizeTerms } from './fast-nucleus.js';
+import { nucleusDD as censusNucleusDD, nucleusDouble as censusNucleusDouble, sizeTerms, type SizeTerms } from './fast-nucleus.js';
+
+/** The period-k nucleus near c by the census's deflated Newton in doubles, or null. */
+function nucleusDouble(k: number, c: C): C | null {
+  const r = censusNucleusDouble(k, c.re, c.im);
+  return r.ok ? { re: r.reHi, im: r.imHi } : null;
+}
 import { sizeEstimateOfOrbit, type SizeEstimateScaled } from './size-estimate.js';
 
 /** A complex double-double: re hi, re lo, im hi, im lo. */
@@ -182,75 +187,6 @@ function log2SizeDouble(period: number, cr: number, ci: number): number {
 const terms: SizeTerms = { br: 0, bi: 0, lr: 0, li: 0 };
 
 type C = { re: number; im: number };
-
-/** Newton on (F^p(w,b) - w, D_z F^p(w,b) - t) in doubles (as boundary-point.ts solveDouble); false on failure. */
-function solveDouble(period: number, w: C, b: C, t: C, maxSteps: number): boolean {
-  let close = 0;
-  for (let step = 0; step < maxSteps; step += 1) {
-    let zr = w.re,
-      zi = w.im;
-    let dzr = 1,
-      dzi = 0,
-      dcr = 0,
-      dci = 0,
-      dzzr = 0,
-      dzzi = 0,
-      dczr = 0,
-      dczi = 0;
-    for (let k = 0; k < period; k += 1) {
-      const ndczr = 2 * (zr * dczr - zi * dczi + dcr * dzr - dci * dzi);
-      const ndczi = 2 * (zr * dczi + zi * dczr + dcr * dzi + dci * dzr);
-      const ndzzr = 2 * (zr * dzzr - zi * dzzi + dzr * dzr - dzi * dzi);
-      const ndzzi = 2 * (zr * dzzi + zi * dzzr + 2 * dzr * dzi);
-      const ndcr = 2 * (zr * dcr - zi * dci) + 1;
-      const ndci = 2 * (zr * dci + zi * dcr);
-      const ndzr = 2 * (zr * dzr - zi * dzi);
-      const ndzi = 2 * (zr * dzi + zi * dzr);
-      const nzr = zr * zr - zi * zi + b.re;
-      const nzi = 2 * zr * zi + b.im;
-      dczr = ndczr;
-      dczi = ndczi;
-      dzzr = ndzzr;
-      dzzi = ndzzi;
-      dcr = ndcr;
-      dci = ndci;
-      dzr = ndzr;
-      dzi = ndzi;
-      zr = nzr;
-      zi = nzi;
-      if (!(Math.abs(zr) + Math.abs(zi) < 1e8)) return false;
-    }
-    const f1r = zr - w.re,
-      f1i = zi - w.im;
-    const f2r = dzr - t.re,
-      f2i = dzi - t.im;
-    const mr = dzr - 1,
-      mi = dzi;
-    const detr = mr * dczr - mi * dczi - (dcr * dzzr - dci * dzzi);
-    const deti = mr * dczi + mi * dczr - (dcr * dzzi + dci * dzzr);
-    const d2 = detr * detr + deti * deti;
-    if (!(d2 > 0) || !Number.isFinite(d2)) return false;
-    const nbr = mr * f2r - mi * f2i - (dzzr * f1r - dzzi * f1i);
-    const nbi = mr * f2i + mi * f2r - (dzzr * f1i + dzzi * f1r);
-    const nwr = dczr * f1r - dczi * f1i - (dcr * f2r - dci * f2i);
-    const nwi = dczr * f1i + dczi * f1r - (dcr * f2i + dci * f2r);
-    const dbr = (nbr * detr + nbi * deti) / d2,
-      dbi = (nbi * detr - nbr * deti) / d2;
-    const dwr = (nwr * detr + nwi * deti) / d2,
-      dwi = (nwi * detr - nwr * deti) / d2;
-    if (!Number.isFinite(dbr + dbi + dwr + dwi)) return false;
-    b.re -= dbr;
-    b.im -= dbi;
-    w.re -= dwr;
-    w.im -= dwi;
-    const size = Math.max(Math.abs(dbr), Math.abs(dbi), Math.abs(dwr), Math.abs(dwi));
-    if (size <= 1e-12 * Math.max(1, Math.abs(b.re) + Math.abs(b.im))) {
-      close += 1;
-      if (close >= 2) return true;
-    }
-  }
-  return false;
-}
 
 /** The walk of boundary-point.ts in doubles from the nucleus to multiplier reach * t; false where a step fails (the caller falls back). */
 function walkDouble(period: number, nucleus: C, t: C, reach: number): { w: C; b: C } | null {
@@ -482,51 +418,6 @@ function findParentDouble(period: number, w: C, b: C): { k: number; r: number; q
 function gcd(a: number, b: number): number {
   while (b !== 0) [a, b] = [b, a % b];
   return a;
-}
-
-/**
- * Deflated Newton in doubles for the period-k nucleus from c (as nucleus.ts
- * newtonNucleus: step 1 / (D/F - sum over proper divisors q of D_q/F_q)).
- */
-function nucleusDouble(k: number, c: C): C | null {
-  const divisors = new Set(properDivisors(k));
-  let cr = c.re;
-  let ci = c.im;
-  for (let step = 0; step < 100; step += 1) {
-    let zr = 0,
-      zi = 0,
-      dr = 0,
-      di = 0,
-      lr = 0,
-      li = 0;
-    for (let j = 1; j <= k; j += 1) {
-      const ndr = 2 * (zr * dr - zi * di) + 1;
-      di = 2 * (zr * di + zi * dr);
-      dr = ndr;
-      const nzr = zr * zr - zi * zi + cr;
-      zi = 2 * zr * zi + ci;
-      zr = nzr;
-      if (!(Math.abs(zr) + Math.abs(zi) < 1e8)) return null;
-      if (j < k && divisors.has(j)) {
-        const m = zr * zr + zi * zi;
-        if (m > 0) {
-          lr += (dr * zr + di * zi) / m;
-          li += (di * zr - dr * zi) / m;
-        }
-      }
-    }
-    // step = z / (d - L z)
-    const er = dr - (lr * zr - li * zi);
-    const ei = di - (lr * zi + li * zr);
-    const m = er * er + ei * ei;
-    if (!(m > 0)) return zr === 0 && zi === 0 ? { re: cr, im: ci } : null;
-    const hr = (zr * er + zi * ei) / m;
-    const hi = (zi * er - zr * ei) / m;
-    cr -= hr;
-    ci -= hi;
-    if (Math.hypot(hr, hi) <= 1e-15 * Math.max(1, Math.hypot(cr, ci))) return { re: cr, im: ci };
-  }
-  return null;
 }
 
 /** Components at least 1e-9 across are walked in doubles (as boundary-point.ts), down to 1e-18 in double-double; smaller ones go to BigInt. */
