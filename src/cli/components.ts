@@ -73,7 +73,7 @@ export const COMPONENTS_OPTIONS: readonly OptionSpec[] = [
   { flags: '--csv', description: 'CSV output with snake_case columns (default: aligned text)' },
   {
     flags: '--out <file>',
-    description: 'also write the rows to FILE: .csv, .json or .parquet (typed columns), by its extension; with --shard a .csv or a folder (default: stdout only)',
+    description: 'write the rows to FILE instead of stdout: .csv, .json or .parquet (typed columns), by its extension; with --shard a .csv or a folder (default: stdout)',
   },
   {
     flags: '--shard <i/n>',
