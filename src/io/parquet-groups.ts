@@ -15,6 +15,25 @@ export function typedCell(v: string, type: TableColumn['type']): string | number
   return Number(v);
 }
 
+/**
+ * A string column's cells as UTF-8 byte arrays: when every cell is ASCII (the
+ * listing's decimals, fractions and addresses), one encoding of the joined
+ * cells and a view per cell instead of one encoder call per cell.
+ */
+export function utf8Cells(values: readonly string[]): Uint8Array[] {
+  const joined = values.join('');
+  const bytes = new TextEncoder().encode(joined);
+  if (bytes.length !== joined.length) return values.map((v) => new TextEncoder().encode(v));
+  const out = new Array<Uint8Array>(values.length);
+  let at = 0;
+  for (let i = 0; i < values.length; i++) {
+    const n = values[i]!.length;
+    out[i] = bytes.subarray(at, at + n);
+    at += n;
+  }
+  return out;
+}
+
 export interface ParquetGroups {
   /** Encodes one row group; the bytes written since the last call. */
   group(rows: readonly (readonly string[])[]): Promise<Uint8Array>;
@@ -36,7 +55,12 @@ export async function parquetGroups(columns: readonly TableColumn[]): Promise<Pa
   const pq = new ParquetWriter({ writer, schema });
   return {
     async group(rows) {
-      const columnData = columns.map((c, i) => ({ name: c.name, data: rows.map((r) => typedCell(r[i] ?? '', c.type)) }));
+      // string columns: bytes encoded in bulk, no min/max statistics (decimal strings order by text, which no reader can use)
+      const columnData = columns.map((c, i) =>
+        c.type === 'string'
+          ? { name: c.name, data: utf8Cells(rows.map((r) => r[i] ?? '')), statistics: false }
+          : { name: c.name, data: rows.map((r) => typedCell(r[i] ?? '', c.type)) },
+      );
       await pq.write({ columnData, rowGroupSize: rows.length });
       return take();
     },
