@@ -10,7 +10,7 @@ import { availableParallelism } from 'node:os';
 import { census, MAX_CENSUS_PERIOD } from '../components/census.js';
 import type { CensusComponent } from '../components/census.js';
 import type { ComponentInfo } from '../components/component-info.js';
-import { listComponents, listRowCells } from '../components/list-components.js';
+import { listComponents, listingPool, listRowCells } from '../components/list-components.js';
 import { LISTING_HEADER, listingRow } from '../components/component-json.js';
 import { censusSlices } from '../components/census-slices.js';
 import { parseBox, componentJson } from './component-report.js';
@@ -361,6 +361,8 @@ async function slicedCensus(
   await removeStaleTemps(os.tmpdir(), workName);
   const work = tempPathFor(path.join(os.tmpdir(), workName));
   await mkdir(work);
+  // one set of listing threads for every slice (started once, not once a slice)
+  const pool = sink === null || o.workers <= 1 ? null : listingPool(o.workers);
   try {
     const result = await censusSlices(period, {
       workers: o.workers,
@@ -377,10 +379,17 @@ async function slicedCensus(
         kept += chosen.length;
         if (sink !== null && chosen.length > 0) {
           const t = performance.now();
-          await listRowCells(period, chosen, o.digits, o.workers, async (rows) => {
-            noRoot += rows.filter((r) => r[3] === '').length;
-            await sink.write(rows);
-          });
+          await listRowCells(
+            period,
+            chosen,
+            o.digits,
+            o.workers,
+            async (rows) => {
+              noRoot += rows.filter((r) => r[3] === '').length;
+              await sink.write(rows);
+            },
+            pool ?? undefined,
+          );
           listSeconds += (performance.now() - t) / 1000;
         }
         progress.update(handed, total);
@@ -428,6 +437,7 @@ async function slicedCensus(
     await sink?.abort();
     throw err;
   } finally {
+    await pool?.close();
     await rm(work, { recursive: true, force: true });
     releaseTemp(work);
   }

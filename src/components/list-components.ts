@@ -10,6 +10,7 @@
  */
 import { builtWorkerUrl } from '../threads/built-worker.js';
 import { mapOnWorkers } from '../threads/map-on-workers.js';
+import { JobPool } from '../threads/job-pool.js';
 import type { CensusComponent } from './census.js';
 import { componentInfo, mersenneAngle, type ComponentInfo } from './component-info.js';
 import { findNucleus, type ComplexDecimal } from './nucleus.js';
@@ -50,8 +51,16 @@ export interface ListJob {
 /** The root of a row whose root Newton could not reach: empty cells (the CLI counts them on stderr). */
 export const NO_ROOT: ComplexDecimal = { re: '', im: '' };
 
-/** Rows per block handed to a worker. */
-const BLOCK = 64;
+/** Rows per block handed to a worker (larger blocks: fewer messages; the rows do not depend on it). */
+const BLOCK = 512;
+
+/** Listing workers kept across calls of listRowCells (the sliced census lists slice after slice). */
+export type ListingPool = JobPool<ListJob, string[][]>;
+
+/** A pool of `workers` listing threads; close it when done. */
+export function listingPool(workers: number): ListingPool {
+  return new JobPool<ListJob, string[][]>(builtWorkerUrl('listing-worker'), workers);
+}
 
 /** The rows of a block, as rows or (job.cells) as their cells: what the worker posts back. */
 export async function jobRows(job: ListJob): Promise<ComponentInfo[] | string[][]> {
@@ -131,8 +140,15 @@ export async function listComponents(
  * listComponents with each row as its cells (listingRow), made in the
  * workers, handed over block by block in order; nothing is kept.
  */
-export async function listRowCells(period: number, comps: readonly CensusComponent[], digits: number, workers: number, onRows: (rows: string[][]) => Promise<void>): Promise<void> {
-  await listBlocks<string[]>(period, comps, digits, workers, true, undefined, onRows);
+export async function listRowCells(
+  period: number,
+  comps: readonly CensusComponent[],
+  digits: number,
+  workers: number,
+  onRows: (rows: string[][]) => Promise<void>,
+  pool?: ListingPool,
+): Promise<void> {
+  await listBlocks<string[]>(period, comps, digits, workers, true, undefined, onRows, pool);
 }
 
 async function listBlocks<T>(
@@ -143,6 +159,7 @@ async function listBlocks<T>(
   cells: boolean,
   onProgress?: (done: number, total: number) => void,
   onRows?: (rows: T[]) => Promise<void>,
+  pool?: ListingPool,
 ): Promise<T[]> {
   const blocks = Math.ceil(comps.length / BLOCK);
   const jobOf = (b: number): ListJob => ({ period, digits, items: comps.slice(b * BLOCK, (b + 1) * BLOCK).map(listItem), ...(cells ? { cells } : {}) });
@@ -163,7 +180,13 @@ async function listBlocks<T>(
       chain.catch(() => {}); // awaited below; marked handled so a failed write waits for the end of the map
     }
   };
-  if (workers <= 1 || blocks <= 1) {
+  if (pool !== undefined && blocks > 1) {
+    await pool.map(
+      blocks,
+      (b) => ({ message: jobOf(b) }),
+      (b, rows) => arrived(b, rows as T[]),
+    );
+  } else if (workers <= 1 || blocks <= 1) {
     for (let b = 0; b < blocks; b++) {
       arrived(b, (await jobRows(jobOf(b))) as T[]);
       await chain;
