@@ -40,7 +40,8 @@ export function pngCompression(depth: 8 | 16): { filter: 4 | undefined; level: n
  * Layout: signature, IHDR, then before any IDAT: sRGB + gAMA + cHRM (or iCCP),
  * pHYs when `spec.dpi` is set, iTXt "quadatlas-sheet" holding `spec.metadata`
  * (compressed UTF-8), tEXt "Software"; then IDAT chunks of at most 256 KiB cut
- * from one zlib stream (level 6) of the filtered scanlines; IEND. 16-bit
+ * from one zlib stream (level 6) of the filtered scanlines, deflated in
+ * fixed-height bands on zlib's thread pool (docs/methods.md F5); IEND. 16-bit
  * samples are written big-endian.
  *
  * Filter and compression by depth (docs/methods.md F5): 8-bit rows get the
@@ -50,7 +51,7 @@ export function pngCompression(depth: 8 | 16): { filter: 4 | undefined; level: n
  * plate) to 8% (a deep preset) over the per-row heuristic with level-6 matching.
  * 16-bit rows keep the per-row minimum-sum-of-absolute-differences heuristic
  * and level-6 matching (there Z_RLE made files a third larger). Memory stays bounded by one band plus scratch rows,
- * whatever the height; the deflate stream's backpressure is respected.
+ * whatever the height: at most four bands are compressing at once.
  */
 export async function openPngSink(path: string, spec: RasterSpec, options: PngSinkOptions = {}): Promise<RasterSink> {
   assertRasterSpec(spec);
