@@ -50,7 +50,7 @@ export function pngCompression(depth: 8 | 16): { filter: 4 | undefined; level: n
  * tenth of the compression time, files grow by 0.4% (the 1600x1600 whole-set
  * plate) to 8% (a deep preset) over the per-row heuristic with level-6 matching.
  * 16-bit rows keep the per-row minimum-sum-of-absolute-differences heuristic
- * and level-6 matching (there Z_RLE made files a third larger). Memory stays bounded by one band plus scratch rows,
+ * and level-6 matching (there Z_RLE made files a third larger). Memory stays bounded by five bands of about 1 MiB plus scratch rows,
  * whatever the height: at most four bands are compressing at once.
  */
 export async function openPngSink(path: string, spec: RasterSpec, options: PngSinkOptions = {}): Promise<RasterSink> {
