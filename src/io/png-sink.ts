@@ -1,9 +1,8 @@
-import { once } from 'node:events';
 import type { FileHandle } from 'node:fs/promises';
 import { open, rename, rm } from 'node:fs/promises';
 import { basename, dirname } from 'node:path';
-import { constants, createDeflate } from 'node:zlib';
-import type { Deflate } from 'node:zlib';
+import { constants, deflateRaw } from 'node:zlib';
+import { adler32 } from './adler32.js';
 import { ihdrChunk, iccpChunk, itxtChunk, METADATA_KEYWORD, physChunk, PNG_SIGNATURE, pngChunk, srgbChunks, textChunk } from './png-chunk.js';
 import { filterScanline } from './png-filter.js';
 import type { RasterSink, RasterSpec } from './raster-sink.js';
@@ -12,8 +11,10 @@ import { releaseTemp, removeStaleTemps, tempPathFor } from './temp-path.js';
 
 /** Largest IDAT chunk we write (bytes of data); PNG allows up to 2^31 - 1. */
 const IDAT_BYTES = 256 * 1024;
-/** Filtered bytes handed to deflate per write, so a tall band never becomes one huge buffer. */
+/** Filtered bytes per deflate band; the band height follows from the row length only, never from the worker count. */
 const FEED_BYTES = 1024 * 1024;
+/** Bands compressing at once on libuv's thread pool (memory stays bounded by this many bands). */
+const BANDS_IN_FLIGHT = 4;
 
 /** Knobs for temporary PNGs (the TIFF sink's bands); plates use the defaults. */
 export interface PngSinkOptions {
@@ -39,7 +40,8 @@ export function pngCompression(depth: 8 | 16): { filter: 4 | undefined; level: n
  * Layout: signature, IHDR, then before any IDAT: sRGB + gAMA + cHRM (or iCCP),
  * pHYs when `spec.dpi` is set, iTXt "quadatlas-sheet" holding `spec.metadata`
  * (compressed UTF-8), tEXt "Software"; then IDAT chunks of at most 256 KiB cut
- * from one zlib stream (level 6) of the filtered scanlines; IEND. 16-bit
+ * from one zlib stream (level 6) of the filtered scanlines, deflated in
+ * fixed-height bands on zlib's thread pool (docs/methods.md F5); IEND. 16-bit
  * samples are written big-endian.
  *
  * Filter and compression by depth (docs/methods.md F5): 8-bit rows get the
@@ -48,8 +50,8 @@ export function pngCompression(depth: 8 | 16): { filter: 4 | undefined; level: n
  * tenth of the compression time, files grow by 0.4% (the 1600x1600 whole-set
  * plate) to 8% (a deep preset) over the per-row heuristic with level-6 matching.
  * 16-bit rows keep the per-row minimum-sum-of-absolute-differences heuristic
- * and level-6 matching (there Z_RLE made files a third larger). Memory stays bounded by one band plus scratch rows,
- * whatever the height; the deflate stream's backpressure is respected.
+ * and level-6 matching (there Z_RLE made files a third larger). Memory stays bounded by five bands of about 1 MiB plus scratch rows,
+ * whatever the height: at most four bands are compressing at once.
  */
 export async function openPngSink(path: string, spec: RasterSpec, options: PngSinkOptions = {}): Promise<RasterSink> {
   assertRasterSpec(spec);
@@ -66,7 +68,6 @@ export async function openPngSink(path: string, spec: RasterSpec, options: PngSi
   let fileError: unknown;
   let pending: Buffer[] = [];
   let pendingBytes = 0;
-  let deflate: Deflate | undefined;
   let prev = new Uint8Array(stride);
   let cur = new Uint8Array(stride);
   const rowsPerFeed = Math.max(1, Math.floor(FEED_BYTES / (stride + 1)));
@@ -100,7 +101,6 @@ export async function openPngSink(path: string, spec: RasterSpec, options: PngSi
   const fail = async (err: unknown): Promise<never> => {
     if (state !== 'failed') {
       state = 'failed';
-      deflate?.destroy();
       await fileChain;
       await fh.close().catch(() => undefined);
       await rm(tmp, { force: true });
@@ -123,34 +123,37 @@ export async function openPngSink(path: string, spec: RasterSpec, options: PngSi
   const chosen = pngCompression(depth);
   const filter = options.filter ?? chosen.filter;
   const strategy = options.strategy ?? chosen.strategy;
-  deflate = createDeflate({ level: options.compressionLevel ?? chosen.level, strategy });
-  deflate.on('data', (chunk: Buffer) => {
-    pending.push(chunk);
-    pendingBytes += chunk.length;
+  const level = options.compressionLevel ?? chosen.level;
+  // One zlib stream (RFC 1950) cut into bands of `rowsPerFeed` filtered rows. Each band is
+  // raw-deflated on its own (RFC 1951) on libuv's thread pool, so bands compress in parallel;
+  // every band but the last ends with a sync flush (an empty stored block, byte-aligned), the
+  // last with the final block, so the pieces concatenate into one valid deflate stream. A band
+  // never refers back into the one before it, which costs a little compression at each seam.
+  // We write the 2-byte header and the Adler-32 trailer ourselves (docs/methods.md F5).
+  pending.push(zlibHeader(level, strategy));
+  pendingBytes += 2;
+  let adler = 1;
+  const inflight: Promise<Buffer>[] = [];
+  const settleOldest = async (): Promise<void> => {
+    const piece = await inflight.shift()!;
+    pending.push(piece);
+    pendingBytes += piece.length;
     cutIdat(false);
-  });
-  let deflateError: unknown;
-  deflate.on('error', (err) => {
-    deflateError = err;
-  });
-  const d = deflate;
-
-  // Deflate runs on libuv's thread pool: keep up to two filtered chunks in
-  // flight so filtering the next chunk (main thread) overlaps compressing
-  // the last one, while memory stays bounded.
-  const inflight: Promise<void>[] = [];
-  const feed = async (buf: Uint8Array): Promise<void> => {
-    const done = new Promise<void>((resolve, reject) => {
-      d.write(buf, (err) => (err ? reject(err) : resolve()));
+  };
+  const compressBand = async (band: Uint8Array, last: boolean): Promise<void> => {
+    adler = adler32(band, adler);
+    const done = new Promise<Buffer>((resolve, reject) => {
+      deflateRaw(band, { level, strategy, finishFlush: last ? constants.Z_FINISH : constants.Z_SYNC_FLUSH }, (err, out) => (err ? reject(err) : resolve(out)));
     });
-    done.catch(() => undefined); // surfaced through the awaits below or deflateError
+    done.catch(() => undefined); // surfaced by settleOldest
     inflight.push(done);
-    while (inflight.length > 2) await inflight.shift();
-    if (deflateError !== undefined) throw deflateError;
+    while (inflight.length >= BANDS_IN_FLIGHT) await settleOldest();
   };
   const drainInflight = async (): Promise<void> => {
-    while (inflight.length > 0) await inflight.shift();
+    while (inflight.length > 0) await settleOldest();
   };
+  let band = new Uint8Array(Math.min(rowsPerFeed, height) * (stride + 1));
+  let bandRows = 0;
 
   return {
     async writeRows(pixels, rowCount) {
@@ -158,19 +161,21 @@ export async function openPngSink(path: string, spec: RasterSpec, options: PngSi
       try {
         assertBand(spec, rowsWritten, pixels, rowCount);
         const samplesPerRow = width * channels;
-        for (let r0 = 0; r0 < rowCount; r0 += rowsPerFeed) {
-          const rows = Math.min(rowsPerFeed, rowCount - r0);
-          const out = new Uint8Array(rows * (stride + 1));
-          for (let r = 0; r < rows; r++) {
-            const s = (r0 + r) * samplesPerRow;
-            if (depth === 8) cur.set(pixels.subarray(s, s + samplesPerRow));
-            else bigEndian16(cur, pixels as Uint16Array, s, samplesPerRow);
-            filterScanline(out, r * (stride + 1), cur, prev, bpp, filter);
-            const t = prev;
-            prev = cur;
-            cur = t;
+        for (let r = 0; r < rowCount; r++) {
+          const s = r * samplesPerRow;
+          if (depth === 8) cur.set(pixels.subarray(s, s + samplesPerRow));
+          else bigEndian16(cur, pixels as Uint16Array, s, samplesPerRow);
+          filterScanline(band, bandRows * (stride + 1), cur, prev, bpp, filter);
+          const t = prev;
+          prev = cur;
+          cur = t;
+          bandRows++;
+          const row = rowsWritten + r + 1;
+          if (bandRows === rowsPerFeed || row === height) {
+            await compressBand(band, row === height);
+            band = new Uint8Array(Math.min(rowsPerFeed, height - row) * (stride + 1));
+            bandRows = 0;
           }
-          await feed(out);
           if (fileError !== undefined) throw fileError;
         }
         rowsWritten += rowCount;
@@ -184,10 +189,10 @@ export async function openPngSink(path: string, spec: RasterSpec, options: PngSi
       try {
         if (rowsWritten !== height) throw new Error(`PNG sink for ${path} got ${rowsWritten} of ${height} rows`);
         await drainInflight();
-        const ended = once(d, 'end');
-        d.end();
-        await ended;
-        if (deflateError !== undefined) throw deflateError;
+        const trailer = Buffer.alloc(4);
+        trailer.writeUInt32BE(adler >>> 0);
+        pending.push(trailer);
+        pendingBytes += 4;
         cutIdat(true);
         queueWrite(pngChunk('IEND', new Uint8Array(0)));
         await settle();
@@ -205,6 +210,20 @@ export async function openPngSink(path: string, spec: RasterSpec, options: PngSi
       await fail(undefined).catch(() => undefined);
     },
   };
+}
+
+/**
+ * The zlib stream header (RFC 1950, 2.2) for deflate with a 32 KiB window, no
+ * preset dictionary, FLEVEL as zlib's deflate writes it (0 for levels below 2
+ * and for the Huffman-only and run-length strategies), FCHECK making the
+ * 16-bit header a multiple of 31.
+ */
+function zlibHeader(level: number, strategy: number): Buffer {
+  const flevel = strategy === constants.Z_HUFFMAN_ONLY || strategy === constants.Z_RLE || level < 2 ? 0 : level < 6 ? 1 : level === 6 || level === -1 ? 2 : 3;
+  const cmf = 0x78;
+  let flg = flevel << 6;
+  flg += 31 - ((cmf * 256 + flg) % 31);
+  return Buffer.from([cmf, flg]);
 }
 
 /** Writes `count` native 16-bit samples from `src` at `start` into `dst` as big-endian bytes (PNG spec 7.1). */

@@ -161,6 +161,20 @@ describe('openPngSink', () => {
     expect(Math.max(...idat.map((c) => c.length))).toBeLessThanOrEqual(256 * 1024);
   });
 
+  it('writes one zlib stream from several independently deflated bands that zlib and pngjs accept', async () => {
+    // 1 MiB bands: 700 rows of 1201 filtered bytes make one full band and a partial one.
+    // inflateSync (zlib itself) checks the stream's header and Adler-32 trailer.
+    const w = 400;
+    const h = 1700;
+    const px = testPixels(w, h, 3, 8);
+    const bytes = await writePng(path.join(dir, 'p.png'), spec(w, h, 8, 3), px, 37);
+    const raw = inflateSync(Buffer.concat(chunksOf(bytes, 'IDAT')));
+    expect(raw.length).toBe(h * (w * 3 + 1));
+    expect(decodeWithPngjs(bytes, 8, 3).samples).toEqual(Array.from(px));
+    const again = await writePng(path.join(dir, 'q.png'), spec(w, h, 8, 3), px, h);
+    expect(again.equals(bytes)).toBe(true);
+  });
+
   it('leaves no file behind after abort', async () => {
     const sink = await openPngSink(path.join(dir, 'p.png'), spec(10, 10, 8, 3));
     await sink.writeRows(testPixels(10, 5, 3, 8), 5);
