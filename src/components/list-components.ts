@@ -68,10 +68,27 @@ export async function jobRows(job: ListJob): Promise<ComponentInfo[] | string[][
   return job.cells === true ? rows.map(listingRow) : rows;
 }
 
+/** Places after the point at which a component's nucleus and root are known to a millionth of its size. */
+const SIZE_PLACES = 6;
+
+/**
+ * Digits after the point for one row: the listing's D, or more for a
+ * component smaller than 10^(SIZE_PLACES - D), so that its nucleus and root
+ * are printed to a millionth of its size (docs/census.md "Digits"): from
+ * period 18 the components near -2 are smaller than 10^-20, and at D = 20
+ * their nucleus and root would print as the same number.
+ */
+export function rowDigits(digits: number, size: number): number {
+  if (!(size > 0 && Number.isFinite(size))) return digits;
+  return Math.max(digits, Math.ceil(-Math.log10(size)) + SIZE_PLACES);
+}
+
 /** The rows of one block, in order (the worker's work; also run in-thread for small listings). */
-export async function componentRows(job: ListJob): Promise<ComponentInfo[]> {
+export async function componentRows(block: ListJob): Promise<ComponentInfo[]> {
   const rows: ComponentInfo[] = [];
-  for (const c of job.items) {
+  for (const c of block.items) {
+    const digits = rowDigits(block.digits, c.size);
+    const job = digits === block.digits ? block : { ...block, digits };
     const fast = job.bigint === true ? null : fastNucleus(job.period, [...c.dd], c.size, c.real, job.digits);
     // primitive or satellite, and where a satellite hangs, is read from the angles (census-statistics.ts); the numerics must agree
     const expected = c.angles.length === 2 ? satelliteAttachment(job.period, c.angles[0]!, c.angles[1]!) : null;

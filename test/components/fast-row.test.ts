@@ -202,6 +202,62 @@ describe('listing rows in double-double', () => {
     }
   }, 120_000);
 
+  it('print components smaller than 1e-14 to a millionth of their size, nucleus and root confirmed by mpmath (period 18 near -2)', async () => {
+    // at 20 digits the nucleus and root of the period-18 components near -2 (size about 1e-20,
+    // 2^(6 - 4p) as docs/census.md says) printed as one number; mpmath (python3-mpmath, 60 digits)
+    // runs Newton on F^p(0, c) from the printed nucleus and on (F^p(w,c) - w, D_z F^p(w,c) - 1)
+    // from the printed root: each must move less than a millionth of the size
+    if (!requireInCi(haveMpmath, 'python3-mpmath')) return;
+    const p = 18;
+    const comps = [...(await census(p)).components].sort((a, b) => a.reHi - b.reHi).slice(0, 3);
+    const rows = await componentRows({ period: p, digits: 20, items: comps.map(listItem) });
+    for (const r of rows) {
+      expect(r.size).toBeLessThan(1e-14);
+      expect(r.root.re, 'root printed apart from the nucleus').not.toBe(r.nucleus.re);
+      const places = r.nucleus.re.split('.')[1]!.length;
+      expect(10 ** -places).toBeLessThanOrEqual(1e-6 * r.size);
+    }
+    const program = [
+      'from mpmath import mp, mpc, mpf, matrix, lu_solve',
+      'mp.dps = 60',
+      'import json',
+      `rows = json.loads('${JSON.stringify(rows.map((r) => ({ n: [r.nucleus.re, r.nucleus.im], r: [r.root.re, r.root.im], s: r.size })))}')`,
+      `p = ${p}`,
+      'for row in rows:',
+      '    c0 = mpc(mpf(row["n"][0]), mpf(row["n"][1])); c = c0',
+      '    for it in range(30):',
+      '        z = mpc(0); d = mpc(0)',
+      '        for k in range(p):',
+      '            d = 2 * z * d + 1; z = z * z + c',
+      '        c -= z / d',
+      '    z = c; lam = mpc(1)',
+      '    for k in range(1, p):',
+      '        lam = 2 * z * lam; z = z * z + c',
+      '    nucleus_moved = abs(c - c0)',
+      '    w = 1 / (2 * lam); r0 = mpc(mpf(row["r"][0]), mpf(row["r"][1])); b = r0',
+      '    for it in range(60):',
+      '        z = w; dz = mpc(1); dc = mpc(0); dzz = mpc(0); dcz = mpc(0)',
+      '        for k in range(p):',
+      '            dcz = 2 * (z * dcz + dc * dz); dzz = 2 * (z * dzz + dz * dz); dc = 2 * z * dc + 1; dz = 2 * z * dz; z = z * z + b',
+      '        J = matrix([[dz - 1, dc], [dzz, dcz]]); F = matrix([z - w, dz - 1])',
+      '        dd = lu_solve(J, F); w -= dd[0]; b -= dd[1]',
+      '        if abs(dd[1]) < mpf(10) ** -55: break',
+      '    print(json.dumps([float(nucleus_moved / row["s"]), float(abs(b - r0) / row["s"]), float(abs(b - c) / row["s"])]))',
+    ].join('\n');
+    const out = runMpmath(program)
+      .trim()
+      .split('\n')
+      .map((l) => JSON.parse(l) as [number, number, number]);
+    expect(out.length).toBe(3);
+    for (const [nucleusMoved, rootMoved, apart] of out) {
+      expect(nucleusMoved, 'mpmath nucleus minus printed, in sizes').toBeLessThan(1e-6);
+      expect(rootMoved, 'mpmath root minus printed, in sizes').toBeLessThan(1e-6);
+      // the root of a primitive component lies about s/4 from its nucleus (docs/methods.md C7)
+      expect(apart).toBeGreaterThan(0.1);
+      expect(apart).toBeLessThan(1);
+    }
+  }, 120_000);
+
   it('refuses to print digits a rounding boundary lies within the error bound of', () => {
     // 0.125 + 2^-60 lies 2^-60 above the half-unit boundary 0.125 of 2 digits (exact binary fractions)
     expect(formatDD(0.125, 2 ** -60, 2 ** -70, 2)).toBe('0.13');
