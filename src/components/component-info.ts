@@ -34,6 +34,15 @@ export const ANGLE_CENSUS_LIMIT = 12;
 
 /** Reduced angle n/(2^p - 1). */
 export function mersenneAngle(n: number, period: number): Angle {
+  if (period <= 52) {
+    // n and 2^p - 1 are exact doubles: Euclid in doubles, the same fraction
+    const d = 2 ** period - 1;
+    if (n === 0) return { num: 0n, den: 1n };
+    let a = n;
+    let b = d;
+    while (b !== 0) [a, b] = [b, a % b];
+    return { num: BigInt(n / a), den: BigInt(d / a) };
+  }
   let num = BigInt(n);
   let den = (1n << BigInt(period)) - 1n;
   if (num === 0n) return { num: 0n, den: 1n };

@@ -79,23 +79,30 @@ export const LISTING_HEADER = [
   'address',
 ] as const;
 
-/** One row's cells as the CSV prints them, in LISTING_HEADER's order. */
+/** The orientation in degrees as componentJson gives it (6 places, trailing zeros dropped, -0 as 0), as text. */
+function orientationText(radians: number): string {
+  const t = ((radians * 180) / Math.PI).toFixed(6);
+  if (t.indexOf('.') < 0) return t;
+  const trimmed = t.replace(/\.?0+$/, '');
+  return trimmed === '-0' ? '0' : trimmed;
+}
+
+/** One row's cells as the CSV prints them, in LISTING_HEADER's order (componentJson's values, without building it). */
 export function listingRow(r: ComponentInfo): string[] {
-  const j = componentJson(r);
-  const angles = (j['externalAngles'] as string[] | null) ?? [];
+  const angles = r.angles;
   return [
     String(r.period),
     r.nucleus.re,
     r.nucleus.im,
     r.root.re,
     r.root.im,
-    String(j['size']),
-    String(j['orientationDegrees']),
+    String(sizeJson(r)),
+    orientationText(r.orientation),
     r.shape,
     r.parent === null ? '' : String(r.parent.period),
     r.parent === null ? '' : `${r.parent.num}/${r.parent.den}`,
-    angles[0] ?? '',
-    angles[1] ?? '',
-    String(j['internalAddress'] ?? ''),
+    angles === null || angles[0] === undefined ? '' : angleText(angles[0]),
+    angles === null || angles[1] === undefined ? '' : angleText(angles[1]),
+    r.address === null ? '' : addressText(r.address),
   ];
 }
