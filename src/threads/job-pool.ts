@@ -12,39 +12,45 @@ export class JobPool<Job, Reply> {
     this.workers = Array.from({ length: Math.max(1, size) }, () => new Worker(script));
   }
 
-  /** Runs jobs 0 .. count - 1, each reply passed to onReply with its index; one map at a time. */
-  async map(count: number, makeJob: (index: number) => { message: Job; transfer?: ArrayBuffer[] }, onReply: (index: number, reply: Reply) => void): Promise<void> {
+  /**
+   * Runs jobs 0 .. count - 1, each reply passed to onReply with its index; one
+   * map at a time. Each worker holds up to `inFlight` jobs (it answers them in
+   * the order it got them), so it does not wait for this thread between jobs.
+   */
+  async map(count: number, makeJob: (index: number) => { message: Job; transfer?: ArrayBuffer[] }, onReply: (index: number, reply: Reply) => void, inFlight = 2): Promise<void> {
     let next = 0;
     const used = this.workers.slice(0, Math.max(1, Math.min(this.workers.length, count)));
     await Promise.all(
       used.map(
         (w) =>
           new Promise<void>((resolve, reject) => {
-            let current = -1;
+            const held: number[] = [];
             const detach = (): void => {
               w.off('message', onMessage);
               w.off('error', onError);
               w.off('exit', onExit);
             };
-            const send = (): void => {
-              if (next >= count) {
+            const fill = (): void => {
+              while (held.length < inFlight && next < count) {
+                const index = next++;
+                held.push(index);
+                const { message, transfer } = makeJob(index);
+                w.postMessage(message, transfer ?? []);
+              }
+              if (held.length === 0) {
                 detach();
                 resolve();
-                return;
               }
-              current = next++;
-              const { message, transfer } = makeJob(current);
-              w.postMessage(message, transfer ?? []);
             };
             const onMessage = (reply: Reply): void => {
               try {
-                onReply(current, reply);
+                onReply(held.shift()!, reply);
               } catch (err) {
                 detach();
                 reject(err as Error);
                 return;
               }
-              send();
+              fill();
             };
             const onError = (err: Error): void => {
               detach();
@@ -57,7 +63,7 @@ export class JobPool<Job, Reply> {
             w.on('message', onMessage);
             w.on('error', onError);
             w.on('exit', onExit);
-            send();
+            fill();
           }),
       ),
     );
