@@ -105,11 +105,13 @@ export function lavaursStream(period: number, options: { readonly lowerHalf?: bo
   const lo = new Uint32Array(pairs);
   const hi = new Uint32Array(pairs);
   let opened = 0;
-  // stacks[d]: per gap, -1 when empty, else the waiting angle (its numerator, or for period p the pair index).
-  const stacks: number[][] = [];
+  // stacks[d]: per gap, -1 when empty, else the waiting angle (its numerator, or for period p the
+  // pair index), in an Int32Array grown by doubling; tops[d] is the top gap's place.
+  const stacks: Int32Array[] = [];
+  const tops = new Int32Array(period + 1);
   const heap: Enumerator[] = [];
   for (let d = 2; d <= period; d++) {
-    stacks[d] = [-1];
+    stacks[d] = new Int32Array(64).fill(-1);
     const den = 2 ** d - 1;
     const e: Enumerator = { d, den, steps: properDivisors(d).map((k) => den / (2 ** k - 1)), n: 0 };
     advance(e);
@@ -135,7 +137,7 @@ export function lavaursStream(period: number, options: { readonly lowerHalf?: bo
     if (lowerHalf && 2 * e.n > e.den) break; // angle 1/2 reached (no angle of odd denominator is 1/2)
     const d = e.d;
     const stack = stacks[d]!;
-    const top = stack.length - 1;
+    const top = tops[d]!;
     const waiting = stack[top]!;
     let opens: boolean;
     if (waiting < 0) {
@@ -151,8 +153,17 @@ export function lavaursStream(period: number, options: { readonly lowerHalf?: bo
     }
     // The chord's endpoint cuts a gap for every higher period.
     for (let h = d + 1; h <= period; h++) {
-      if (opens) stacks[h]!.push(-1);
-      else stacks[h]!.pop();
+      if (opens) {
+        const t = tops[h]! + 1;
+        let s = stacks[h]!;
+        if (t === s.length) {
+          s = new Int32Array(2 * t);
+          s.set(stacks[h]!);
+          stacks[h] = s;
+        }
+        s[t] = -1;
+        tops[h] = t;
+      } else tops[h] = tops[h]! - 1;
     }
     advance(e);
     if (e.n >= e.den) {
@@ -165,7 +176,7 @@ export function lavaursStream(period: number, options: { readonly lowerHalf?: bo
     // the pairs open at 1/2 are the symmetric ones (file comment)
     const den = 2 ** period - 1;
     let closed = 0;
-    for (const w of stacks[period]!) {
+    for (const w of stacks[period]!.subarray(0, tops[period]! + 1)) {
       if (w < 0) continue;
       hi[w] = den - lo[w]!;
       closed += 1;
