@@ -53,9 +53,13 @@ export function listingEstimate(period: number, digits: number, streamed: boolea
   return { components, memory, file: components * (4 * (digits + 4) + 110) };
 }
 
-/** The census in slices holds the pairs and their slice lists (about 28 bytes per component) and one slice at a time. */
-const SLICED_BYTES = 28;
-const SLICED_BASE = 400 * 2 ** 20;
+/**
+ * The census in slices holds the traced pairs (8 bytes each, about half as many as components) and
+ * one slice at a time: measured 4.5 bytes per component (peak RSS once the slices are planned, periods
+ * 26 to 27) and about 460 MB for a slice and two workers (periods 22, 23; docs/census.md).
+ */
+const SLICED_BYTES = 5;
+const SLICED_BASE = 500 * 2 ** 20;
 
 export const COMPONENTS_OPTIONS: readonly OptionSpec[] = [
   { flags: '--period <period>', description: 'exact period, an integer from 1 (required unless --misiurewicz, no default)' },

@@ -72,49 +72,74 @@ export async function censusSlices(period: number, options: SlicedCensusOptions)
   const t0 = performance.now();
   const den = 2 ** period - 1;
   const half = (den + 1) / 2;
-  const pairs = lavaursStream(period);
+  // only the pairs the census traces (lo + hi <= den, i.e. lo < half), as 32-bit numerators: 8 bytes a pair
+  const pairs = lavaursStream(period, { lowerHalf: true });
+  const { lo, hi } = pairs;
+  const n = lo.length;
+  let symmetric = 0;
+  for (let i = 0; i < n; i += 1) if (lo[i]! + hi[i]! === den) symmetric += 1;
+  // every pair stands for its own component and, unless symmetric (real), its mirror image
+  const components = 2 * n - symmetric;
   const tPairs = performance.now();
-  const k = Math.max(1, Math.ceil(pairs.lo.length / (options.sliceComponents ?? SLICE_COMPONENTS)));
+  const k = Math.max(1, Math.ceil(components / (options.sliceComponents ?? SLICE_COMPONENTS)));
   const bounds = Float64Array.from({ length: k + 1 }, (_, j) => Math.floor((j * half) / k));
-  const sliceOf = (n: number): number => {
-    let lo = 0;
-    let hi = k - 1;
-    while (lo < hi) {
-      const mid = (lo + hi + 1) >> 1;
-      if (bounds[mid]! <= n) lo = mid;
-      else hi = mid - 1;
+  const sliceOf = (a: number): number => {
+    let l = 0;
+    let h = k - 1;
+    while (l < h) {
+      const mid = (l + h + 1) >> 1;
+      if (bounds[mid]! <= a) l = mid;
+      else h = mid - 1;
     }
-    return lo;
+    return l;
   };
-  const sliceOfLower = (n: number): number => (n < half ? sliceOf(n) : sliceOf(den - 1 - n));
-  // Each traced pair (lo + hi <= den) goes to the slice of its own component and to that of its mirror image.
-  const own = new Int32Array(pairs.lo.length).fill(-1);
-  const mirror = new Int32Array(pairs.lo.length).fill(-1);
-  const sizes = new Int32Array(k);
-  for (let i = 0; i < pairs.lo.length; i += 1) {
-    const a = pairs.lo[i]!;
-    const b = pairs.hi[i]!;
-    if (a + b > den) continue;
-    own[i] = sliceOf(a);
-    sizes[own[i]!] += 1;
-    if (a + b < den) {
-      const m = sliceOfLower(den - b);
-      if (m !== own[i]) {
-        mirror[i] = m;
-        sizes[m] += 1;
-      }
+  const sliceOfLower = (a: number): number => (a < half ? sliceOf(a) : sliceOf(den - 1 - a));
+  // Each pair goes to the slice of its own component (lower angle lo) and to that of its mirror
+  // image (lower angle den - hi). The pairs ascend in lo, so slice j's own pairs are the index
+  // range [first[j], first[j + 1]); only the few whose mirror falls in another slice (an arc across
+  // a slice boundary) are listed, by slice, in `crossing`. The slice numbers are recomputed in the
+  // fill pass rather than stored (4 bytes a pair each).
+  const first = new Int32Array(k + 1);
+  for (let j = 0; j <= k; j += 1) {
+    let l = 0;
+    let h = n;
+    while (l < h) {
+      const mid = (l + h) >> 1;
+      if (lo[mid]! < bounds[j]!) l = mid + 1;
+      else h = mid;
     }
+    first[j] = l;
   }
-  const start = new Int32Array(k + 1);
-  for (let j = 0; j < k; j += 1) start[j + 1] = start[j]! + sizes[j]!;
-  const lists = new Int32Array(start[k]!);
-  const fill = start.slice(0, k);
-  for (let i = 0; i < pairs.lo.length; i += 1) {
-    if (own[i]! >= 0) lists[fill[own[i]!]!++] = i;
-    if (mirror[i]! >= 0) lists[fill[mirror[i]!]!++] = i;
+  if (first[k] !== n) throw new Error(`censusSlices(${period}): a pair with lower angle at or above one half`);
+  const mirrorSlice = (i: number): number => {
+    const a = lo[i]!;
+    const b = hi[i]!;
+    if (a + b === den) return -1;
+    const m = sliceOfLower(den - b);
+    return m === sliceOf(a) ? -1 : m;
+  };
+  const crossStart = new Int32Array(k + 1);
+  for (let i = 0; i < n; i += 1) {
+    const m = mirrorSlice(i);
+    if (m >= 0) crossStart[m + 1] += 1;
   }
-  const totalRays = lists.length;
-  options.onPlan?.(pairs.lo.length, k, totalRays);
+  for (let j = 0; j < k; j += 1) crossStart[j + 1] = crossStart[j]! + crossStart[j + 1]!;
+  const crossing = new Int32Array(crossStart[k]!);
+  const fill = crossStart.slice(0, k);
+  for (let i = 0; i < n; i += 1) {
+    const m = mirrorSlice(i);
+    if (m >= 0) crossing[fill[m]!++] = i;
+  }
+  /** Slice j's pairs, ascending: those crossing into it (their lower angles lie in earlier slices), then its own range. */
+  const slicePairs = (j: number): Int32Array => {
+    const cross = crossing.subarray(crossStart[j]!, crossStart[j + 1]!);
+    const list = new Int32Array(cross.length + first[j + 1]! - first[j]!);
+    list.set(cross);
+    for (let i = first[j]!, o = cross.length; i < first[j + 1]!; i += 1, o += 1) list[o] = i;
+    return list;
+  };
+  const totalRays = n + crossing.length;
+  options.onPlan?.(components, k, totalRays);
 
   const dir = mkdtempSync(path.join(options.tempDir ?? os.tmpdir(), 'quadatlas-census-'));
   const stats = new CensusStatisticsAccumulator(period);
@@ -130,7 +155,7 @@ export async function censusSlices(period: number, options: SlicedCensusOptions)
   let pending: Promise<void> = Promise.resolve();
   try {
     for (let j = 0; j < k; j += 1) {
-      const slice = lists.subarray(start[j]!, start[j + 1]!);
+      const slice = slicePairs(j);
       const r = await census(period, {
         pairs,
         slice: { pairs: slice, keep: (n) => sliceOfLower(n) === j },

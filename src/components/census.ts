@@ -22,7 +22,7 @@
  */
 import { mapOnWorkers } from '../threads/map-on-workers.js';
 import { landRays, RAY_RECORD } from './land-rays.js';
-import { lavaursStream } from './lavaurs-stream.js';
+import { lavaursStream, type LavaursPairs } from './lavaurs-stream.js';
 import type { LavaursSweep } from './lavaurs-sweep.js';
 import { periodicNumerators, properDivisors } from './periodic-angles.js';
 import { builtWorkerUrl } from '../threads/built-worker.js';
@@ -70,8 +70,8 @@ export interface CensusOptions {
    * their mirror images are landed; the statistics are the slice's.
    */
   readonly angleRange?: { readonly from: number; readonly to: number };
-  /** The period's Lavaurs pairs, when the caller already has them (census-slices.ts: one pairing for every slice). */
-  readonly pairs?: LavaursSweep;
+  /** The period's Lavaurs pairs, when the caller already has them (census-slices.ts: one pairing for every slice); all of them or only those with lo + hi <= 2^p - 1. */
+  readonly pairs?: LavaursSweep | LavaursPairs;
   /**
    * Only these pairs (indices into `pairs`, each with lo + hi <= 2^p - 1) are
    * landed, and only the components whose lower angle `keep` accepts are
@@ -107,7 +107,8 @@ export async function census(period: number, options: CensusOptions = {}): Promi
     };
   }
   const den = 2 ** period - 1;
-  const pairs = options.pairs ?? lavaursStream(period);
+  // only the pairs with lo + hi <= den are traced: the stream's lower half holds just those
+  const pairs = options.pairs ?? lavaursStream(period, { lowerHalf: true });
   // One pair of each mirror couple: lo + hi < den (upper half plane) or = den (real).
   let keep: ArrayLike<number>;
   if (options.slice !== undefined) keep = options.slice.pairs;

@@ -45,7 +45,7 @@ describe('streamed listings', () => {
   }, 120_000);
 
   it('refuses a listing beyond memory, with the estimate, in one line', () => {
-    // the text table holds every row (the census in slices, with --csv or --out, needs about 28 bytes per component)
+    // the text table holds every row (the census in slices, with --csv or --out, needs about 5 bytes per component)
     const r = runCli(['components', '--period', '30']);
     expect(r.status).toBe(2);
     expect(r.stderr.trim().split('\n')).toHaveLength(1);

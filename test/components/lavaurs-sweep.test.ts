@@ -124,3 +124,18 @@ describe('lavaursStream (bounded memory)', () => {
     }
   });
 });
+
+describe('lavaursStream lowerHalf (the pairs the census traces)', () => {
+  it("gives exactly the full stream's pairs with lo + hi <= 2^p - 1, (A000740 + A000048) / 2 of them (OEIS), for periods 2..16", async () => {
+    const { lavaursStream } = await import('../../src/components/lavaurs-stream.js');
+    for (let p = 2; p <= 16; p += 1) {
+      const den = 2 ** p - 1;
+      const full = lavaursStream(p);
+      const half = lavaursStream(p, { lowerHalf: true });
+      const keep = Array.from(full.lo.keys()).filter((i) => full.lo[i]! + full.hi[i]! <= den);
+      expect(Array.from(half.lo), `period ${p}`).toEqual(keep.map((i) => full.lo[i]));
+      expect(Array.from(half.hi), `period ${p}`).toEqual(keep.map((i) => full.hi[i]));
+      expect(half.lo.length, `period ${p}`).toBe((A000740[p - 1]! + A000048[p - 1]!) / 2);
+    }
+  });
+});
