@@ -69,7 +69,12 @@ export const COMPONENTS_OPTIONS: readonly OptionSpec[] = [
   },
   { flags: '--real', description: 'only components on the real axis (default: all)' },
   { flags: '--within <box>', description: 'only nuclei inside the box RE0,IM0,RE1,IM1 in c (default: the whole plane)' },
-  { flags: '--digits <digits>', description: 'digits after the decimal point for nuclei and roots (more for a component smaller than 10^(6-D): to a millionth of its size); sizes to D significant digits (at most 17)', default: '20' },
+  {
+    flags: '--digits <digits>',
+    description:
+      'digits after the decimal point for nuclei and roots (more for a component smaller than 10^(6-D): to a millionth of its size); sizes to D significant digits (at most 17)',
+    default: '20',
+  },
   { flags: '--count', description: 'print only the number of components, with the time taken on stderr (default: list them)' },
   { flags: '--workers <n>', description: 'worker threads for the census (default: all cores)' },
   { flags: '--certify', description: 'prove each nucleus (a disk holding exactly one, of exact period P) and the census complete (default: computed, not proved)' },
