@@ -45,6 +45,14 @@ function fixed(x: Decimal, digits: number): string {
   return x.isZero() ? '0' : x.toFixed(digits, Decimal.ROUND_HALF_EVEN);
 }
 
+/** The [a, b, c] JSON lines a Python program with mpmath prints. */
+function mpmathTriples(program: string): Array<[number, number, number]> {
+  return runMpmath(program)
+    .trim()
+    .split('\n')
+    .map((l) => JSON.parse(l) as [number, number, number]);
+}
+
 const lost: Array<{ period: number; row: ComponentInfo }> = [];
 
 describe('listing rows in double-double', () => {
@@ -103,10 +111,7 @@ describe('listing rows in double-double', () => {
       '        z = z * z + c; close = min(close, abs(z - w))',
       '    print(json.dumps([float(abs(c - mpc(mpf(row["r"][0]), mpf(row["r"][1])))), float(abs(c - c0) / row["s"]), float(close)]))',
     ].join('\n');
-    const out = runMpmath(program)
-      .trim()
-      .split('\n')
-      .map((l) => JSON.parse(l) as [number, number, number]);
+    const out = mpmathTriples(program);
     expect(out.length).toBe(lost.length);
     for (const [moved, sizes, close] of out) {
       expect(moved, 'mpmath root minus printed root').toBeLessThan(1e-19);
@@ -244,10 +249,7 @@ describe('listing rows in double-double', () => {
       '        if abs(dd[1]) < mpf(10) ** -55: break',
       '    print(json.dumps([float(nucleus_moved / row["s"]), float(abs(b - r0) / row["s"]), float(abs(b - c) / row["s"])]))',
     ].join('\n');
-    const out = runMpmath(program)
-      .trim()
-      .split('\n')
-      .map((l) => JSON.parse(l) as [number, number, number]);
+    const out = mpmathTriples(program);
     expect(out.length).toBe(3);
     for (const [nucleusMoved, rootMoved, apart] of out) {
       expect(nucleusMoved, 'mpmath nucleus minus printed, in sizes').toBeLessThan(1e-6);
